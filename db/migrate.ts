@@ -1,0 +1,26 @@
+import type { Knex } from "knex";
+import * as m1 from "../migrations/20261201000001_platform";
+import * as m2 from "../migrations/20261201000002_workspace";
+import * as m3 from "../migrations/20261201000003_reports";
+
+// Static index of the migrations so the bundled server can run them; keyed by file name
+// (with .ts) so the knex CLI and the app share one knex_migrations table.
+const MIGRATIONS: Record<string, Knex.Migration> = {
+  "20261201000001_platform.ts": m1,
+  "20261201000002_workspace.ts": m2,
+  "20261201000003_reports.ts": m3,
+};
+
+const source: Knex.MigrationSource<string> = {
+  getMigrations: async () => Object.keys(MIGRATIONS).sort(),
+  getMigrationName: (name) => name,
+  getMigration: async (name) => {
+    const m = MIGRATIONS[name];
+    if (!m) throw new Error(`unknown migration ${name}`);
+    return m;
+  },
+};
+
+export async function migrateLatest(db: Knex): Promise<void> {
+  await db.migrate.latest({ migrationSource: source });
+}

@@ -1,0 +1,125 @@
+import "server-only";
+import { z } from "zod";
+
+/** Error body of every API answer: `{ error: { code, message, fields? } }`. */
+export type ApiErrorBody = { error: { code: string; message: string; fields?: Record<string, string[]> } };
+
+export class ApiError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly fields?: Record<string, string[]>,
+  ) {
+    super(message);
+  }
+}
+
+export const unauthorized = () => new ApiError(401, "unauthorized", "Sign in first.");
+export const forbidden = (message = "Your role in this team does not allow this.") => new ApiError(403, "forbidden", message);
+export const notFound = (what = "Resource") => new ApiError(404, "not_found", `${what} not found.`);
+export const conflict = (message: string, fields?: Record<string, string[]>) => new ApiError(409, "conflict", message, fields);
+export const badRequest = (message: string, fields?: Record<string, string[]>) => new ApiError(400, "invalid_input", message, fields);
+
+export function errorResponse(e: ApiError): Response {
+  const body: ApiErrorBody = { error: { code: e.code, message: e.message, ...(e.fields ? { fields: e.fields } : {}) } };
+  return Response.json(body, { status: e.status });
+}
+
+/** zod issues → `{ "a.b": ["message"] }`, keyed by the dotted path ("" for the root). */
+export function zodFields(err: z.ZodError): Record<string, string[]> {
+  const out: Record<string, string[]> = {};
+  for (const issue of err.issues) {
+    const key = issue.path.map(String).join(".");
+    (out[key] ??= []).push(issue.message);
+  }
+  return out;
+}
+
+export function parseOrThrow<T extends z.ZodType>(schema: T, value: unknown, message = "Some fields are not valid."): z.infer<T> {
+  const r = schema.safeParse(value);
+  if (!r.success) throw badRequest(message, zodFields(r.error));
+  return r.data;
+}
+
+const STATE_CHANGING = new Set(["POST", "PUT", "PATCH", "DELETE"]);
+
+/**
+ * State-changing requests must come from our own origin. A request without an Origin header
+ * (a script with curl) is accepted: browsers always send Origin on cross-site POST/PUT/PATCH/DELETE.
+ */
+export function checkOrigin(req: Request): void {
+  if (!STATE_CHANGING.has(req.method)) return;
+  const origin = req.headers.get("origin");
+  if (!origin) return;
+  const host = req.headers.get("x-forwarded-host") ?? req.headers.get("host");
+  let originHost: string;
+  try {
+    originHost = new URL(origin).host;
+  } catch {
+    throw new ApiError(403, "bad_origin", "The request's Origin header is not valid.");
+  }
+  if (!host || originHost !== host) throw new ApiError(403, "bad_origin", "Cross-site requests are not accepted.");
+}
+
+export const DEFAULT_JSON_LIMIT = 256 * 1024;
+
+/** Read a JSON body: 415 on a wrong content type, 413 above `maxBytes`, 400 on bad JSON or a schema failure. */
+export async function readJson<T extends z.ZodType>(req: Request, schema: T, maxBytes = DEFAULT_JSON_LIMIT): Promise<z.infer<T>> {
+  const type = req.headers.get("content-type") ?? "";
+  if (!/^application\/json\b/i.test(type)) {
+    throw new ApiError(415, "unsupported_media_type", "Send the body as application/json.");
+  }
+  const declared = Number(req.headers.get("content-length") ?? "NaN");
+  if (Number.isFinite(declared) && declared > maxBytes) throw tooLarge(maxBytes);
+  const text = await readTextLimited(req, maxBytes);
+  let value: unknown;
+  try {
+    value = text === "" ? undefined : JSON.parse(text);
+  } catch {
+    throw badRequest("The body is not valid JSON.");
+  }
+  return parseOrThrow(schema, value);
+}
+
+export function tooLarge(maxBytes: number): ApiError {
+  return new ApiError(413, "payload_too_large", `The body is larger than the limit of ${Math.round(maxBytes / 1024)} KiB.`);
+}
+
+async function readTextLimited(req: Request, maxBytes: number): Promise<string> {
+  if (!req.body) return "";
+  const reader = req.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let size = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    size += value.byteLength;
+    if (size > maxBytes) {
+      await reader.cancel();
+      throw tooLarge(maxBytes);
+    }
+    chunks.push(value);
+  }
+  return new TextDecoder().decode(Buffer.concat(chunks));
+}
+
+type Ctx<P> = { params: Promise<P> };
+
+/**
+ * Wrap a route handler: origin check, then the handler; ApiError → its status and body,
+ * anything else → 500 with a generic message (the cause is logged, never returned).
+ */
+export function apiRoute<P = Record<string, string>>(fn: (req: Request, params: P) => Promise<Response>) {
+  return async (req: Request, ctx: Ctx<P>): Promise<Response> => {
+    try {
+      checkOrigin(req);
+      const params = ctx?.params ? await ctx.params : ({} as P);
+      return await fn(req, params);
+    } catch (e) {
+      if (e instanceof ApiError) return errorResponse(e);
+      console.error(`[api] ${req.method} ${new URL(req.url).pathname} failed`, e);
+      return errorResponse(new ApiError(500, "internal", "Something went wrong on our side. The error was logged."));
+    }
+  };
+}

@@ -1,0 +1,27 @@
+/**
+ * Physical constants and model coefficients of the scaling engine (SI units).
+ */
+
+/** Vacuum permittivity ε0 in F/m, CODATA 2022 recommended value. (CODATA 2018: 8.8541878128e-12; the difference is irrelevant here.) */
+export const EPSILON_0_F_PER_M = 8.8541878188e-12;
+
+/** ln 2: 50% point of a lumped RC step response, t50 = ln2·RC (exact). */
+export const LN2 = Math.LN2;
+
+/**
+ * 0.377: the RC coefficient of the 50% delay of a uniform distributed RC line in
+ * T. Sakurai, "Approximation of wiring delay in MOSFET LSI", IEEE JSSC SC-18(4), 1983 [memory].
+ * The exact open-ended step response gives 0.3787 (series solution, see tests/scaling/delay.test.ts).
+ */
+export const SAKURAI_DISTRIBUTED_COEFF = 0.377;
+
+/**
+ * Bakoglu–Meindl repeater coefficients. Bakoglu and Meindl ("Optimal interconnection circuits for VLSI",
+ * IEEE TED ED-32(5), 1985 [memory]) round them to a = 0.7 and b = 0.4; the engine uses the unrounded
+ * ln2 and 0.377 so that a single stage with k = 1 reproduces the Sakurai driver + line + load delay exactly.
+ */
+export const REPEATER_A = LN2;
+export const REPEATER_B = SAKURAI_DISTRIBUTED_COEFF;
+
+/** Version of the engine's models and result shapes; frozen into reports. */
+export const ENGINE_VERSION = "1.0.0";

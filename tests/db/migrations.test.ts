@@ -1,0 +1,48 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import type { Knex } from "knex";
+import { openDatabase } from "@/db/connect";
+import { migrateLatest } from "@/db/migrate";
+
+let dir: string;
+let db: Knex;
+
+beforeAll(async () => {
+  dir = fs.mkdtempSync(path.join(os.tmpdir(), "plateau-db-"));
+  db = openDatabase(path.join(dir, "t.sqlite"));
+  await migrateLatest(db);
+});
+afterAll(async () => {
+  await db.destroy();
+  fs.rmSync(dir, { recursive: true, force: true });
+});
+
+describe("migrations", () => {
+  it("creates every table the product needs", async () => {
+    const rows = await db.raw<{ name: string }[]>("select name from sqlite_master where type = 'table'");
+    const names = rows.map((r) => r.name);
+    for (const t of ["users", "sessions", "teams", "memberships", "invites", "audit_log", "outbox", "baselines", "wire_classes", "histogram_bins", "scenarios", "scenario_revisions", "reports", "share_links"]) {
+      expect(names).toContain(t);
+    }
+  });
+
+  it("turns foreign keys and WAL on", async () => {
+    const fk = await db.raw<{ foreign_keys: number }[]>("pragma foreign_keys");
+    expect(fk[0]?.foreign_keys).toBe(1);
+    const jm = await db.raw<{ journal_mode: string }[]>("pragma journal_mode");
+    expect(jm[0]?.journal_mode).toBe("wal");
+  });
+
+  it("is idempotent: a second run changes nothing", async () => {
+    await migrateLatest(db);
+    const [{ n }] = (await db("knex_migrations").count({ n: "*" })) as [{ n: number }];
+    expect(Number(n)).toBe(3);
+  });
+
+  it("shares one migrations table with the knex CLI (file names match)", () => {
+    const files = fs.readdirSync(path.resolve("migrations")).filter((f) => f.endsWith(".ts")).sort();
+    return db("knex_migrations").pluck("name").then((names: string[]) => expect(names.sort()).toEqual(files));
+  });
+});

@@ -1,0 +1,4 @@
+import { vi } from "vitest";
+
+// `server-only` throws outside a React Server Component bundle; tests import server modules directly.
+vi.mock("server-only", () => ({}));

@@ -1,0 +1,16 @@
+import { defineConfig } from "vitest/config";
+import tsconfigPaths from "vite-tsconfig-paths";
+
+// Browser tests: playwright-core driving Debian's chromium against a real `next start`.
+export default defineConfig({
+  plugins: [tsconfigPaths()],
+  test: {
+    environment: "node",
+    include: ["tests/e2e/**/*.test.ts"],
+    setupFiles: ["tests/setup.ts"],
+    globalSetup: ["tests/helpers/server-setup.ts"],
+    fileParallelism: false,
+    testTimeout: 120_000,
+    hookTimeout: 300_000,
+  },
+});
