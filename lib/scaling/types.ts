@@ -77,6 +77,8 @@ export interface ClassOverride {
   /** Aspect ratio T/W after scaling; replaces the scaled thickness. */
   aspectRatio?: number;
   miller?: number;
+  /** Barrier/liner thickness after scaling, absolute (m); replaces the scaled or kept barrier (0 = barrier-free fill). */
+  barrierM?: number;
 }
 
 /** A scenario's settings: what-if scale factors and wiring options. */
@@ -188,9 +190,15 @@ export interface ClassResult {
   delayS: number;
   elmoreS: number;
   repeaters: RepeaterResult;
-  /** C·V² per transition, line + load. */
+  /** Driver resistance used (× deviceRFactor; 0 at level ideal). */
+  driverOhm: number;
+  /** Load capacitance used (× deviceCFactor; 0 at level ideal). */
+  loadF: number;
+  /** C·V² per transition, line + load: the energy drawn from the supply by one rising transition. */
   energyJ: number;
-  /** Switching power of all nets of the class: activity · netCount · energy · f / 2... see implementation doc. */
+  /** energyJ summed over all nets of the class (histogram lengths when present). */
+  totalEnergyJ: number;
+  /** Switching power of all nets of the class: ½ · activity · clockHz · totalEnergyJ (activity = transitions per cycle). */
   powerW: number;
   distribution: DistributionResult;
   validity: ValidityFlag[];
@@ -241,4 +249,6 @@ export interface SweepCurve {
   metric: SweepMetric;
   variable: SweepVariable;
   points: SweepPoint[];
+  /** x values left out because the scaled geometry became impossible there (e.g. the barrier fills the line). */
+  skipped?: { x: number; reason: string }[];
 }

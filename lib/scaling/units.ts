@@ -29,7 +29,7 @@ const PREFIX_EXP: Record<string, number> = {
 const UNIT_ALIASES: Record<Exclude<BaseUnit, "">, string[]> = {
   m: ["m"],
   F: ["F"],
-  ohm: ["ohm", "Ohm", "OHM", "ohms", "Ω", "Ω"],
+  ohm: ["ohm", "Ohm", "OHM", "ohms", "\u03A9", "\u2126"],
   s: ["s"],
   J: ["J"],
   W: ["W"],

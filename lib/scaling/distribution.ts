@@ -1,0 +1,152 @@
+/**
+ * Wire-length distributions: per-class aggregation over a length histogram (delay per bin, share over a
+ * delay budget, repeaters, capacitance) and the Davis–De–Meindl stochastic distribution from Rent's rule.
+ */
+import { LN2, REPEATER_A, REPEATER_B, SAKURAI_DISTRIBUTED_COEFF } from "./constants";
+import { positive, inRange } from "./check";
+import type { DistributionResult, LengthBin } from "./types";
+
+/** Electrical parameters of a class after scaling, for aggregation (SI). */
+export interface DistributionInput {
+  /** Bins at baseline lengths; each length is divided by lengthDivisor (S_L, default 1). */
+  bins: readonly LengthBin[];
+  lengthDivisor?: number;
+  source: "histogram" | "mean";
+  rOhmPerM: number;
+  cFPerM: number;
+  driverOhm: number;
+  loadF: number;
+  r0Ohm: number;
+  c0F: number;
+  delayBudgetS: number;
+}
+
+/**
+ * Per-bin delay of driver + line + load (Sakurai form), or of a Bakoglu–Meindl repeated line where
+ * inserted repeaters (k ≥ 2 whole stages) make it faster (whole stages; inserted repeaters = stages − 1); totals weighted by net count.
+ * shareOverBudget counts nets with delay strictly above the budget.
+ */
+export function classDistribution(p: DistributionInput): DistributionResult {
+  const { rOhmPerM: r, cFPerM: c, driverOhm: rd, loadF: cl, r0Ohm: r0, c0F: c0, delayBudgetS } = p;
+  const a = REPEATER_A;
+  const b = REPEATER_B;
+  const rc0 = r0 * c0;
+  const hFixed = 2 * a * Math.sqrt(r0 * c0 * r * c); // a·R0·C/h* + a·R·h*·C0 = 2a·sqrt(R0·C0·r·c)·L
+  const out: DistributionResult["bins"] = new Array(p.bins.length);
+  const div = p.lengthDivisor ?? 1;
+  let total = 0;
+  let over = 0;
+  let reps = 0;
+  let sumDelay = 0;
+  let sumC = 0;
+  for (let i = 0; i < p.bins.length; i++) {
+    const bin = p.bins[i]!;
+    const L = bin.lengthM / div;
+    const R = r * L;
+    const C = c * L;
+    const rcT = R * C;
+    let delay = SAKURAI_DISTRIBUTED_COEFF * rcT + LN2 * (rd * C + rd * cl + R * cl);
+    let inserted = 0;
+    const kStar = Math.sqrt((b * rcT) / (a * rc0));
+    if (kStar > 1) {
+      let k = Math.floor(kStar);
+      if (a * (k + 1) * rc0 + (b * rcT) / (k + 1) < a * k * rc0 + (b * rcT) / k) k += 1;
+      const rep = hFixed * L + a * k * rc0 + (b * rcT) / k;
+      if (k >= 2 && rep < delay) {
+        delay = rep;
+        inserted = k - 1;
+      }
+    }
+    out[i] = { lengthM: L, count: bin.count, delayS: delay, repeaters: inserted };
+    total += bin.count;
+    if (delay > delayBudgetS) over += bin.count;
+    reps += inserted * bin.count;
+    sumDelay += delay * bin.count;
+    sumC += C * bin.count;
+  }
+  return {
+    bins: out,
+    totalNets: total,
+    shareOverBudget: total > 0 ? over / total : 0,
+    totalRepeaters: reps,
+    meanDelayS: total > 0 ? sumDelay / total : 0,
+    totalCapacitanceF: sumC,
+    source: p.source,
+  };
+}
+
+/**
+ * Davis–De–Meindl stochastic wire-length distribution from Rent's rule: number of wires per unit length l
+ * (l in gate pitches), α = fanout/(fanout + 1):
+ *   1 ≤ l < √N:    i(l) = (α·k/2)·Γ·(l³/3 − 2√N·l² + 2N·l)·l^(2p−4)
+ *   √N ≤ l < 2√N:  i(l) = (α·k/6)·Γ·(2√N − l)³·l^(2p−4)
+ *   Γ = 2N(1 − N^(p−1)) / [ −N^p·(1 + 2p − 2^(2p−1))/(p(2p−1)(p−1)(2p−3)) − 1/(6p) + 2√N/(2p−1) − N/(p−1) ]
+ * Returns `bins` log-spaced bins over [1, 2√N] gate pitches; each bin's count is the integral of i(l) over it
+ * (Gauss–Legendre, split at √N), its length the geometric centre times gatePitchM. Γ's removable singularity at
+ * p = 0.5 is handled by averaging p ± 1e-6.
+ * @see J. A. Davis, V. K. De, J. D. Meindl, IEEE TED 45(3), 1998 [memory for the exact Γ]
+ */
+export function rentWireLengths(p: { gates: number; rentK: number; rentP: number; fanout: number; gatePitchM: number; bins?: number }): LengthBin[] {
+  positive("gates", p.gates);
+  if (p.gates < 4) throw new RangeError(`gates must be >= 4 (got ${p.gates})`);
+  positive("rentK", p.rentK);
+  inRange("rentP", p.rentP, 0.05, 0.95);
+  positive("fanout", p.fanout);
+  positive("gatePitchM", p.gatePitchM);
+  const nBins = p.bins ?? 64;
+  if (!(Number.isInteger(nBins) && nBins >= 1)) throw new RangeError(`bins must be a whole number >= 1 (got ${nBins})`);
+  const N = p.gates;
+  const sq = Math.sqrt(N);
+  const alpha = p.fanout / (p.fanout + 1);
+  const pr = p.rentP;
+  const gamma = Math.abs(pr - 0.5) < 1e-6 ? (davisGamma(N, 0.5 - 1e-6) + davisGamma(N, 0.5 + 1e-6)) / 2 : davisGamma(N, pr);
+  const e = 2 * pr - 4;
+  const density = (l: number): number =>
+    l < sq
+      ? ((alpha * p.rentK) / 2) * gamma * (l ** 3 / 3 - 2 * sq * l * l + 2 * N * l) * l ** e
+      : ((alpha * p.rentK) / 6) * gamma * (2 * sq - l) ** 3 * l ** e;
+  const lMax = 2 * sq;
+  const logMax = Math.log(lMax);
+  const out: LengthBin[] = [];
+  for (let i = 0; i < nBins; i++) {
+    const lo = Math.exp((logMax * i) / nBins);
+    const hi = Math.exp((logMax * (i + 1)) / nBins);
+    let count = 0;
+    if (lo < sq && hi > sq) count = integrate(density, lo, sq) + integrate(density, sq, hi);
+    else count = integrate(density, lo, hi);
+    out.push({ lengthM: Math.sqrt(lo * hi) * p.gatePitchM, count });
+  }
+  return out;
+}
+
+/** Γ of Davis–De–Meindl (see rentWireLengths). */
+export function davisGamma(N: number, p: number): number {
+  const num = 2 * N * (1 - N ** (p - 1));
+  const den =
+    (-(N ** p) * (1 + 2 * p - 2 ** (2 * p - 1))) / (p * (2 * p - 1) * (p - 1) * (2 * p - 3)) -
+    1 / (6 * p) + (2 * Math.sqrt(N)) / (2 * p - 1) - N / (p - 1);
+  return num / den;
+}
+
+// 8-point Gauss–Legendre on sub-intervals (log-spaced for the l^(2p−4) factor).
+const GL_X = [-0.9602898564975363, -0.7966664774136267, -0.5255324099163290, -0.1834346424956498, 0.1834346424956498, 0.5255324099163290, 0.7966664774136267, 0.9602898564975363];
+const GL_W = [0.1012285362903763, 0.2223810344533745, 0.3137066458778873, 0.3626837833783620, 0.3626837833783620, 0.3137066458778873, 0.2223810344533745, 0.1012285362903763];
+
+function integrate(f: (x: number) => number, a: number, b: number): number {
+  const parts = 8;
+  const la = Math.log(a);
+  const lb = Math.log(b);
+  let sum = 0;
+  for (let j = 0; j < parts; j++) {
+    const u0 = la + ((lb - la) * j) / parts;
+    const u1 = la + ((lb - la) * (j + 1)) / parts;
+    const mid = (u0 + u1) / 2;
+    const half = (u1 - u0) / 2;
+    for (let q = 0; q < 8; q++) {
+      const u = mid + half * GL_X[q]!;
+      const x = Math.exp(u);
+      sum += GL_W[q]! * half * f(x) * x; // dl = l·du
+    }
+  }
+  return sum;
+}

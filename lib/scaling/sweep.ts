@@ -1,0 +1,91 @@
+/**
+ * Sweeps: a metric of each class against S, S_L or k, one curve per model level, so the plateau shows.
+ */
+import { positive } from "./check";
+import { classMetricCore } from "./evaluate";
+import type { ClassOverride, ModelLevel, ScenarioSettings, SweepCurve, SweepMetric, SweepVariable, Technology, WireClass } from "./types";
+import { MODEL_LEVELS } from "./types";
+import { checkSettings, checkTechnology, checkWireClass } from "./validity";
+
+/** n evenly spaced values from `from` to `to` inclusive (n = 1 gives [from]). */
+export function linspace(from: number, to: number, n: number): number[] {
+  checkCount(n);
+  if (n === 1) return [from];
+  const out = new Array<number>(n);
+  for (let i = 0; i < n; i++) out[i] = i === n - 1 ? to : from + ((to - from) * i) / (n - 1);
+  return out;
+}
+
+/** n logarithmically spaced values from `from` to `to` inclusive; both must be > 0. */
+export function logspace(from: number, to: number, n: number): number[] {
+  positive("from", from);
+  positive("to", to);
+  checkCount(n);
+  if (n === 1) return [from];
+  const a = Math.log(from);
+  const b = Math.log(to);
+  const out = new Array<number>(n);
+  for (let i = 0; i < n; i++) out[i] = i === 0 ? from : i === n - 1 ? to : Math.exp(a + ((b - a) * i) / (n - 1));
+  return out;
+}
+
+function checkCount(n: number): void {
+  if (!(Number.isInteger(n) && n >= 1 && n <= 100_000)) throw new RangeError(`points must be a whole number from 1 to 100000 (got ${n})`);
+}
+
+/**
+ * One curve per class and level: y = the metric of the class at its scaled mean length (delay: delayS, rc: rcS,
+ * r: rOhm, c: cF), x = the swept value. The swept value replaces the scenario's global value and any per-class
+ * override of the same variable. Levels other than the scenario's own use their default barrier (scales except at
+ * `full`). Points where the scaled geometry is impossible (e.g. a fixed barrier fills the line) are left out and
+ * listed in `skipped`.
+ */
+export function sweep(p: {
+  classes: WireClass[]; technology: Technology; settings: ScenarioSettings; variable: SweepVariable; metric: SweepMetric;
+  from: number; to: number; points: number; levels?: ModelLevel[]; spacing?: "linear" | "log"; classNames?: string[];
+}): SweepCurve[] {
+  checkTechnology(p.technology);
+  checkSettings(p.settings);
+  for (const wc of p.classes) checkWireClass(wc);
+  positive("from", p.from);
+  positive("to", p.to);
+  if (p.variable === "k" && !(p.from >= 1 && p.to >= 1)) throw new RangeError(`k sweep must stay >= 1 (got ${p.from} to ${p.to})`);
+  const xs = (p.spacing ?? "linear") === "log" ? logspace(p.from, p.to, p.points) : linspace(p.from, p.to, p.points);
+  const levels = p.levels ?? MODEL_LEVELS;
+  const classes = p.classNames ? p.classes.filter((c) => p.classNames!.includes(c.name)) : p.classes;
+  const key: keyof ClassOverride = p.variable;
+  const overrides: Record<string, ClassOverride> = {};
+  for (const [name, o] of Object.entries(p.settings.overrides)) {
+    const copy = { ...o };
+    delete copy[key];
+    overrides[name] = copy;
+  }
+  const curves: SweepCurve[] = [];
+  for (const level of levels) {
+    const base: ScenarioSettings = {
+      ...p.settings, level, overrides,
+      barrierScales: level === p.settings.level ? p.settings.barrierScales : level !== "full",
+    };
+    const perClass = classes.map((wc) => ({
+      className: wc.name, level, metric: p.metric, variable: p.variable,
+      points: [] as { x: number; y: number }[], skipped: [] as { x: number; reason: string }[],
+    }));
+    for (const x of xs) {
+      const st = base;
+      if (p.variable === "s") st.s = x;
+      else if (p.variable === "sL") st.sL = x;
+      else st.k = x;
+      for (let i = 0; i < classes.length; i++) {
+        const curve = perClass[i]!;
+        try {
+          curve.points.push({ x, y: classMetricCore(classes[i]!, p.technology, st, p.metric) });
+        } catch (e) {
+          if (!(e instanceof RangeError)) throw e;
+          curve.skipped.push({ x, reason: e.message });
+        }
+      }
+    }
+    for (const c of perClass) curves.push(c.skipped.length > 0 ? c : { className: c.className, level, metric: c.metric, variable: c.variable, points: c.points });
+  }
+  return curves;
+}

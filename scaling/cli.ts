@@ -1,0 +1,355 @@
+/**
+ * Command line of Plateau's scaling engine:
+ *   npm run scaling -- <command> [options]      or      npx tsx scaling/cli.ts <command> [options]
+ * Commands: capacitance, delay, evaluate, sweep, materials. `--json` prints only JSON on standard output.
+ * Values take SI-prefixed units ("20nm", "1.5fF", "2kohm") or bare SI numbers. Bad arguments exit with code 2
+ * and one line naming the argument and the expected unit. No network access.
+ */
+import { readFileSync } from "node:fs";
+import { pathToFileURL } from "node:url";
+import { parseArgs } from "node:util";
+import {
+  baselineSettings, defaultTechnology, evaluateScenario, formatEngineering, lineCapacitance, lineDelay, MODEL_LEVELS, parseQuantity, sweep,
+  type BaseUnit, type CapacitanceModel, type ClassResult, type ModelLevel, type ScenarioSettings, type SweepMetric, type SweepVariable, type Technology,
+} from "../lib/scaling/index";
+import { parseHistogramCsv, parseWireClassCsv } from "./csv";
+import { DIELECTRICS, METALS } from "./materials";
+
+export interface CliResult {
+  code: number;
+  stdout: string;
+  stderr: string;
+}
+
+class UsageError extends Error {}
+
+const HELP = `Plateau scaling engine — command line
+
+Usage: npm run scaling -- <command> [options]   (or: npx tsx scaling/cli.ts <command> [options])
+
+Commands:
+  capacitance  --width W --thickness T --height H [--height-above H2] [--spacing S] [--k 3.9] [--miller 1]
+               [--model ideal|fringe|coupled|field]          capacitance per length of one line
+  delay        --r-total R --c-total C [--driver RD] [--load CL]   50% step delay and Elmore delay
+  evaluate     --baseline classes.csv --s S [--sl 1] [--model ideal|fringe|coupled|full] [--histograms h.csv]
+               [--technology t.json] [--miller M] [--k K] [--metal Cu] [--barrier fixed|scales]
+               [--supply V] [--device-r F] [--device-c F]    a scenario against its baseline
+  sweep        --baseline classes.csv --s-from 1 --s-to 4 --points N [--metric delay|rc|r|c]
+               [--variable s|sL|k] [--levels ideal,fringe,coupled,full] [--class NAME] [--log]
+  materials    the materials catalogue with sources
+
+Values: SI-prefixed units (20nm, 0.02um, 1.5fF, 2kohm, 10ps) or bare SI numbers (2e-8).
+Options: --json (only JSON on standard output), --help.
+Without --model each command uses its most accurate closed form (capacitance: coupled with --spacing, else fringe;
+evaluate: full). Results are first-order planning estimates, not sign-off.`;
+
+function q(values: Record<string, unknown>, name: string, unit: BaseUnit, what: string): number | undefined {
+  const v = values[name];
+  if (v === undefined) return undefined;
+  if (typeof v !== "string") throw new UsageError(`--${name}: expected ${what}`);
+  try {
+    return parseQuantity(v, unit);
+  } catch {
+    throw new UsageError(`--${name}: expected ${what}, got "${v}"`);
+  }
+}
+
+function need(values: Record<string, unknown>, name: string, unit: BaseUnit, what: string): number {
+  const v = q(values, name, unit, what);
+  if (v === undefined) throw new UsageError(`--${name} is required: ${what}`);
+  return v;
+}
+
+const LEN = "a length in metres, e.g. 20nm or 2e-8";
+const CAP = "a capacitance in farads, e.g. 1.5fF or 1.5e-15";
+const RES = "a resistance in ohms, e.g. 2kohm or 2000";
+const NUMS = (what: string) => `${what} (a plain number)`;
+
+function positiveOrThrow(name: string, v: number | undefined, what: string, allowZero = false): void {
+  if (v === undefined) return;
+  if (!(allowZero ? v >= 0 : v > 0)) throw new UsageError(`--${name}: expected ${what} ${allowZero ? ">= 0" : "> 0"}, got ${v}`);
+}
+
+function parse(argv: string[], options: Record<string, { type: "string" | "boolean" }>): Record<string, string | boolean | undefined> {
+  try {
+    const { values, positionals } = parseArgs({ args: argv, options: { ...options, json: { type: "boolean" }, help: { type: "boolean" } }, strict: true, allowPositionals: true });
+    if (positionals.length > 0) throw new UsageError(`unexpected argument "${positionals[0]}"`);
+    return values as Record<string, string | boolean | undefined>;
+  } catch (e) {
+    if (e instanceof UsageError) throw e;
+    const msg = (e as Error).message.split("\n")[0] ?? "bad arguments";
+    throw new UsageError(msg.replace(/\. To specify.*$/, ""));
+  }
+}
+
+function readText(path: string, arg: string): string {
+  try {
+    return readFileSync(path, "utf8");
+  } catch {
+    throw new UsageError(`--${arg}: cannot read file "${path}"`);
+  }
+}
+
+const json = (x: unknown) => JSON.stringify(x, null, 2) + "\n";
+
+function capacitanceCmd(argv: string[]): CliResult {
+  const v = parse(argv, {
+    width: { type: "string" }, thickness: { type: "string" }, height: { type: "string" }, "height-above": { type: "string" },
+    spacing: { type: "string" }, k: { type: "string" }, miller: { type: "string" }, model: { type: "string" },
+  });
+  if (v.help) return ok(HELP);
+  const widthM = need(v, "width", "m", LEN);
+  const thicknessM = need(v, "thickness", "m", LEN);
+  const heightM = need(v, "height", "m", LEN);
+  const above = q(v, "height-above", "m", LEN);
+  const spacing = q(v, "spacing", "m", LEN);
+  const k = q(v, "k", "", NUMS("a relative permittivity >= 1")) ?? 3.9;
+  const miller = q(v, "miller", "", NUMS("a Miller factor from 0 to 2")) ?? 1;
+  for (const [n, x] of [["width", widthM], ["thickness", thicknessM], ["height", heightM], ["height-above", above], ["spacing", spacing]] as const) positiveOrThrow(n, x, "a length in metres");
+  if (!(k >= 1)) throw new UsageError(`--k: expected a relative permittivity >= 1, got ${k}`);
+  if (!(miller >= 0 && miller <= 2)) throw new UsageError(`--miller: expected a Miller factor from 0 to 2, got ${miller}`);
+  const model = (v.model as string | undefined) ?? (spacing !== undefined ? "coupled" : "fringe");
+  if (!["ideal", "fringe", "coupled", "field"].includes(model)) throw new UsageError(`--model: expected ideal, fringe, coupled or field, got "${model}"`);
+  const r = lineCapacitance({
+    widthM, thicknessM, spacingM: spacing ?? null, heightBelowM: heightM, heightAboveM: above ?? null, k, miller, model: model as CapacitanceModel,
+  });
+  const out = {
+    model: r.model,
+    groundFPerM: r.areaFPerM + r.fringeFPerM,
+    couplingFPerM: r.couplingPerNeighbourFPerM,
+    totalFPerM: r.totalFPerM,
+    areaFPerM: r.areaFPerM,
+    fringeFPerM: r.fringeFPerM,
+    millerCouplingFPerM: r.couplingFPerM,
+    miller,
+    validity: r.validity,
+    accuracy: r.accuracy,
+  };
+  if (v.json) return ok(json(out));
+  const f = (x: number) => `${formatEngineering(x * 1e-6, "F", 4)}/µm`;
+  return ok(
+    [
+      `model        ${out.model}`,
+      `ground       ${f(out.groundFPerM)}  (area ${f(out.areaFPerM)}, fringe ${f(out.fringeFPerM)})`,
+      `coupling     ${f(out.couplingFPerM)} to each neighbour; ×${miller} Miller, both sides: ${f(out.millerCouplingFPerM)}`,
+      `total        ${f(out.totalFPerM)}`,
+      ...out.validity.map((x) => `warning      ${x.model}: ${x.message}`),
+      `accuracy     ${out.accuracy}`,
+    ].join("\n") + "\n",
+  );
+}
+
+function delayCmd(argv: string[]): CliResult {
+  const v = parse(argv, { "r-total": { type: "string" }, "c-total": { type: "string" }, driver: { type: "string" }, load: { type: "string" } });
+  if (v.help) return ok(HELP);
+  const rOhm = need(v, "r-total", "ohm", RES);
+  const cF = need(v, "c-total", "F", CAP);
+  const driverOhm = q(v, "driver", "ohm", RES) ?? 0;
+  const loadF = q(v, "load", "F", CAP) ?? 0;
+  positiveOrThrow("r-total", rOhm, "a resistance in ohms", true);
+  positiveOrThrow("c-total", cF, "a capacitance in farads", true);
+  positiveOrThrow("driver", driverOhm, "a resistance in ohms", true);
+  positiveOrThrow("load", loadF, "a capacitance in farads", true);
+  const d = lineDelay({ rOhm, cF, driverOhm, loadF });
+  if (v.json) return ok(json(d));
+  return ok(
+    `t50 (Sakurai)     ${formatEngineering(d.t50S, "s")}\nElmore T_D        ${formatEngineering(d.elmoreS, "s")}\nline alone 0.377RC ${formatEngineering(d.intrinsicS, "s")}\n`,
+  );
+}
+
+function loadBaseline(v: Record<string, unknown>) {
+  const path = v.baseline;
+  if (typeof path !== "string") throw new UsageError("--baseline is required: a wire-class CSV file (see PRODUCT.md)");
+  const parsed = parseWireClassCsv(readText(path, "baseline"));
+  if (parsed.errors.length > 0) {
+    const e = parsed.errors[0]!;
+    throw new UsageError(`--baseline: ${path} line ${e.line}${e.column ? `, column ${e.column}` : ""}: ${e.message}${parsed.errors.length > 1 ? ` (and ${parsed.errors.length - 1} more errors)` : ""}`);
+  }
+  const classes = parsed.classes;
+  if (typeof v.histograms === "string") {
+    const h = parseHistogramCsv(readText(v.histograms, "histograms"));
+    if (h.errors.length > 0) {
+      const e = h.errors[0]!;
+      throw new UsageError(`--histograms: ${v.histograms} line ${e.line}${e.column ? `, column ${e.column}` : ""}: ${e.message}`);
+    }
+    for (const name of Object.keys(h.bins)) {
+      if (!classes.some((c) => c.name === name)) throw new UsageError(`--histograms: class "${name}" is not in the baseline`);
+    }
+    for (const c of classes) if (h.bins[c.name]) c.histogram = h.bins[c.name];
+  }
+  let technology: Technology = defaultTechnology();
+  if (typeof v.technology === "string") {
+    try {
+      technology = { ...technology, ...(JSON.parse(readText(v.technology, "technology")) as Partial<Technology>) };
+    } catch (e) {
+      if (e instanceof UsageError) throw e;
+      throw new UsageError(`--technology: ${v.technology} is not valid JSON`);
+    }
+  }
+  return { classes, technology };
+}
+
+const SCENARIO_OPTIONS = {
+  baseline: { type: "string" }, histograms: { type: "string" }, technology: { type: "string" }, s: { type: "string" }, sl: { type: "string" },
+  model: { type: "string" }, miller: { type: "string" }, k: { type: "string" }, metal: { type: "string" }, barrier: { type: "string" },
+  supply: { type: "string" }, "device-r": { type: "string" }, "device-c": { type: "string" },
+} as const;
+
+function settingsFrom(v: Record<string, unknown>, technology: Technology, requireS: boolean): ScenarioSettings {
+  const model = (v.model as string | undefined) ?? "full";
+  if (!(MODEL_LEVELS as readonly string[]).includes(model)) throw new UsageError(`--model: expected ideal, fringe, coupled or full, got "${model}"`);
+  const st = baselineSettings(model as ModelLevel, technology);
+  const s = requireS ? need(v, "s", "", NUMS("a cross-section factor S > 0")) : q(v, "s", "", NUMS("a cross-section factor S > 0"));
+  if (s !== undefined) { positiveOrThrow("s", s, "a cross-section factor S"); st.s = s; }
+  const sl = q(v, "sl", "", NUMS("a length factor S_L > 0"));
+  if (sl !== undefined) { positiveOrThrow("sl", sl, "a length factor S_L"); st.sL = sl; }
+  const miller = q(v, "miller", "", NUMS("a Miller factor from 0 to 2"));
+  if (miller !== undefined) {
+    if (!(miller >= 0 && miller <= 2)) throw new UsageError(`--miller: expected a Miller factor from 0 to 2, got ${miller}`);
+    st.miller = miller;
+  }
+  const k = q(v, "k", "", NUMS("a relative permittivity >= 1"));
+  if (k !== undefined) {
+    if (!(k >= 1)) throw new UsageError(`--k: expected a relative permittivity >= 1, got ${k}`);
+    st.k = k;
+  }
+  if (typeof v.metal === "string") {
+    if (!Object.keys(METALS).some((m) => m.toLowerCase() === (v.metal as string).toLowerCase())) throw new UsageError(`--metal: expected one of ${Object.keys(METALS).join(", ")}, got "${v.metal}"`);
+    st.metal = v.metal;
+  }
+  if (v.barrier !== undefined) {
+    if (v.barrier !== "fixed" && v.barrier !== "scales") throw new UsageError(`--barrier: expected fixed or scales, got "${String(v.barrier)}"`);
+    st.barrierScales = v.barrier === "scales";
+  }
+  const supply = q(v, "supply", "V", "a supply voltage in volts, e.g. 0.75V");
+  if (supply !== undefined) { positiveOrThrow("supply", supply, "a supply voltage in volts"); st.supplyV = supply; }
+  const dr = q(v, "device-r", "", NUMS("a driver resistance factor > 0"));
+  if (dr !== undefined) { positiveOrThrow("device-r", dr, "a driver resistance factor"); st.deviceRFactor = dr; }
+  const dc = q(v, "device-c", "", NUMS("a device capacitance factor > 0"));
+  if (dc !== undefined) { positiveOrThrow("device-c", dc, "a device capacitance factor"); st.deviceCFactor = dc; }
+  return st;
+}
+
+function summary(r: ClassResult) {
+  return {
+    lengthM: r.lengthM, widthM: r.widthM, thicknessM: r.thicknessM, spacingM: r.spacingM, barrierM: r.barrierM, metal: r.metal, k: r.k,
+    resistivityOhmM: r.resistivityOhmM, rOhmPerM: r.rOhmPerM, cFPerM: r.cFPerM,
+    capacitance: { areaFPerM: r.capacitance.areaFPerM, fringeFPerM: r.capacitance.fringeFPerM, couplingFPerM: r.capacitance.couplingFPerM, model: r.capacitance.model },
+    rOhm: r.rOhm, cF: r.cF, rcS: r.rcS, delayS: r.delayS, elmoreS: r.elmoreS, intrinsicDelayS: r.intrinsicDelayS,
+    repeaters: r.repeaters.count, repeaterSize: r.repeaters.size, repeatedDelayS: r.repeaters.delayS, criticalLengthM: r.repeaters.criticalLengthM,
+    energyJ: r.energyJ, powerW: r.powerW,
+    distribution: { source: r.distribution.source, totalNets: r.distribution.totalNets, shareOverBudget: r.distribution.shareOverBudget, totalRepeaters: r.distribution.totalRepeaters, meanDelayS: r.distribution.meanDelayS },
+    validity: r.validity,
+  };
+}
+
+function evaluateCmd(argv: string[]): CliResult {
+  const v = parse(argv, SCENARIO_OPTIONS);
+  if (v.help) return ok(HELP);
+  const { classes, technology } = loadBaseline(v);
+  const settings = settingsFrom(v, technology, true);
+  const ev = evaluateScenario({ classes, technology, settings });
+  const out = {
+    engineVersion: ev.engineVersion,
+    level: ev.level,
+    settings,
+    classes: ev.classes.map((c) => ({ class: c.name, baseline: summary(c.baseline), scenario: summary(c.scenario), ratio: c.ratio })),
+    totals: ev.totals,
+  };
+  if (v.json) return ok(json(out));
+  const lines = [`Scenario S = ${settings.s}, S_L = ${settings.sL}, level ${settings.level} (engine ${ev.engineVersion}); scenario/baseline`];
+  const head = ["class", "length", "R", "C", "RC", "delay", "stages", "energy", "×R", "×C", "×RC", "×delay"];
+  const rows = ev.classes.map((c) => [
+    c.name, formatEngineering(c.scenario.lengthM, "m", 3), formatEngineering(c.scenario.rOhm, "Ω", 3), formatEngineering(c.scenario.cF, "F", 3),
+    formatEngineering(c.scenario.rcS, "s", 3), formatEngineering(c.scenario.delayS, "s", 3), String(c.scenario.repeaters.count),
+    formatEngineering(c.scenario.energyJ, "J", 3), c.ratio.rOhm.toFixed(3), c.ratio.cF.toFixed(3), c.ratio.rcS.toFixed(3), c.ratio.delayS.toFixed(3),
+  ]);
+  const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i]!.length)));
+  lines.push(head.map((h, i) => (i === 0 ? h.padEnd(widths[i]!) : h.padStart(widths[i]!))).join("  "));
+  for (const r of rows) lines.push(r.map((x, i) => (i === 0 ? x.padEnd(widths[i]!) : x.padStart(widths[i]!))).join("  "));
+  for (const c of ev.classes) for (const f of c.scenario.validity) lines.push(`warning  ${c.name}: ${f.model}: ${f.message}`);
+  return ok(lines.join("\n") + "\n");
+}
+
+function sweepCmd(argv: string[]): CliResult {
+  const v = parse(argv, {
+    ...SCENARIO_OPTIONS, "s-from": { type: "string" }, "s-to": { type: "string" }, from: { type: "string" }, to: { type: "string" },
+    points: { type: "string" }, metric: { type: "string" }, variable: { type: "string" }, levels: { type: "string" }, class: { type: "string" }, log: { type: "boolean" },
+  });
+  if (v.help) return ok(HELP);
+  const { classes, technology } = loadBaseline(v);
+  const settings = settingsFrom(v, technology, false);
+  const variable = (v.variable as string | undefined) ?? "s";
+  if (!["s", "sL", "k"].includes(variable)) throw new UsageError(`--variable: expected s, sL or k, got "${variable}"`);
+  const fromName = v.from !== undefined ? "from" : "s-from";
+  const toName = v.to !== undefined ? "to" : "s-to";
+  const from = need(v, fromName, "", NUMS(`the first value of ${variable}`));
+  const to = need(v, toName, "", NUMS(`the last value of ${variable}`));
+  positiveOrThrow(fromName, from, `the first value of ${variable}`);
+  positiveOrThrow(toName, to, `the last value of ${variable}`);
+  const points = need(v, "points", "", NUMS("a whole number of points from 2 to 10000"));
+  if (!(Number.isInteger(points) && points >= 2 && points <= 10000)) throw new UsageError(`--points: expected a whole number of points from 2 to 10000, got ${points}`);
+  const metric = (v.metric as string | undefined) ?? "delay";
+  if (!["delay", "rc", "r", "c"].includes(metric)) throw new UsageError(`--metric: expected delay, rc, r or c, got "${metric}"`);
+  const levels = typeof v.levels === "string" ? v.levels.split(",").map((x) => x.trim()) : [...MODEL_LEVELS];
+  for (const l of levels) if (!(MODEL_LEVELS as readonly string[]).includes(l)) throw new UsageError(`--levels: expected a comma list of ideal, fringe, coupled, full, got "${l}"`);
+  const classNames = typeof v.class === "string" ? [v.class] : undefined;
+  if (classNames && !classes.some((c) => c.name === classNames[0])) throw new UsageError(`--class: no class "${classNames[0]}" in the baseline`);
+  const curves = sweep({
+    classes, technology, settings, variable: variable as SweepVariable, metric: metric as SweepMetric, from, to, points,
+    levels: levels as ModelLevel[], spacing: v.log ? "log" : "linear", classNames,
+  });
+  if (v.json) return ok(json({ metric, variable, curves }));
+  const lines: string[] = [`${metric} against ${variable} (${levels.join(", ")})`];
+  const unit = { delay: "s", rc: "s", r: "Ω", c: "F" }[metric as SweepMetric];
+  for (const c of curves) {
+    const first = c.points[0];
+    const last = c.points[c.points.length - 1];
+    lines.push(`${c.className.padEnd(14)} ${c.level.padEnd(8)} ${first ? `${first.x.toFixed(3)}: ${formatEngineering(first.y, unit, 3)}` : "-"}  →  ${last ? `${last.x.toFixed(3)}: ${formatEngineering(last.y, unit, 3)}` : "-"}${c.skipped ? `  (${c.skipped.length} points skipped)` : ""}`);
+  }
+  return ok(lines.join("\n") + "\n");
+}
+
+function materialsCmd(argv: string[]): CliResult {
+  const v = parse(argv, {});
+  if (v.help) return ok(HELP);
+  if (v.json) return ok(json({ metals: METALS, dielectrics: DIELECTRICS }));
+  const lines = ["Metals (bulk resistivity at 20 °C, mean free path, specularity p, grain reflection R, Steinhögl C):"];
+  for (const m of Object.values(METALS)) {
+    lines.push(`  ${m.id.padEnd(3)} ρ0 = ${(m.resistivityOhmM * 1e8).toFixed(3)} µΩ·cm  λ = ${(m.meanFreePathM * 1e9).toFixed(1)} nm  p = ${m.specularity}  R = ${m.grainReflection}  C = ${m.steinhoglC}`);
+    lines.push(`      ρ0: ${m.sources.resistivity}`, `      λ: ${m.sources.meanFreePath}`);
+  }
+  lines.push("Dielectrics (relative permittivity k):");
+  for (const d of Object.values(DIELECTRICS)) lines.push(`  ${d.id.padEnd(12)} k = ${d.k}  ${d.name}; ${d.source}`);
+  return ok(lines.join("\n") + "\n");
+}
+
+function ok(stdout: string): CliResult {
+  return { code: 0, stdout, stderr: "" };
+}
+
+/** Runs the command line on `argv` (without node and script) and returns exit code and output; never exits. */
+export function run(argv: string[]): CliResult {
+  const [command, ...rest] = argv;
+  try {
+    switch (command) {
+      case "capacitance": return capacitanceCmd(rest);
+      case "delay": return delayCmd(rest);
+      case "evaluate": return evaluateCmd(rest);
+      case "sweep": return sweepCmd(rest);
+      case "materials": return materialsCmd(rest);
+      case undefined: case "--help": case "-h": case "help": return ok(HELP + "\n");
+      default: throw new UsageError(`unknown command "${command}": expected capacitance, delay, evaluate, sweep or materials`);
+    }
+  } catch (e) {
+    if (e instanceof UsageError || e instanceof RangeError) return { code: 2, stdout: "", stderr: `error: ${e.message}\n` };
+    return { code: 1, stdout: "", stderr: `error: ${(e as Error).message ?? String(e)}\n` };
+  }
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  const r = run(process.argv.slice(2));
+  if (r.stdout) process.stdout.write(r.stdout);
+  if (r.stderr) process.stderr.write(r.stderr);
+  process.exitCode = r.code;
+}

@@ -1,0 +1,94 @@
+import { execFileSync, spawnSync } from "node:child_process";
+import { describe, expect, it } from "vitest";
+import { run } from "@/scaling/cli";
+import { lineCapacitance } from "@/lib/scaling/capacitance";
+
+const BASE = "scaling/examples/skua-baseline.csv";
+
+describe("run(argv)", () => {
+  it("--help and no command print usage", () => {
+    expect(run(["--help"]).stdout).toMatch(/capacitance/);
+    expect(run([]).code).toBe(0);
+  });
+  it("capacitance --json", () => {
+    const r = run(["capacitance", "--width", "20nm", "--thickness", "40nm", "--height", "25 nm", "--spacing", "0.02um", "--k", "2.7", "--json"]);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.stdout);
+    const ref = lineCapacitance({ widthM: 20e-9, thicknessM: 40e-9, spacingM: 20e-9, heightBelowM: 25e-9, heightAboveM: null, k: 2.7, miller: 1, model: "coupled" });
+    expect(j.model).toBe("coupled");
+    expect(j.totalFPerM).toBe(ref.totalFPerM);
+    expect(j.couplingFPerM).toBe(ref.couplingPerNeighbourFPerM);
+    expect(j.groundFPerM).toBeCloseTo(ref.areaFPerM + ref.fringeFPerM, 20);
+    expect(Array.isArray(j.validity)).toBe(true);
+  });
+  it("capacitance defaults to fringe without spacing; field model works", () => {
+    expect(JSON.parse(run(["capacitance", "--width", "2e-8", "--thickness", "4e-8", "--height", "2.5e-8", "--json"]).stdout).model).toBe("fringe");
+    expect(JSON.parse(run(["capacitance", "--width", "20nm", "--thickness", "40nm", "--height", "25nm", "--spacing", "20nm", "--model", "field", "--json"]).stdout).couplingFPerM).toBeGreaterThan(0);
+  });
+  it("delay --json", () => {
+    const j = JSON.parse(run(["delay", "--r-total", "1kohm", "--c-total", "100fF", "--driver", "500", "--load", "10f", "--json"]).stdout);
+    expect(j.t50S).toBeCloseTo(0.377 * 1e-10 + Math.LN2 * (500 * 1e-13 + 500 * 1e-14 + 1000 * 1e-14), 22);
+    expect(j.elmoreS).toBeGreaterThan(0);
+  });
+  it("evaluate --json has the documented shape", () => {
+    const r = run(["evaluate", "--baseline", BASE, "--s", "1.4", "--json"]);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(j.classes).toHaveLength(4);
+    for (const c of j.classes) {
+      for (const side of [c.baseline, c.scenario]) for (const k of ["lengthM", "rOhmPerM", "cFPerM", "rOhm", "cF", "rcS", "delayS", "repeaters", "energyJ"]) expect(Number.isFinite(side[k])).toBe(true);
+      expect(c.ratio.rOhm).toBeGreaterThan(1.96);
+    }
+  });
+  it("evaluate --model ideal follows the S² law for R", () => {
+    const j = JSON.parse(run(["evaluate", "--baseline", BASE, "--s", "2", "--model", "ideal", "--json"]).stdout);
+    for (const c of j.classes) expect(c.ratio.rOhm).toBeCloseTo(4, 10);
+  });
+  it("sweep --json gives curves per class and level", () => {
+    const j = JSON.parse(run(["sweep", "--baseline", BASE, "--s-from", "1", "--s-to", "3", "--points", "5", "--json"]).stdout);
+    expect(j.curves).toHaveLength(16);
+    expect(j.curves[0].points).toHaveLength(5);
+  });
+  it("materials lists metals with sources", () => {
+    expect(run(["materials"]).stdout).toMatch(/CRC Handbook/);
+    expect(Object.keys(JSON.parse(run(["materials", "--json"]).stdout).metals)).toEqual(["Cu", "Al", "W", "Co", "Ru"]);
+  });
+  it.each([
+    [["capacitance", "--width", "abc", "--thickness", "40nm", "--height", "25nm"], /--width: expected a length in metres/],
+    [["capacitance", "--thickness", "40nm", "--height", "25nm"], /--width is required/],
+    [["capacitance", "--width=-20nm", "--thickness", "40nm", "--height", "25nm"], /--width: expected a length in metres > 0/],
+    [["capacitance", "--width", "20nm", "--thickness", "40nm", "--height", "25nm", "--k", "0.5"], /--k: expected a relative permittivity >= 1/],
+    [["capacitance", "--width", "20nm", "--thickness", "40nm", "--height", "25nm", "--model", "magic"], /--model: expected ideal, fringe, coupled or field/],
+    [["capacitance", "--width", "20fF", "--thickness", "40nm", "--height", "25nm"], /--width: expected a length in metres/],
+    [["delay", "--r-total", "1kF", "--c-total", "1fF"], /--r-total: expected a resistance in ohms/],
+    [["delay", "--r-total", "1k"], /--c-total is required: a capacitance in farads/],
+    [["evaluate", "--s", "1.4"], /--baseline is required/],
+    [["evaluate", "--baseline", "nope.csv", "--s", "1.4"], /--baseline: cannot read file/],
+    [["evaluate", "--baseline", BASE], /--s is required/],
+    [["evaluate", "--baseline", BASE, "--s", "0"], /--s: expected a cross-section factor S > 0/],
+    [["evaluate", "--baseline", BASE, "--s", "1.4", "--barrier", "maybe"], /--barrier: expected fixed or scales/],
+    [["evaluate", "--baseline", BASE, "--s", "1.4", "--metal", "Au"], /--metal: expected one of/],
+    [["evaluate", "--baseline", BASE, "--s", "1.4", "--bogus", "1"], /bogus/],
+    [["sweep", "--baseline", BASE, "--s-from", "1", "--s-to", "3", "--points", "1.5"], /--points: expected a whole number/],
+    [["sweep", "--baseline", BASE, "--s-from", "1", "--s-to", "3", "--points", "5", "--metric", "speed"], /--metric: expected delay, rc, r or c/],
+    [["frobnicate"], /unknown command "frobnicate"/],
+  ])("error: %j", (argv, message) => {
+    const r = run(argv as string[]);
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe("");
+    expect(r.stderr).toMatch(message);
+    expect(r.stderr.trim().split("\n")).toHaveLength(1);
+  });
+});
+
+describe("real process (npx tsx scaling/cli.ts)", () => {
+  it("evaluate --json prints only JSON on stdout", () => {
+    const out = execFileSync("npx", ["tsx", "scaling/cli.ts", "evaluate", "--baseline", BASE, "--s", "1.4", "--json"], { encoding: "utf8" });
+    expect(JSON.parse(out).classes[0].class).toBe("local");
+  });
+  it("a bad argument exits non-zero with one line on stderr", () => {
+    const r = spawnSync("npx", ["tsx", "scaling/cli.ts", "delay", "--r-total", "x", "--c-total", "1fF"], { encoding: "utf8" });
+    expect(r.status).toBe(2);
+    expect(r.stderr.trim()).toMatch(/^error: --r-total: expected a resistance in ohms/);
+  });
+});

@@ -1,0 +1,47 @@
+import { describe, expect, it } from "vitest";
+import { baselineSettings, defaultTechnology } from "@/lib/scaling/evaluate";
+import { linspace, logspace, sweep } from "@/lib/scaling/sweep";
+import { expectClose } from "./close";
+import { testClass } from "./fixtures";
+
+const tech = defaultTechnology();
+
+describe("linspace / logspace", () => {
+  it("hit both ends exactly", () => {
+    expect(linspace(1, 4, 4)).toEqual([1, 2, 3, 4]);
+    const l = logspace(1, 100, 3);
+    expect(l[0]).toBe(1);
+    expectClose(l[1]!, 10, 1e-14);
+    expect(l[2]).toBe(100);
+    expect(() => linspace(0, 1, 0)).toThrow(RangeError);
+  });
+});
+
+describe("sweep({ variable: 's', ... })", () => {
+  const classes = [testClass(), testClass({ name: "g", tier: "global", widthM: 400e-9, thicknessM: 800e-9, spacingM: 400e-9, ildBelowM: 400e-9, meanLengthM: 1e-3, barrierM: 5e-9 })];
+  const curves = sweep({ classes, technology: tech, settings: baselineSettings("full", tech), variable: "s", metric: "rc", from: 1, to: 4, points: 31 });
+  it("one curve per class and level", () => {
+    expect(curves).toHaveLength(8);
+    expect(new Set(curves.map((c) => c.level))).toEqual(new Set(["ideal", "fringe", "coupled", "full"]));
+  });
+  it("ideal RC of a global wire (S_L = 1) grows as S² (MODELS.md scaling laws)", () => {
+    const c = curves.find((x) => x.className === "g" && x.level === "ideal")!;
+    for (const p of c.points) expectClose(p.y / c.points[0]!.y, p.x * p.x, 1e-9);
+  });
+  it("full RC grows faster than ideal (barrier and size effects)", () => {
+    const ideal = curves.find((x) => x.className === "m2" && x.level === "ideal")!;
+    const full = curves.find((x) => x.className === "m2" && x.level === "full")!;
+    const last = full.points.length - 1;
+    expect(full.points[last]!.y / full.points[0]!.y).toBeGreaterThan(ideal.points[ideal.points.length - 1]!.y / ideal.points[0]!.y);
+  });
+  it("skips impossible points instead of failing", () => {
+    const far = sweep({ classes: [testClass()], technology: tech, settings: baselineSettings("full", tech), variable: "s", metric: "delay", from: 1, to: 12, points: 12, levels: ["full"] });
+    expect(far[0]!.skipped!.length).toBeGreaterThan(0);
+    expect(far[0]!.points.length + far[0]!.skipped!.length).toBe(12);
+  });
+  it("k sweep: ideal C is proportional to k", () => {
+    const k = sweep({ classes: [testClass()], technology: tech, settings: baselineSettings("ideal", tech), variable: "k", metric: "c", from: 1, to: 4, points: 4, levels: ["ideal"] });
+    const p = k[0]!.points;
+    expectClose(p[3]!.y / p[0]!.y, 4, 1e-12);
+  });
+});
