@@ -1,0 +1,42 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { db, ready } from "@/db/client";
+import { getReport } from "@/db/queries/reports";
+import { ReportBody } from "@/components/reports/report-body";
+import { PrintButton } from "@/components/reports/print-button";
+import { getMembershipRole } from "@/lib/access";
+import { validateRequest } from "@/lib/auth";
+import { verifyPrintToken } from "@/lib/reports/print-token";
+import { summarizeReport } from "@/lib/reports/summary";
+
+export const dynamic = "force-dynamic";
+export const metadata: Metadata = { title: "Report (print)", robots: { index: false } };
+
+/**
+ * The report alone, laid out for paper: no navigation. Opened by a signed-in member of the team, or by the
+ * PDF renderer with a short-lived token bound to this report.
+ */
+export default async function PrintReportPage({ params, searchParams }: { params: Promise<{ reportId: string }>; searchParams: Promise<{ t?: string }> }) {
+  const { reportId } = await params;
+  const { t } = await searchParams;
+  await ready();
+  const report = await getReport(db, reportId);
+  if (!report) notFound();
+  let allowed = verifyPrintToken(reportId, typeof t === "string" ? t : undefined);
+  if (!allowed) {
+    const { user } = await validateRequest();
+    allowed = Boolean(user && (await getMembershipRole(report.teamId, user.id)));
+  }
+  if (!allowed) notFound();
+  return (
+    <div className="min-h-screen bg-white">
+      <div className="mx-auto max-w-[190mm] px-6 py-8 print:max-w-none print:p-0">
+        <div className="no-print mb-6 flex items-center justify-between gap-3 rounded-md border border-rule bg-ground px-3 py-2 text-sm text-muted">
+          <span>Print view: the report as it appears on paper.</span>
+          <PrintButton />
+        </div>
+        <ReportBody report={report} summary={summarizeReport(report.frozen)} isDemo={report.isDemo} />
+      </div>
+    </div>
+  );
+}

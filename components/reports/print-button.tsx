@@ -1,0 +1,10 @@
+"use client";
+import { Button } from "@/components/ui/button";
+
+export function PrintButton({ label = "Print" }: { label?: string }) {
+  return (
+    <Button variant="secondary" onClick={() => window.print()}>
+      {label}
+    </Button>
+  );
+}

@@ -1,0 +1,261 @@
+"use client";
+import Link from "next/link";
+import { useRouter } from "next/navigation";
+import { useState, type FormEvent } from "react";
+import { Button, buttonClass } from "@/components/ui/button";
+import { Badge, Notice } from "@/components/ui/card";
+import { FieldErrors, inputClass } from "@/components/ui/field";
+
+export interface ShareLinkRow {
+  id: string;
+  createdAt: number;
+  createdByName: string | null;
+  expiresAt: number;
+  revokedAt: number | null;
+  lastUsedAt: number | null;
+  status: "active" | "expired" | "revoked";
+}
+
+interface Props {
+  teamId: string;
+  reportId: string;
+  canEdit: boolean;
+  canDelete: boolean;
+  versions: { id: string; version: number; createdAt: number; createdByName: string | null }[];
+  currentVersion: number;
+  initialLinks: ShareLinkRow[];
+}
+
+const fmt = (ms: number) => new Date(ms).toISOString().slice(0, 16).replace("T", " ") + " UTC";
+
+async function call(method: string, url: string, body?: unknown) {
+  const res = await fetch(url, {
+    method,
+    headers: body === undefined ? undefined : { "content-type": "application/json" },
+    body: body === undefined ? undefined : JSON.stringify(body),
+  });
+  const json = res.status === 204 ? null : await res.json().catch(() => null);
+  return { status: res.status, json };
+}
+
+/** Everything one can do with a report besides reading it: export, print, share, e-mail, refresh, versions. */
+export function ReportActions({ teamId, reportId, canEdit, canDelete, versions, currentVersion, initialLinks }: Props) {
+  const router = useRouter();
+  const base = `/api/reports/${encodeURIComponent(reportId)}`;
+  const [links, setLinks] = useState(initialLinks);
+  const [days, setDays] = useState("14");
+  const [newUrl, setNewUrl] = useState<string | null>(null);
+  const [shareError, setShareError] = useState<string | null>(null);
+  const [to, setTo] = useState("");
+  const [note, setNote] = useState("");
+  const [mailState, setMailState] = useState<{ tone: "good" | "bad"; text: string; fields?: Record<string, string[]> } | null>(null);
+  const [busy, setBusy] = useState<string | null>(null);
+  const [topError, setTopError] = useState<string | null>(null);
+
+  async function reloadLinks() {
+    const r = await call("GET", `${base}/share-links`);
+    if (r.status === 200) setLinks(r.json.links);
+  }
+
+  async function createLink(e: FormEvent) {
+    e.preventDefault();
+    setBusy("share");
+    setShareError(null);
+    const r = await call("POST", `${base}/share-links`, { expiresInDays: Number(days) });
+    setBusy(null);
+    if (r.status === 201) {
+      setNewUrl(r.json.url);
+      await reloadLinks();
+    } else setShareError(r.json?.error?.fields?.expiresInDays?.[0] ?? r.json?.error?.message ?? `Could not create the link (${r.status}).`);
+  }
+
+  async function revoke(id: string) {
+    setBusy(`revoke-${id}`);
+    await call("DELETE", `${base}/share-links/${encodeURIComponent(id)}`);
+    setBusy(null);
+    await reloadLinks();
+  }
+
+  async function sendMail(e: FormEvent) {
+    e.preventDefault();
+    const addresses = to.split(/[\s,;]+/).map((s) => s.trim()).filter(Boolean);
+    setBusy("mail");
+    setMailState(null);
+    const r = await call("POST", `${base}/email`, { to: addresses, message: note });
+    setBusy(null);
+    if (r.status === 200) {
+      setMailState({ tone: "good", text: `Sent to ${r.json.sent} address${r.json.sent === 1 ? "" : "es"}${r.json.failed ? `; ${r.json.failed} failed (see the outbox)` : ""}, with a new share link.` });
+      setTo("");
+      await reloadLinks();
+    } else {
+      const fields = r.json?.error?.fields as Record<string, string[]> | undefined;
+      const detail = fields ? Object.values(fields).flat().slice(0, 3).join(" ") : "";
+      setMailState({ tone: "bad", text: `${r.json?.error?.message ?? `Could not send (${r.status}).`} ${detail}`.trim(), fields });
+    }
+  }
+
+  async function refresh() {
+    setBusy("refresh");
+    setTopError(null);
+    const r = await call("POST", `${base}/refresh`);
+    setBusy(null);
+    if (r.status === 201) router.push(`/teams/${encodeURIComponent(teamId)}/reports/${r.json.report.id}`);
+    else setTopError(r.json?.error?.message ?? `Could not refresh (${r.status}).`);
+  }
+
+  async function remove() {
+    if (!window.confirm("Delete this version of the report and its share links?")) return;
+    setBusy("delete");
+    const r = await call("DELETE", base);
+    setBusy(null);
+    if (r.status === 204) {
+      router.push(`/teams/${encodeURIComponent(teamId)}/reports`);
+      router.refresh();
+    } else setTopError(r.json?.error?.message ?? `Could not delete (${r.status}).`);
+  }
+
+  return (
+    <div className="space-y-4 text-sm">
+      {topError ? <Notice tone="bad">{topError}</Notice> : null}
+      <div className="flex flex-wrap gap-2">
+        <a className={buttonClass("secondary")} href={`${base}/pdf`} download>
+          Download PDF
+        </a>
+        <a className={buttonClass("secondary")} href={`${base}/export.csv`} download>
+          Download CSV
+        </a>
+        <a className={buttonClass("secondary")} href={`/print/reports/${encodeURIComponent(reportId)}`} target="_blank" rel="noopener">
+          Print view
+        </a>
+        {canEdit ? (
+          <Button variant="secondary" onClick={refresh} disabled={busy !== null} title="Evaluate the scenarios as they are now, as a new version; this version is kept">
+            {busy === "refresh" ? "Refreshing…" : "Refresh from current scenarios"}
+          </Button>
+        ) : null}
+        {canDelete ? (
+          <Button variant="danger" onClick={remove} disabled={busy !== null}>
+            Delete this version
+          </Button>
+        ) : null}
+      </div>
+
+      {versions.length > 1 ? (
+        <div>
+          <h3 className="mb-1 text-xs font-semibold uppercase tracking-wide text-muted">Versions</h3>
+          <ul className="space-y-0.5">
+            {versions.map((v) => (
+              <li key={v.id}>
+                {v.version === currentVersion ? (
+                  <span className="font-medium text-ink">Version {v.version} (this one)</span>
+                ) : (
+                  <Link className="text-copper-dark hover:underline" href={`/teams/${encodeURIComponent(teamId)}/reports/${v.id}`}>
+                    Version {v.version}
+                  </Link>
+                )}
+                <span className="text-xs text-muted">
+                  {" "}
+                  · {fmt(v.createdAt)}
+                  {v.createdByName ? ` · ${v.createdByName}` : ""}
+                </span>
+              </li>
+            ))}
+          </ul>
+        </div>
+      ) : null}
+
+      {canEdit ? (
+        <>
+          <div>
+            <h3 className="mb-1 text-xs font-semibold uppercase tracking-wide text-muted">Share links</h3>
+            <form onSubmit={createLink} className="flex flex-wrap items-end gap-2">
+              <div>
+                <label htmlFor="share-days" className="mb-1 block text-xs text-ink">
+                  Valid for (days, 1–90)
+                </label>
+                <input id="share-days" type="number" min={1} max={90} value={days} onChange={(e) => setDays(e.target.value)} className={`${inputClass} w-24`} aria-describedby={shareError ? "share-days-error" : undefined} />
+              </div>
+              <Button type="submit" disabled={busy !== null}>
+                Create share link
+              </Button>
+            </form>
+            <FieldErrors id="share-days-error" errors={shareError ? [shareError] : undefined} />
+            {newUrl ? (
+              <div className="mt-2 rounded-md border border-good/30 bg-good-soft p-2 text-xs text-good" role="status">
+                <p className="mb-1">New read-only link (shown only now; anyone with it can read this report until it expires):</p>
+                <div className="flex gap-2">
+                  <input readOnly value={newUrl} aria-label="New share link" className={`${inputClass} font-mono text-xs`} onFocus={(e) => e.currentTarget.select()} data-testid="new-share-url" />
+                  <Button variant="secondary" onClick={() => navigator.clipboard?.writeText(newUrl)}>
+                    Copy
+                  </Button>
+                </div>
+              </div>
+            ) : null}
+            {links.length > 0 ? (
+              <table className="mt-2 w-full text-xs">
+                <thead>
+                  <tr className="text-left text-muted">
+                    <th scope="col" className="py-1 pr-2 font-medium">Made</th>
+                    <th scope="col" className="py-1 pr-2 font-medium">Expires</th>
+                    <th scope="col" className="py-1 pr-2 font-medium">Last opened</th>
+                    <th scope="col" className="py-1 pr-2 font-medium">Status</th>
+                    <th scope="col" className="py-1 font-medium">
+                      <span className="sr-only">Action</span>
+                    </th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {links.map((l) => (
+                    <tr key={l.id} className="border-t border-rule/60">
+                      <td className="py-1 pr-2">
+                        {fmt(l.createdAt)}
+                        {l.createdByName ? <span className="text-muted"> · {l.createdByName}</span> : null}
+                      </td>
+                      <td className="py-1 pr-2 tabular">{fmt(l.expiresAt)}</td>
+                      <td className="py-1 pr-2 tabular">{l.lastUsedAt ? fmt(l.lastUsedAt) : "never"}</td>
+                      <td className="py-1 pr-2">
+                        <Badge tone={l.status === "active" ? "good" : l.status === "revoked" ? "bad" : "neutral"}>{l.status}</Badge>
+                      </td>
+                      <td className="py-1 text-right">
+                        {l.status === "active" ? (
+                          <Button variant="ghost" onClick={() => revoke(l.id)} disabled={busy !== null} aria-label={`Revoke the link made ${fmt(l.createdAt)}`}>
+                            Revoke
+                          </Button>
+                        ) : null}
+                      </td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            ) : (
+              <p className="mt-1 text-xs text-muted">No share links yet.</p>
+            )}
+          </div>
+
+          <div>
+            <h3 className="mb-1 text-xs font-semibold uppercase tracking-wide text-muted">Send by e-mail</h3>
+            <form onSubmit={sendMail} className="space-y-2">
+              <div>
+                <label htmlFor="mail-to" className="mb-1 block text-xs text-ink">
+                  To (up to 20 addresses, separated by commas or new lines)
+                </label>
+                <textarea id="mail-to" rows={2} value={to} onChange={(e) => setTo(e.target.value)} className={inputClass} placeholder="director@example.com, pm@example.com" />
+              </div>
+              <div>
+                <label htmlFor="mail-note" className="mb-1 block text-xs text-ink">
+                  Message (optional)
+                </label>
+                <textarea id="mail-note" rows={2} maxLength={1000} value={note} onChange={(e) => setNote(e.target.value)} className={inputClass} />
+              </div>
+              <Button type="submit" disabled={busy !== null || to.trim() === ""}>
+                {busy === "mail" ? "Sending…" : "Send summary and link"}
+              </Button>
+              {mailState ? <Notice tone={mailState.tone}>{mailState.text}</Notice> : null}
+            </form>
+          </div>
+        </>
+      ) : (
+        <p className="text-xs text-muted">Editors and owners can share this report by link or e-mail.</p>
+      )}
+    </div>
+  );
+}

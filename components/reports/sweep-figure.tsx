@@ -1,0 +1,118 @@
+import type { FrozenSweep } from "@/lib/validation/report";
+import { plain } from "@/lib/reports/format";
+
+/** Series styles: a distinct colour AND dash pattern each, so the figure still reads when printed in grey. */
+export const SERIES_STYLE: Record<string, { color: string; dash?: string; marker: "circle" | "square" | "diamond" | "triangle" }> = {
+  // The workspace charts' palette (components/charts/chart-theme.ts): copper, slate, moss, ink; grey for the reference.
+  A: { color: "#b4622d", marker: "circle" },
+  B: { color: "#47627e", dash: "6 3", marker: "square" },
+  C: { color: "#6d7d3a", dash: "2 2", marker: "diamond" },
+  D: { color: "#1d1f22", dash: "8 3 2 3", marker: "triangle" },
+  reference: { color: "#8a8f96", dash: "3 4", marker: "circle" },
+};
+
+const W = 640;
+const H = 250;
+const M = { l: 56, r: 14, t: 12, b: 42 };
+
+function niceStep(span: number, target: number): number {
+  const raw = span / Math.max(1, target);
+  const mag = Math.pow(10, Math.floor(Math.log10(raw)));
+  const n = raw / mag;
+  return (n <= 1 ? 1 : n <= 2 ? 2 : n <= 2.5 ? 2.5 : n <= 5 ? 5 : 10) * mag;
+}
+
+function ticks(lo: number, hi: number, target: number): number[] {
+  const step = niceStep(hi - lo, target);
+  const out: number[] = [];
+  for (let v = Math.ceil(lo / step) * step; v <= hi + step * 1e-9; v += step) out.push(Number(v.toPrecision(10)));
+  return out;
+}
+
+function Marker({ kind, x, y, color }: { kind: string; x: number; y: number; color: string }) {
+  const r = 4;
+  if (kind === "square") return <rect x={x - r} y={y - r} width={2 * r} height={2 * r} fill={color} stroke="#fff" strokeWidth={1} />;
+  if (kind === "diamond") return <path d={`M${x},${y - r - 1}L${x + r + 1},${y}L${x},${y + r + 1}L${x - r - 1},${y}Z`} fill={color} stroke="#fff" strokeWidth={1} />;
+  if (kind === "triangle") return <path d={`M${x},${y - r - 1}L${x + r + 1},${y + r}L${x - r - 1},${y + r}Z`} fill={color} stroke="#fff" strokeWidth={1} />;
+  return <circle cx={x} cy={y} r={r} fill={color} stroke="#fff" strokeWidth={1} />;
+}
+
+/**
+ * Delay against S for one class, drawn as static SVG on the server: a frozen report needs no interaction,
+ * and a static figure prints and renders to PDF exactly as on screen (no hydration, no measuring).
+ * Fixed viewBox; on paper the figure is a fixed width (see the print rules in report.css).
+ */
+export function SweepFigure({ sweep, optionNames }: { sweep: FrozenSweep; optionNames: Record<string, string> }) {
+  const PS = 1e-12;
+  const all = sweep.series.flatMap((s) => s.points).concat(sweep.marks.map((m) => ({ x: m.x, y: m.y })));
+  const yMax = Math.max(...all.map((p) => p.y / PS), 1e-9);
+  const yTicks = ticks(0, yMax * 1.05, 5);
+  const yTop = Math.max(yTicks[yTicks.length - 1] ?? yMax, yMax);
+  const xTicks = ticks(sweep.from, sweep.to, 6);
+  const sx = (x: number) => M.l + ((x - sweep.from) / (sweep.to - sweep.from)) * (W - M.l - M.r);
+  const sy = (yPs: number) => H - M.b - (yPs / yTop) * (H - M.t - M.b);
+  const path = (pts: { x: number; y: number }[]) => pts.map((p, i) => `${i === 0 ? "M" : "L"}${sx(p.x).toFixed(1)},${sy(p.y / PS).toFixed(1)}`).join("");
+  const title = `Delay of class ${sweep.className} against the cross-section factor S`;
+  return (
+    <figure className="report-figure break-inside-avoid">
+      <svg viewBox={`0 0 ${W} ${H}`} role="img" className="report-chart h-auto w-full" aria-label={title} preserveAspectRatio="xMidYMid meet">
+        <title>{title}</title>
+        {yTicks.map((t) => (
+          <g key={`y${t}`}>
+            <line x1={M.l} x2={W - M.r} y1={sy(t)} y2={sy(t)} stroke="#dedbd4" strokeWidth={0.8} />
+            <text x={M.l - 6} y={sy(t) + 3.5} textAnchor="end" fontSize={10.5} fill="#5f6368">
+              {plain(t, 4)}
+            </text>
+          </g>
+        ))}
+        {xTicks.map((t) => (
+          <g key={`x${t}`}>
+            <line x1={sx(t)} x2={sx(t)} y1={H - M.b} y2={H - M.b + 4} stroke="#8a8f96" strokeWidth={0.8} />
+            <text x={sx(t)} y={H - M.b + 16} textAnchor="middle" fontSize={10.5} fill="#5f6368">
+              {plain(t, 3)}
+            </text>
+          </g>
+        ))}
+        <line x1={M.l} x2={W - M.r} y1={H - M.b} y2={H - M.b} stroke="#8a8f96" strokeWidth={0.8} />
+        <line x1={M.l} x2={M.l} y1={M.t} y2={H - M.b} stroke="#8a8f96" strokeWidth={0.8} />
+        <text x={(M.l + W - M.r) / 2} y={H - 6} textAnchor="middle" fontSize={11} fill="#1d1f22">
+          Cross-section factor S (dimensions ÷ S)
+        </text>
+        <text transform={`translate(13 ${(M.t + H - M.b) / 2}) rotate(-90)`} textAnchor="middle" fontSize={11} fill="#1d1f22">
+          Delay at mean length (ps)
+        </text>
+        {sweep.series.map((s) => {
+          const st = SERIES_STYLE[s.key] ?? SERIES_STYLE.reference!;
+          return (
+            <path key={s.key} d={path(s.points)} fill="none" stroke={st.color} strokeWidth={s.key === "reference" ? 1.4 : 2} strokeDasharray={st.dash} strokeLinejoin="round">
+              <title>{s.key === "reference" ? s.label : `Option ${s.key}: ${optionNames[s.key] ?? ""}`}</title>
+            </path>
+          );
+        })}
+        {sweep.marks.map((m) => {
+          const st = SERIES_STYLE[m.key] ?? SERIES_STYLE.A!;
+          return (
+            <g key={`m${m.key}`}>
+              <Marker kind={st.marker} x={sx(m.x)} y={sy(m.y / PS)} color={st.color} />
+              <title>{`Option ${m.key} at S = ${plain(m.x)}: ${plain(m.y / PS, 4)} ps`}</title>
+            </g>
+          );
+        })}
+      </svg>
+      <figcaption className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-xs text-muted">
+        {sweep.series.map((s) => {
+          const st = SERIES_STYLE[s.key] ?? SERIES_STYLE.reference!;
+          return (
+            <span key={s.key} className="inline-flex items-center gap-1.5">
+              <svg width="26" height="10" aria-hidden="true">
+                <line x1="1" x2="25" y1="5" y2="5" stroke={st.color} strokeWidth={2} strokeDasharray={st.dash} />
+              </svg>
+              {s.key === "reference" ? s.label : `Option ${s.key}: ${optionNames[s.key] ?? ""}`}
+            </span>
+          );
+        })}
+        <span>Markers: each option at its own S.</span>
+      </figcaption>
+    </figure>
+  );
+}

@@ -1,0 +1,118 @@
+import { csvLine, header } from "@/lib/csv-safe";
+import type { FrozenClassResult, FrozenReport } from "@/lib/validation/report";
+import { change } from "./summary";
+
+const sig = (x: number, digits = 6): number | null => (Number.isFinite(x) ? Number(x.toPrecision(digits)) : null);
+const pct = (c: number | null): number | null => (c === null ? null : sig(c * 100, 4));
+
+const COLUMNS = [
+  header("option"),
+  header("scenario"),
+  header("model_level"),
+  header("class"),
+  header("tier"),
+  header("width", "nm"),
+  header("thickness", "nm"),
+  header("spacing", "nm"),
+  header("pitch", "nm"),
+  header("barrier", "nm"),
+  header("length", "um"),
+  header("metal"),
+  header("k"),
+  header("resistivity", "uohm_cm"),
+  header("r", "ohm"),
+  header("c", "ff"),
+  header("rc", "ps"),
+  header("delay", "ps"),
+  header("delay_change", "pct"),
+  header("elmore", "ps"),
+  header("repeaters"),
+  header("energy", "fj"),
+  header("energy_change", "pct"),
+  header("class_power", "uw"),
+  header("nets"),
+  header("over_budget", "pct"),
+  header("validity_flags"),
+];
+
+function row(option: string, scenario: string, level: string, r: FrozenClassResult, base: FrozenClassResult | null) {
+  return [
+    option,
+    scenario,
+    level,
+    r.name,
+    r.tier,
+    sig(r.widthM / 1e-9),
+    sig(r.thicknessM / 1e-9),
+    sig(r.spacingM / 1e-9),
+    sig(r.pitchM / 1e-9),
+    sig(r.barrierM / 1e-9),
+    sig(r.lengthM / 1e-6),
+    r.metal,
+    sig(r.k),
+    sig(r.resistivityOhmM / 1e-8),
+    sig(r.rOhm),
+    sig(r.cF / 1e-15),
+    sig(r.rcS / 1e-12),
+    sig(r.delayS / 1e-12),
+    base ? pct(change(base.delayS, r.delayS).change) : null,
+    sig(r.elmoreS / 1e-12),
+    r.repeaters.count,
+    sig(r.energyJ / 1e-15),
+    base ? pct(change(base.energyJ, r.energyJ).change) : null,
+    sig(r.powerW / 1e-6),
+    r.distribution.totalNets,
+    sig(r.distribution.shareOverBudget * 100, 4),
+    r.validity.map((f) => f.message).join(" | "),
+  ];
+}
+
+/**
+ * The report's side-by-side table as CSV: for each chosen class a baseline row then one row per option,
+ * units in the headers, every text cell (class and scenario names included) neutralised against formula
+ * injection by lib/csv-safe.ts. A second block lists the per-option totals behind the headline cards.
+ */
+export function reportCsv(title: string, report: FrozenReport): string {
+  let out = csvLine(COLUMNS);
+  const first = report.options[0];
+  for (const name of report.classNames) {
+    const baseRes = first?.evaluation.classes.find((c) => c.name === name);
+    if (baseRes) out += csvLine(row("Baseline", report.baseline.name, first!.evaluation.level, baseRes.baseline, null));
+    for (const o of report.options) {
+      const c = o.evaluation.classes.find((x) => x.name === name);
+      if (c) out += csvLine(row(`Option ${o.key}`, o.name, o.evaluation.level, c.scenario, c.baseline));
+    }
+  }
+  out += "\r\n";
+  out += csvLine([
+    header("option"),
+    header("scenario"),
+    header("report"),
+    header("worst_class_delay", "ps"),
+    header("mean_net_delay", "ps"),
+    header("total_wire_capacitance", "pf"),
+    header("switching_energy", "pj"),
+    header("switching_power", "mw"),
+    header("repeaters"),
+  ]);
+  const totalsRow = (option: string, scenario: string, t: FrozenReport["options"][number]["evaluation"]["totals"]["baseline"], worst: number) => [
+    option,
+    scenario,
+    title,
+    sig(worst / 1e-12),
+    sig(t.meanDelayS / 1e-12),
+    sig(t.capacitanceF / 1e-12),
+    sig(t.energyJ / 1e-12),
+    sig(t.powerW / 1e-3),
+    sig(t.repeaters),
+  ];
+  if (first) {
+    const worstB = Math.max(...first.evaluation.classes.map((c) => c.baseline.delayS));
+    out += csvLine(totalsRow("Baseline", report.baseline.name, first.evaluation.totals.baseline, worstB));
+  }
+  for (const o of report.options) {
+    const worst = Math.max(...o.evaluation.classes.map((c) => c.scenario.delayS));
+    out += csvLine(totalsRow(`Option ${o.key}`, o.name, o.evaluation.totals.scenario, worst));
+  }
+  return out;
+}

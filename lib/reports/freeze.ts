@@ -1,0 +1,150 @@
+import {
+  ENGINE_VERSION,
+  MODEL_LEVELS,
+  evaluateScenario,
+  sweep,
+  type Evaluation,
+  type ScenarioSettings,
+  type Technology,
+  type WireClass,
+} from "@/lib/scaling";
+import {
+  DEFAULT_REPORT_METRICS,
+  FROZEN_SCHEMA_VERSION,
+  frozenReportSchema,
+  type FrozenReport,
+  type FrozenSweep,
+  type ReportMetric,
+} from "@/lib/validation/report";
+
+/** Everything a report is computed from, as loaded from the team's baseline and scenarios. */
+export interface FreezeInput {
+  baseline: { id: string; name: string; description: string; version: number; technology: Technology; classes: WireClass[] };
+  scenarios: { id: string; name: string; notes: string; version: number; settings: ScenarioSettings }[];
+  classNames?: string[];
+  metrics?: ReportMetric[];
+}
+
+export const OPTION_KEYS = ["A", "B", "C", "D"] as const;
+/** Histogram bins kept in the frozen document, over all classes; above it the bins are dropped (totals keep them). */
+const MAX_FROZEN_BINS = 4000;
+/** Sweep charts frozen per report (one per chosen class, in table order). */
+const MAX_SWEEP_CLASSES = 6;
+const SWEEP_POINTS = 31;
+
+/** A class choice that names no class of the baseline: the compose route turns it into a 400. */
+export class UnknownClassError extends Error {
+  constructor(readonly names: string[]) {
+    super(`Unknown class${names.length > 1 ? "es" : ""}: ${names.join(", ")}.`);
+  }
+}
+
+/**
+ * Runs the engine on the server and returns ONE self-contained document: the inputs (baseline classes and
+ * technology, each scenario's settings), each option's Evaluation, the delay-vs-S sweeps of the chosen
+ * classes, the engine version and model levels. Reading a report never calls the engine again, so later
+ * edits to the scenarios, or a new engine version, leave it unchanged.
+ */
+export function freezeReport(input: FreezeInput, now = Date.now()): FrozenReport {
+  const { baseline, scenarios } = input;
+  if (scenarios.length < 1 || scenarios.length > OPTION_KEYS.length) throw new RangeError("a report compares 1 to 4 scenarios");
+  const known = new Set(baseline.classes.map((c) => c.name));
+  const unknown = (input.classNames ?? []).filter((n) => !known.has(n));
+  if (unknown.length > 0) throw new UnknownClassError(unknown);
+  // Table order follows the baseline, whatever order the classes were picked in.
+  const classNames = input.classNames ? baseline.classes.map((c) => c.name).filter((n) => input.classNames!.includes(n)) : [...known];
+  const metrics = input.metrics ? REPORT_METRIC_ORDER.filter((m) => input.metrics!.includes(m)) : [...DEFAULT_REPORT_METRICS];
+
+  const evaluations: Evaluation[] = scenarios.map((s) =>
+    evaluateScenario({ classes: baseline.classes, technology: baseline.technology, settings: s.settings }),
+  );
+
+  const totalBins = baseline.classes.reduce((n, c) => n + (c.histogram?.length ?? 0), 0);
+  const binsTrimmed = totalBins > MAX_FROZEN_BINS;
+  const options = scenarios.map((s, i) => ({
+    key: OPTION_KEYS[i]!,
+    scenarioId: s.id,
+    name: s.name,
+    notes: s.notes,
+    version: s.version,
+    settings: s.settings,
+    evaluation: binsTrimmed ? trimBins(evaluations[i]!) : evaluations[i]!,
+  }));
+
+  const doc = {
+    schemaVersion: FROZEN_SCHEMA_VERSION,
+    createdAt: now,
+    engineVersion: ENGINE_VERSION,
+    modelLevels: [...MODEL_LEVELS],
+    baseline: {
+      id: baseline.id,
+      name: baseline.name,
+      description: baseline.description,
+      version: baseline.version,
+      technology: baseline.technology,
+      classes: baseline.classes.map((c) => {
+        const bins = c.histogram?.length ?? 0;
+        const { histogram, ...rest } = c;
+        return binsTrimmed || bins === 0 ? { ...rest, histogramBins: bins } : { ...rest, histogram, histogramBins: bins };
+      }),
+    },
+    options,
+    classNames,
+    metrics,
+    sweeps: freezeSweeps(input, classNames.slice(0, MAX_SWEEP_CLASSES), evaluations),
+    binsTrimmed,
+  };
+  // Round-trip through JSON and the schema: what is stored is exactly what every later read will accept.
+  return frozenReportSchema.parse(JSON.parse(JSON.stringify(doc, finiteOrNull)));
+}
+
+export const REPORT_METRIC_ORDER: ReportMetric[] = ["delay", "rc", "resistance", "capacitance", "repeaters", "energy", "power", "overBudget"];
+
+function finiteOrNull(_key: string, value: unknown): unknown {
+  return typeof value === "number" && !Number.isFinite(value) ? null : value;
+}
+
+function trimBins(e: Evaluation): Evaluation {
+  const strip = <T extends { distribution: { bins: unknown[] } }>(r: T): T => ({ ...r, distribution: { ...r.distribution, bins: [] } });
+  return { ...e, classes: e.classes.map((c) => ({ ...c, baseline: strip(c.baseline), scenario: strip(c.scenario) })) };
+}
+
+/**
+ * Delay against S for each chosen class: one curve per option at its own model level, each option marked at
+ * its own S. When the first option uses the full model, the same option without size effects (bulk
+ * resistivity, a barrier that thins with S) is the grey reference: the gap between the two is what the
+ * size effects cost, and where the option's curve bends up, shrinking stops paying off.
+ */
+function freezeSweeps(input: FreezeInput, classNames: string[], evaluations: Evaluation[]): FrozenSweep[] {
+  if (classNames.length === 0) return [];
+  const { baseline, scenarios } = input;
+  const maxS = Math.max(...scenarios.flatMap((s) => [s.settings.s, ...Object.values(s.settings.overrides).map((o) => o.s ?? s.settings.s)]));
+  const from = 1;
+  const to = Math.max(2, Math.ceil(maxS * 1.3 * 4) / 4);
+  const classes = baseline.classes.map(({ histogram: _h, ...c }) => c);
+  const byClass = new Map<string, FrozenSweep>(
+    classNames.map((n) => [n, { className: n, metric: "delay", variable: "s", from, to, series: [], marks: [] }]),
+  );
+  scenarios.forEach((s, i) => {
+    const key = OPTION_KEYS[i]!;
+    const withReference = i === 0 && s.settings.level === "full";
+    const curves = sweep({
+      classes, technology: baseline.technology, settings: s.settings, variable: "s", metric: "delay",
+      from, to, points: SWEEP_POINTS, levels: withReference ? ["full", "coupled"] : [s.settings.level], classNames,
+    });
+    for (const c of curves) {
+      const target = byClass.get(c.className);
+      if (!target) continue;
+      if (c.level === s.settings.level) target.series.push({ key, label: `Option ${key}`, level: c.level, points: c.points });
+      else target.series.push({ key: "reference", label: `Option ${key} without size effects (bulk resistivity, barrier thins with S)`, level: c.level, points: c.points });
+    }
+    for (const cc of evaluations[i]!.classes) {
+      const target = byClass.get(cc.name);
+      if (!target) continue;
+      const sHere = s.settings.overrides[cc.name]?.s ?? s.settings.s;
+      target.marks.push({ key, x: sHere, y: cc.scenario.delayS });
+    }
+  });
+  const order = (k: string) => (k === "reference" ? "Z" : k);
+  return [...byClass.values()].map((sw) => ({ ...sw, series: [...sw.series].sort((a, b) => order(a.key).localeCompare(order(b.key))) }));
+}

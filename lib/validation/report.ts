@@ -1,0 +1,272 @@
+import { z } from "zod";
+import { MODEL_LEVELS, TIERS, type ModelLevel, type Tier } from "@/lib/scaling/types";
+
+/** Metrics a report can put in its tables (the compose form's "which metrics matter"). */
+export const REPORT_METRICS = ["delay", "rc", "resistance", "capacitance", "repeaters", "energy", "power", "overBudget"] as const;
+export type ReportMetric = (typeof REPORT_METRICS)[number];
+export const DEFAULT_REPORT_METRICS: ReportMetric[] = ["delay", "rc", "capacitance", "repeaters", "energy"];
+export const reportMetricSchema = z.enum(REPORT_METRICS, { error: `Metric must be one of ${REPORT_METRICS.join(", ")}.` });
+
+const idSchema = (what: string) => z.string({ error: `${what} is required.` }).min(1, `${what} is required.`).max(64, `${what} is not valid.`);
+
+export const reportTitleSchema = z
+  .string({ error: "Title is required." })
+  .trim()
+  .min(1, "Title is required.")
+  .max(200, "Title must be at most 200 characters.");
+export const audienceNoteSchema = z.string({ error: "Audience note must be text." }).trim().max(2000, "Audience note must be at most 2000 characters.");
+
+/** POST /api/teams/[teamId]/reports: compose and freeze a report. */
+export const composeReportSchema = z
+  .object({
+    baselineId: idSchema("Baseline"),
+    scenarioIds: z
+      .array(idSchema("Scenario"), { error: "Pick 2 to 4 scenarios." })
+      .min(2, "Pick at least 2 scenarios.")
+      .max(4, "Pick at most 4 scenarios.")
+      .refine((ids) => new Set(ids).size === ids.length, "Each scenario can appear only once."),
+    title: reportTitleSchema,
+    audienceNote: audienceNoteSchema.optional().default(""),
+    classNames: z
+      .array(z.string().trim().min(1, "Class name is required.").max(60, "Class name must be at most 60 characters."))
+      .min(1, "Pick at least one class, or leave the choice out for all classes.")
+      .max(50, "Pick at most 50 classes.")
+      .refine((n) => new Set(n).size === n.length, "Each class can appear only once.")
+      .optional(),
+    metrics: z
+      .array(reportMetricSchema)
+      .min(1, "Pick at least one metric.")
+      .refine((m) => new Set(m).size === m.length, "Each metric can appear only once.")
+      .optional(),
+  })
+  .strict();
+export type ComposeReport = z.infer<typeof composeReportSchema>;
+
+export const SHARE_LINK_DEFAULT_DAYS = 14;
+export const SHARE_LINK_MAX_DAYS = 90;
+const expiresInDaysSchema = z
+  .number({ error: "Expiry must be a whole number of days." })
+  .int("Expiry must be a whole number of days.")
+  .min(1, "Expiry must be at least 1 day.")
+  .max(SHARE_LINK_MAX_DAYS, `Expiry must be at most ${SHARE_LINK_MAX_DAYS} days.`);
+
+/** POST /api/reports/[id]/share-links. */
+export const createShareLinkSchema = z
+  .object({ expiresInDays: expiresInDaysSchema.optional().default(SHARE_LINK_DEFAULT_DAYS) })
+  .strict()
+  .optional()
+  .transform((v) => v ?? { expiresInDays: SHARE_LINK_DEFAULT_DAYS });
+
+export const EMAIL_MAX_RECIPIENTS = 20;
+
+/** POST /api/reports/[id]/email: send a short summary and a (new) share link. */
+export const emailReportSchema = z
+  .object({
+    to: z
+      .array(z.string().trim().toLowerCase().pipe(z.email({ error: (iss) => `"${String(iss.input)}" is not an e-mail address.` })), {
+        error: "List the addresses to send to.",
+      })
+      .min(1, "Add at least one address.")
+      .max(EMAIL_MAX_RECIPIENTS, `Send to at most ${EMAIL_MAX_RECIPIENTS} addresses at a time.`),
+    message: z.string().trim().max(1000, "The message must be at most 1000 characters.").optional().default(""),
+    expiresInDays: expiresInDaysSchema.optional().default(SHARE_LINK_DEFAULT_DAYS),
+  })
+  .strict();
+export type EmailReport = z.infer<typeof emailReportSchema>;
+
+// ---------------------------------------------------------------------------------------------
+// The frozen report document (reports.frozen). Validated before it is stored and on every read.
+// Engine result objects are loose (unknown extra keys are kept) so that additive engine changes
+// never make an old report unreadable; the fields the report renders are required.
+
+const num = z.number();
+/** Ratios can be 0/0 or x/0 in odd inputs; JSON stores those as null. */
+const ratioNum = z.number().nullable();
+const level = z.enum(MODEL_LEVELS as [ModelLevel, ...ModelLevel[]]);
+const tier = z.enum(TIERS as [Tier, ...Tier[]]);
+
+export const technologySnapshotSchema = z.looseObject({
+  supplyV: num,
+  clockHz: num,
+  repeaterR0Ohm: num,
+  repeaterC0F: num,
+  delayBudgetS: num,
+});
+
+export const classOverrideSnapshotSchema = z.looseObject({
+  s: num.optional(),
+  sL: num.optional(),
+  k: num.optional(),
+  metal: z.string().optional(),
+  barrierScales: z.boolean().optional(),
+  aspectRatio: num.optional(),
+  miller: num.optional(),
+  barrierM: num.optional(),
+});
+
+export const settingsSnapshotSchema = z.looseObject({
+  s: num,
+  sL: num,
+  level,
+  barrierScales: z.boolean(),
+  miller: num,
+  deviceRFactor: num,
+  deviceCFactor: num,
+  supplyV: num,
+  k: num.nullable(),
+  metal: z.string().nullable(),
+  overrides: z.record(z.string(), classOverrideSnapshotSchema),
+});
+
+export const wireClassSnapshotSchema = z.looseObject({
+  name: z.string(),
+  tier,
+  widthM: num,
+  thicknessM: num,
+  spacingM: num,
+  ildBelowM: num.nullable(),
+  ildAboveM: num.nullable(),
+  barrierM: num,
+  metal: z.string(),
+  k: num,
+  netCount: num,
+  meanLengthM: num,
+  driverOhm: num,
+  loadF: num,
+  activity: num,
+  histogram: z.array(z.object({ lengthM: num, count: num })).optional(),
+  /** Bins in the stored histogram (also when the bins themselves were too many to freeze). */
+  histogramBins: num.optional(),
+});
+
+const validityFlagSchema = z.looseObject({
+  model: z.string(),
+  quantity: z.string(),
+  value: num.nullable(),
+  min: num.nullable(),
+  max: num.nullable(),
+  message: z.string(),
+});
+
+const classResultSchema = z.looseObject({
+  name: z.string(),
+  tier,
+  widthM: num,
+  thicknessM: num,
+  spacingM: num,
+  ildBelowM: num.nullable(),
+  ildAboveM: num.nullable(),
+  barrierM: num,
+  pitchM: num,
+  lengthM: num,
+  metal: z.string(),
+  k: num,
+  resistivityOhmM: num,
+  rOhmPerM: num,
+  capacitance: z.looseObject({ areaFPerM: num, fringeFPerM: num, couplingFPerM: num, totalFPerM: num, model: z.string() }),
+  cFPerM: num,
+  rOhm: num,
+  cF: num,
+  rcS: num,
+  delayS: num,
+  elmoreS: num,
+  repeaters: z.looseObject({ count: num, size: num, delayS: num, criticalLengthM: num }),
+  energyJ: num,
+  totalEnergyJ: num.optional(),
+  powerW: num,
+  distribution: z.looseObject({
+    bins: z.array(z.looseObject({ lengthM: num, count: num, delayS: num, repeaters: num })),
+    totalNets: num,
+    shareOverBudget: num,
+    totalRepeaters: num,
+    meanDelayS: num,
+    totalCapacitanceF: num,
+    source: z.enum(["histogram", "mean"]),
+  }),
+  validity: z.array(validityFlagSchema),
+  accuracy: z.record(z.string(), z.string()),
+});
+
+const totalsSchema = z.looseObject({ capacitanceF: num, energyJ: num, powerW: num, repeaters: num, worstDelayS: num, meanDelayS: num });
+
+export const evaluationSnapshotSchema = z.looseObject({
+  engineVersion: z.string(),
+  level,
+  classes: z.array(
+    z.looseObject({
+      name: z.string(),
+      baseline: classResultSchema,
+      scenario: classResultSchema,
+      ratio: z.looseObject({
+        rOhmPerM: ratioNum,
+        cFPerM: ratioNum,
+        rOhm: ratioNum,
+        cF: ratioNum,
+        rcS: ratioNum,
+        delayS: ratioNum,
+        repeaters: ratioNum,
+        energyJ: ratioNum,
+      }),
+    }),
+  ),
+  totals: z.looseObject({ baseline: totalsSchema, scenario: totalsSchema }),
+});
+
+const sweepSeriesSchema = z.object({
+  /** Option key ("A".."D") or "reference" for the first option without size effects. */
+  key: z.string(),
+  label: z.string(),
+  level,
+  points: z.array(z.object({ x: num, y: num })),
+});
+
+export const frozenSweepSchema = z.object({
+  className: z.string(),
+  metric: z.enum(["delay", "rc", "r", "c"]),
+  variable: z.enum(["s", "sL", "k"]),
+  from: num,
+  to: num,
+  series: z.array(sweepSeriesSchema),
+  /** Where each option sits on the curve (its own S and result). */
+  marks: z.array(z.object({ key: z.string(), x: num, y: num })),
+});
+
+export const frozenOptionSchema = z.object({
+  /** "A", "B", … in the order the scenarios were picked. */
+  key: z.string().regex(/^[A-Z]$/),
+  /** Source scenario id; left out of the share-link view. */
+  scenarioId: z.string().optional(),
+  name: z.string(),
+  notes: z.string(),
+  version: z.number().int(),
+  settings: settingsSnapshotSchema,
+  evaluation: evaluationSnapshotSchema,
+});
+
+export const FROZEN_SCHEMA_VERSION = 1;
+
+export const frozenReportSchema = z.object({
+  schemaVersion: z.literal(FROZEN_SCHEMA_VERSION),
+  createdAt: z.number().int(),
+  engineVersion: z.string(),
+  modelLevels: z.array(level),
+  baseline: z.object({
+    /** Source baseline id; left out of the share-link view. */
+    id: z.string().optional(),
+    name: z.string(),
+    description: z.string(),
+    version: z.number().int(),
+    technology: technologySnapshotSchema,
+    classes: z.array(wireClassSnapshotSchema),
+  }),
+  options: z.array(frozenOptionSchema).min(1).max(4),
+  classNames: z.array(z.string()),
+  metrics: z.array(reportMetricSchema),
+  sweeps: z.array(frozenSweepSchema),
+  /** Histogram bins were dropped from the frozen results (too many to keep); totals were computed with them. */
+  binsTrimmed: z.boolean(),
+});
+export type FrozenReport = z.infer<typeof frozenReportSchema>;
+export type FrozenOption = z.infer<typeof frozenOptionSchema>;
+export type FrozenSweep = z.infer<typeof frozenSweepSchema>;
+export type FrozenClassResult = z.infer<typeof classResultSchema>;
