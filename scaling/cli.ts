@@ -71,8 +71,20 @@ function positiveOrThrow(name: string, v: number | undefined, what: string, allo
 }
 
 function parse(argv: string[], options: Record<string, { type: "string" | "boolean" }>): Record<string, string | boolean | undefined> {
+  // "--width -20nm" would read as an unknown option; glue negative numbers to their option so the
+  // value check below can say what is wrong with them.
+  const args: string[] = [];
+  for (let i = 0; i < argv.length; i++) {
+    const a = argv[i]!;
+    const next = argv[i + 1];
+    const name = a.startsWith("--") ? a.slice(2) : "";
+    if (name && options[name]?.type === "string" && next !== undefined && /^-[\d.]/.test(next)) {
+      args.push(`${a}=${next}`);
+      i++;
+    } else args.push(a);
+  }
   try {
-    const { values, positionals } = parseArgs({ args: argv, options: { ...options, json: { type: "boolean" }, help: { type: "boolean" } }, strict: true, allowPositionals: true });
+    const { values, positionals } = parseArgs({ args, options: { ...options, json: { type: "boolean" }, help: { type: "boolean" } }, strict: true, allowPositionals: true });
     if (positionals.length > 0) throw new UsageError(`unexpected argument "${positionals[0]}"`);
     return values as Record<string, string | boolean | undefined>;
   } catch (e) {

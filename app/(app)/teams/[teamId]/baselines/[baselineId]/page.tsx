@@ -1,0 +1,18 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { db } from "@/db/client";
+import { getBaselineWithClasses } from "@/db/queries/baselines";
+import { listScenarios } from "@/db/queries/scenarios";
+import { BaselineEditor } from "@/components/workspace/baseline-editor";
+import { getTeamContext } from "@/lib/team-context";
+
+export const metadata: Metadata = { title: "Baseline" };
+
+export default async function BaselinePage({ params }: { params: Promise<{ teamId: string; baselineId: string }> }) {
+  const { teamId, baselineId } = await params;
+  const ctx = await getTeamContext(teamId);
+  const baseline = await getBaselineWithClasses(db, baselineId);
+  if (!baseline || baseline.teamId !== teamId) notFound();
+  const scenarios = await listScenarios(db, teamId, baselineId);
+  return <BaselineEditor initial={baseline} role={ctx.role} userId={ctx.user.id} scenarios={scenarios.map((s) => ({ id: s.id, name: s.name }))} />;
+}

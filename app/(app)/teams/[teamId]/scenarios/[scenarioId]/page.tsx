@@ -1,0 +1,44 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { db } from "@/db/client";
+import { getBaseline } from "@/db/queries/baselines";
+import { getScenario } from "@/db/queries/scenarios";
+import { listClassesWithHistograms } from "@/db/queries/wire-classes";
+import { ScenarioEditor } from "@/components/workspace/scenario-editor";
+import type { SweepMetric } from "@/lib/scaling";
+import { getTeamContext } from "@/lib/team-context";
+import { coarsenHistogram } from "@/lib/workspace/histogram";
+
+export const metadata: Metadata = { title: "Scenario" };
+
+const METRICS: SweepMetric[] = ["delay", "rc", "r", "c"];
+
+export default async function ScenarioPage({ params, searchParams }: { params: Promise<{ teamId: string; scenarioId: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+  const { teamId, scenarioId } = await params;
+  const ctx = await getTeamContext(teamId);
+  const scenario = await getScenario(db, scenarioId);
+  if (!scenario || scenario.teamId !== teamId) notFound();
+  const baseline = (await getBaseline(db, scenario.baselineId))!;
+  const classes = (await listClassesWithHistograms(db, baseline.id)).map((c) => (c.histogram ? { ...c, histogram: coarsenHistogram(c.histogram) } : c));
+  const sp = await searchParams;
+  const one = (k: string) => (Array.isArray(sp[k]) ? sp[k][0] : sp[k]);
+  const num = (k: string, d: number) => {
+    const v = Number(one(k));
+    return v > 0 && v <= 20 ? v : d;
+  };
+  const metric = METRICS.includes(one("metric") as SweepMetric) ? (one("metric") as SweepMetric) : "delay";
+  let from = num("from", 0.5);
+  let to = num("to", 4);
+  if (!(to > from)) [from, to] = [0.5, 4];
+  const view = { metric, from, to, classes: (one("classes") ?? "").split(",").filter(Boolean) };
+  return (
+    <ScenarioEditor
+      teamId={teamId}
+      userId={ctx.user.id}
+      role={ctx.role}
+      initialScenario={scenario}
+      initialBaseline={{ ...baseline, classes }}
+      initialView={view}
+    />
+  );
+}

@@ -1,0 +1,26 @@
+import { db } from "@/db/client";
+import { getBaseline } from "@/db/queries/baselines";
+import { getScenario, scenarioTeamId } from "@/db/queries/scenarios";
+import { requireResourceRole } from "@/lib/access";
+import { apiRoute, badRequest } from "@/lib/api";
+import { readInput } from "@/lib/workspace/input";
+import { SCENARIO_JSON_LIMIT, scenarioEvaluateSchema } from "@/lib/validation/scenario";
+import { evaluateOrThrow, loadEngineInputs } from "@/lib/workspace/evaluate-server";
+import { normalizeSettings, unknownOverrideFields } from "@/lib/workspace/settings";
+
+export const dynamic = "force-dynamic";
+
+/** The engine's Evaluation of the stored baseline under the stored settings (or unsaved `settings` from the body). */
+export const POST = apiRoute<{ id: string }>(async (req, { id }) => {
+  await requireResourceRole(() => scenarioTeamId(db, id), "viewer", "Scenario");
+  const hasBody = (req.headers.get("content-length") ?? "0") !== "0" || req.headers.get("content-type");
+  const input = hasBody ? await readInput(req, scenarioEvaluateSchema, SCENARIO_JSON_LIMIT) : {};
+  const scenario = (await getScenario(db, id))!;
+  const baseline = (await getBaseline(db, scenario.baselineId))!;
+  const { classes, technology } = await loadEngineInputs(db, baseline.id);
+  const settings = input.settings ? normalizeSettings(input.settings, technology) : scenario.settings;
+  const unknown = unknownOverrideFields(settings, classes.map((c) => c.name));
+  if (unknown) throw badRequest(`Per-class settings name classes that are not in the baseline: ${Object.values(unknown).flat().join(" ")}`, unknown);
+  const evaluation = evaluateOrThrow({ classes, technology, settings });
+  return Response.json({ evaluation, settings, baselineVersion: baseline.version, scenarioVersion: scenario.version });
+});

@@ -1,0 +1,159 @@
+"use client";
+import { useMemo } from "react";
+import { Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart } from "@visx/xychart";
+import type { ModelLevel, SweepMetric, SweepPoint } from "@/lib/scaling";
+import { GridRowsAt } from "./ref-line";
+import { CHART, LEVEL_STYLE, chartTheme, logTicks, scaleTicks, tick } from "./chart-theme";
+
+/** Display unit of each sweep metric (y values arrive in SI). */
+export const SWEEP_METRIC: Record<SweepMetric, { label: string; unit: string; scale: number }> = {
+  delay: { label: "50% delay", unit: "ps", scale: 1e12 },
+  rc: { label: "RC", unit: "ps", scale: 1e12 },
+  r: { label: "Resistance", unit: "Ω", scale: 1 },
+  c: { label: "Capacitance", unit: "fF", scale: 1e15 },
+};
+
+export interface SweepChartData {
+  className: string;
+  curves: { level: ModelLevel; points: SweepPoint[] }[];
+}
+
+export interface SweepChartProps {
+  data: SweepChartData;
+  width: number;
+  height: number;
+  metric: SweepMetric;
+  /** x axis label, e.g. "S (cross-section factor)". */
+  xLabel?: string;
+  /** Mark the scenario's current value of the swept variable. */
+  markerX?: number;
+  logX?: boolean;
+  logY?: boolean;
+  /** Show the level legend under the chart (small multiples usually share one). */
+  legend?: boolean;
+}
+
+type Datum = { x: number; y: number; level: ModelLevel };
+const xAcc = (d: Datum) => d.x;
+const yAcc = (d: Datum) => d.y;
+
+/** A metric against the scale factor for one class, one curve per model level: where the copper curve flattens, scaling stops paying. */
+export function SweepChart({ data, width, height, metric, xLabel = "S (cross-section factor)", markerX, logX = true, logY = true, legend = false }: SweepChartProps) {
+  const m = SWEEP_METRIC[metric];
+  const series = useMemo(
+    () =>
+      data.curves.map((c) => ({
+        level: c.level,
+        points: c.points.filter((p) => Number.isFinite(p.y) && p.y > 0).map((p) => ({ x: p.x, y: p.y * m.scale, level: c.level })),
+      })),
+    [data, m.scale],
+  );
+  const { xDomain, yDomain } = useMemo(() => {
+    const xs = series.flatMap((s) => s.points.map((p) => p.x));
+    const ys = series.flatMap((s) => s.points.map((p) => p.y));
+    if (xs.length === 0) return { xDomain: [0.5, 4] as [number, number], yDomain: [1, 10] as [number, number] };
+    const yLo = Math.min(...ys);
+    const yHi = Math.max(...ys);
+    return {
+      xDomain: [Math.min(...xs), Math.max(...xs)] as [number, number],
+      yDomain: (logY ? [yLo / 1.15, yHi * 1.15] : [0, yHi * 1.08]) as [number, number],
+    };
+  }, [series, logY]);
+  const xTicks = scaleTicks(xDomain[0], xDomain[1], Math.max(3, Math.floor(width / 70)));
+  const yTicks = logY ? logTicks(yDomain[0], yDomain[1], Math.max(3, Math.floor(height / 40))) : undefined;
+  const marker = markerX !== undefined && markerX >= xDomain[0] && markerX <= xDomain[1] ? markerX : undefined;
+  const markerPoints = marker !== undefined ? series.map((s) => nearest(s.points, marker)).filter((p): p is Datum => !!p) : [];
+
+  return (
+    <figure className="sweep-chart m-0" data-class={data.className}>
+      <figcaption className="mb-1 text-xs font-semibold text-ink">
+        {data.className} <span className="font-normal text-muted">· {m.label} vs {xLabel.split(" ")[0]}</span>
+      </figcaption>
+      <XYChart
+        width={width}
+        height={height}
+        theme={chartTheme}
+        margin={{ top: 8, right: 14, bottom: 40, left: 62 }}
+        xScale={logX ? { type: "log", domain: xDomain } : { type: "linear", domain: xDomain, zero: false }}
+        yScale={logY ? { type: "log", domain: yDomain } : { type: "linear", domain: yDomain, zero: true }}
+        accessibilityLabel={`${m.label} of ${data.className} against ${xLabel}`}
+      >
+        {yTicks ? <GridRowsAt values={yTicks} color={CHART.grid} /> : <Grid columns={false} numTicks={4} lineStyle={{ stroke: CHART.grid }} />}
+        <Axis orientation="bottom" label={xLabel} tickValues={xTicks} tickFormat={(v) => tick(Number(v))} labelOffset={12} />
+        <Axis orientation="left" label={`${m.label} (${m.unit})`} tickValues={yTicks} numTicks={4} tickFormat={(v) => tick(Number(v))} labelOffset={34} />
+        {series.map((s) => (
+          <LineSeries
+            key={s.level}
+            dataKey={LEVEL_STYLE[s.level].label}
+            data={s.points}
+            xAccessor={xAcc}
+            yAccessor={yAcc}
+            colorAccessor={() => LEVEL_STYLE[s.level].color}
+            strokeDasharray={LEVEL_STYLE[s.level].dash}
+            strokeWidth={LEVEL_STYLE[s.level].width}
+          />
+        ))}
+        {markerPoints.length > 0 ? (
+          <GlyphSeries
+            dataKey="Current scenario"
+            data={markerPoints}
+            xAccessor={xAcc}
+            yAccessor={yAcc}
+            colorAccessor={(d: Datum) => LEVEL_STYLE[d.level].color}
+            size={6}
+          />
+        ) : null}
+        <Tooltip<Datum>
+          snapTooltipToDatumX
+          showVerticalCrosshair
+          showSeriesGlyphs
+          verticalCrosshairStyle={{ stroke: CHART.rule, strokeDasharray: "3 3" }}
+          renderTooltip={({ tooltipData }) => {
+            const near = tooltipData?.nearestDatum?.datum;
+            if (!near) return null;
+            return (
+              <div className="text-xs">
+                <div className="mb-0.5 font-semibold">
+                  {data.className} at S = {tick(near.x)}
+                </div>
+                {Object.entries(tooltipData?.datumByKey ?? {})
+                  .filter(([k]) => k !== "Current scenario")
+                  .map(([k, v]) => (
+                    <div key={k} className="flex justify-between gap-3">
+                      <span style={{ color: LEVEL_STYLE[(v.datum as Datum).level].color }}>{k}</span>
+                      <span className="tabular">
+                        {tick((v.datum as Datum).y)} {m.unit}
+                      </span>
+                    </div>
+                  ))}
+              </div>
+            );
+          }}
+        />
+      </XYChart>
+      {legend ? <LevelLegend /> : null}
+    </figure>
+  );
+}
+
+function nearest(points: Datum[], x: number): Datum | undefined {
+  let best: Datum | undefined;
+  for (const p of points) if (!best || Math.abs(Math.log(p.x / x)) < Math.abs(Math.log(best.x / x))) best = p;
+  return best;
+}
+
+/** Legend of the model levels (line sample + name). */
+export function LevelLegend({ levels = ["ideal", "fringe", "coupled", "full"] as ModelLevel[] }: { levels?: ModelLevel[] }) {
+  return (
+    <ul className="flex flex-wrap gap-x-4 gap-y-1 text-xs text-muted" aria-label="Model levels">
+      {levels.map((l) => (
+        <li key={l} className="flex items-center gap-1.5">
+          <svg width="26" height="8" aria-hidden="true">
+            <line x1="1" y1="4" x2="25" y2="4" stroke={LEVEL_STYLE[l].color} strokeWidth={LEVEL_STYLE[l].width} strokeDasharray={LEVEL_STYLE[l].dash} />
+          </svg>
+          {LEVEL_STYLE[l].label}
+        </li>
+      ))}
+    </ul>
+  );
+}

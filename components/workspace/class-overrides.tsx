@@ -1,0 +1,152 @@
+"use client";
+import { useEffect, useState } from "react";
+import { METALS, type ClassOverride, type ScenarioSettings, type WireClass } from "@/lib/scaling";
+import { inputClass } from "@/components/ui/field";
+import { DielectricField } from "./settings-panel";
+import { formatValue, parseValue, U, type DisplayUnit } from "./units";
+
+type NumKey = "s" | "sL" | "aspectRatio" | "miller" | "barrierM";
+const CHECK: Record<NumKey, (v: number) => string | undefined> = {
+  s: (v) => (v <= 0 ? "S must be greater than 0." : v > 20 ? "S must be at most 20." : undefined),
+  sL: (v) => (v <= 0 ? "S_L must be greater than 0." : v > 20 ? "S_L must be at most 20." : undefined),
+  aspectRatio: (v) => (v <= 0 ? "Aspect ratio must be greater than 0." : v > 10 ? "Aspect ratio must be at most 10." : undefined),
+  miller: (v) => (v < 0 || v > 2 ? "Miller factor must be between 0 and 2." : undefined),
+  barrierM: (v) => (v < 0 ? "Barrier must not be negative." : v > 1e-6 ? "Barrier must be at most 1 µm." : undefined),
+};
+
+/** Per-class overrides of the global settings; an empty cell inherits. */
+export function ClassOverrides({ settings, onChange, classes, readOnly, errors }: { settings: ScenarioSettings; onChange: (s: ScenarioSettings) => void; classes: WireClass[]; readOnly: boolean; errors: Record<string, string[]> }) {
+  const setO = (name: string, patch: Partial<ClassOverride>) => {
+    const next: ClassOverride = { ...(settings.overrides[name] ?? {}), ...patch };
+    for (const k of Object.keys(next) as (keyof ClassOverride)[]) if (next[k] === undefined) delete next[k];
+    const overrides = { ...settings.overrides };
+    if (Object.keys(next).length === 0) delete overrides[name];
+    else overrides[name] = next;
+    onChange({ ...settings, overrides });
+  };
+  const show = (v: unknown) => (v === undefined ? <span className="text-faint">—</span> : String(v));
+  return (
+    <div className="overflow-x-auto">
+      <table className="num w-full text-xs">
+        <caption className="sr-only">Per-class overrides</caption>
+        <thead className="text-left text-muted">
+          <tr className="border-b border-rule">
+            <th className="py-1 pr-2 font-medium">Class</th>
+            <th className="px-1 text-right font-medium">S</th>
+            <th className="px-1 text-right font-medium">S_L</th>
+            <th className="px-1 font-medium">k</th>
+            <th className="px-1 font-medium">Metal</th>
+            <th className="px-1 font-medium">Barrier</th>
+            <th className="px-1 text-right font-medium">Barrier nm</th>
+            <th className="px-1 text-right font-medium">T/W</th>
+            <th className="px-1 text-right font-medium">Miller</th>
+          </tr>
+        </thead>
+        <tbody>
+          {classes.map((c) => {
+            const o = settings.overrides[c.name] ?? {};
+            const e = (k: string) => errors[`settings.overrides.${c.name}.${k}`];
+            if (readOnly)
+              return (
+                <tr key={c.name} className="border-b border-rule/60">
+                  <th scope="row" className="py-1 pr-2 text-left font-medium">{c.name}</th>
+                  <td className="px-1 text-right">{show(o.s)}</td>
+                  <td className="px-1 text-right">{show(o.sL)}</td>
+                  <td className="px-1">{show(o.k)}</td>
+                  <td className="px-1">{show(o.metal)}</td>
+                  <td className="px-1">{o.barrierScales === undefined ? show(undefined) : o.barrierScales ? "scales" : "fixed"}</td>
+                  <td className="px-1 text-right">{o.barrierM === undefined ? show(undefined) : formatValue(o.barrierM, U.nm)}</td>
+                  <td className="px-1 text-right">{show(o.aspectRatio)}</td>
+                  <td className="px-1 text-right">{show(o.miller)}</td>
+                </tr>
+              );
+            return (
+              <tr key={c.name} className="border-b border-rule/60 align-top">
+                <th scope="row" className="py-1 pr-2 text-left font-medium">{c.name}</th>
+                {(["s", "sL"] as const).map((k) => (
+                  <td key={k} className="px-1 py-0.5">
+                    <OptionalNumber label={`${k === "s" ? "S" : "S_L"} for ${c.name}`} value={o[k]} onChange={(v) => setO(c.name, { [k]: v })} check={CHECK[k]} errors={e(k)} />
+                  </td>
+                ))}
+                <td className="px-1 py-0.5">
+                  <DielectricField compact label={`k for ${c.name}`} value={o.k ?? null} onChange={(k) => setO(c.name, { k: k ?? undefined })} errors={e("k")} />
+                </td>
+                <td className="px-1 py-0.5">
+                  <select aria-label={`Metal for ${c.name}`} className={`${inputClass} px-1 py-1 text-xs`} value={o.metal ?? ""} onChange={(ev) => setO(c.name, { metal: ev.target.value || undefined })}>
+                    <option value="">—</option>
+                    {Object.keys(METALS).map((m) => (
+                      <option key={m} value={m}>
+                        {m}
+                      </option>
+                    ))}
+                  </select>
+                </td>
+                <td className="px-1 py-0.5">
+                  <select
+                    aria-label={`Barrier for ${c.name}`}
+                    className={`${inputClass} px-1 py-1 text-xs`}
+                    value={o.barrierScales === undefined ? "" : o.barrierScales ? "scales" : "fixed"}
+                    onChange={(ev) => setO(c.name, { barrierScales: ev.target.value === "" ? undefined : ev.target.value === "scales" })}
+                  >
+                    <option value="">—</option>
+                    <option value="fixed">fixed</option>
+                    <option value="scales">scales</option>
+                  </select>
+                </td>
+                <td className="px-1 py-0.5">
+                  <OptionalNumber label={`Barrier thickness for ${c.name} (nm)`} unit={U.nm} value={o.barrierM} onChange={(v) => setO(c.name, { barrierM: v })} check={CHECK.barrierM} errors={e("barrierM")} />
+                </td>
+                {(["aspectRatio", "miller"] as const).map((k) => (
+                  <td key={k} className="px-1 py-0.5">
+                    <OptionalNumber label={`${k === "miller" ? "Miller factor" : "Aspect ratio"} for ${c.name}`} value={o[k]} onChange={(v) => setO(c.name, { [k]: v })} check={CHECK[k]} errors={e(k)} />
+                  </td>
+                ))}
+              </tr>
+            );
+          })}
+        </tbody>
+      </table>
+      <p className="mt-1 text-[11px] text-muted">Empty cells follow the global settings. Barrier nm replaces the barrier thickness (0 = barrier-free fill). k accepts an effective value for air gaps.</p>
+    </div>
+  );
+}
+
+function OptionalNumber({ label, value, onChange, check, errors, unit = U.none }: { unit?: DisplayUnit; label: string; value: number | undefined; onChange: (v: number | undefined) => void; check: (v: number) => string | undefined; errors?: string[] }) {
+  const [text, setText] = useState(value === undefined ? "" : formatValue(value, unit));
+  const [msg, setMsg] = useState<string | undefined>();
+  useEffect(() => {
+    const p = parseValue(text, unit);
+    if ((value === undefined && text.trim() !== "") || (value !== undefined && (!p.ok || p.value !== value))) {
+      setText(value === undefined ? "" : formatValue(value, unit));
+      setMsg(undefined);
+    }
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [value]);
+  const all = [...(msg ? [msg] : []), ...(errors ?? [])];
+  return (
+    <div className="w-16">
+      <input
+        aria-label={label}
+        inputMode="decimal"
+        value={text}
+        placeholder="—"
+        aria-invalid={all.length ? true : undefined}
+        className={`${inputClass} tabular px-1 py-1 text-right text-xs`}
+        onChange={(e) => {
+          setText(e.target.value);
+          if (e.target.value.trim() === "") {
+            setMsg(undefined);
+            return onChange(undefined);
+          }
+          const p = parseValue(e.target.value, unit);
+          if (!p.ok) return setMsg(p.message);
+          const m = check(p.value);
+          if (m) return setMsg(m);
+          setMsg(undefined);
+          onChange(p.value);
+        }}
+      />
+      {all.length ? <p className="text-[11px] text-bad">{all.join(" ")}</p> : null}
+    </div>
+  );
+}

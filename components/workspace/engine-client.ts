@@ -1,0 +1,60 @@
+"use client";
+import type { FieldSolveResult, SweepCurve } from "@/lib/scaling";
+import type { FieldArgs, SweepArgs, WorkerRequest, WorkerResponse } from "./engine-protocol";
+
+type Pending = {
+  resolve: (v: unknown) => void;
+  reject: (e: Error) => void;
+  onProgress?: (f: number) => void;
+};
+
+/** Superseded by a newer sweep while queued: callers ignore it. */
+export class Superseded extends Error {}
+
+/** One Web Worker running the engine; requests are answered in order, sweeps coalesce. */
+export class EngineWorker {
+  private worker: Worker;
+  private next = 1;
+  private pending = new Map<number, Pending>();
+
+  constructor() {
+    this.worker = new Worker(new URL("./engine-worker.ts", import.meta.url), { type: "module" });
+    this.worker.onmessage = (ev: MessageEvent<WorkerResponse>) => {
+      const msg = ev.data;
+      const p = this.pending.get(msg.id);
+      if (!p) return;
+      if (msg.kind === "progress") return p.onProgress?.(msg.fraction);
+      this.pending.delete(msg.id);
+      if (msg.kind === "sweep") p.resolve(msg.curves);
+      else if (msg.kind === "field") p.resolve(msg.result);
+      else if (msg.kind === "superseded") p.reject(new Superseded("superseded"));
+      else p.reject(new Error(msg.message));
+    };
+    this.worker.onerror = (ev) => {
+      for (const p of this.pending.values()) p.reject(new Error(ev.message || "The engine worker failed."));
+      this.pending.clear();
+    };
+  }
+
+  private send<T>(req: Omit<WorkerRequest, "id">, onProgress?: (f: number) => void): Promise<T> {
+    const id = this.next++;
+    return new Promise<T>((resolve, reject) => {
+      this.pending.set(id, { resolve: resolve as (v: unknown) => void, reject, onProgress });
+      this.worker.postMessage({ ...req, id } as WorkerRequest);
+    });
+  }
+
+  sweep(args: SweepArgs): Promise<SweepCurve[]> {
+    return this.send({ kind: "sweep", args } as Omit<WorkerRequest, "id">);
+  }
+
+  field(args: FieldArgs, onProgress?: (f: number) => void): Promise<FieldSolveResult> {
+    return this.send({ kind: "field", args } as Omit<WorkerRequest, "id">, onProgress);
+  }
+
+  terminate(): void {
+    this.worker.terminate();
+    for (const p of this.pending.values()) p.reject(new Superseded("terminated"));
+    this.pending.clear();
+  }
+}

@@ -1,0 +1,59 @@
+/// <reference lib="webworker" />
+// The heavy engine work off the main thread: sweeps and the field check.
+import { fieldSolve, sweep, type FieldSolveInput } from "@/lib/scaling";
+import type { WorkerRequest, WorkerResponse } from "./engine-protocol";
+
+const scope = self as unknown as DedicatedWorkerGlobalScope;
+let pendingSweep: Extract<WorkerRequest, { kind: "sweep" }> | null = null;
+let scheduled = false;
+
+function post(msg: WorkerResponse) {
+  scope.postMessage(msg);
+}
+
+// Sweeps coalesce: while a slider moves, only the newest queued request is computed.
+function runPendingSweep() {
+  scheduled = false;
+  const req = pendingSweep;
+  pendingSweep = null;
+  if (!req) return;
+  try {
+    const t0 = performance.now();
+    const curves = sweep(req.args);
+    post({ id: req.id, kind: "sweep", curves, elapsedMs: performance.now() - t0 });
+  } catch (e) {
+    post({ id: req.id, kind: "error", message: e instanceof Error ? e.message : String(e) });
+  }
+}
+
+scope.onmessage = (ev: MessageEvent<WorkerRequest>) => {
+  const req = ev.data;
+  if (req.kind === "sweep") {
+    if (pendingSweep) post({ id: pendingSweep.id, kind: "superseded" });
+    pendingSweep = req;
+    if (!scheduled) {
+      scheduled = true;
+      setTimeout(runPendingSweep, 0);
+    }
+    return;
+  }
+  if (req.kind === "field") {
+    try {
+      let last = 0;
+      const input: FieldSolveInput = {
+        ...req.args,
+        onProgress: (fraction: number) => {
+          const now = performance.now();
+          if (now - last > 50 || fraction >= 1) {
+            last = now;
+            post({ id: req.id, kind: "progress", fraction });
+          }
+        },
+      };
+      const result = fieldSolve(input);
+      post({ id: req.id, kind: "field", result });
+    } catch (e) {
+      post({ id: req.id, kind: "error", message: e instanceof Error ? e.message : String(e) });
+    }
+  }
+};

@@ -1,0 +1,137 @@
+"use client";
+import { useEffect, useRef, useState } from "react";
+import { lineCapacitance, type ClassResult, type FieldSolveResult } from "@/lib/scaling";
+import { Button } from "@/components/ui/button";
+import { inputClass } from "@/components/ui/field";
+import { Notice } from "@/components/ui/card";
+import { CrossSection } from "./cross-section";
+import { EngineWorker } from "./engine-client";
+import { fmt } from "./units";
+
+const FF_PER_UM = { label: "fF/µm", unitSI: 1e-9, base: "" as const, suffix: "" };
+
+/** Field check: the engine's numeric 2D solve in a Web Worker against the closed form, on the scenario's scaled cross-section. */
+export function FieldCheck({ results }: { results: ClassResult[] }) {
+  const [name, setName] = useState(results[0]?.name ?? "");
+  const [resolution, setResolution] = useState<"coarse" | "default" | "fine">("default");
+  const [progress, setProgress] = useState<number | null>(null);
+  const [out, setOut] = useState<{ r: FieldSolveResult; cls: ClassResult } | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const worker = useRef<EngineWorker | null>(null);
+  useEffect(() => () => worker.current?.terminate(), []);
+  const cls = results.find((r) => r.name === name) ?? results[0];
+  if (!cls) return null;
+  const below = cls.ildBelowM ?? cls.ildAboveM;
+  const above = cls.ildBelowM === null ? null : cls.ildAboveM;
+
+  async function run() {
+    if (!cls || below === null) return;
+    setError(null);
+    setOut(null);
+    setProgress(0);
+    worker.current ??= new EngineWorker();
+    try {
+      const r = await worker.current.field(
+        { widthM: cls.widthM, thicknessM: cls.thicknessM, spacingM: cls.spacingM, heightBelowM: below, heightAboveM: above, k: cls.k, resolution },
+        (f) => setProgress(f),
+      );
+      setOut({ r, cls });
+    } catch (e) {
+      setError(e instanceof Error ? e.message : String(e));
+    } finally {
+      setProgress(null);
+    }
+  }
+
+  const closed = out
+    ? lineCapacitance({ widthM: out.cls.widthM, thicknessM: out.cls.thicknessM, spacingM: out.cls.spacingM, heightBelowM: out.cls.ildBelowM ?? out.cls.ildAboveM, heightAboveM: out.cls.ildBelowM === null ? null : out.cls.ildAboveM, k: out.cls.k, miller: 1, model: "coupled" })
+    : null;
+  const rows = out && closed
+    ? [
+        { label: "Ground (to planes)", numeric: out.r.groundFPerM, closed: closed.areaFPerM + closed.fringeFPerM },
+        { label: "Coupling (one neighbour)", numeric: out.r.couplingFPerM, closed: closed.couplingPerNeighbourFPerM },
+        { label: "Total (ground + 2 × coupling)", numeric: out.r.totalFPerM, closed: closed.areaFPerM + closed.fringeFPerM + 2 * closed.couplingPerNeighbourFPerM },
+      ]
+    : [];
+
+  return (
+    <div className="grid gap-4 md:grid-cols-[auto_1fr]">
+      <div className="space-y-2">
+        <div className="flex items-end gap-2">
+          <label className="text-xs">
+            <span className="mb-1 block font-medium">Class</span>
+            <select className={`${inputClass} py-1 text-xs`} value={cls.name} onChange={(e) => setName(e.target.value)}>
+              {results.map((r) => (
+                <option key={r.name} value={r.name}>
+                  {r.name}
+                </option>
+              ))}
+            </select>
+          </label>
+          <label className="text-xs">
+            <span className="mb-1 block font-medium">Grid</span>
+            <select className={`${inputClass} py-1 text-xs`} value={resolution} onChange={(e) => setResolution(e.target.value as typeof resolution)}>
+              <option value="coarse">coarse</option>
+              <option value="default">default</option>
+              <option value="fine">fine</option>
+            </select>
+          </label>
+          <Button onClick={run} disabled={progress !== null || below === null} variant="secondary">
+            {progress !== null ? "Solving…" : "Run field check"}
+          </Button>
+        </div>
+        <CrossSection widthM={cls.widthM} thicknessM={cls.thicknessM} spacingM={cls.spacingM} heightBelowM={below ?? cls.thicknessM} heightAboveM={above} barrierM={cls.barrierM} />
+        <p className="max-w-[260px] text-[11px] text-muted">Scaled cross-section of the scenario, one dielectric k = {cls.k}. Neighbours are grounded.</p>
+      </div>
+      <div>
+        {progress !== null ? (
+          <div className="mb-3" aria-live="polite">
+            <div className="mb-1 text-xs text-muted">Solving Laplace&apos;s equation on the cross-section… {Math.round(progress * 100)}%</div>
+            <div className="h-2 w-full max-w-sm overflow-hidden rounded bg-rule" role="progressbar" aria-valuemin={0} aria-valuemax={100} aria-valuenow={Math.round(progress * 100)} aria-label="Field check progress">
+              <div className="h-full bg-copper transition-[width]" style={{ width: `${Math.max(3, progress * 100)}%` }} />
+            </div>
+          </div>
+        ) : null}
+        {error ? <Notice tone="bad">Field check failed: {error}</Notice> : null}
+        {out ? (
+          <div data-testid="field-check-result">
+            <table className="num w-full max-w-lg text-xs">
+              <caption className="mb-1 text-left text-xs font-semibold text-ink">
+                {out.cls.name}: numeric 2D solve vs closed form
+              </caption>
+              <thead className="text-muted">
+                <tr className="border-b border-rule">
+                  <th className="py-1 text-left font-medium">Part</th>
+                  <th className="px-2 text-right font-medium">Numeric (fF/µm)</th>
+                  <th className="px-2 text-right font-medium">Closed form (fF/µm)</th>
+                  <th className="px-2 text-right font-medium">Difference</th>
+                </tr>
+              </thead>
+              <tbody>
+                {rows.map((r) => {
+                  const diff = r.numeric > 0 ? ((r.closed - r.numeric) / r.numeric) * 100 : NaN;
+                  return (
+                    <tr key={r.label} className="border-b border-rule/60">
+                      <td className="py-1">{r.label}</td>
+                      <td className="tabular px-2 text-right">{fmt(r.numeric, FF_PER_UM)}</td>
+                      <td className="tabular px-2 text-right">{fmt(r.closed, FF_PER_UM)}</td>
+                      <td className={`tabular px-2 text-right ${Math.abs(diff) > 10 ? "text-bad" : Math.abs(diff) > 5 ? "text-warn" : "text-good"}`}>
+                        {Number.isFinite(diff) ? `${diff > 0 ? "+" : ""}${diff.toFixed(1)}%` : "—"}
+                      </td>
+                    </tr>
+                  );
+                })}
+              </tbody>
+            </table>
+            <p className="mt-1 max-w-lg text-[11px] text-muted">Closed form: {closed?.accuracy}</p>
+            <p className="mt-1 text-[11px] text-muted">
+              {out.r.cells.toLocaleString("en")} cells, {out.r.iterations} iterations, residual {out.r.residual.toExponential(1)}, {Math.round(out.r.elapsedMs)} ms. Difference = closed form relative to the numeric solve.
+            </p>
+          </div>
+        ) : progress === null && !error ? (
+          <p className="text-sm text-muted">Run a field check to set the closed-form capacitance of a class against a numeric 2D solve of its scaled cross-section.</p>
+        ) : null}
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,150 @@
+"use client";
+import type { ClassComparison, ClassResult, Evaluation } from "@/lib/scaling";
+import { fmt, fmtRatio, U } from "./units";
+
+// Per-length units: Ω/µm = 1e6 Ω/m, fF/µm = 1e-9 F/m; repeated delay per mm: ps/mm = 1e-9 s/m.
+const PER_UM_OHM = { label: "Ω/µm", unitSI: 1e6, base: "" as const, suffix: "" };
+const FF_PER_UM = { label: "fF/µm", unitSI: 1e-9, base: "" as const, suffix: "" };
+const PS_PER_MM = { label: "ps/mm", unitSI: 1e-9, base: "" as const, suffix: "" };
+const FJ = { label: "fJ", unitSI: 1e-15, base: "" as const, suffix: "" };
+
+type Col = { key: string; label: string; unit: string; get: (r: ClassResult) => number; ratio?: (c: ClassComparison) => number; concern?: "capacitance" | "resistivity" | "delay" | "repeaters"; title?: string };
+
+const COLS: Col[] = [
+  { key: "r", label: "R", unit: "Ω/µm", get: (r) => Number(fmtRaw(r.rOhmPerM, PER_UM_OHM.unitSI)), ratio: (c) => c.ratio.rOhmPerM, concern: "resistivity" },
+  { key: "c", label: "C total", unit: "fF/µm", get: (r) => Number(fmtRaw(r.cFPerM, FF_PER_UM.unitSI)), ratio: (c) => c.ratio.cFPerM, concern: "capacitance" },
+  { key: "ca", label: "area", unit: "fF/µm", get: (r) => Number(fmtRaw(r.capacitance.areaFPerM, FF_PER_UM.unitSI)), title: "Parallel-plate part to the plane(s)" },
+  { key: "cf", label: "fringe", unit: "fF/µm", get: (r) => Number(fmtRaw(r.capacitance.fringeFPerM, FF_PER_UM.unitSI)), title: "Fringing to the plane(s)" },
+  { key: "cc", label: "coupling", unit: "fF/µm", get: (r) => Number(fmtRaw(r.capacitance.couplingFPerM, FF_PER_UM.unitSI)), title: "Line-to-line, both neighbours, Miller factor applied" },
+  { key: "rc", label: "RC", unit: "ps", get: (r) => Number(fmtRaw(r.rcS, 1e-12)), ratio: (c) => c.ratio.rcS },
+  { key: "d", label: "Delay 50%", unit: "ps", get: (r) => Number(fmtRaw(r.delayS, 1e-12)), ratio: (c) => c.ratio.delayS, concern: "delay", title: "Driver + line + load at the class's typical (mean) length" },
+  { key: "n", label: "Repeaters", unit: "", get: (r) => r.repeaters.count - 1, ratio: (c) => c.ratio.repeaters, concern: "repeaters", title: "Inserted repeaters on a line of the typical length (0 = driver only)" },
+  { key: "rd", label: "Repeated", unit: "ps/mm", get: (r) => Number(fmtRaw(r.repeaters.delayPerMS, PS_PER_MM.unitSI)), title: "Delay per mm of an optimally repeated line" },
+  { key: "e", label: "Energy", unit: "fJ", get: (r) => Number(fmtRaw(r.energyJ, FJ.unitSI)), ratio: (c) => c.ratio.energyJ, title: "C·V² per transition, line + load" },
+];
+
+function fmtRaw(v: number, unitSI: number): number {
+  return v / unitSI;
+}
+
+function show(v: number): string {
+  return fmt(v, U.none);
+}
+
+function tone(r: number): string {
+  if (!Number.isFinite(r)) return "";
+  if (r < 0.995) return "bg-good-soft text-good";
+  if (r > 1.005) return "bg-bad-soft text-bad";
+  return "text-muted";
+}
+
+/** Baseline vs scenario per class, ratio row highlighted, validity flags and model accuracy beside the figures. */
+export function ResultsTable({ evaluation, dataKey }: { evaluation: Evaluation; dataKey?: string }) {
+  return (
+    <div className="overflow-x-auto" data-results-key={dataKey}>
+      <table className="num w-full border-collapse text-xs" data-testid="results-table">
+        <caption className="sr-only">Results per wire class: baseline, scenario and scenario/baseline ratio</caption>
+        <thead>
+          <tr className="border-b border-rule-strong text-muted">
+            <th scope="col" className="py-1.5 pr-2 text-left font-medium">Class</th>
+            <th scope="col" className="pr-2 text-left font-medium" />
+            {COLS.map((c) => (
+              <th key={c.key} scope="col" className="px-1.5 text-right font-medium" title={c.title}>
+                {c.label}
+                {c.unit ? <span className="block text-[10px] font-normal text-faint">{c.unit}</span> : <span className="block text-[10px]">&nbsp;</span>}
+              </th>
+            ))}
+          </tr>
+        </thead>
+        {evaluation.classes.map((cc) => (
+          <ClassRows key={cc.name} cc={cc} />
+        ))}
+      </table>
+    </div>
+  );
+}
+
+function ClassRows({ cc }: { cc: ClassComparison }) {
+  const s = cc.scenario;
+  const flags = s.validity;
+  return (
+    <tbody className="border-b border-rule" data-class={cc.name}>
+      <tr>
+        <th scope="rowgroup" rowSpan={3} className="py-1 pr-2 text-left align-top">
+          <div className="font-semibold text-ink">{cc.name}</div>
+          {s.tier !== cc.name ? <div className="font-normal text-muted">{s.tier}</div> : null}
+          <div className="font-normal text-muted">
+            {fmt(s.pitchM, U.nm, 3)} nm pitch · {fmt(s.lengthM, U.um, 3)} µm
+          </div>
+          {flags.length ? (
+            <div className="mt-0.5 inline-block rounded bg-warn-soft px-1 text-[10px] font-medium text-warn" title={flags.map((f) => f.message).join("\n")}>
+              {flags.length} validity flag{flags.length > 1 ? "s" : ""}
+            </div>
+          ) : null}
+        </th>
+        <td className="pr-2 text-muted">Baseline</td>
+        {COLS.map((c) => (
+          <td key={c.key} className="tabular px-1.5 py-0.5 text-right text-muted">
+            {show(c.get(cc.baseline))}
+          </td>
+        ))}
+      </tr>
+      <tr>
+        <td className="pr-2 font-medium text-ink">Scenario</td>
+        {COLS.map((c) => (
+          <td key={c.key} className="tabular px-1.5 py-0.5 text-right font-medium text-ink" data-col={c.key}>
+            {show(c.get(s))}
+            {c.concern && s.accuracy[c.concern] ? (
+              <sup className="ml-0.5 cursor-help text-faint" title={`Accuracy: ${s.accuracy[c.concern]}`} aria-label={`accuracy: ${s.accuracy[c.concern]}`}>
+                ±
+              </sup>
+            ) : null}
+          </td>
+        ))}
+      </tr>
+      <tr>
+        <td className="pr-2 text-muted">Ratio</td>
+        {COLS.map((c) => {
+          const r = c.ratio?.(cc);
+          return (
+            <td key={c.key} className="px-1.5 py-0.5 text-right" data-ratio={c.key}>
+              {r !== undefined ? <span className={`tabular rounded px-1 ${tone(r)}`}>{fmtRatio(r)}</span> : null}
+            </td>
+          );
+        })}
+      </tr>
+      <tr>
+        <td colSpan={COLS.length + 2} className="pb-2 pt-0.5 text-[11px] leading-snug text-muted">
+          {flags.length ? (
+            <ul className="mt-0.5 text-warn">
+              {flags.map((f, i) => (
+                <li key={i}>
+                  ⚠ {f.message} <span className="text-muted">({f.model})</span>
+                </li>
+              ))}
+            </ul>
+          ) : null}
+          <details className="mt-0.5">
+            <summary className="cursor-pointer select-none">Model accuracy (±)</summary>
+            <dl className="mt-0.5 grid grid-cols-[5.5rem_1fr] gap-x-2">
+              <dt className="font-medium text-ink">Capacitance</dt>
+              <dd>{s.accuracy.capacitance}</dd>
+              <dt className="font-medium text-ink">Resistivity</dt>
+              <dd>{s.accuracy.resistivity}</dd>
+              <dt className="font-medium text-ink">Delay</dt>
+              <dd>{s.accuracy.delay}</dd>
+              {s.accuracy.repeaters ? (
+                <>
+                  <dt className="font-medium text-ink">Repeaters</dt>
+                  <dd>{s.accuracy.repeaters}</dd>
+                </>
+              ) : null}
+            </dl>
+          </details>
+        </td>
+      </tr>
+    </tbody>
+  );
+}
+
+export { PER_UM_OHM, FF_PER_UM };

@@ -1,0 +1,451 @@
+"use client";
+import Link from "next/link";
+import { useRouter } from "next/navigation";
+import { memo, useCallback, useDeferredValue, useEffect, useMemo, useState } from "react";
+import useSWR from "swr";
+import { evaluateScenario, type Evaluation, type ScenarioSettings, type Technology, type WireClass } from "@/lib/scaling";
+import { Caution } from "@/components/caution";
+import { Button } from "@/components/ui/button";
+import { Badge, Card, Notice } from "@/components/ui/card";
+import { inputClass } from "@/components/ui/field";
+import { RatioBarChart } from "@/components/charts/ratio-bar-chart";
+import { DelayDistributionChart } from "@/components/charts/delay-distribution-chart";
+import { CHART } from "@/components/charts/chart-theme";
+import { ApiFailure, api, fetcher } from "./api";
+import { ClassOverrides } from "./class-overrides";
+import { FieldCheck } from "./field-check";
+import { ResultsTable } from "./results-table";
+import { RevisionHistory, type RevisionRow } from "./revision-history";
+import { LEVEL_LABEL, SettingsPanel } from "./settings-panel";
+import { SweepPanel, type SweepView } from "./sweep-panel";
+import { useWidth } from "./use-width";
+import { fmt, U } from "./units";
+
+export interface ScenarioDto {
+  id: string;
+  teamId: string;
+  baselineId: string;
+  name: string;
+  notes: string;
+  settings: ScenarioSettings;
+  version: number;
+  isDemo: boolean;
+  createdBy: string | null;
+  updatedAt: number;
+}
+
+export interface BaselineDto {
+  id: string;
+  name: string;
+  version: number;
+  isDemo: boolean;
+  technology: Technology;
+  classes: (WireClass & { id: string; histogramBins: number })[];
+}
+
+type Draft = { name: string; notes: string; settings: ScenarioSettings };
+
+/** Short stable key of the settings: table and chart carry it so tests (and people) can tell when both caught up. */
+function keyOf(s: ScenarioSettings): string {
+  const str = JSON.stringify(s);
+  let h = 2166136261;
+  for (let i = 0; i < str.length; i++) h = Math.imul(h ^ str.charCodeAt(i), 16777619);
+  return (h >>> 0).toString(36);
+}
+
+export function ScenarioEditor(props: {
+  teamId: string;
+  userId: string;
+  role: "owner" | "editor" | "viewer";
+  initialScenario: ScenarioDto;
+  initialBaseline: BaselineDto;
+  initialView: SweepView;
+}) {
+  const { teamId, role } = props;
+  const router = useRouter();
+  const readOnly = role === "viewer";
+  const sUrl = `/api/scenarios/${props.initialScenario.id}`;
+  const { data: sData, mutate: mutateScenario } = useSWR<{ scenario: ScenarioDto }>(sUrl, fetcher, { fallbackData: { scenario: props.initialScenario }, revalidateOnFocus: false });
+  const scenario = sData!.scenario;
+  const bUrl = `/api/baselines/${scenario.baselineId}?histograms=1`;
+  const { data: bData } = useSWR<{ baseline: BaselineDto }>(bUrl, fetcher, { fallbackData: { baseline: props.initialBaseline }, revalidateOnFocus: false });
+  const baseline = bData!.baseline;
+  const classes: WireClass[] = useMemo(() => baseline.classes.map(({ id: _i, histogramBins: _h, ...c }) => c as WireClass), [baseline]);
+
+  const [draft, setDraft] = useState<Draft>({ name: scenario.name, notes: scenario.notes, settings: scenario.settings });
+  const [baseVersion, setBaseVersion] = useState(scenario.version);
+  const saved: Draft = { name: scenario.name, notes: scenario.notes, settings: scenario.settings };
+  const dirty = JSON.stringify(draft) !== JSON.stringify(saved) || baseVersion !== scenario.version;
+  // Follow the server when nothing is edited locally (e.g. after a restore or a reload).
+  useEffect(() => {
+    setDraft((d) => (baseVersion === scenario.version && JSON.stringify(d) !== JSON.stringify(saved) ? d : { name: scenario.name, notes: scenario.notes, settings: scenario.settings }));
+    setBaseVersion(scenario.version);
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [scenario.version]);
+
+  const [view, setViewState] = useState<SweepView>(props.initialView);
+  const setView = useCallback((v: SweepView) => {
+    setViewState(v);
+    const q = new URLSearchParams(window.location.search);
+    q.set("metric", v.metric);
+    q.set("from", String(v.from));
+    q.set("to", String(v.to));
+    if (v.classes.length) q.set("classes", v.classes.join(","));
+    else q.delete("classes");
+    window.history.replaceState(null, "", `${window.location.pathname}?${q.toString()}`);
+  }, []);
+
+  const settingsKey = keyOf(draft.settings);
+  const evalResult = useMemo((): { ok: true; e: Evaluation } | { ok: false; message: string } => {
+    try {
+      return { ok: true, e: evaluateScenario({ classes, technology: baseline.technology, settings: draft.settings }) };
+    } catch (e) {
+      return { ok: false, message: e instanceof Error ? e.message : String(e) };
+    }
+  }, [classes, baseline.technology, draft.settings]);
+
+  const [busy, setBusy] = useState(false);
+  const [fieldErrors, setFieldErrors] = useState<Record<string, string[]>>({});
+  const [message, setMessage] = useState<{ tone: "good" | "bad" | "warn"; text: string } | null>(null);
+  const [conflict, setConflict] = useState<{ currentVersion: number } | null>(null);
+  const [confirmDelete, setConfirmDelete] = useState(false);
+
+  async function save() {
+    setBusy(true);
+    setMessage(null);
+    setFieldErrors({});
+    try {
+      const r = await api<{ scenario: ScenarioDto }>("PATCH", sUrl, { version: baseVersion, name: draft.name, notes: draft.notes, settings: draft.settings });
+      setBaseVersion(r.scenario.version);
+      await mutateScenario({ scenario: r.scenario }, { revalidate: false });
+      setDraft({ name: r.scenario.name, notes: r.scenario.notes, settings: r.scenario.settings });
+      setMessage({ tone: "good", text: `Saved as version ${r.scenario.version}.` });
+    } catch (e) {
+      if (e instanceof ApiFailure && e.code === "stale_version") setConflict({ currentVersion: Number(e.body.currentVersion) });
+      else if (e instanceof ApiFailure) {
+        setFieldErrors(e.fields);
+        setMessage({ tone: "bad", text: e.message + (Object.keys(e.fields).length ? " " + Object.values(e.fields).flat().join(" ") : "") });
+      } else setMessage({ tone: "bad", text: "Could not reach the server; your changes are still here." });
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  async function reloadTheirs() {
+    setConflict(null);
+    const fresh = await mutateScenario();
+    if (fresh) {
+      setDraft({ name: fresh.scenario.name, notes: fresh.scenario.notes, settings: fresh.scenario.settings });
+      setBaseVersion(fresh.scenario.version);
+    }
+    setMessage({ tone: "warn", text: "Loaded the newer version; your unsaved changes were discarded." });
+  }
+
+  async function saveAsCopy() {
+    setBusy(true);
+    try {
+      const list = await api<{ scenarios: { name: string }[] }>("GET", `/api/teams/${teamId}/scenarios?baselineId=${scenario.baselineId}`);
+      const names = new Set(list.scenarios.map((s) => s.name.toLowerCase()));
+      let name = `${draft.name} (my copy)`;
+      for (let i = 2; names.has(name.toLowerCase()); i++) name = `${draft.name} (my copy ${i})`;
+      const r = await api<{ scenario: ScenarioDto }>("POST", `/api/teams/${teamId}/scenarios`, { baselineId: scenario.baselineId, name, notes: draft.notes, settings: draft.settings });
+      setConflict(null);
+      router.push(`/teams/${teamId}/scenarios/${r.scenario.id}`);
+    } catch (e) {
+      setMessage({ tone: "bad", text: e instanceof Error ? e.message : "Could not save a copy." });
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  async function restore(r: RevisionRow) {
+    if (dirty && !window.confirm("Discard your unsaved changes and restore this revision?")) return;
+    setBusy(true);
+    try {
+      const res = await api<{ scenario: ScenarioDto }>("POST", `${sUrl}/restore`, { revisionId: r.id, version: scenario.version });
+      await mutateScenario({ scenario: res.scenario }, { revalidate: false });
+      setDraft({ name: res.scenario.name, notes: res.scenario.notes, settings: res.scenario.settings });
+      setBaseVersion(res.scenario.version);
+      setMessage({ tone: "good", text: `Restored version ${r.version} as version ${res.scenario.version}.` });
+    } catch (e) {
+      if (e instanceof ApiFailure && e.code === "stale_version") setConflict({ currentVersion: Number(e.body.currentVersion) });
+      else setMessage({ tone: "bad", text: e instanceof Error ? e.message : "Restore failed." });
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  async function remove() {
+    setBusy(true);
+    try {
+      await api("DELETE", sUrl);
+      router.push(`/teams/${teamId}/scenarios`);
+    } catch (e) {
+      setMessage({ tone: "bad", text: e instanceof Error ? e.message : "Delete failed." });
+      setBusy(false);
+    }
+  }
+
+  const setSettings = (settings: ScenarioSettings) => setDraft((d) => ({ ...d, settings }));
+  const evaluation = evalResult.ok ? evalResult.e : null;
+  // The table is urgent; the secondary charts follow when the main thread is free (a slider drag stays smooth).
+  const deferredEval = useDeferredValue(evaluation);
+  const s = draft.settings;
+  const canDelete = role === "owner" || (role === "editor" && scenario.createdBy === props.userId);
+
+  return (
+    <div className="space-y-4">
+      <header className="flex flex-wrap items-start justify-between gap-3">
+        <div className="min-w-0">
+          <p className="text-xs text-muted">
+            <Link href={`/teams/${teamId}/scenarios`} className="hover:underline">
+              Scenarios
+            </Link>{" "}
+            · on baseline{" "}
+            <Link href={`/teams/${teamId}/baselines/${baseline.id}`} className="font-medium text-ink hover:underline">
+              {baseline.name}
+            </Link>{" "}
+            · {classes.length} classes · version {scenario.version}
+            {scenario.isDemo || baseline.isDemo ? (
+              <>
+                {" "}
+                · <Badge tone="warn">invented demo data</Badge>
+              </>
+            ) : null}
+          </p>
+          {readOnly ? (
+            <h1 className="mt-1 text-xl font-semibold text-ink">{scenario.name}</h1>
+          ) : (
+            <label className="mt-1 block">
+              <span className="sr-only">Scenario name</span>
+              <input className="w-full min-w-[18rem] rounded border border-transparent bg-transparent px-1 text-xl font-semibold text-ink hover:border-rule focus:border-copper focus:outline-none" value={draft.name} name="scenario-name" onChange={(e) => setDraft((d) => ({ ...d, name: e.target.value }))} aria-invalid={fieldErrors.name ? true : undefined} />
+              {fieldErrors.name ? <span className="text-xs text-bad">{fieldErrors.name.join(" ")}</span> : null}
+            </label>
+          )}
+        </div>
+        <div className="no-print flex items-center gap-2">
+          {readOnly ? (
+            <Badge>Read only — you are a viewer</Badge>
+          ) : (
+            <>
+              <span className="text-xs text-muted" aria-live="polite" data-testid="save-state">
+                {dirty ? "Unsaved changes" : "All changes saved"}
+              </span>
+              {dirty ? (
+                <Button variant="ghost" onClick={() => setDraft(saved)} disabled={busy}>
+                  Discard
+                </Button>
+              ) : null}
+              <Button onClick={save} disabled={busy || !dirty || !evalResult.ok} data-testid="save">
+                {busy ? "Saving…" : "Save"}
+              </Button>
+              {canDelete ? (
+                confirmDelete ? (
+                  <span className="flex items-center gap-1 text-xs">
+                    Delete this scenario and its history?
+                    <Button variant="danger" onClick={remove} disabled={busy}>
+                      Delete
+                    </Button>
+                    <Button variant="ghost" onClick={() => setConfirmDelete(false)}>
+                      Keep
+                    </Button>
+                  </span>
+                ) : (
+                  <Button variant="ghost" onClick={() => setConfirmDelete(true)}>
+                    Delete…
+                  </Button>
+                )
+              ) : null}
+            </>
+          )}
+        </div>
+      </header>
+
+      {conflict ? (
+        <Notice tone="warn" role="alert">
+          <p className="font-medium">Someone saved this scenario while you were editing (now version {conflict.currentVersion}).</p>
+          <p>Nothing was overwritten. Choose what to do with your changes:</p>
+          <div className="mt-2 flex gap-2">
+            <Button variant="secondary" onClick={reloadTheirs} disabled={busy}>
+              Reload theirs
+            </Button>
+            <Button onClick={saveAsCopy} disabled={busy}>
+              Save mine as a copy
+            </Button>
+          </div>
+        </Notice>
+      ) : null}
+      {message ? <Notice tone={message.tone}>{message.text}</Notice> : null}
+
+      <div className="grid gap-4 lg:grid-cols-[19rem_minmax(0,1fr)]">
+        <aside className="space-y-4">
+          <Card title="Scale factors and options">
+            {readOnly ? (
+              <ReadOnlySettings settings={s} />
+            ) : (
+              <SettingsPanel settings={s} onChange={setSettings} classes={classes} errors={fieldErrors} />
+            )}
+          </Card>
+          <Card title="Notes">
+            {readOnly ? (
+              <p className="whitespace-pre-wrap text-sm text-ink">{draft.notes || <span className="text-muted">No notes.</span>}</p>
+            ) : (
+              <textarea aria-label="Notes" className={`${inputClass} min-h-24`} value={draft.notes} onChange={(e) => setDraft((d) => ({ ...d, notes: e.target.value }))} />
+            )}
+          </Card>
+          <Card title="Technology (from the baseline)">
+            <dl className="grid grid-cols-2 gap-x-2 gap-y-0.5 text-xs">
+              <dt className="text-muted">Supply</dt>
+              <dd className="tabular text-right">{fmt(baseline.technology.supplyV, U.V)} V</dd>
+              <dt className="text-muted">Clock</dt>
+              <dd className="tabular text-right">{fmt(baseline.technology.clockHz, U.GHz)} GHz</dd>
+              <dt className="text-muted">Repeater R0</dt>
+              <dd className="tabular text-right">{fmt(baseline.technology.repeaterR0Ohm, U.kohm)} kΩ</dd>
+              <dt className="text-muted">Repeater C0</dt>
+              <dd className="tabular text-right">{fmt(baseline.technology.repeaterC0F, U.fF)} fF</dd>
+              <dt className="text-muted">Delay budget</dt>
+              <dd className="tabular text-right">{fmt(baseline.technology.delayBudgetS, U.ps)} ps</dd>
+            </dl>
+          </Card>
+        </aside>
+
+        <div className="min-w-0 space-y-4">
+          <Card title={`Results — ${LEVEL_LABEL[s.level]}`} actions={evaluation ? <span className="text-xs text-muted">engine {evaluation.engineVersion}</span> : null}>
+            {evaluation ? (
+              <>
+                <Totals e={evaluation} />
+                <ResultsTable evaluation={evaluation} dataKey={settingsKey} />
+              </>
+            ) : (
+              <Notice tone="bad">These settings cannot be evaluated: {evalResult.ok ? "" : evalResult.message}</Notice>
+            )}
+            <Caution className="mt-3" />
+          </Card>
+          <Card title="Per-class overrides">
+            <ClassOverrides settings={s} onChange={setSettings} classes={classes} readOnly={readOnly} errors={fieldErrors} />
+          </Card>
+          <Card title="Sweep — metric against S">
+            {evaluation ? <SweepPanel classes={classes} technology={baseline.technology} settings={s} view={view} onView={setView} settingsKey={settingsKey} /> : <p className="text-sm text-muted">Fix the settings to see the sweep.</p>}
+          </Card>
+          {deferredEval ? <RatioCharts e={deferredEval} /> : null}
+          {deferredEval ? <Distributions e={deferredEval} budgetS={baseline.technology.delayBudgetS} /> : null}
+          <Card title="Field check">{deferredEval ? <FieldCheck results={deferredEval.classes.map((c) => c.scenario)} /> : null}</Card>
+          <Card title="History">
+            <RevisionHistory scenarioId={scenario.id} currentVersion={scenario.version} canRestore={!readOnly} onRestore={restore} busy={busy} />
+          </Card>
+        </div>
+      </div>
+    </div>
+  );
+}
+
+function Totals({ e }: { e: Evaluation }) {
+  const b = e.totals.baseline;
+  const s = e.totals.scenario;
+  const items = [
+    { label: "Worst delay", b: b.worstDelayS, s: s.worstDelayS, u: U.ps, unit: "ps" },
+    { label: "Repeaters (all nets)", b: b.repeaters, s: s.repeaters, u: U.none, unit: "", count: true },
+    { label: "Switching power", b: b.powerW, s: s.powerW, u: { label: "mW", unitSI: 1e-3, base: "W" as const, suffix: "mW" }, unit: "mW" },
+  ];
+  return (
+    <dl className="mb-3 grid grid-cols-3 gap-3 text-xs">
+      {items.map((i) => {
+        const r = i.b > 0 ? i.s / i.b : NaN;
+        const show = (v: number) => ("count" in i ? Math.round(v).toLocaleString("en") : fmt(v, i.u));
+        return (
+          <div key={i.label} className="rounded border border-rule px-2 py-1.5">
+            <dt className="text-muted">{i.label}</dt>
+            <dd className="tabular text-sm font-semibold text-ink">
+              {show(i.s)} {i.unit}{" "}
+              <span className={`text-xs font-normal ${r < 0.995 ? "text-good" : r > 1.005 ? "text-bad" : "text-muted"}`}>
+                (baseline {show(i.b)}{Number.isFinite(r) ? `, ${r.toFixed(2)}×` : ""})
+              </span>
+            </dd>
+          </div>
+        );
+      })}
+    </dl>
+  );
+}
+
+const RatioCharts = memo(function RatioCharts({ e }: { e: Evaluation }) {
+  const [ref, width] = useWidth<HTMLDivElement>(800);
+  const cols = width > 900 ? 4 : width > 560 ? 2 : 1;
+  const w = Math.floor((width - (cols - 1) * 12) / cols);
+  return (
+    <Card title="Scenario / baseline per class">
+      <div ref={ref} className="grid gap-3" style={{ gridTemplateColumns: `repeat(${cols}, minmax(0, 1fr))` }}>
+        {e.classes.map((c) => (
+          <RatioBarChart
+            key={c.name}
+            title={c.name}
+            width={w}
+            height={170}
+            data={[
+              { label: "R", ratio: c.ratio.rOhmPerM },
+              { label: "C", ratio: c.ratio.cFPerM },
+              { label: "RC", ratio: c.ratio.rcS },
+              { label: "Delay", ratio: c.ratio.delayS },
+              { label: "Rep.", ratio: c.ratio.repeaters },
+              { label: "Energy", ratio: c.ratio.energyJ },
+            ]}
+          />
+        ))}
+      </div>
+      <p className="mt-1 text-[11px] text-muted">Per-length R and C; RC, delay and energy at each class&apos;s typical length. Green: better than the baseline, red: worse.</p>
+    </Card>
+  );
+});
+
+const Distributions = memo(function Distributions({ e, budgetS }: { e: Evaluation; budgetS: number }) {
+  const [ref, width] = useWidth<HTMLDivElement>(800);
+  const withHist = e.classes.filter((c) => c.scenario.distribution.source === "histogram");
+  if (withHist.length === 0) return null;
+  const cols = width > 700 ? 2 : 1;
+  const w = Math.floor((width - (cols - 1) * 16) / cols);
+  return (
+    <Card title="Delay distribution against the budget">
+      <div ref={ref} className="grid gap-4" style={{ gridTemplateColumns: `repeat(${cols}, minmax(0, 1fr))` }}>
+        {withHist.map((c) => (
+          <DelayDistributionChart
+            key={c.name}
+            title={`${c.name} — ${c.scenario.distribution.totalNets.toLocaleString("en")} nets`}
+            width={w}
+            height={220}
+            budgetS={budgetS}
+            data={[
+              { label: "Baseline", bins: c.baseline.distribution.bins, color: CHART.grey, dash: "5 3" },
+              { label: "Scenario", bins: c.scenario.distribution.bins, color: CHART.copper },
+            ]}
+          />
+        ))}
+      </div>
+    </Card>
+  );
+});
+
+function ReadOnlySettings({ settings: s }: { settings: ScenarioSettings }) {
+  const n = (v: number) => String(Number(v.toPrecision(6)));
+  const rows: [string, string][] = [
+    ["S", n(s.s)],
+    ["S_L", n(s.sL)],
+    ["Model level", LEVEL_LABEL[s.level]],
+    ["Miller factor", n(s.miller)],
+    ["Barrier", s.barrierScales ? "scales with S" : "keeps its thickness"],
+    ["Dielectric k", s.k === null ? "each class's own" : n(s.k)],
+    ["Metal", s.metal ?? "each class's own"],
+    ["Driver R ×", n(s.deviceRFactor)],
+    ["Load C ×", n(s.deviceCFactor)],
+    ["Supply", `${fmt(s.supplyV, U.V)} V`],
+  ];
+  return (
+    <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 text-sm" data-testid="readonly-settings">
+      {rows.map(([k, v]) => (
+        <div key={k} className="contents">
+          <dt className="text-muted">{k}</dt>
+          <dd className="tabular text-right text-ink">{v}</dd>
+        </div>
+      ))}
+    </dl>
+  );
+}

@@ -1,0 +1,75 @@
+import { z } from "zod";
+import { MODEL_LEVELS, type ModelLevel } from "@/lib/scaling";
+import { kSchema, metalIdSchema, quantity } from "./wire-class";
+
+const sSchema = (label: string) =>
+  quantity(label, "", { min: 0, minExclusive: true, minHint: `${label} must be greater than 0.`, max: 20, maxHint: `${label} must be at most 20.` });
+const millerSchema = quantity("Miller factor", "", { min: 0, minHint: "Miller factor must be between 0 and 2.", max: 2, maxHint: "Miller factor must be between 0 and 2." });
+const factorSchema = (label: string) => quantity(label, "", { min: 0, minExclusive: true, max: 10, maxHint: `${label} must be at most 10.` });
+const aspectSchema = quantity("Aspect ratio", "", { min: 0, minExclusive: true, max: 10, maxHint: "Aspect ratio must be at most 10." });
+
+export const levelSchema = z.enum(MODEL_LEVELS as [ModelLevel, ...ModelLevel[]], { error: `Model level must be one of ${MODEL_LEVELS.join(", ")}.` });
+
+export const classOverrideSchema = z
+  .object({
+    s: sSchema("S").optional(),
+    sL: sSchema("S_L").optional(),
+    k: kSchema.optional(),
+    metal: metalIdSchema.optional(),
+    barrierScales: z.boolean().optional(),
+    aspectRatio: aspectSchema.optional(),
+    miller: millerSchema.optional(),
+    barrierM: quantity("Barrier", "m", { min: 0, max: 1e-6, maxHint: "Barrier must be at most 1 µm." }).optional(),
+  })
+  .strict();
+
+/** ScenarioSettings (lib/scaling/types.ts). Missing fields take defaults; supplyV defaults to the baseline's technology (server side). */
+export const scenarioSettingsSchema = z
+  .object({
+    s: sSchema("S").default(1),
+    sL: sSchema("S_L").default(1),
+    level: levelSchema.default("full"),
+    barrierScales: z.boolean().default(false),
+    miller: millerSchema.default(1),
+    deviceRFactor: factorSchema("Device R factor").default(1),
+    deviceCFactor: factorSchema("Device C factor").default(1),
+    supplyV: quantity("Supply voltage", "V", { min: 0, minExclusive: true, max: 5, maxHint: "Supply voltage must be at most 5 V." }).optional(),
+    k: kSchema.nullable().default(null),
+    metal: metalIdSchema.nullable().default(null),
+    overrides: z.record(z.string().max(60), classOverrideSchema).default({}),
+  })
+  .strict();
+export type ScenarioSettingsInput = z.infer<typeof scenarioSettingsSchema>;
+
+const nameSchema = z.string({ error: "Name is required." }).trim().min(1, "Name is required.").max(100, "Name must be at most 100 characters.");
+const notesSchema = z.string().max(10_000, "Notes must be at most 10 000 characters.");
+const versionSchema = z.number({ error: "version is required (the version you loaded)." }).int().min(1);
+
+export const scenarioCreateSchema = z.object({
+  baselineId: z.string({ error: "Baseline is required." }).min(1, "Baseline is required.").max(64),
+  name: nameSchema,
+  notes: notesSchema.optional().default(""),
+  settings: scenarioSettingsSchema.optional(),
+});
+export type ScenarioCreate = z.infer<typeof scenarioCreateSchema>;
+
+export const scenarioPatchSchema = z.object({
+  version: versionSchema,
+  name: nameSchema.optional(),
+  notes: notesSchema.optional(),
+  settings: scenarioSettingsSchema.optional(),
+});
+export type ScenarioPatch = z.infer<typeof scenarioPatchSchema>;
+
+export const scenarioRestoreSchema = z.object({
+  revisionId: z.number({ error: "revisionId is required." }).int().positive(),
+  version: versionSchema,
+});
+
+/** Body of POST /api/scenarios/[id]/evaluate: optional unsaved settings. */
+export const scenarioEvaluateSchema = z
+  .object({ settings: scenarioSettingsSchema.optional() })
+  .optional()
+  .transform((v) => v ?? {});
+
+export const SCENARIO_JSON_LIMIT = 64 * 1024;

@@ -1,0 +1,25 @@
+import "server-only";
+import type { Knex } from "knex";
+import { evaluateScenario, type Evaluation, type ScenarioSettings, type Technology, type WireClass } from "@/lib/scaling";
+import { getBaseline } from "@/db/queries/baselines";
+import { listClassesWithHistograms } from "@/db/queries/wire-classes";
+import { badRequest } from "@/lib/api";
+
+/** Engine inputs of a stored baseline: classes (with histograms) and technology. */
+export async function loadEngineInputs(db: Knex, baselineId: string): Promise<{ classes: WireClass[]; technology: Technology }> {
+  const b = await getBaseline(db, baselineId);
+  if (!b) throw new Error("baseline vanished");
+  const stored = await listClassesWithHistograms(db, baselineId);
+  const classes: WireClass[] = stored.map(({ id: _i, position: _p, histogramBins: _h, ...c }) => c);
+  return { classes, technology: b.technology };
+}
+
+/** evaluateScenario, with the engine's RangeError (e.g. a fixed barrier that fills a scaled line) as a 400. */
+export function evaluateOrThrow(p: { classes: WireClass[]; technology: Technology; settings: ScenarioSettings }): Evaluation {
+  try {
+    return evaluateScenario(p);
+  } catch (e) {
+    if (e instanceof RangeError) throw badRequest(`These settings cannot be evaluated: ${e.message}`, { settings: [e.message] });
+    throw e;
+  }
+}

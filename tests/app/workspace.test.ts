@@ -1,0 +1,253 @@
+import { describe, expect, it } from "vitest";
+import { evaluateScenario, type WireClass } from "@/lib/scaling";
+import { Client } from "../helpers/http";
+import { TECH, createBaseline, rawDb, sampleClasses, snapshot, teamWithRoles } from "./workspace-helpers";
+
+describe("baselines: CRUD, versions and revisions", () => {
+  it("creates a baseline from values with units, stored exactly in SI, and lists it", async () => {
+    const { owner, teamId } = await teamWithRoles();
+    const b = await createBaseline(owner.client, teamId, "Tile A");
+    expect(b.version).toBe(1);
+    const got = await owner.client.get(`/api/baselines/${b.id}`);
+    expect(got.status).toBe(200);
+    const m1 = got.json.baseline.classes[0];
+    expect(m1).toMatchObject({ name: "M1", widthM: 2e-8, thicknessM: 4e-8, spacingM: 2e-8, meanLengthM: 5e-6, driverOhm: 8000, loadF: 4e-16 });
+    expect(got.json.baseline.classes[1].ildAboveM).toBeNull();
+    expect(got.json.baseline.technology).toEqual(TECH);
+    const list = await owner.client.get(`/api/teams/${teamId}/baselines`);
+    expect(list.json.baselines.map((x: { name: string }) => x.name)).toContain("Tile A");
+    expect(list.json.baselines.find((x: { id: string }) => x.id === b.id).classCount).toBe(2);
+  });
+
+  it("PATCH with the loaded version bumps it and writes a revision; a stale version answers 409 with the current version", async () => {
+    const { owner, editor, teamId } = await teamWithRoles();
+    const b = await createBaseline(owner.client, teamId);
+    const r = await editor.client.patch(`/api/baselines/${b.id}`, { version: 1, description: "edited", technology: { ...TECH, supplyV: "700 mV" } });
+    expect(r.status).toBe(200);
+    expect(r.json.baseline.version).toBe(2);
+    expect(r.json.baseline.technology.supplyV).toBe(0.7);
+    const before = snapshot();
+    const stale = await owner.client.patch(`/api/baselines/${b.id}`, { version: 1, description: "mine" });
+    expect(stale.status).toBe(409);
+    expect(stale.json.error.code).toBe("stale_version");
+    expect(stale.json.error.currentVersion).toBe(2);
+    expect(stale.json.error.message).toMatch(/saved by someone else/);
+    expect(snapshot()).toEqual(before);
+    const revs = await owner.client.get(`/api/baselines/${b.id}/revisions`);
+    expect(revs.json.revisions.map((x: { version: number }) => x.version)).toEqual([2, 1]);
+    expect(revs.json.revisions[0].summary).toMatch(/description; technology: supply/);
+    expect(revs.json.revisions[0].userName).toBe("Eve Editor");
+  });
+
+  it("PUT classes replaces them in one go; a class keeping its id keeps its histogram, a removed class loses it", async () => {
+    const { owner, teamId } = await teamWithRoles();
+    const b = await createBaseline(owner.client, teamId);
+    const [m1, m2] = b.classes;
+    const db = rawDb();
+    const ins = db.prepare("insert into histogram_bins (class_id, length_m, count) values (?, ?, ?)");
+    for (const c of [m1!, m2!]) for (let i = 1; i <= 5; i++) ins.run(c.id, i * 1e-6, 10 * i);
+    db.close();
+    const classes = sampleClasses();
+    const put = await owner.client.put(`/api/baselines/${b.id}/classes`, {
+      version: 1,
+      classes: [
+        { ...classes[1], name: "M2" }, // reordered, no id: matched by name
+        { ...classes[0], id: m1!.id, name: "M1 renamed", widthM: "22 nm" },
+        { ...classes[0], name: "M3" },
+      ],
+    });
+    expect(put.status).toBe(200);
+    expect(put.json.baseline.version).toBe(2);
+    const got = put.json.baseline.classes as { id: string; name: string; widthM: number; histogramBins: number }[];
+    expect(got.map((c) => c.name)).toEqual(["M2", "M1 renamed", "M3"]);
+    expect(got[1]).toMatchObject({ id: m1!.id, widthM: 2.2e-8, histogramBins: 5 });
+    expect(got[0]).toMatchObject({ id: m2!.id, histogramBins: 5 });
+    expect(got[2]!.histogramBins).toBe(0);
+    const drop = await owner.client.put(`/api/baselines/${b.id}/classes`, { version: 2, classes: [{ ...classes[0], id: m1!.id, name: "M1 renamed" }] });
+    expect(drop.status).toBe(200);
+    const db2 = rawDb();
+    expect((db2.prepare("select count(*) n from histogram_bins where class_id = ?").get(m2!.id) as { n: number }).n).toBe(0);
+    expect((db2.prepare("select count(*) n from histogram_bins where class_id = ?").get(m1!.id) as { n: number }).n).toBe(5);
+    db2.close();
+  });
+
+  it("duplicates a baseline with its classes and histograms under a free name", async () => {
+    const { owner, editor, teamId } = await teamWithRoles();
+    const b = await createBaseline(owner.client, teamId, "Original");
+    const db = rawDb();
+    db.prepare("insert into histogram_bins (class_id, length_m, count) values (?, ?, ?)").run(b.classes[0]!.id, 1e-6, 7);
+    db.close();
+    const d = await editor.client.post(`/api/baselines/${b.id}/duplicate`, {});
+    expect(d.status).toBe(201);
+    expect(d.json.baseline.name).toBe("Original (copy)");
+    expect(d.json.baseline.classes.map((c: { name: string }) => c.name)).toEqual(["M1", "M2"]);
+    expect(d.json.baseline.classes[0].histogramBins).toBe(1);
+    expect(d.json.baseline.classes[0].id).not.toBe(b.classes[0]!.id);
+    const d2 = await editor.client.post(`/api/baselines/${b.id}/duplicate`, {});
+    expect(d2.json.baseline.name).toBe("Original (copy 2)");
+  });
+});
+
+describe("roles and team boundaries", () => {
+  it("viewer reads but cannot write (403); another team gets 404; signed out 401", async () => {
+    const { owner, viewer, outsider, teamId } = await teamWithRoles();
+    const b = await createBaseline(owner.client, teamId);
+    expect((await viewer.client.get(`/api/baselines/${b.id}`)).status).toBe(200);
+    expect((await viewer.client.get(`/api/teams/${teamId}/baselines`)).status).toBe(200);
+    const before = snapshot();
+    for (const r of [
+      await viewer.client.post(`/api/teams/${teamId}/baselines`, { name: "nope" }),
+      await viewer.client.patch(`/api/baselines/${b.id}`, { version: 1, name: "nope" }),
+      await viewer.client.put(`/api/baselines/${b.id}/classes`, { version: 1, classes: [] }),
+      await viewer.client.post(`/api/baselines/${b.id}/duplicate`, {}),
+      await viewer.client.del(`/api/baselines/${b.id}`),
+      await viewer.client.post(`/api/teams/${teamId}/scenarios`, { baselineId: b.id, name: "nope" }),
+    ]) {
+      expect(r.status).toBe(403);
+      expect(r.json.error.code).toBe("forbidden");
+    }
+    for (const path of [`/api/baselines/${b.id}`, `/api/baselines/${b.id}/classes`, `/api/teams/${teamId}/baselines`, `/api/teams/${teamId}/scenarios`]) {
+      const r = await outsider.client.get(path);
+      expect(r.status).toBe(404);
+      expect(r.json.error.code).toBe("not_found");
+    }
+    expect((await outsider.client.patch(`/api/baselines/${b.id}`, { version: 1, name: "x" })).status).toBe(404);
+    expect((await new Client().get(`/api/baselines/${b.id}`)).status).toBe(401);
+    expect((await new Client().get(`/api/baselines/does-not-exist`)).status).toBe(401);
+    expect((await owner.client.get(`/api/baselines/does-not-exist`)).status).toBe(404);
+    expect(snapshot()).toEqual(before);
+  });
+
+  it("delete is owner-or-author: an editor cannot delete the owner's baseline, the owner can; the author editor can delete theirs", async () => {
+    const { owner, editor, teamId } = await teamWithRoles();
+    const b = await createBaseline(owner.client, teamId);
+    const before = snapshot();
+    const r = await editor.client.del(`/api/baselines/${b.id}`);
+    expect(r.status).toBe(403);
+    expect(r.json.error.message).toMatch(/owner or the baseline's author/);
+    expect(snapshot()).toEqual(before);
+    const mine = await createBaseline(editor.client, teamId);
+    expect((await editor.client.del(`/api/baselines/${mine.id}`)).status).toBe(204);
+    expect((await owner.client.del(`/api/baselines/${b.id}`)).status).toBe(204);
+    expect((await owner.client.get(`/api/baselines/${b.id}`)).status).toBe(404);
+  });
+});
+
+describe("scenarios: create, save with versions, history, restore, evaluate", () => {
+  it("creates with defaults, saves, answers 409 on a stale save, lists revisions and restores an old one as a new revision", async () => {
+    const { owner, editor, viewer, teamId } = await teamWithRoles();
+    const b = await createBaseline(owner.client, teamId);
+    const c = await editor.client.post(`/api/teams/${teamId}/scenarios`, { baselineId: b.id, name: "Shrink", notes: "first" });
+    expect(c.status).toBe(201);
+    const s = c.json.scenario;
+    expect(s).toMatchObject({ version: 1, settings: { s: 1, sL: 1, level: "full", miller: 1, supplyV: 0.75, overrides: {} } });
+    const p = await editor.client.patch(`/api/scenarios/${s.id}`, { version: 1, settings: { ...s.settings, s: 1.4, overrides: { M2: { k: 1.9 } } } });
+    expect(p.status).toBe(200);
+    expect(p.json.scenario.version).toBe(2);
+    const before = snapshot();
+    const stale = await owner.client.patch(`/api/scenarios/${s.id}`, { version: 1, settings: { ...s.settings, s: 3 } });
+    expect(stale.status).toBe(409);
+    expect(stale.json.error).toMatchObject({ code: "stale_version", currentVersion: 2 });
+    expect(snapshot()).toEqual(before);
+    const revs = await viewer.client.get(`/api/scenarios/${s.id}/revisions`);
+    expect(revs.status).toBe(200);
+    expect(revs.json.revisions.map((r: { version: number }) => r.version)).toEqual([2, 1]);
+    expect(revs.json.revisions[0].summary).toMatch(/S 1 → 1\.4/);
+    expect(revs.json.revisions[0].summary).toMatch(/M2: k — → 1\.9/);
+    const first = revs.json.revisions[1];
+    expect((await viewer.client.post(`/api/scenarios/${s.id}/restore`, { revisionId: first.id, version: 2 })).status).toBe(403);
+    const staleRestore = await editor.client.post(`/api/scenarios/${s.id}/restore`, { revisionId: first.id, version: 1 });
+    expect(staleRestore.status).toBe(409);
+    const rest = await editor.client.post(`/api/scenarios/${s.id}/restore`, { revisionId: first.id, version: 2 });
+    expect(rest.status).toBe(200);
+    expect(rest.json.scenario.version).toBe(3);
+    expect(rest.json.scenario.settings.s).toBe(1);
+    expect(rest.json.scenario.settings.overrides).toEqual({});
+    const after = await viewer.client.get(`/api/scenarios/${s.id}/revisions`);
+    expect(after.json.revisions[0]).toMatchObject({ version: 3, summary: "Restored version 1" });
+    expect(after.json.revisions).toHaveLength(3);
+  });
+
+  it("evaluate returns the engine's evaluation of the stored baseline and settings (or unsaved ones), equal to evaluating locally", async () => {
+    const { owner, viewer, teamId } = await teamWithRoles();
+    const b = await createBaseline(owner.client, teamId);
+    const settings = { s: 1.43, sL: 1.1, level: "full", barrierScales: false, miller: 1.5, deviceRFactor: 0.9, deviceCFactor: 1, supplyV: 0.7, k: null, metal: null, overrides: { M1: { metal: "Ru", barrierM: 0 } } };
+    const c = await owner.client.post(`/api/teams/${teamId}/scenarios`, { baselineId: b.id, name: "E", settings });
+    expect(c.status).toBe(201);
+    const r = await viewer.client.post(`/api/scenarios/${c.json.scenario.id}/evaluate`);
+    expect(r.status).toBe(200);
+    const classes = (await viewer.client.get(`/api/baselines/${b.id}`)).json.baseline.classes.map(({ id: _i, position: _p, histogramBins: _h, ...wc }: WireClass & { id: string; position: number; histogramBins: number }) => wc);
+    const local = evaluateScenario({ classes, technology: TECH, settings: c.json.scenario.settings });
+    expect(r.json.evaluation).toEqual(JSON.parse(JSON.stringify(local)));
+    expect(r.json.evaluation.classes[0].scenario.metal).toBe("Ru");
+    const unsaved = await viewer.client.post(`/api/scenarios/${c.json.scenario.id}/evaluate`, { settings: { ...settings, s: 2 } });
+    expect(unsaved.status).toBe(200);
+    expect(unsaved.json.settings.s).toBe(2);
+    expect(unsaved.json.evaluation.classes[0].scenario.widthM).toBeCloseTo(1e-8, 20);
+  });
+
+  it("scenario delete is owner-or-author", async () => {
+    const { owner, editor, teamId } = await teamWithRoles();
+    const b = await createBaseline(owner.client, teamId);
+    const mine = (await owner.client.post(`/api/teams/${teamId}/scenarios`, { baselineId: b.id, name: "Owner's" })).json.scenario;
+    const theirs = (await editor.client.post(`/api/teams/${teamId}/scenarios`, { baselineId: b.id, name: "Editor's" })).json.scenario;
+    expect((await editor.client.del(`/api/scenarios/${mine.id}`)).status).toBe(403);
+    expect((await editor.client.del(`/api/scenarios/${theirs.id}`)).status).toBe(204);
+    expect((await owner.client.del(`/api/scenarios/${mine.id}`)).status).toBe(204);
+    expect((await owner.client.get(`/api/scenarios/${mine.id}`)).status).toBe(404);
+  });
+});
+
+describe("bad input: status, field message, nothing stored changes", () => {
+  type Case = { what: string; send: (ctx: Ctx) => Promise<{ status: number; json: any }>; status: number; field?: string; message: RegExp };
+  type Ctx = Awaited<ReturnType<typeof setup>>;
+  async function setup() {
+    const roles = await teamWithRoles();
+    const b = await createBaseline(roles.owner.client, roles.teamId);
+    const s = (await roles.owner.client.post(`/api/teams/${roles.teamId}/scenarios`, { baselineId: b.id, name: "S" })).json.scenario;
+    const otherBaseline = await createBaseline(roles.outsider.client, roles.outsider.teamId);
+    return { ...roles, b, s, otherBaseline };
+  }
+  const withClass = (patch: Record<string, unknown>) => {
+    const [a, b] = sampleClasses();
+    return [{ ...a, ...patch }, b];
+  };
+  const putClasses = (ctx: Ctx, classes: unknown[]) => ctx.owner.client.put(`/api/baselines/${ctx.b.id}/classes`, { version: 1, classes });
+  const patchSettings = (ctx: Ctx, patch: Record<string, unknown>) => ctx.owner.client.patch(`/api/scenarios/${ctx.s.id}`, { version: 1, settings: { ...ctx.s.settings, ...patch } });
+
+  const cases: Case[] = [
+    { what: "a non-numeric width", send: (c) => putClasses(c, withClass({ widthM: "wide" })), status: 400, field: "classes.0.widthM", message: /"wide" is not a number with a known unit/ },
+    { what: "a negative width", send: (c) => putClasses(c, withClass({ widthM: -2e-8 })), status: 400, field: "classes.0.widthM", message: /Width must be greater than 0/ },
+    { what: "a negative spacing typed with a unit", send: (c) => putClasses(c, withClass({ spacingM: "-20 nm" })), status: 400, field: "classes.0.spacingM", message: /Spacing must be greater than 0/ },
+    { what: "a negative net count", send: (c) => putClasses(c, withClass({ netCount: -5 })), status: 400, field: "classes.0.netCount", message: /Net count must not be negative/ },
+    { what: "an unknown unit", send: (c) => putClasses(c, withClass({ thicknessM: "40 furlongs" })), status: 400, field: "classes.0.thicknessM", message: /not a number with a known unit/ },
+    { what: "a width without a unit in metres that is far too large", send: (c) => putClasses(c, withClass({ widthM: 20 })), status: 400, field: "classes.0.widthM", message: /did you forget a unit/ },
+    { what: "k below 1", send: (c) => putClasses(c, withClass({ k: 0.8 })), status: 400, field: "classes.0.k", message: /k must be at least 1/ },
+    { what: "a class name used twice", send: (c) => putClasses(c, [sampleClasses()[0], { ...sampleClasses()[1], name: "m1" }]), status: 400, field: "classes.1.name", message: /used twice/ },
+    { what: "S = 0", send: (c) => patchSettings(c, { s: 0 }), status: 400, field: "settings.s", message: /S must be greater than 0/ },
+    { what: "S < 0", send: (c) => patchSettings(c, { s: -1 }), status: 400, field: "settings.s", message: /S must be greater than 0/ },
+    { what: "S_L = 0", send: (c) => patchSettings(c, { sL: 0 }), status: 400, field: "settings.sL", message: /S_L must be greater than 0/ },
+    { what: "a per-class S ≤ 0", send: (c) => patchSettings(c, { overrides: { M1: { s: -0.5 } } }), status: 400, field: "settings.overrides.M1.s", message: /S must be greater than 0/ },
+    { what: "a scenario k below 1", send: (c) => patchSettings(c, { k: 0.9 }), status: 400, field: "settings.k", message: /k must be at least 1/ },
+    { what: "Miller factor above 2", send: (c) => patchSettings(c, { miller: 2.5 }), status: 400, field: "settings.miller", message: /between 0 and 2/ },
+    { what: "Miller factor below 0", send: (c) => patchSettings(c, { miller: -0.1 }), status: 400, field: "settings.miller", message: /between 0 and 2/ },
+    { what: "an override for a class the baseline lacks", send: (c) => patchSettings(c, { overrides: { M9: { k: 2 } } }), status: 400, field: "settings.overrides.M9", message: /No class named "M9"/ },
+    { what: "a scenario on another team's baseline", send: (c) => c.owner.client.post(`/api/teams/${c.teamId}/scenarios`, { baselineId: c.otherBaseline.id, name: "Sneaky" }), status: 404, message: /Baseline not found/ },
+    { what: "a stale version on save", send: (c) => c.owner.client.patch(`/api/scenarios/${c.s.id}`, { version: 7, name: "late" }), status: 409, message: /saved by someone else/ },
+    { what: "a stale version on the class table", send: (c) => c.owner.client.put(`/api/baselines/${c.b.id}/classes`, { version: 9, classes: sampleClasses() }), status: 409, message: /saved by someone else/ },
+    { what: "an oversize class payload", send: (c) => putClasses(c, Array.from({ length: 1500 }, (_, i) => ({ ...sampleClasses()[0], name: `C${i}`, padding: "x".repeat(100) }))), status: 413, message: /larger than the limit/ },
+    { what: "an oversize scenario payload", send: (c) => c.owner.client.patch(`/api/scenarios/${c.s.id}`, { version: 1, notes: "n".repeat(70 * 1024) }), status: 413, message: /larger than the limit/ },
+    { what: "a duplicate baseline name", send: (c) => c.owner.client.post(`/api/teams/${c.teamId}/baselines`, { name: (c.b as unknown as { name: string }).name ?? "x" }), status: 400, field: "name", message: /already exists/ },
+  ];
+  for (const k of cases) {
+    it(`rejects ${k.what}`, async () => {
+      const ctx = await setup();
+      const before = snapshot();
+      const r = await k.send(ctx);
+      expect(r.status).toBe(k.status);
+      expect(r.json.error.message).toMatch(k.message);
+      if (k.field) expect((r.json.error.fields?.[k.field] ?? []).join(" ")).toMatch(k.message);
+      expect(snapshot()).toEqual(before);
+    });
+  }
+});
