@@ -1,0 +1,31 @@
+import { db } from "@/db/client";
+import { getInviteByTokenHash, markInviteAccepted } from "@/db/queries/invites";
+import { getTeam, insertMembership } from "@/db/queries/teams";
+import { audit, getMembershipRole, requireApiUser } from "@/lib/access";
+import { ApiError, apiRoute, conflict, readJson } from "@/lib/api";
+import { hashInviteToken, inviteStatus } from "@/lib/invites";
+import { acceptInviteSchema } from "@/lib/validation/team";
+
+const INVITE_NOT_FOUND = "This invite link is not valid. Check that you copied the whole link, or ask the team's owner for a new invite.";
+
+export const POST = apiRoute(async (req) => {
+  const user = await requireApiUser();
+  const { token } = await readJson(req, acceptInviteSchema, 4 * 1024);
+  const invite = await getInviteByTokenHash(db, hashInviteToken(token));
+  if (!invite) throw new ApiError(404, "not_found", INVITE_NOT_FOUND);
+  const status = inviteStatus(invite);
+  if (status === "accepted") throw conflict("This invite has already been used. Ask the team's owner for a new one if you still need access.");
+  if (status === "revoked") throw conflict("This invite was withdrawn by the team's owner. Ask them for a new one.");
+  if (status === "expired") throw new ApiError(410, "invite_expired", "This invite has expired (invites last 7 days). Ask the team's owner to send a new one.");
+  if (invite.email !== user.email) {
+    throw new ApiError(403, "invite_email_mismatch", `This invite was sent to ${invite.email}. Sign in with that address to accept it.`);
+  }
+  if (await getMembershipRole(invite.teamId, user.id)) throw conflict("You are already a member of this team.");
+  const team = await getTeam(db, invite.teamId);
+  await db.transaction(async (trx) => {
+    if (!(await markInviteAccepted(trx, invite.id, user.id))) throw conflict("This invite has already been used. Ask the team's owner for a new one if you still need access.");
+    await insertMembership(trx, { teamId: invite.teamId, userId: user.id, role: invite.role });
+    await audit({ teamId: invite.teamId, userId: user.id, action: "invite.accept", entityType: "invite", entityId: invite.id, detail: { role: invite.role } }, trx);
+  });
+  return Response.json({ team: { id: invite.teamId, name: team?.name ?? "", role: invite.role } });
+});

@@ -1,0 +1,78 @@
+"use client";
+import Link from "next/link";
+import { useRouter } from "next/navigation";
+import { useState, type FormEvent } from "react";
+import { Notice } from "@/components/ui/card";
+import { TextField } from "@/components/ui/field";
+import { ApiRequestError, apiSend } from "@/lib/api-client";
+
+type Mode = "sign-in" | "sign-up";
+
+export function AuthForm({ mode, next, email: initialEmail = "" }: { mode: Mode; next: string; email?: string }) {
+  const router = useRouter();
+  const [fields, setFields] = useState<Record<string, string[]>>({});
+  const [message, setMessage] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+
+  async function onSubmit(e: FormEvent<HTMLFormElement>) {
+    e.preventDefault();
+    const data = Object.fromEntries(new FormData(e.currentTarget)) as Record<string, string>;
+    setBusy(true);
+    setMessage(null);
+    setFields({});
+    try {
+      await apiSend("POST", mode === "sign-in" ? "/api/auth/sign-in" : "/api/auth/sign-up", data);
+      router.replace(next);
+      router.refresh();
+    } catch (err) {
+      const f = err instanceof ApiRequestError ? err.failure : { message: "Something went wrong.", fields: {} };
+      setFields(f.fields);
+      // Field errors are shown at their fields; the notice carries the rest.
+      setMessage(Object.keys(f.fields).length ? "Check the highlighted fields." : f.message);
+      setBusy(false);
+    }
+  }
+
+  const q = next !== "/teams" ? `?next=${encodeURIComponent(next)}` : "";
+  return (
+    <form onSubmit={onSubmit} noValidate className="space-y-4" aria-describedby={message ? "form-message" : undefined}>
+      {message ? (
+        <div id="form-message">
+          <Notice tone="bad">{message}</Notice>
+        </div>
+      ) : null}
+      {mode === "sign-up" ? <TextField label="Name" name="name" autoComplete="name" required maxLength={100} errors={fields.name} /> : null}
+      <TextField label="E-mail" name="email" type="email" autoComplete="email" required defaultValue={initialEmail} errors={fields.email} />
+      <TextField
+        label="Password"
+        name="password"
+        type="password"
+        autoComplete={mode === "sign-up" ? "new-password" : "current-password"}
+        required
+        maxLength={128}
+        hint={mode === "sign-up" ? "10 to 128 characters. A few unrelated words work well." : undefined}
+        errors={fields.password}
+      />
+      <button type="submit" disabled={busy} className="inline-flex w-full items-center justify-center rounded-md bg-copper px-3 py-2 text-sm font-medium text-white hover:bg-copper-dark disabled:opacity-50">
+        {busy ? "Please wait…" : mode === "sign-in" ? "Sign in" : "Create account"}
+      </button>
+      <p className="text-center text-sm text-muted">
+        {mode === "sign-in" ? (
+          <>
+            New to Plateau?{" "}
+            <Link className="text-copper-dark underline" href={`/sign-up${q}`}>
+              Create an account
+            </Link>
+          </>
+        ) : (
+          <>
+            Already have an account?{" "}
+            <Link className="text-copper-dark underline" href={`/sign-in${q}`}>
+              Sign in
+            </Link>
+          </>
+        )}
+      </p>
+    </form>
+  );
+}

@@ -1,0 +1,58 @@
+import "server-only";
+import { createHash, randomBytes } from "node:crypto";
+import type { Invite } from "@/db/queries/invites";
+
+export const INVITE_TTL_MS = 7 * 24 * 60 * 60 * 1000;
+
+/** A fresh invite token (256 random bits, base64url) and the SHA-256 hash that is stored instead. */
+export function newInviteToken(): { token: string; tokenHash: string } {
+  const token = randomBytes(32).toString("base64url");
+  return { token, tokenHash: hashInviteToken(token) };
+}
+
+export function hashInviteToken(token: string): string {
+  return createHash("sha256").update(token, "utf8").digest("hex");
+}
+
+export type InviteStatus = "pending" | "accepted" | "revoked" | "expired";
+
+export function inviteStatus(i: Pick<Invite, "acceptedAt" | "revokedAt" | "expiresAt">, now = Date.now()): InviteStatus {
+  if (i.acceptedAt !== null) return "accepted";
+  if (i.revokedAt !== null) return "revoked";
+  if (i.expiresAt <= now) return "expired";
+  return "pending";
+}
+
+export function publicInvite(i: Invite, now = Date.now()) {
+  return { id: i.id, email: i.email, role: i.role, createdAt: i.createdAt, expiresAt: i.expiresAt, acceptedAt: i.acceptedAt, revokedAt: i.revokedAt, status: inviteStatus(i, now) };
+}
+
+/**
+ * Base URL for links in e-mail: PLATEAU_PUBLIC_URL when set, else the origin the request came in on
+ * (the Host header, as the browser saw it).
+ */
+export function publicBaseUrl(req: Request): string {
+  const env = process.env.PLATEAU_PUBLIC_URL?.trim();
+  if (env) return env.replace(/\/+$/, "");
+  const url = new URL(req.url);
+  const host = req.headers.get("x-forwarded-host") ?? req.headers.get("host") ?? url.host;
+  const proto = req.headers.get("x-forwarded-proto") ?? url.protocol.replace(":", "");
+  return `${proto}://${host}`;
+}
+
+const ROLE_WORDS = { owner: "an owner", editor: "an editor", viewer: "a viewer" } as const;
+
+export function inviteMail(p: { teamName: string; inviterName: string; role: Invite["role"]; link: string; expiresAt: number }) {
+  const until = new Date(p.expiresAt).toUTCString();
+  const subject = `${p.inviterName} invited you to ${p.teamName} on Plateau`;
+  const text = [
+    `${p.inviterName} invited you to join the team "${p.teamName}" on Plateau as ${ROLE_WORDS[p.role]}.`,
+    "",
+    "Open this link to accept (sign in or create an account first, with this e-mail address):",
+    p.link,
+    "",
+    `The link works once and expires on ${until}.`,
+    "If you did not expect this invite, ignore this message.",
+  ].join("\n");
+  return { subject, text };
+}

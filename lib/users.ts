@@ -1,0 +1,7 @@
+import "server-only";
+import type { UserRecord } from "@/db/queries/users";
+
+/** What the API returns about a user: never the password hash. */
+export function publicUser(u: Pick<UserRecord, "id" | "email" | "name">) {
+  return { id: u.id, email: u.email, name: u.name };
+}

@@ -1,0 +1,33 @@
+import { z } from "zod";
+import { PASSWORD_MAX, passwordProblem } from "@/lib/password";
+
+export const emailSchema = z
+  .string({ error: "Enter your e-mail address." })
+  .trim()
+  .min(1, "Enter your e-mail address.")
+  .max(254, "That e-mail address is too long.")
+  .toLowerCase()
+  .pipe(z.email({ error: "Enter a valid e-mail address, like name@example.com." }));
+
+export const signUpSchema = z
+  .object({
+    email: emailSchema,
+    password: z.string({ error: "Choose a password." }).superRefine((p, ctx) => {
+      const problem = passwordProblem(p);
+      if (problem) ctx.addIssue({ code: "custom", message: problem });
+    }),
+    name: z.string({ error: "Enter your name." }).trim().min(1, "Enter your name.").max(100, "Use at most 100 characters."),
+  })
+  .superRefine((v, ctx) => {
+    const problem = passwordProblem(v.password, v.email);
+    // Length and variety were checked on the field; this adds the one rule that needs the e-mail.
+    if (problem && !passwordProblem(v.password)) ctx.addIssue({ code: "custom", path: ["password"], message: problem });
+  });
+export type SignUpInput = z.infer<typeof signUpSchema>;
+
+export const signInSchema = z.object({
+  email: emailSchema,
+  // Over-long passwords are refused before the KDF runs, so they cannot be used to burn CPU.
+  password: z.string({ error: "Enter your password." }).min(1, "Enter your password.").max(PASSWORD_MAX, `Passwords have at most ${PASSWORD_MAX} characters.`),
+});
+export type SignInInput = z.infer<typeof signInSchema>;

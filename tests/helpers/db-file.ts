@@ -1,0 +1,14 @@
+import Database from "better-sqlite3";
+import { inject } from "vitest";
+
+/** Read-write access to the running test server's SQLite file (for checking what was stored). */
+export function openTestDb(): Database.Database {
+  const db = new Database(inject("dbPath"));
+  db.pragma("busy_timeout = 5000");
+  return db;
+}
+
+/** Number of rows in `table` matching an optional where clause. */
+export function countRows(db: Database.Database, table: string, where = "1 = 1", ...args: unknown[]): number {
+  return (db.prepare(`select count(*) as n from ${table} where ${where}`).get(...args) as { n: number }).n;
+}

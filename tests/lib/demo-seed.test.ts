@@ -1,0 +1,58 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import type { Knex } from "knex";
+import { openDatabase } from "@/db/connect";
+import { migrateLatest } from "@/db/migrate";
+import { DEMO_TEAM_NAME, DEMO_USERS, seedDemo } from "@/lib/demo/seed";
+import { verifyPassword } from "@/lib/password";
+
+let dir: string;
+let db: Knex;
+beforeAll(async () => {
+  dir = fs.mkdtempSync(path.join(os.tmpdir(), "plateau-demo-"));
+  db = openDatabase(path.join(dir, "demo.sqlite"));
+  await migrateLatest(db);
+});
+afterAll(async () => {
+  await db.destroy();
+  fs.rmSync(dir, { recursive: true, force: true });
+});
+
+const TABLES = ["users", "teams", "memberships", "baselines", "wire_classes", "histogram_bins", "scenarios", "reports", "audit_log"];
+async function counts(): Promise<Record<string, number>> {
+  const out: Record<string, number> = {};
+  for (const t of TABLES) out[t] = Number(((await db(t).count({ n: "*" }).first()) as { n: number }).n);
+  return out;
+}
+
+describe("seedDemo", () => {
+  it("creates the invented team with an owner, an editor and a viewer whose printed passwords work", async () => {
+    const r = await seedDemo(db);
+    const team = await db("teams").where({ id: r.teamId }).first();
+    expect(team).toMatchObject({ name: DEMO_TEAM_NAME, is_demo: 1 });
+    const roles = await db("memberships as m").join("users as u", "u.id", "m.user_id").where("m.team_id", r.teamId).select("u.email", "m.role", "u.password_hash");
+    expect(roles.map((x: { email: string; role: string }) => [x.email, x.role]).sort()).toEqual(DEMO_USERS.map((u) => [u.email, u.role]).sort());
+    for (const u of DEMO_USERS) {
+      const row = roles.find((x: { email: string }) => x.email === u.email)!;
+      expect(await verifyPassword(u.password, row.password_hash)).toBe(true);
+    }
+    expect(r.baselineId).toBeTruthy();
+    expect(r.scenarioIds?.length).toBe(3);
+    expect(r.reportId).toBeTruthy();
+  });
+
+  it("is idempotent: a second run changes nothing and keeps later edits", async () => {
+    const first = await counts();
+    const team = await db("teams").where({ is_demo: 1 }).first("id");
+    // A user's later change (a role change by the owner) must survive a re-run.
+    const viewer = await db("users").where({ email: "viewer@harrowbay.example" }).first("id");
+    await db("memberships").where({ team_id: team.id, user_id: viewer.id }).update({ role: "editor" });
+    const r = await seedDemo(db);
+    expect(r.teamId).toBe(team.id);
+    expect(r.users.every((u) => !u.created)).toBe(true);
+    expect(await counts()).toEqual(first);
+    expect((await db("memberships").where({ team_id: team.id, user_id: viewer.id }).first("role")).role).toBe("editor");
+  });
+});
