@@ -1,0 +1,79 @@
+/// <reference lib="webworker" />
+// Parses the chosen CSV off the main thread, with the same streaming reader and row validation as
+// the server (lib/import), so the preview shows exactly the errors the upload would get.
+import { parseHistogramCsv, type HistogramSink } from "@/lib/import/histograms";
+import { MAX_IMPORT_BYTES, MAX_LISTED_ERRORS } from "@/lib/import/limits";
+import { ImportFatalError } from "@/lib/import/types";
+import { parseWireClassStream } from "@/lib/import/wire-classes";
+import type { WorkerRequest, WorkerMessage } from "./protocol";
+
+const PREVIEW_ROWS = 8;
+
+const post = (m: WorkerMessage) => (self as unknown as DedicatedWorkerGlobalScope).postMessage(m);
+
+const countingSink: HistogramSink = { push() {}, close() {}, dispose() {} };
+
+self.onmessage = async (ev: MessageEvent<WorkerRequest>) => {
+  const { kind, file, classNames } = ev.data;
+  let header: string[] = [];
+  const preview: { line: number; cells: string[] }[] = [];
+  let last = 0;
+  async function* bytes(): AsyncGenerator<Uint8Array> {
+    const reader = file.stream().getReader();
+    let n = 0;
+    for (;;) {
+      const r = await reader.read();
+      if (r.done) break;
+      n += r.value.byteLength;
+      yield r.value;
+      const now = performance.now();
+      if (now - last > 60) {
+        last = now;
+        post({ type: "progress", bytes: n, total: file.size });
+      }
+    }
+    post({ type: "progress", bytes: n, total: file.size });
+  }
+  const opts = {
+    maxBytes: MAX_IMPORT_BYTES,
+    maxErrors: MAX_LISTED_ERRORS,
+    tap: {
+      header: (h: { fields: string[] }) => (header = h.fields),
+      row: (cells: string[], line: number) => {
+        if (preview.length < PREVIEW_ROWS) preview.push({ line, cells });
+      },
+    },
+  };
+  try {
+    if (kind === "histograms") {
+      const r = await parseHistogramCsv(bytes(), classNames, { ...opts, sink: countingSink });
+      post({
+        type: "done",
+        header,
+        preview,
+        rows: r.rows,
+        bytes: r.bytes,
+        delimiter: r.delimiter,
+        errors: r.errors,
+        errorCount: r.errorCount,
+        totals: r.perClass.map((c) => ({ name: c.name, bins: c.bins, nets: c.nets, minLengthM: c.minLengthM, maxLengthM: c.maxLengthM })),
+      });
+    } else {
+      const r = await parseWireClassStream(bytes(), opts);
+      post({
+        type: "done",
+        header,
+        preview,
+        rows: r.rows,
+        bytes: r.bytes,
+        delimiter: r.delimiter,
+        errors: r.errors,
+        errorCount: r.errorCount,
+        totals: r.classes.map((c) => ({ name: c.name, tier: c.tier, nets: c.netCount })),
+      });
+    }
+  } catch (e) {
+    if (e instanceof ImportFatalError) post({ type: "fatal", issue: e.issue });
+    else post({ type: "fatal", issue: { line: null, column: null, value: null, message: `The file could not be read: ${e instanceof Error ? e.message : String(e)}` } });
+  }
+};

@@ -1,0 +1,55 @@
+import "server-only";
+import type { Knex } from "knex";
+import { listClasses } from "@/db/queries/wire-classes";
+import { storeHistograms } from "@/db/queries/import";
+import type { ImportMode } from "@/lib/validation/import";
+import { parseHistogramCsv } from "./histograms";
+import { MAX_IMPORT_BYTES } from "./limits";
+import { formatScaled } from "./numbers";
+import { invalidCsvResponse } from "./respond";
+import { Spool } from "./spool";
+
+/**
+ * The whole histogram import of one request: stream-parse and validate against the baseline's
+ * classes (spooled, database untouched), then, unless it is a dry run, store in one transaction.
+ */
+export async function runHistogramImport(
+  db: Knex,
+  p: { baselineId: string; teamId: string; userId: string; mode: ImportMode; dryRun: boolean; source: AsyncIterable<Uint8Array>; maxBytes?: number },
+): Promise<Response> {
+  const classes = await listClasses(db, p.baselineId);
+  const names = classes.map((c) => c.name);
+  const parsed = await parseHistogramCsv(p.source, names, { maxBytes: p.maxBytes ?? MAX_IMPORT_BYTES, sink: new Spool() });
+  if (!parsed.ok || !parsed.spool) return invalidCsvResponse({ errors: parsed.errors, errorCount: parsed.errorCount, rows: parsed.rows });
+  const spool = parsed.spool;
+  try {
+    const netCount = new Map(classes.map((c) => [c.name, c.netCount]));
+    const perClass = parsed.perClass.map((t) => ({
+      name: t.name,
+      bins: t.bins,
+      nets: t.nets,
+      minLengthUm: Number(formatScaled(t.minLengthM, -6)),
+      maxLengthUm: Number(formatScaled(t.maxLengthM, -6)),
+      classNetCount: netCount.get(t.name) ?? null,
+    }));
+    const warnings = perClass
+      .filter((c) => c.classNetCount !== null && c.classNetCount !== c.nets)
+      .map((c) => `Class "${c.name}": the histogram holds ${c.nets.toLocaleString("en-US")} nets, the class table says ${c.classNetCount!.toLocaleString("en-US")}; distribution results use the histogram.`);
+    const summaryBody = { mode: p.mode, rows: parsed.rows, bytes: parsed.bytes, delimiter: parsed.delimiter, classes: perClass, warnings };
+    if (p.dryRun) return Response.json({ ok: true, dryRun: true, stored: false, ...summaryBody });
+    const summary = `Imported length histograms from CSV (${p.mode}): ${parsed.rows.toLocaleString("en-US")} bins in ${perClass.length} class${perClass.length === 1 ? "" : "es"}`;
+    const r = await storeHistograms(db, {
+      baselineId: p.baselineId,
+      teamId: p.teamId,
+      userId: p.userId,
+      mode: p.mode,
+      classNames: names,
+      spool,
+      summary,
+      detail: { mode: p.mode, rows: parsed.rows, bytes: parsed.bytes, classes: perClass.map((c) => c.name) },
+    });
+    return Response.json({ ok: true, dryRun: false, stored: true, version: r.version, ...summaryBody });
+  } finally {
+    spool.dispose();
+  }
+}

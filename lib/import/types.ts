@@ -1,0 +1,34 @@
+/** One problem found in an uploaded CSV. `line` is the 1-based physical line (1 = header); null for file-level problems. */
+export interface ImportIssue {
+  line: number | null;
+  column: string | null;
+  value: string | null;
+  message: string;
+}
+
+export type ImportMode = "replace" | "merge";
+
+/** Raised for problems that stop reading the file at once (binary, not UTF-8, too large, empty, bad header). */
+export class ImportFatalError extends Error {
+  constructor(
+    readonly issue: ImportIssue,
+    readonly status: number = 400,
+    readonly code: string = "invalid_csv",
+  ) {
+    super(issue.message);
+  }
+}
+
+/** Collects row problems: keeps the first `cap` and counts all. */
+export class IssueList {
+  readonly items: ImportIssue[] = [];
+  total = 0;
+  constructor(readonly cap: number) {}
+  add(issue: ImportIssue): void {
+    this.total += 1;
+    if (this.items.length < this.cap) this.items.push(issue);
+  }
+  get ok(): boolean {
+    return this.total === 0;
+  }
+}

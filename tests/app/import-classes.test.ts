@@ -1,0 +1,205 @@
+import http from "node:http";
+import { describe, expect, it } from "vitest";
+import { Client, userWithTeam } from "../helpers/http";
+import { dbState, HEADER, memberClient, ownerWithBaseline, postCsv, ROW_GLOBAL, ROW_LOCAL, sql, TEMPLATE_CLASSES } from "./import-helpers";
+
+const enc = new TextEncoder();
+
+describe("POST /api/baselines/[id]/import (wire classes)", () => {
+  it("answers 401 signed out, 404 to another team, 403 to a viewer, and stores nothing", async () => {
+    const o = await ownerWithBaseline();
+    const before = dbState();
+    const url = `/api/baselines/${o.baselineId}/import?mode=replace`;
+    const anon = await postCsv(new Client(), url, TEMPLATE_CLASSES);
+    expect(anon.status).toBe(401);
+    const stranger = await userWithTeam();
+    const other = await postCsv(stranger.client, url, TEMPLATE_CLASSES);
+    expect(other.status).toBe(404);
+    expect(other.json.error.message).toBe("Baseline not found.");
+    const viewer = await memberClient(o.teamId, "viewer");
+    const v = await postCsv(viewer, url, TEMPLATE_CLASSES);
+    expect(v.status).toBe(403);
+    expect(dbState()).toEqual(before);
+    // a viewer may still export
+    const exp = await viewer.get(`/api/baselines/${o.baselineId}/export.csv`);
+    expect(exp.status).toBe(200);
+    expect((await stranger.client.get(`/api/baselines/${o.baselineId}/export.csv`)).status).toBe(404);
+    expect((await new Client().get(`/api/baselines/${o.baselineId}/export.csv`)).status).toBe(401);
+  });
+
+  it("lets an editor replace, requires an explicit mode, and records a revision", async () => {
+    const o = await ownerWithBaseline();
+    const editor = await memberClient(o.teamId, "editor");
+    const before = dbState();
+    const noMode = await postCsv(editor, `/api/baselines/${o.baselineId}/import`, TEMPLATE_CLASSES);
+    expect(noMode.status).toBe(400);
+    expect(noMode.json.error.message).toBe("Choose mode=replace or mode=merge explicitly.");
+    const badMode = await postCsv(editor, `/api/baselines/${o.baselineId}/import?mode=append`, TEMPLATE_CLASSES);
+    expect(badMode.status).toBe(400);
+    expect(dbState()).toEqual(before);
+    const r = await postCsv(editor, `/api/baselines/${o.baselineId}/import?mode=replace`, `${HEADER}\n${ROW_LOCAL}\n`);
+    expect(r.status).toBe(200);
+    expect(r.json).toMatchObject({ ok: true, stored: true, mode: "replace", rows: 1, version: 2, removed: ["intermediate", "semi-global", "global"], updated: ["local"] });
+    const classes = await editor.get(`/api/baselines/${o.baselineId}/classes`);
+    expect(classes.json.classes.map((c: { name: string }) => c.name)).toEqual(["local"]);
+    const rev = sql<{ version: number; summary: string }>("select version, summary from baseline_revisions where baseline_id = ? order by version", o.baselineId);
+    expect(rev.map((x) => x.version)).toEqual([1, 2]);
+    expect(rev[1]!.summary).toBe("Imported wire classes from CSV (replace): 1 class; removed intermediate, semi-global, global");
+  });
+
+  it("merges by class name: updates, appends, keeps the rest", async () => {
+    const o = await ownerWithBaseline();
+    const text = `${HEADER}\n${ROW_GLOBAL.replace("global,global,400", "global,global,420")}\nM10-extra,global,500,1000,500,500,,5,Cu,3.0,100,2000,300,5.0,0.1\n`;
+    const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/import?mode=merge`, text);
+    expect(r.status).toBe(200);
+    expect(r.json).toMatchObject({ added: ["M10-extra"], updated: ["global"], removed: [] });
+    const classes = (await o.client.get(`/api/baselines/${o.baselineId}/classes`)).json.classes as { name: string; widthM: number }[];
+    expect(classes.map((c) => c.name)).toEqual(["local", "intermediate", "semi-global", "global", "M10-extra"]);
+    expect(classes.find((c) => c.name === "global")!.widthM).toBe(4.2e-7);
+  });
+
+  it("dry run validates and answers the summary but stores nothing", async () => {
+    const o = await ownerWithBaseline();
+    const before = dbState();
+    const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/import?mode=replace&dryRun=1`, `${HEADER}\n${ROW_LOCAL}\n`);
+    expect(r.status).toBe(200);
+    expect(r.json).toMatchObject({ ok: true, dryRun: true, stored: false, rows: 1, removed: ["intermediate", "semi-global", "global"] });
+    expect(dbState()).toEqual(before);
+  });
+
+  it("accepts BOM, CRLF, quotes, semicolons, another column order and a multipart upload", async () => {
+    const o = await ownerWithBaseline();
+    const cols = HEADER.split(",");
+    const order = [...cols.slice(5), ...cols.slice(0, 5)];
+    const vals = ROW_LOCAL.split(",");
+    const line = order.map((c) => (c === "class" ? '"loc;al"' : vals[cols.indexOf(c)]!)).join(";");
+    const text = "\uFEFF" + order.join(";") + "\r\n" + line + "\r\n";
+    const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/import?mode=merge`, text);
+    expect(r.status).toBe(200);
+    expect(r.json.delimiter).toBe(";");
+    expect(r.json.added).toEqual(["loc;al"]);
+    const form = new FormData();
+    form.append("note", "ignored");
+    form.append("file", new Blob([`${HEADER}\r\n${ROW_LOCAL.replace(/^local/, "from-form")}\r\n`], { type: "text/csv" }), "classes.csv");
+    const m = await o.client.req("POST", `/api/baselines/${o.baselineId}/import?mode=merge`, undefined, { raw: form });
+    expect(m.status).toBe(200);
+    expect(m.json.added).toEqual(["from-form"]);
+  });
+
+  const bad: [string, string | Uint8Array, { line: number | null; column: string | null; value?: string | null; message: RegExp | string }][] = [
+    ["an unknown column", `${HEADER},colour\n${ROW_LOCAL},red\n`, { line: 1, column: null, message: /^Unknown column "colour"\. Expected columns for wire classes: class, tier, width_nm, thickness_nm, spacing_nm, ild_below_nm \(optional\)/ }],
+    ["a missing required column", HEADER.replace(",activity", "") + "\n" + ROW_LOCAL.replace(/,0\.15$/, "") + "\n", { line: 1, column: null, message: /^Missing required column activity\. Expected columns/ }],
+    ["a class name twice", `${HEADER}\n${ROW_LOCAL}\n${ROW_LOCAL}\n`, { line: 3, column: "class", value: "local", message: "is already defined on line 2 (class names must be unique, ignoring case)" }],
+    ["a non-finite number", `${HEADER}\n${ROW_LOCAL.replace(",8000,", ",1e999,")}\n`, { line: 2, column: "driver_ohm", value: "1e999", message: /finite/ }],
+    ["NaN", `${HEADER}\n${ROW_LOCAL.replace(",2.7,", ",NaN,")}\n`, { line: 2, column: "k", value: "NaN", message: /number/ }],
+    ["a negative width", `${HEADER}\n${ROW_LOCAL}\n${ROW_GLOBAL.replace("global,global,400", "global,global,-4")}\n`, { line: 3, column: "width_nm", value: "-4", message: "must be > 0" }],
+    ["a decimal comma", `${HEADER.replace(/,/g, ";")}\n${ROW_LOCAL.replace(/,/g, ";").replace("2.7", "2,7")}\n`, { line: 2, column: "k", value: "2,7", message: /decimal point/ }],
+    ["an unknown metal", `${HEADER}\n${ROW_LOCAL.replace(",Cu,", ",Mithril,")}\n`, { line: 2, column: "metal", value: "Mithril", message: /^must be one of Cu, Al, W, Co, Ru \(got "Mithril"\); see the metals catalogue .*\/help\/csv#metals$/ }],
+    ["an unknown tier", `${HEADER}\n${ROW_LOCAL.replace("local,local", "local,regional")}\n`, { line: 2, column: "tier", value: "regional", message: /^must be one of local, intermediate, semi-global, global$/ }],
+    ["an empty file", "", { line: null, column: null, message: "The file is empty." }],
+    ["a header without rows", `${HEADER}\r\n`, { line: 2, column: null, message: "The file has a header but no wire classes." }],
+    ["a binary file", new Uint8Array([0x50, 0x4b, 0x03, 0x04, 0, 0, 0x08, 0, 0x63, 0x6c]), { line: null, column: null, message: /NUL bytes: it looks like a binary file/ }],
+    ["invalid UTF-8", new Uint8Array([...enc.encode(`${HEADER}\n`), ...enc.encode(ROW_LOCAL).map((b) => (b === 0x43 ? 0xc3 : b)), 0x0a]), { line: null, column: null, message: /not valid UTF-8/ }],
+    ["a row with too many fields", `${HEADER}\n${ROW_LOCAL},1\n${ROW_GLOBAL}\n`, { line: 2, column: null, message: "has 16 fields, the header has 15" }],
+  ];
+
+  it.each(bad)("rejects %s with line, column and reason, changing nothing", async (_name, body, expected) => {
+    const o = await ownerWithBaseline();
+    const before = dbState();
+    const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/import?mode=replace`, body);
+    expect(r.status).toBe(400);
+    expect(r.json.error.code).toBe("invalid_csv");
+    expect(r.json.error.message).toMatch(/Nothing was stored\.$/);
+    const first = r.json.error.errors[0];
+    expect(first.line).toBe(expected.line);
+    expect(first.column).toBe(expected.column);
+    if (expected.value !== undefined) expect(first.value).toBe(expected.value);
+    if (typeof expected.message === "string") expect(first.message).toBe(expected.message);
+    else expect(first.message).toMatch(expected.message);
+    expect(dbState()).toEqual(before);
+  });
+
+  it("answers 415 to another content type and 413 above the limit (declared or streamed), changing nothing", async () => {
+    const o = await ownerWithBaseline();
+    const before = dbState();
+    const t = await postCsv(o.client, `/api/baselines/${o.baselineId}/import?mode=replace`, TEMPLATE_CLASSES, "application/json");
+    expect(t.status).toBe(415);
+    const url = new URL(`${o.client.baseUrl}/api/baselines/${o.baselineId}/import?mode=replace`);
+    const send = (headers: Record<string, string>, totalBytes: number) =>
+      new Promise<{ status: number; body: string }>((resolve, reject) => {
+        const req = http.request(
+          { host: url.hostname, port: url.port, path: url.pathname + url.search, method: "POST", agent: false, headers: { "content-type": "text/csv", cookie: o.client.cookie, origin: o.client.baseUrl, ...headers } },
+          (res) => {
+            let body = "";
+            res.on("data", (d) => (body += d));
+            res.on("end", () => resolve({ status: res.statusCode ?? 0, body }));
+            res.on("error", () => resolve({ status: res.statusCode ?? 0, body }));
+          },
+        );
+        req.on("error", reject);
+        const line = Buffer.from(`${ROW_LOCAL}\n`.repeat(16_000)); // ~1 MiB of rows
+        let sent = 0;
+        req.write(`${HEADER}\n`);
+        const pump = () => {
+          while (sent < totalBytes) {
+            sent += line.length;
+            if (!req.write(line)) return void req.once("drain", pump);
+          }
+          req.end();
+        };
+        req.on("response", () => (sent = totalBytes)); // stop sending once answered
+        pump();
+      });
+    const declared = await send({ "content-length": String(65 * 1024 * 1024) }, 2 * 1024 * 1024).catch(() => ({ status: -1, body: "" }));
+    expect(declared.status).toBe(413);
+    expect(JSON.parse(declared.body).error.message).toMatch(/larger than the limit of 64 MiB/);
+    const streamed = await send({ "transfer-encoding": "chunked" }, 70 * 1024 * 1024);
+    expect(streamed).toMatchObject({ status: 413 });
+    expect(JSON.parse(streamed.body).error.errors[0].message).toBe("The file is larger than the limit of 64 MiB.");
+    expect(dbState()).toEqual(before);
+  }, 120_000);
+
+  it("creates a new baseline from a CSV (editor+), rejects a taken name with 409", async () => {
+    const u = await userWithTeam();
+    const viewer = await memberClient(u.teamId, "viewer");
+    const before = dbState();
+    const v = await postCsv(viewer, `/api/teams/${u.teamId}/baselines/import?name=X`, TEMPLATE_CLASSES);
+    expect(v.status).toBe(403);
+    expect((await postCsv(new Client(), `/api/teams/${u.teamId}/baselines/import?name=X`, TEMPLATE_CLASSES)).status).toBe(401);
+    const noName = await postCsv(u.client, `/api/teams/${u.teamId}/baselines/import`, TEMPLATE_CLASSES);
+    expect(noName.status).toBe(400);
+    expect(dbState()).toEqual(before);
+    const r = await postCsv(u.client, `/api/teams/${u.teamId}/baselines/import?name=Skua%20import`, TEMPLATE_CLASSES);
+    expect(r.status).toBe(201);
+    expect(r.json.baseline.name).toBe("Skua import");
+    expect(r.json.classes).toHaveLength(4);
+    const mid = dbState();
+    const again = await postCsv(u.client, `/api/teams/${u.teamId}/baselines/import?name=skua%20IMPORT`, TEMPLATE_CLASSES);
+    expect(again.status).toBe(409);
+    expect(again.json.error.message).toBe('A baseline named "skua IMPORT" already exists in this team.');
+    expect(dbState()).toEqual(mid);
+  });
+});
+
+describe("GET /api/baselines/[id]/export.csv", () => {
+  it("round-trips: export → import into a new baseline gives identical classes", async () => {
+    const o = await ownerWithBaseline();
+    // a name that would be a formula in a spreadsheet survives neutralising
+    const add = await postCsv(o.client, `/api/baselines/${o.baselineId}/import?mode=merge`, `${HEADER}\n"=HYPERLINK(""x"")",global,410.5,800.25,400,400,,5,Ru,1.9,12345,1500.125,300,5.5,0.05\n`);
+    expect(add.status).toBe(200);
+    const exp = await o.client.get(`/api/baselines/${o.baselineId}/export.csv`);
+    expect(exp.status).toBe(200);
+    expect(exp.headers.get("content-type")).toBe("text/csv; charset=utf-8");
+    expect(exp.headers.get("content-disposition")).toContain("Skua-wire-classes.csv");
+    expect(exp.text.split("\r\n")[0]).toBe(HEADER);
+    expect(exp.text).toContain(`"'=HYPERLINK(""x"")",global,410.5,800.25,`);
+    expect(exp.text).toContain("local,local,24,48,24,30,30,2,Cu,2.7,1200000,4,8000,0.4,0.15\r\n");
+    const r = await postCsv(o.client, `/api/teams/${o.teamId}/baselines/import?name=Copy`, exp.text);
+    expect(r.status).toBe(201);
+    const cols = "position, name, tier, width_m, thickness_m, spacing_m, ild_below_m, ild_above_m, barrier_m, metal, k, net_count, mean_length_m, driver_ohm, load_f, activity";
+    const a = sql(`select ${cols} from wire_classes where baseline_id = ? order by position`, o.baselineId);
+    const b = sql(`select ${cols} from wire_classes where baseline_id = ? order by position`, r.json.baseline.id);
+    expect(b).toEqual(a);
+    expect(a.map((x) => x.name)).toContain('=HYPERLINK("x")');
+  });
+});

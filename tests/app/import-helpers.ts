@@ -1,0 +1,71 @@
+import { createHash } from "node:crypto";
+import fs from "node:fs";
+import Database from "better-sqlite3";
+import { inject } from "vitest";
+import { Client, signedUpClient, userWithTeam } from "../helpers/http";
+
+export const TEMPLATE_CLASSES = fs.readFileSync("public/templates/wire-classes-template.csv", "utf8");
+export const TEMPLATE_HISTOGRAMS = fs.readFileSync("public/templates/length-histograms-template.csv", "utf8");
+export const HEADER = "class,tier,width_nm,thickness_nm,spacing_nm,ild_below_nm,ild_above_nm,barrier_nm,metal,k,net_count,mean_length_um,driver_ohm,load_ff,activity";
+export const ROW_LOCAL = "local,local,24,48,24,30,30,2,Cu,2.7,1200000,4,8000,0.4,0.15";
+export const ROW_GLOBAL = "global,global,400,800,400,400,,5,Cu,3.0,4000,1500,300,5.0,0.1";
+
+const TABLES = ["baselines", "wire_classes", "histogram_bins", "baseline_revisions", "audit_log"] as const;
+
+/** Row counts and a content checksum of the tables an import touches. */
+export function dbState(): { counts: Record<string, number>; checksum: string } {
+  const db = new Database(inject("dbPath"), { readonly: true, fileMustExist: true });
+  try {
+    const counts: Record<string, number> = {};
+    const h = createHash("sha256");
+    for (const t of TABLES) {
+      // other tests' sign-ups and team creations write audit rows too: only baseline entries count here
+      const where = t === "audit_log" ? " where entity_type = 'baseline'" : "";
+      counts[t] = (db.prepare(`select count(*) as n from ${t}${where}`).get() as { n: number }).n;
+      for (const row of db.prepare(`select * from ${t}${where} order by rowid`).iterate()) h.update(JSON.stringify(row));
+    }
+    return { counts, checksum: h.digest("hex") };
+  } finally {
+    db.close();
+  }
+}
+
+/** Direct SQL read for assertions. */
+export function sql<T = Record<string, unknown>>(query: string, ...params: unknown[]): T[] {
+  const db = new Database(inject("dbPath"), { readonly: true, fileMustExist: true });
+  try {
+    return db.prepare(query).all(...params) as T[];
+  } finally {
+    db.close();
+  }
+}
+
+/** Add a user to a team with a role (test setup; invites are the platform's feature, tested there). */
+export function addMember(teamId: string, userId: string, role: "owner" | "editor" | "viewer"): void {
+  const db = new Database(inject("dbPath"), { fileMustExist: true });
+  try {
+    db.pragma("busy_timeout = 5000");
+    db.prepare("insert into memberships (team_id, user_id, role, created_at) values (?, ?, ?, ?)").run(teamId, userId, role, Date.now());
+  } finally {
+    db.close();
+  }
+}
+
+/** POST a CSV body as text/csv. */
+export function postCsv(c: Client, path: string, text: string | Uint8Array, type = "text/csv") {
+  return c.req("POST", path, undefined, { headers: { "content-type": type }, raw: text as BodyInit });
+}
+
+/** An owner with a team and a baseline holding the template classes. */
+export async function ownerWithBaseline(name = "Skua") {
+  const u = await userWithTeam();
+  const r = await postCsv(u.client, `/api/teams/${u.teamId}/baselines/import?name=${encodeURIComponent(name)}`, TEMPLATE_CLASSES);
+  if (r.status !== 201) throw new Error(`baseline import failed: ${r.status} ${r.text}`);
+  return { ...u, baselineId: r.json.baseline.id as string };
+}
+
+export async function memberClient(teamId: string, role: "editor" | "viewer") {
+  const m = await signedUpClient();
+  addMember(teamId, m.userId, role);
+  return m.client;
+}

@@ -1,0 +1,169 @@
+import fs from "node:fs";
+import http from "node:http";
+import os from "node:os";
+import { describe, expect, it } from "vitest";
+import { Client, userWithTeam } from "../helpers/http";
+import { dbState, memberClient, ownerWithBaseline, postCsv, sql, TEMPLATE_HISTOGRAMS } from "./import-helpers";
+
+const H = "class,length_um,count";
+
+function spoolDirs(): string[] {
+  return fs.readdirSync(os.tmpdir()).filter((d) => d.startsWith("plateau-import-"));
+}
+
+describe("POST /api/baselines/[id]/histograms", () => {
+  it("stores the template histograms, serves them as JSON and CSV, and they drive the distribution results", async () => {
+    const o = await ownerWithBaseline();
+    const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace`, TEMPLATE_HISTOGRAMS);
+    expect(r.status).toBe(200);
+    expect(r.json).toMatchObject({ ok: true, stored: true, rows: 192, version: 2 });
+    expect(r.json.classes.map((c: { name: string; bins: number }) => [c.name, c.bins])).toEqual([["local", 48], ["intermediate", 48], ["semi-global", 48], ["global", 48]]);
+    const viewer = await memberClient(o.teamId, "viewer");
+    const j = await viewer.get(`/api/baselines/${o.baselineId}/histograms`);
+    expect(j.status).toBe(200);
+    expect(j.json.classes[0].name).toBe("local");
+    expect(j.json.classes[0].bins[0]).toEqual({ lengthUm: 0.317, count: 3553 });
+    const csv = await viewer.get(`/api/baselines/${o.baselineId}/histograms/export.csv`);
+    expect(csv.status).toBe(200);
+    expect(csv.text.replace(/\r\n/g, "\n")).toBe(TEMPLATE_HISTOGRAMS.replace(/\r\n/g, "\n"));
+    // a scenario on this baseline: its results CSV is computed from the histograms
+    const s = await o.client.post(`/api/teams/${o.teamId}/scenarios`, { baselineId: o.baselineId, name: "Shrink" });
+    expect(s.status).toBe(201);
+    const res = await viewer.get(`/api/scenarios/${s.json.scenario.id}/results.csv`);
+    expect(res.status).toBe(200);
+    const [head, ...rows] = res.text.trim().split("\r\n");
+    expect(head).toContain("delay_ps");
+    expect(head).toContain("c_ff_per_um");
+    const cols = head!.split(",");
+    const src = cols.indexOf("distribution_source");
+    const nets = cols.indexOf("nets");
+    expect(rows.map((l) => l.split(",")[src])).toEqual(["histogram", "histogram", "histogram", "histogram"]);
+    expect(Number(rows[0]!.split(",")[nets])).toBe(r.json.classes[0].nets);
+    expect((await new Client().get(`/api/scenarios/${s.json.scenario.id}/results.csv`)).status).toBe(401);
+    expect((await (await userWithTeam()).client.get(`/api/scenarios/${s.json.scenario.id}/results.csv`)).status).toBe(404);
+  });
+
+  it("round-trips: histogram export → import into the copy gives identical bins", async () => {
+    const o = await ownerWithBaseline();
+    await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace`, TEMPLATE_HISTOGRAMS);
+    const classes = await o.client.get(`/api/baselines/${o.baselineId}/export.csv`);
+    const bins = await o.client.get(`/api/baselines/${o.baselineId}/histograms/export.csv`);
+    const copy = await postCsv(o.client, `/api/teams/${o.teamId}/baselines/import?name=Copy`, classes.text);
+    const r = await postCsv(o.client, `/api/baselines/${copy.json.baseline.id}/histograms?mode=replace`, bins.text);
+    expect(r.status).toBe(200);
+    const q = "select c.name, h.length_m, h.count from histogram_bins h join wire_classes c on c.id = h.class_id where c.baseline_id = ? order by c.position, h.id";
+    expect(sql(q, copy.json.baseline.id)).toEqual(sql(q, o.baselineId));
+  });
+
+  it("merge replaces only the classes in the file; replace clears the others", async () => {
+    const o = await ownerWithBaseline();
+    await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace`, TEMPLATE_HISTOGRAMS);
+    const m = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=merge`, `${H}\nglobal,100,5\nglobal,200,6\n`);
+    expect(m.status).toBe(200);
+    expect(m.json.warnings[0]).toMatch(/^Class "global": the histogram holds 11 nets, the class table says 4,000/);
+    const count = () => Object.fromEntries(sql<{ name: string; n: number }>("select c.name, count(h.id) as n from wire_classes c left join histogram_bins h on h.class_id = c.id where c.baseline_id = ? group by c.id", o.baselineId).map((x) => [x.name, x.n]));
+    expect(count()).toEqual({ local: 48, intermediate: 48, "semi-global": 48, global: 2 });
+    const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace`, `${H}\nlocal,1,1\n`);
+    expect(r.status).toBe(200);
+    expect(count()).toEqual({ local: 1, intermediate: 0, "semi-global": 0, global: 0 });
+  });
+
+  it("roles: viewer 403, other team 404, signed out 401 — nothing stored", async () => {
+    const o = await ownerWithBaseline();
+    const before = dbState();
+    const url = `/api/baselines/${o.baselineId}/histograms?mode=replace`;
+    expect((await postCsv(new Client(), url, TEMPLATE_HISTOGRAMS)).status).toBe(401);
+    expect((await postCsv((await userWithTeam()).client, url, TEMPLATE_HISTOGRAMS)).status).toBe(404);
+    expect((await postCsv(await memberClient(o.teamId, "viewer"), url, TEMPLATE_HISTOGRAMS)).status).toBe(403);
+    expect((await new Client().get(`/api/baselines/${o.baselineId}/histograms`)).status).toBe(401);
+    expect((await (await userWithTeam()).client.get(`/api/baselines/${o.baselineId}/histograms/export.csv`)).status).toBe(404);
+    expect(dbState()).toEqual(before);
+    const editor = await memberClient(o.teamId, "editor");
+    expect((await postCsv(editor, url, TEMPLATE_HISTOGRAMS)).status).toBe(200);
+  });
+
+  const bad: [string, string | Uint8Array, { line: number | null; column: string | null; value?: string; message: string | RegExp }][] = [
+    ["an unknown class", `${H}\nlocal,1,2\nM42,1,2\n`, { line: 3, column: "class", value: "M42", message: "is not a class of this baseline; known classes: local, intermediate, semi-global, global" }],
+    ["the same class and length twice", `${H}\nlocal,1,2\nglobal,3,1\nlocal,1.0,3\n`, { line: 4, column: "length_um", value: "1.0", message: 'repeats the bin of class "local" at this length from line 2 (one row per class and length)' }],
+    ["a negative length", `${H}\nlocal,-4,2\n`, { line: 2, column: "length_um", value: "-4", message: "must be > 0" }],
+    ["a non-finite count", `${H}\nlocal,1,Infinity\n`, { line: 2, column: "count", value: "Infinity", message: "must be a finite number" }],
+    ["a fractional count", `${H}\nlocal,1,2.5\n`, { line: 2, column: "count", value: "2.5", message: "must be a whole number" }],
+    ["an unknown column", `class,length_um,count,weight\nlocal,1,2,3\n`, { line: 1, column: null, message: 'Unknown column "weight". Expected columns for length histograms: class, length_um, count.' }],
+    ["a missing column", `class,length_um\nlocal,1\n`, { line: 1, column: null, message: "Missing required column count. Expected columns for length histograms: class, length_um, count." }],
+    ["an empty file", "", { line: null, column: null, message: "The file is empty." }],
+    ["a binary file", new Uint8Array([0x1f, 0x8b, 0x08, 0x00, 0x00, 0x00]), { line: null, column: null, message: /NUL bytes/ }],
+    ["invalid UTF-8", new Uint8Array([0x63, 0x6c, 0x61, 0x73, 0x73, 0xff, 0xfe, 0x0a]), { line: null, column: null, message: /not valid UTF-8/ }],
+  ];
+
+  it.each(bad)("rejects %s, naming line, column and reason, changing nothing", async (_n, body, exp) => {
+    const o = await ownerWithBaseline();
+    await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace`, TEMPLATE_HISTOGRAMS);
+    const before = dbState();
+    const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace`, body);
+    expect(r.status).toBe(400);
+    const first = r.json.error.errors[0];
+    expect(first.line).toBe(exp.line);
+    expect(first.column).toBe(exp.column);
+    if (exp.value !== undefined) expect(first.value).toBe(exp.value);
+    if (typeof exp.message === "string") expect(first.message).toBe(exp.message);
+    else expect(first.message).toMatch(exp.message);
+    expect(dbState()).toEqual(before);
+  });
+
+  it("lists the first 200 errors with the total count", async () => {
+    const o = await ownerWithBaseline();
+    const before = dbState();
+    let text = `${H}\n`;
+    for (let i = 1; i <= 1000; i++) text += `local,${i},-1\n`;
+    const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace`, text);
+    expect(r.status).toBe(400);
+    expect(r.json.error.errors).toHaveLength(200);
+    expect(r.json.error.errorCount).toBe(1000);
+    expect(r.json.error.message).toBe("The file has 1,000 errors (the first 200 are listed). Nothing was stored.");
+    expect(dbState()).toEqual(before);
+  });
+
+  it("dry run stores nothing", async () => {
+    const o = await ownerWithBaseline();
+    const before = dbState();
+    const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace&dryRun=1`, TEMPLATE_HISTOGRAMS);
+    expect(r.status).toBe(200);
+    expect(r.json).toMatchObject({ dryRun: true, stored: false, rows: 192 });
+    expect(dbState()).toEqual(before);
+  });
+
+  it("a request killed mid-upload leaves nothing behind (no rows, no spool file)", async () => {
+    const o = await ownerWithBaseline();
+    await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace`, TEMPLATE_HISTOGRAMS);
+    const before = dbState();
+    const spoolsBefore = spoolDirs();
+    const url = new URL(`${o.client.baseUrl}/api/baselines/${o.baselineId}/histograms?mode=replace`);
+    let line = "";
+    for (let i = 1; i <= 2000; i++) line += `local,${i},${i}\n`;
+    const chunk = Buffer.from(line); // ~25 kB per write
+    await new Promise<void>((resolve) => {
+      const req = http.request(
+        { host: url.hostname, port: url.port, path: url.pathname + url.search, method: "POST", agent: false, headers: { "content-type": "text/csv", "transfer-encoding": "chunked", cookie: o.client.cookie, origin: o.client.baseUrl } },
+        () => resolve(),
+      );
+      req.on("error", () => resolve());
+      req.write(`${H}\n`);
+      let n = 0;
+      const tick = () => {
+        // about 5 MB sent, then the client dies before finishing the body
+        if (n++ < 200) req.write(chunk, () => setImmediate(tick));
+        else {
+          req.destroy();
+          resolve();
+        }
+      };
+      tick();
+    });
+    await new Promise((r) => setTimeout(r, 1500));
+    expect(dbState()).toEqual(before);
+    expect(spoolDirs()).toEqual(spoolsBefore);
+    // the server is fine and the next import works
+    const ok = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=merge`, `${H}\nlocal,1,1\n`);
+    expect(ok.status).toBe(200);
+  });
+});

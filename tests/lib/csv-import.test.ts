@@ -1,0 +1,261 @@
+import fs from "node:fs";
+import { describe, expect, it } from "vitest";
+import { detectDelimiter } from "@/lib/import/csv-stream";
+import { parseHistogramCsv } from "@/lib/import/histograms";
+import { Spool } from "@/lib/import/spool";
+import { multipartField } from "@/lib/import/request-body";
+import { formatScaled, parseScaled } from "@/lib/import/numbers";
+import { ImportFatalError, type ImportIssue } from "@/lib/import/types";
+import { parseWireClassStream } from "@/lib/import/wire-classes";
+
+const enc = new TextEncoder();
+/** Bytes in small chunks, so multi-byte characters, CRLF and quotes are split across chunk edges. */
+async function* chunks(data: string | Uint8Array, size = 7): AsyncGenerator<Uint8Array> {
+  const bytes = typeof data === "string" ? enc.encode(data) : data;
+  for (let i = 0; i < bytes.length; i += size) yield bytes.subarray(i, i + size);
+}
+
+const HEADER = "class,tier,width_nm,thickness_nm,spacing_nm,ild_below_nm,ild_above_nm,barrier_nm,metal,k,net_count,mean_length_um,driver_ohm,load_ff,activity";
+const ROW_LOCAL = "local,local,24,48,24,30,30,2,Cu,2.7,1200000,4,8000,0.4,0.15";
+const ROW_GLOBAL = "global,global,400,800,400,400,,5,Cu,3.0,4000,1500,300,5.0,0.1";
+const classes = (text: string, size = 7) => parseWireClassStream(chunks(text, size), { maxBytes: 1 << 20 });
+const hist = (text: string | Uint8Array, names = ["local", "global"], size = 7) => parseHistogramCsv(chunks(text, size), names, { maxBytes: 1 << 20, sink: new Spool() });
+
+async function fatal(p: Promise<unknown>): Promise<ImportIssue & { status: number }> {
+  try {
+    await p;
+  } catch (e) {
+    if (e instanceof ImportFatalError) return { ...e.issue, status: e.status };
+    throw e;
+  }
+  throw new Error("expected an ImportFatalError");
+}
+
+describe("parseScaled / formatScaled", () => {
+  it("converts exactly in decimal", () => {
+    expect(parseScaled("24", -9)).toEqual({ ok: true, value: 2.4e-8 });
+    expect(parseScaled("0.3", -6)).toEqual({ ok: true, value: 3e-7 });
+    expect(parseScaled("1.5e3", -6)).toEqual({ ok: true, value: 1.5e-3 });
+    expect(formatScaled(2.4e-8, -9)).toBe("24");
+    expect(formatScaled(3e-7, -6)).toBe("0.3");
+  });
+  it("rejects non-numbers, decimal commas and non-finite values", () => {
+    expect(parseScaled("abc", 0)).toEqual({ ok: false, reason: "is not a number" });
+    expect(parseScaled("1,5", 0)).toEqual({ ok: false, reason: "is not a number: use a decimal point, not a comma" });
+    expect(parseScaled("NaN", 0)).toEqual({ ok: false, reason: "must be a finite number" });
+    expect(parseScaled("Infinity", 0)).toEqual({ ok: false, reason: "must be a finite number" });
+    expect(parseScaled("1e400", 0)).toEqual({ ok: false, reason: "must be a finite number" });
+    expect(parseScaled("", 0)).toEqual({ ok: false, reason: "is required" });
+  });
+  it("round-trips random doubles exactly through the display unit", () => {
+    for (let i = 0; i < 2000; i++) {
+      const v = Math.random() * 10 ** (Math.floor(Math.random() * 10) - 12);
+      const back = parseScaled(formatScaled(v, -9), -9);
+      expect(back.ok && back.value).toBe(v);
+    }
+  });
+});
+
+describe("detectDelimiter(headerLine)", () => {
+  it("uses semicolons only when the header clearly does", () => {
+    expect(detectDelimiter("class;length_um;count")).toBe(";");
+    expect(detectDelimiter("class,length_um,count")).toBe(",");
+    expect(detectDelimiter('"a;b",c,d')).toBe(",");
+  });
+});
+
+describe("parseWireClassStream (wire-class CSV)", () => {
+  it("reads the engine's demo file, exactly converted to SI", async () => {
+    const text = fs.readFileSync("scaling/examples/skua-baseline.csv", "utf8");
+    const r = await classes(text);
+    expect(r.ok).toBe(true);
+    expect(r.classes.map((c) => c.name)).toEqual(["local", "intermediate", "semi-global", "global"]);
+    const local = r.classes[0]!;
+    expect(local.widthM).toBe(2.4e-8);
+    expect(local.meanLengthM).toBe(4e-6);
+    expect(local.loadF).toBe(4e-16);
+    expect(r.classes[3]!.ildAboveM).toBeNull();
+  });
+
+  it("accepts a BOM, CRLF, quoted fields, a trailing newline and another column order", async () => {
+    const cols = HEADER.split(",");
+    const order = [...cols].reverse();
+    const vals = ROW_LOCAL.split(",");
+    const row = order.map((c) => vals[cols.indexOf(c)]!);
+    row[order.indexOf("class")] = '"local"';
+    const text = "\uFEFF" + order.join(",") + "\r\n" + row.join(",") + "\r\n";
+    const r = await classes(text, 3);
+    expect(r.errors).toEqual([]);
+    expect(r.classes[0]!.name).toBe("local");
+    expect(r.classes[0]!.widthM).toBe(2.4e-8);
+  });
+
+  it("accepts semicolons when the file uses them", async () => {
+    const r = await classes(HEADER.replace(/,/g, ";") + "\n" + ROW_GLOBAL.replace(/,/g, ";") + "\n");
+    expect(r.ok).toBe(true);
+    expect(r.delimiter).toBe(";");
+  });
+
+  it("rejects an unknown column, listing the expected ones", async () => {
+    const e = await fatal(classes(HEADER + ",colour\n" + ROW_LOCAL + ",red\n"));
+    expect(e.line).toBe(1);
+    expect(e.message).toContain('Unknown column "colour"');
+    expect(e.message).toContain("Expected columns for wire classes: class, tier, width_nm");
+  });
+
+  it("rejects missing required columns, listing them and the expected ones", async () => {
+    const e = await fatal(classes(HEADER.replace(",metal", "").replace(",k,", ",") + "\n"));
+    expect(e.message).toMatch(/^Missing required columns metal, k\. Expected columns for wire classes: class, tier/);
+  });
+
+  it("rejects a repeated class name (ignoring case) on the second line", async () => {
+    const r = await classes(`${HEADER}\n${ROW_LOCAL}\n${ROW_LOCAL.replace(/^local/, "LOCAL")}\n`);
+    expect(r.ok).toBe(false);
+    expect(r.errors).toEqual([{ line: 3, column: "class", value: "LOCAL", message: "is already defined on line 2 (class names must be unique, ignoring case)" }]);
+  });
+
+  it("names line, column, value and reason for a bad number", async () => {
+    const r = await classes(`${HEADER}\n${ROW_LOCAL}\n${ROW_GLOBAL.replace("global,global,400", "global,global,-4")}\n`);
+    expect(r.errors).toEqual([{ line: 3, column: "width_nm", value: "-4", message: "must be > 0" }]);
+  });
+
+  it("rejects non-finite numbers", async () => {
+    const r = await classes(`${HEADER}\n${ROW_LOCAL.replace(",2.7,", ",Infinity,")}\n`);
+    expect(r.errors[0]).toMatchObject({ line: 2, column: "k", value: "Infinity" });
+    expect(r.errors[0]!.message).toMatch(/number/);
+  });
+
+  it("rejects an unknown metal and points at the catalogue", async () => {
+    const r = await classes(`${HEADER}\n${ROW_LOCAL.replace(",Cu,", ",Unobtainium,")}\n`);
+    expect(r.errors[0]).toMatchObject({ line: 2, column: "metal", value: "Unobtainium" });
+    expect(r.errors[0]!.message).toContain("Cu, Al, W, Co, Ru");
+    expect(r.errors[0]!.message).toContain("/help/csv#metals");
+  });
+
+  it("applies the app's limits (a width above 100 µm is a forgotten unit)", async () => {
+    const r = await classes(`${HEADER}\n${ROW_LOCAL.replace("local,local,24,", "local,local,240000,")}\n`);
+    expect(r.errors[0]).toMatchObject({ line: 2, column: "width_nm", value: "240000" });
+    expect(r.errors[0]!.message).toContain("at most 100 µm");
+  });
+
+  it("reports a row with the wrong number of fields", async () => {
+    const r = await classes(`${HEADER}\n${ROW_LOCAL},extra,more\n`);
+    expect(r.errors).toEqual([{ line: 2, column: null, value: null, message: "has 17 fields, the header has 15" }]);
+  });
+
+  it("rejects an empty file and a header without rows", async () => {
+    expect((await fatal(classes(""))).message).toBe("The file is empty.");
+    expect((await fatal(classes("\uFEFF\r\n  \n"))).message).toBe("The file is empty.");
+    expect((await fatal(classes(HEADER + "\n"))).message).toBe("The file has a header but no wire classes.");
+  });
+
+  it("rejects binary files (NUL bytes) and invalid UTF-8", async () => {
+    const zip = new Uint8Array([0x50, 0x4b, 0x03, 0x04, 0x14, 0x00, 0x06, 0x00]);
+    expect((await fatal(parseWireClassStream(chunks(zip), { maxBytes: 1 << 20 }))).message).toMatch(/NUL bytes: it looks like a binary file/);
+    const latin1 = new Uint8Array([...enc.encode(HEADER + "\nM\xe9tal"), 0xe9, 0x0a]);
+    expect((await fatal(parseWireClassStream(chunks(latin1), { maxBytes: 1 << 20 }))).message).toMatch(/not valid UTF-8/);
+  });
+
+  it("stops above the size limit with 413", async () => {
+    const e = await fatal(parseWireClassStream(chunks(`${HEADER}\n${ROW_LOCAL}\n`.repeat(10)), { maxBytes: 500 }));
+    expect(e.status).toBe(413);
+  });
+});
+
+describe("parseHistogramCsv (length histograms)", () => {
+  it("reads the demo histograms with per-class totals", async () => {
+    const text = fs.readFileSync("scaling/examples/skua-histograms.csv", "utf8");
+    const r = await hist(text, ["local", "intermediate", "semi-global", "global"], 4096);
+    expect(r.ok).toBe(true);
+    expect(r.rows).toBe(192);
+    expect(r.perClass.map((c) => [c.name, c.bins])).toEqual([["local", 48], ["intermediate", 48], ["semi-global", 48], ["global", 48]]);
+    r.spool?.dispose();
+  });
+
+  it("rejects an unknown class name, suggesting the known ones", async () => {
+    const r = await hist("class,length_um,count\nlocal,1,2\nLocal,2,3\nM7,1,1\n");
+    expect(r.errors).toEqual([
+      { line: 3, column: "class", value: "Local", message: 'is not a class of this baseline (did you mean "local"? names are case-sensitive)' },
+      { line: 4, column: "class", value: "M7", message: "is not a class of this baseline; known classes: local, global" },
+    ]);
+    expect(r.spool).toBeNull();
+  });
+
+  it("rejects the same class and length twice, in order or not", async () => {
+    const sorted = await hist("class,length_um,count\nlocal,1,2\nlocal,1,3\n");
+    expect(sorted.errors).toEqual([{ line: 3, column: "length_um", value: "1", message: 'repeats the bin of class "local" at this length from line 2 (one row per class and length)' }]);
+    const unsorted = await hist("class,length_um,count\nlocal,5,2\nlocal,1,3\nglobal,5,1\nlocal,5.0,9\n");
+    expect(unsorted.errors).toEqual([{ line: 5, column: "length_um", value: "5", message: 'repeats the bin of class "local" at this length from line 2 (one row per class and length)' }]);
+  });
+
+  it("rejects bad lengths and counts with line, column, value and reason", async () => {
+    const r = await hist("class,length_um,count\nlocal,-4,2\nlocal,0,1\nlocal,2,1.5\nlocal,3,-1\nlocal,4,NaN\nlocal,1e999,1\nlocal,5,\n");
+    expect(r.errors).toEqual([
+      { line: 2, column: "length_um", value: "-4", message: "must be > 0" },
+      { line: 3, column: "length_um", value: "0", message: "must be > 0" },
+      { line: 4, column: "count", value: "1.5", message: "must be a whole number" },
+      { line: 5, column: "count", value: "-1", message: "must be ≥ 0" },
+      { line: 6, column: "count", value: "NaN", message: "must be a finite number" },
+      { line: 7, column: "length_um", value: "1e999", message: "must be a finite number" },
+      { line: 8, column: "count", value: "", message: "is required" },
+    ]);
+  });
+
+  it("caps the listed errors but counts them all", async () => {
+    let text = "class,length_um,count\n";
+    for (let i = 0; i < 500; i++) text += `local,${i + 1},x\n`;
+    const r = await parseHistogramCsv(chunks(text, 1000), ["local"], { maxBytes: 1 << 20, maxErrors: 200, sink: new Spool() });
+    expect(r.errors.length).toBe(200);
+    expect(r.errorCount).toBe(500);
+  });
+
+  it("counts physical lines across quoted fields with newlines", async () => {
+    const r = await hist('class,length_um,count\n"local",1,2\n"glo\nbal",1,2\nlocal,x,1\n');
+    expect(r.errors).toEqual([
+      { line: 3, column: "class", value: "glo\nbal", message: "is not a class of this baseline; known classes: local, global" },
+      { line: 5, column: "length_um", value: "x", message: "is not a number" },
+    ]);
+  });
+
+  it("reports an unclosed quote", async () => {
+    const r = await hist('class,length_um,count\nlocal,1,2\n"local,2,3\n');
+    expect(r.errors[0]).toMatchObject({ line: 3, message: "a quoted field is not closed" });
+  });
+
+  it("rejects a header-only file, duplicate columns and tabs", async () => {
+    expect((await fatal(hist("class,length_um,count\r\n"))).message).toBe("The file has a header but no data rows.");
+    expect((await fatal(hist("class,length_um,count,count\n"))).message).toMatch(/Column "count" appears twice/);
+    expect((await fatal(hist("class\tlength_um\tcount\nlocal\t1\t1\n"))).message).toMatch(/not tabs/);
+  });
+});
+
+describe("multipartField(source, boundary, field)", () => {
+  it("extracts the file field across chunk edges and ignores other fields", async () => {
+    const b = "----plateau123";
+    const body =
+      `--${b}\r\nContent-Disposition: form-data; name="note"\r\n\r\nhello\r\n` +
+      `--${b}\r\nContent-Disposition: form-data; name="file"; filename="h.csv"\r\nContent-Type: text/csv\r\n\r\n` +
+      `class,length_um,count\r\nlocal,1,2\r\n--not-the-boundary\r\n` +
+      `\r\n--${b}--\r\n`;
+    for (const size of [1, 5, 13, 1000]) {
+      let out = "";
+      const dec = new TextDecoder();
+      for await (const c of multipartField(chunks(body, size), b, "file")) out += dec.decode(c, { stream: true });
+      expect(out).toBe("class,length_um,count\r\nlocal,1,2\r\n--not-the-boundary\r\n");
+    }
+  });
+});
+
+describe("readCsv limits on pathological input", () => {
+  it("rejects a first line longer than 64 KiB (not a CSV header)", async () => {
+    const e = await fatal(hist("x".repeat(200_000), ["local"], 65536));
+    expect(e).toMatchObject({ line: 1, message: "The first line is longer than 64 KiB: this does not look like a CSV header." });
+  });
+  it("rejects a record longer than 1 MiB (an unclosed quote) without quadratic re-parsing", async () => {
+    const t0 = performance.now();
+    const text = `class,length_um,count\nlocal,1,2\n"local,2,3\n${"local,3,4\n".repeat(300_000)}`;
+    const e = await fatal(parseHistogramCsv(chunks(text, 65536), ["local"], { maxBytes: 64 << 20, sink: new Spool() }));
+    expect(e).toMatchObject({ line: 3, message: "Line 3 starts a record longer than 1 MiB: a quote is probably not closed, or this is not a CSV file." });
+    expect(performance.now() - t0).toBeLessThan(5000);
+  });
+});
