@@ -6,6 +6,7 @@
 import Papa from "papaparse";
 import { getMetal } from "./materials";
 import { TIERS, type LengthBin, type Tier, type WireClass } from "../lib/scaling/types";
+import { fromNm, fromUm, scaleExact } from "../lib/scaling/units";
 
 export interface CsvError {
   /** 1-based line in the file (the header is line 1). */
@@ -115,9 +116,9 @@ export function validateWireClassRow(record: Record<string, string>, line: numbe
   }
   return {
     wireClass: {
-      name, tier, widthM: width * 1e-9, thicknessM: thickness * 1e-9, spacingM: spacing * 1e-9,
-      ildBelowM: below === null ? null : below * 1e-9, ildAboveM: above === null ? null : above * 1e-9,
-      barrierM: barrier * 1e-9, metal, k, netCount: nets, meanLengthM: mean * 1e-6, driverOhm: driver, loadF: load * 1e-15, activity,
+      name, tier, widthM: fromNm(width), thicknessM: fromNm(thickness), spacingM: fromNm(spacing),
+      ildBelowM: below === null ? null : fromNm(below), ildAboveM: above === null ? null : fromNm(above),
+      barrierM: fromNm(barrier), metal, k, netCount: nets, meanLengthM: fromUm(mean), driverOhm: driver, loadF: scaleExact(load, -15), activity,
     },
     errors,
   };
@@ -130,7 +131,7 @@ export function validateHistogramRow(record: Record<string, string>, line: numbe
   if (className === "") errors.push({ line, column: "class", value: "", message: "class is required" });
   const length = num(record, line, "length_um", errors, { minExclusive: 0 });
   const count = num(record, line, "count", errors, { min: 0 });
-  return { className, bin: length !== null && count !== null && errors.length === 0 ? { lengthM: length * 1e-6, count } : null, errors };
+  return { className, bin: length !== null && count !== null && errors.length === 0 ? { lengthM: fromUm(length), count } : null, errors };
 }
 
 /** Normalizes a header cell: trims, drops a BOM and quotes, lower-cases. */

@@ -12,12 +12,17 @@ export const PS = 1e-12;
 
 /** Metres → nanometres. */
 export const toNm = (m: number): number => m / NM;
-/** Nanometres → metres. */
-export const fromNm = (nm: number): number => nm * NM;
+/**
+ * Scale a decimal value by a power of ten exactly (24 nm → 2.4e-8 m, not 2.4000000000000003e-8):
+ * the product is formed in decimal and rounded once to the nearest double.
+ */
+export const scaleExact = (x: number, exp: number): number => (Number.isFinite(x) ? new Decimal(x).times(new Decimal(10).pow(exp)).toNumber() : x * 10 ** exp);
+/** Nanometres → metres, exactly rounded. */
+export const fromNm = (nm: number): number => scaleExact(nm, -9);
 /** Metres → micrometres. */
 export const toUm = (m: number): number => m / UM;
-/** Micrometres → metres. */
-export const fromUm = (um: number): number => um * UM;
+/** Micrometres → metres, exactly rounded. */
+export const fromUm = (um: number): number => scaleExact(um, -6);
 
 /** Base units the parser and formatter know. "ohm" also accepts "Ω" and "Ohm". */
 export type BaseUnit = "m" | "F" | "ohm" | "s" | "J" | "W" | "V" | "Hz" | "" ;

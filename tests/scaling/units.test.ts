@@ -36,3 +36,22 @@ describe("formatEngineering(valueSI, unit, significant)", () => {
     expect(convertExact(7e-9, 1e-9)).toBe(7);
   });
 });
+
+describe("exact decimal scaling (common practice, no source)", () => {
+  it("fromNm/fromUm round once: 24 nm is the double nearest 2.4e-8", async () => {
+    const { fromNm, fromUm } = await import("@/lib/scaling/units");
+    expect(fromNm(24)).toBe(2.4e-8);
+    expect(24 * 1e-9).not.toBe(2.4e-8); // the naive product is one ulp off, which is why the helper exists
+    expect(fromUm(0.3)).toBe(3e-7);
+    expect(fromNm(0.1)).toBe(1e-10);
+  });
+  it("the wire-class CSV stores exact SI values", async () => {
+    const { parseWireClassCsv } = await import("@/scaling/csv");
+    const csv = "class,tier,width_nm,thickness_nm,spacing_nm,ild_below_nm,ild_above_nm,barrier_nm,metal,k,net_count,mean_length_um,driver_ohm,load_ff,activity\nm1,local,24,48,24,30,,2,Cu,2.7,100,4.1,8000,0.3,0.1\n";
+    const { classes, errors } = parseWireClassCsv(csv);
+    expect(errors).toEqual([]);
+    expect(classes[0]?.widthM).toBe(2.4e-8);
+    expect(classes[0]?.meanLengthM).toBe(4.1e-6);
+    expect(classes[0]?.loadF).toBe(3e-16);
+  });
+});
