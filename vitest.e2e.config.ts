@@ -1,9 +1,8 @@
 import { defineConfig } from "vitest/config";
-import tsconfigPaths from "vite-tsconfig-paths";
 
 // Browser tests: playwright-core driving Debian's chromium against a real `next start`.
 export default defineConfig({
-  plugins: [tsconfigPaths()],
+  resolve: { tsconfigPaths: true },
   test: {
     environment: "node",
     include: ["tests/e2e/**/*.test.ts"],

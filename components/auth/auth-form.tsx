@@ -22,7 +22,8 @@ export function AuthForm({ mode, next, email: initialEmail = "" }: { mode: Mode;
     setFields({});
     try {
       await apiSend("POST", mode === "sign-in" ? "/api/auth/sign-in" : "/api/auth/sign-up", data);
-      router.replace(next);
+      // "/teams?landing=1" lets the teams page go straight to the only team a member has.
+      router.replace(next === "/teams" ? "/teams?landing=1" : next);
       router.refresh();
     } catch (err) {
       const f = err instanceof ApiRequestError ? err.failure : { message: "Something went wrong.", fields: {} };

@@ -8,6 +8,8 @@ const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../..")
 process.chdir(root);
 const nextBin = path.join(root, "node_modules", "next", "dist", "bin", "next");
 const port = process.env.PORT || "3000";
+// Nothing is sent anywhere: Next.js telemetry stays off.
+process.env.NEXT_TELEMETRY_DISABLED = "1";
 
 async function seed() {
   // Imported after the hook is registered (static imports would be resolved before it).

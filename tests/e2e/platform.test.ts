@@ -56,7 +56,7 @@ describe("platform in the browser", () => {
     await owner.getByRole("button", { name: "Create account" }).click();
     await expect.poll(() => owner.locator("#f-password-error").textContent()).toContain("Use at least 10 characters.");
     await signUp(owner, "Olive Owner", ownerEmail);
-    await owner.waitForURL(/\/teams$/);
+    await owner.waitForURL(/\/teams(\?landing=1)?$/);
     await owner.getByLabel("Team name").fill("Lamina Labs");
     await owner.getByRole("button", { name: "Create team" }).click();
     await owner.waitForURL(/\/teams\/[a-z2-7]{20}$/);

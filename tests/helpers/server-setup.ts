@@ -27,6 +27,7 @@ function freePort(): Promise<number> {
  * loopback port with a fresh temporary SQLite file and the in-process fake SMTP server.
  */
 export default async function setup(project: TestProject) {
+  process.env.NEXT_TELEMETRY_DISABLED = "1";
   const distDir = process.env.PLATEAU_DIST_DIR || ".next";
   const built = fs.existsSync(path.join(distDir, "BUILD_ID"));
   if (!(process.env.PLATEAU_SKIP_BUILD === "1" && built)) {

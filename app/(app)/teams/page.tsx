@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { redirect } from "next/navigation";
 import { db } from "@/db/client";
 import { listTeamsOfUser } from "@/db/queries/teams";
 import { CreateTeamForm } from "@/components/teams/create-team-form";
@@ -8,9 +9,11 @@ import { requirePageUser } from "@/lib/team-context";
 
 export const metadata: Metadata = { title: "Your teams" };
 
-export default async function TeamsPage() {
+export default async function TeamsPage({ searchParams }: { searchParams: Promise<{ landing?: string }> }) {
   const user = await requirePageUser("/teams");
   const teams = await listTeamsOfUser(db, user.id);
+  const only = teams.length === 1 ? teams[0] : undefined;
+  if (only && (await searchParams).landing === "1") redirect(`/teams/${only.id}`);
   return (
     <div className="space-y-6">
       <h1 className="text-xl font-semibold text-ink">Your teams</h1>
