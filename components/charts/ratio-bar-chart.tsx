@@ -1,6 +1,6 @@
 "use client";
-import { useMemo } from "react";
-import { Axis, BarSeries, Grid, Tooltip, XYChart } from "@visx/xychart";
+import { useContext, useMemo } from "react";
+import { Axis, BarSeries, DataContext, Grid, Tooltip, XYChart } from "@visx/xychart";
 import { CHART, chartTheme, tick } from "./chart-theme";
 import { RefLine } from "./ref-line";
 
@@ -20,13 +20,35 @@ export interface RatioBarChartProps {
   title?: string;
 }
 
+/** The ratio printed above each bar (2 decimals), so the chart reads without hovering. */
+function BarValues({ data }: { data: RatioDatum[] }) {
+  const { xScale, yScale } = useContext(DataContext);
+  if (!xScale || !yScale) return null;
+  const band = (xScale as unknown as { bandwidth?: () => number }).bandwidth?.() ?? 0;
+  return (
+    <g aria-hidden="true">
+      {data.map((d) => {
+        const x = Number(xScale(d.label as never)) + band / 2;
+        const y = Number(yScale(d.ratio as never));
+        if (!Number.isFinite(x) || !Number.isFinite(y)) return null;
+        return (
+          <text key={d.label} x={x} y={y - 3} textAnchor="middle" fontSize={10} fill={CHART.ink} className="tabular">
+            {d.ratio.toFixed(2)}
+          </text>
+        );
+      })}
+    </g>
+  );
+}
+
 const xAcc = (d: RatioDatum) => d.label;
 const yAcc = (d: RatioDatum) => d.ratio;
 
 /** Scenario/baseline ratios of one class as bars around the 1× line: better in the good tone, worse in the bad tone. */
 export function RatioBarChart({ data, width, height, title }: RatioBarChartProps) {
   const clean = useMemo(() => data.filter((d) => Number.isFinite(d.ratio)), [data]);
-  const hi = Math.max(1.2, ...clean.map((d) => d.ratio)) * 1.08;
+  // Headroom for the value printed above the tallest bar.
+  const hi = Math.max(1.2, ...clean.map((d) => d.ratio)) * 1.16;
   return (
     <figure className="ratio-chart m-0">
       {title ? <figcaption className="mb-1 text-xs font-semibold text-ink">{title}</figcaption> : null}
@@ -53,7 +75,8 @@ export function RatioBarChart({ data, width, height, title }: RatioBarChartProps
             return better ? CHART.good : worse ? CHART.bad : CHART.grey;
           }}
         />
-        <RefLine y={1} color={CHART.ink} label="1× baseline" dash="3 3" />
+        <RefLine y={1} color={CHART.ink} dash="3 3" />
+        <BarValues data={clean} />
         <Tooltip<RatioDatum>
           snapTooltipToDatumX
           renderTooltip={({ tooltipData }) => {

@@ -2,16 +2,11 @@
 import { useMemo } from "react";
 import { Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart } from "@visx/xychart";
 import type { ModelLevel, SweepMetric, SweepPoint } from "@/lib/scaling";
-import { GridRowsAt } from "./ref-line";
+import { GridRowsAt, RefLine } from "./ref-line";
 import { CHART, LEVEL_STYLE, chartTheme, logTicks, scaleTicks, tick } from "./chart-theme";
+import { LevelLegend, SWEEP_METRIC } from "./sweep-meta";
 
-/** Display unit of each sweep metric (y values arrive in SI). */
-export const SWEEP_METRIC: Record<SweepMetric, { label: string; unit: string; scale: number }> = {
-  delay: { label: "50% delay", unit: "ps", scale: 1e12 },
-  rc: { label: "RC", unit: "ps", scale: 1e12 },
-  r: { label: "Resistance", unit: "Ω", scale: 1 },
-  c: { label: "Capacitance", unit: "fF", scale: 1e15 },
-};
+export { LevelLegend, SWEEP_METRIC } from "./sweep-meta";
 
 export interface SweepChartData {
   className: string;
@@ -25,8 +20,12 @@ export interface SweepChartProps {
   metric: SweepMetric;
   /** x axis label, e.g. "S (cross-section factor)". */
   xLabel?: string;
-  /** Mark the scenario's current value of the swept variable. */
+  /** Mark the scenario's current value of the swept variable (a vertical line). */
   markerX?: number;
+  /** Also put dots on the curves at markerX (only when the curves are this scenario's, e.g. its own S_L). */
+  markerDots?: boolean;
+  /** y values arrive already divided by each curve's value at S = 1: plot them as plain ratios. */
+  relative?: boolean;
   logX?: boolean;
   logY?: boolean;
   /** Show the level legend under the chart (small multiples usually share one). */
@@ -38,8 +37,9 @@ const xAcc = (d: Datum) => d.x;
 const yAcc = (d: Datum) => d.y;
 
 /** A metric against the scale factor for one class, one curve per model level: where the copper curve flattens, scaling stops paying. */
-export function SweepChart({ data, width, height, metric, xLabel = "S (cross-section factor)", markerX, logX = true, logY = true, legend = false }: SweepChartProps) {
-  const m = SWEEP_METRIC[metric];
+export function SweepChart({ data, width, height, metric, xLabel = "S (cross-section factor)", markerX, markerDots = true, relative = false, logX = true, logY = true, legend = false }: SweepChartProps) {
+  const m = relative ? { ...SWEEP_METRIC[metric], unit: "×", scale: 1 } : SWEEP_METRIC[metric];
+  const yLabel = relative ? `${m.label} ÷ value at S = 1` : `${m.label} (${m.unit})`;
   const series = useMemo(
     () =>
       data.curves.map((c) => ({
@@ -52,22 +52,23 @@ export function SweepChart({ data, width, height, metric, xLabel = "S (cross-sec
     const xs = series.flatMap((s) => s.points.map((p) => p.x));
     const ys = series.flatMap((s) => s.points.map((p) => p.y));
     if (xs.length === 0) return { xDomain: [0.5, 4] as [number, number], yDomain: [1, 10] as [number, number] };
-    const yLo = Math.min(...ys);
-    const yHi = Math.max(...ys);
+    // Relative curves all pass through 1: keep 1 on the axis so the S = 1 reference line always shows.
+    const yLo = relative ? Math.min(1, ...ys) : Math.min(...ys);
+    const yHi = relative ? Math.max(1, ...ys) : Math.max(...ys);
     return {
       xDomain: [Math.min(...xs), Math.max(...xs)] as [number, number],
       yDomain: (logY ? [yLo / 1.15, yHi * 1.15] : [0, yHi * 1.08]) as [number, number],
     };
-  }, [series, logY]);
+  }, [series, logY, relative]);
   const xTicks = scaleTicks(xDomain[0], xDomain[1], Math.max(3, Math.floor(width / 70)));
   const yTicks = logY ? logTicks(yDomain[0], yDomain[1], Math.max(3, Math.floor(height / 40))) : undefined;
   const marker = markerX !== undefined && markerX >= xDomain[0] && markerX <= xDomain[1] ? markerX : undefined;
-  const markerPoints = marker !== undefined ? series.map((s) => nearest(s.points, marker)).filter((p): p is Datum => !!p) : [];
+  const markerPoints = marker !== undefined && markerDots ? series.map((s) => nearest(s.points, marker)).filter((p): p is Datum => !!p) : [];
 
   return (
     <figure className="sweep-chart m-0" data-class={data.className}>
       <figcaption className="mb-1 text-xs font-semibold text-ink">
-        {data.className} <span className="font-normal text-muted">· {m.label} vs {xLabel.split(" ")[0]}</span>
+        {data.className} <span className="font-normal text-muted">· {m.label}{relative ? " relative to S = 1" : ` (${m.unit})`}</span>
       </figcaption>
       <XYChart
         width={width}
@@ -80,7 +81,8 @@ export function SweepChart({ data, width, height, metric, xLabel = "S (cross-sec
       >
         {yTicks ? <GridRowsAt values={yTicks} color={CHART.grid} /> : <Grid columns={false} numTicks={4} lineStyle={{ stroke: CHART.grid }} />}
         <Axis orientation="bottom" label={xLabel} tickValues={xTicks} tickFormat={(v) => tick(Number(v))} labelOffset={12} />
-        <Axis orientation="left" label={`${m.label} (${m.unit})`} tickValues={yTicks} numTicks={4} tickFormat={(v) => tick(Number(v))} labelOffset={34} />
+        <Axis orientation="left" label={yLabel} tickValues={yTicks} numTicks={4} tickFormat={(v) => tick(Number(v))} labelOffset={34} />
+        {marker !== undefined ? <RefLine x={marker} color={CHART.muted} dash="3 3" label={`S = ${tick(marker)}`} labelAt="top" /> : null}
         {series.map((s) => (
           <LineSeries
             key={s.level}
@@ -122,7 +124,7 @@ export function SweepChart({ data, width, height, metric, xLabel = "S (cross-sec
                     <div key={k} className="flex justify-between gap-3">
                       <span style={{ color: LEVEL_STYLE[(v.datum as Datum).level].color }}>{k}</span>
                       <span className="tabular">
-                        {tick((v.datum as Datum).y)} {m.unit}
+                        {relative ? `${tick((v.datum as Datum).y)}×` : `${tick((v.datum as Datum).y)} ${m.unit}`}
                       </span>
                     </div>
                   ))}
@@ -140,20 +142,4 @@ function nearest(points: Datum[], x: number): Datum | undefined {
   let best: Datum | undefined;
   for (const p of points) if (!best || Math.abs(Math.log(p.x / x)) < Math.abs(Math.log(best.x / x))) best = p;
   return best;
-}
-
-/** Legend of the model levels (line sample + name). */
-export function LevelLegend({ levels = ["ideal", "fringe", "coupled", "full"] as ModelLevel[] }: { levels?: ModelLevel[] }) {
-  return (
-    <ul className="flex flex-wrap gap-x-4 gap-y-1 text-xs text-muted" aria-label="Model levels">
-      {levels.map((l) => (
-        <li key={l} className="flex items-center gap-1.5">
-          <svg width="26" height="8" aria-hidden="true">
-            <line x1="1" y1="4" x2="25" y2="4" stroke={LEVEL_STYLE[l].color} strokeWidth={LEVEL_STYLE[l].width} strokeDasharray={LEVEL_STYLE[l].dash} />
-          </svg>
-          {LEVEL_STYLE[l].label}
-        </li>
-      ))}
-    </ul>
-  );
 }

@@ -291,6 +291,7 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
           )}
         </div>
       </header>
+      <CsvLinks teamId={b.teamId} baselineId={b.id} canImport={!readOnly} />
       {stale !== null ? (
         <Notice tone="warn" role="alert">
           <p className="font-medium">Someone saved this baseline while you were editing (now version {stale}). Nothing was overwritten.</p>
@@ -438,6 +439,42 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
       </Card>
       <BaselineHistory id={b.id} version={b.version} />
     </div>
+  );
+}
+
+/** CSV import (editors and owners) and export (everyone) of this baseline. */
+function CsvLinks({ teamId, baselineId, canImport }: { teamId: string; baselineId: string; canImport: boolean }) {
+  const link = "text-copper-dark underline-offset-2 hover:underline";
+  const importBase = `/teams/${teamId}/baselines/${baselineId}/import`;
+  return (
+    <nav aria-label="CSV import and export" className="no-print flex flex-wrap items-center gap-x-4 gap-y-1 text-xs" data-testid="baseline-csv-links">
+      {canImport ? (
+        <span className="flex flex-wrap items-center gap-x-2">
+          <span className="text-muted">Import CSV:</span>
+          <Link className={link} href={importBase}>
+            wire classes
+          </Link>
+          <span className="text-faint" aria-hidden="true">·</span>
+          <Link className={link} href={`${importBase}?kind=histograms`}>
+            length histograms
+          </Link>
+          <span className="text-faint" aria-hidden="true">·</span>
+          <Link className={link} href="/help/csv">
+            format reference
+          </Link>
+        </span>
+      ) : null}
+      <span className="flex flex-wrap items-center gap-x-2">
+        <span className="text-muted">Export CSV:</span>
+        <a className={link} href={`/api/baselines/${baselineId}/export.csv`} download>
+          wire classes
+        </a>
+        <span className="text-faint" aria-hidden="true">·</span>
+        <a className={link} href={`/api/baselines/${baselineId}/histograms/export.csv`} download>
+          length histograms
+        </a>
+      </span>
+    </nav>
   );
 }
 

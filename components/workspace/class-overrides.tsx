@@ -62,7 +62,7 @@ export function ClassOverrides({ settings, onChange, classes, readOnly, errors }
               );
             return (
               <tr key={c.name} className="border-b border-rule/60 align-top">
-                <th scope="row" className="py-1 pr-2 text-left font-medium">{c.name}</th>
+                <th scope="row" className="pb-1 pr-2 pt-2.5 text-left font-medium">{c.name}</th>
                 {(["s", "sL"] as const).map((k) => (
                   <td key={k} className="px-1 py-0.5">
                     <OptionalNumber label={`${k === "s" ? "S" : "S_L"} for ${c.name}`} value={o[k]} onChange={(v) => setO(c.name, { [k]: v })} check={CHECK[k]} errors={e(k)} />

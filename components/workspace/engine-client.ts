@@ -6,6 +6,7 @@ type Pending = {
   resolve: (v: unknown) => void;
   reject: (e: Error) => void;
   onProgress?: (f: number) => void;
+  withReference?: boolean;
 };
 
 /** Superseded by a newer sweep while queued: callers ignore it. */
@@ -25,7 +26,7 @@ export class EngineWorker {
       if (!p) return;
       if (msg.kind === "progress") return p.onProgress?.(msg.fraction);
       this.pending.delete(msg.id);
-      if (msg.kind === "sweep") p.resolve(msg.curves);
+      if (msg.kind === "sweep") p.resolve(p.withReference ? { curves: msg.curves, reference: msg.reference ?? [] } : msg.curves);
       else if (msg.kind === "field") p.resolve(msg.result);
       else if (msg.kind === "superseded") p.reject(new Superseded("superseded"));
       else p.reject(new Error(msg.message));
@@ -36,16 +37,21 @@ export class EngineWorker {
     };
   }
 
-  private send<T>(req: Omit<WorkerRequest, "id">, onProgress?: (f: number) => void): Promise<T> {
+  private send<T>(req: Omit<WorkerRequest, "id">, onProgress?: (f: number) => void, withReference = false): Promise<T> {
     const id = this.next++;
     return new Promise<T>((resolve, reject) => {
-      this.pending.set(id, { resolve: resolve as (v: unknown) => void, reject, onProgress });
+      this.pending.set(id, { resolve: resolve as (v: unknown) => void, reject, onProgress, withReference });
       this.worker.postMessage({ ...req, id } as WorkerRequest);
     });
   }
 
   sweep(args: SweepArgs): Promise<SweepCurve[]> {
     return this.send({ kind: "sweep", args } as Omit<WorkerRequest, "id">);
+  }
+
+  /** A sweep plus every curve's value at `args.referenceX` (the x of "relative to"). */
+  sweepWithReference(args: SweepArgs & { referenceX: number }): Promise<{ curves: SweepCurve[]; reference: SweepCurve[] }> {
+    return this.send({ kind: "sweep", args } as Omit<WorkerRequest, "id">, undefined, true);
   }
 
   field(args: FieldArgs, onProgress?: (f: number) => void): Promise<FieldSolveResult> {

@@ -19,8 +19,10 @@ function runPendingSweep() {
   if (!req) return;
   try {
     const t0 = performance.now();
-    const curves = sweep(req.args);
-    post({ id: req.id, kind: "sweep", curves, elapsedMs: performance.now() - t0 });
+    const { referenceX, ...args } = req.args;
+    const curves = sweep(args);
+    const reference = referenceX !== undefined ? sweep({ ...args, from: referenceX, to: referenceX, points: 1 }) : undefined;
+    post({ id: req.id, kind: "sweep", curves, reference, elapsedMs: performance.now() - t0 });
   } catch (e) {
     post({ id: req.id, kind: "error", message: e instanceof Error ? e.message : String(e) });
   }

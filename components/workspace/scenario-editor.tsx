@@ -1,25 +1,34 @@
 "use client";
 import Link from "next/link";
 import { useRouter } from "next/navigation";
-import { memo, useCallback, useDeferredValue, useEffect, useMemo, useState } from "react";
+import dynamic from "next/dynamic";
+import { useCallback, useDeferredValue, useEffect, useMemo, useState } from "react";
 import useSWR from "swr";
 import { evaluateScenario, type Evaluation, type ScenarioSettings, type Technology, type WireClass } from "@/lib/scaling";
 import { Caution } from "@/components/caution";
 import { Button } from "@/components/ui/button";
 import { Badge, Card, Notice } from "@/components/ui/card";
 import { inputClass } from "@/components/ui/field";
-import { RatioBarChart } from "@/components/charts/ratio-bar-chart";
-import { DelayDistributionChart } from "@/components/charts/delay-distribution-chart";
-import { CHART } from "@/components/charts/chart-theme";
 import { ApiFailure, api, fetcher } from "./api";
 import { ClassOverrides } from "./class-overrides";
-import { FieldCheck } from "./field-check";
 import { ResultsTable } from "./results-table";
 import { RevisionHistory, type RevisionRow } from "./revision-history";
 import { LEVEL_LABEL, SettingsPanel } from "./settings-panel";
 import { SweepPanel, type SweepView } from "./sweep-panel";
-import { useWidth } from "./use-width";
 import { fmt, U } from "./units";
+
+// Charts (visx) and the field check load in the browser after the first paint: the settings and the results
+// table do not wait for them (first-load JS without visx).
+const chartSlot = (h: number) =>
+  function ChartSlot() {
+    return <div style={{ height: h }} className="animate-pulse rounded-lg border border-rule bg-panel" aria-label="Loading charts" />;
+  };
+const RatioCharts = dynamic(() => import("./result-charts").then((m) => m.RatioCharts), { ssr: false, loading: chartSlot(260) });
+const Distributions = dynamic(() => import("./result-charts").then((m) => m.Distributions), { ssr: false, loading: chartSlot(300) });
+const FieldCheck = dynamic(() => import("./field-check").then((m) => m.FieldCheck), {
+  ssr: false,
+  loading: () => <p className="text-sm text-muted">Loading the field check…</p>,
+});
 
 export interface ScenarioDto {
   id: string;
@@ -90,6 +99,8 @@ export function ScenarioEditor(props: {
     q.set("metric", v.metric);
     q.set("from", String(v.from));
     q.set("to", String(v.to));
+    q.set("scale", v.scale);
+    q.set("length", v.length);
     if (v.classes.length) q.set("classes", v.classes.join(","));
     else q.delete("classes");
     window.history.replaceState(null, "", `${window.location.pathname}?${q.toString()}`);
@@ -310,7 +321,14 @@ export function ScenarioEditor(props: {
         </aside>
 
         <div className="min-w-0 space-y-4">
-          <Card title={`Results — ${LEVEL_LABEL[s.level]}`} actions={evaluation ? <span className="text-xs text-muted">engine {evaluation.engineVersion}</span> : null}>
+          <Card title={`Results — ${LEVEL_LABEL[s.level]}`} actions={
+              <span className="flex items-center gap-3 text-xs text-muted">
+                <a href={`/api/scenarios/${scenario.id}/results.csv`} download className="no-print font-medium text-copper-dark hover:underline" data-testid="results-csv" title={dirty ? "The CSV holds the last saved version, not your unsaved changes." : "Per-class results of this scenario as CSV"}>
+                  Results CSV{dirty ? " (saved version)" : ""}
+                </a>
+                {evaluation ? <span>engine {evaluation.engineVersion}</span> : null}
+              </span>
+            }>
             {evaluation ? (
               <>
                 <Totals e={evaluation} />
@@ -367,62 +385,6 @@ function Totals({ e }: { e: Evaluation }) {
     </dl>
   );
 }
-
-const RatioCharts = memo(function RatioCharts({ e }: { e: Evaluation }) {
-  const [ref, width] = useWidth<HTMLDivElement>(800);
-  const cols = width > 900 ? 4 : width > 560 ? 2 : 1;
-  const w = Math.floor((width - (cols - 1) * 12) / cols);
-  return (
-    <Card title="Scenario / baseline per class">
-      <div ref={ref} className="grid gap-3" style={{ gridTemplateColumns: `repeat(${cols}, minmax(0, 1fr))` }}>
-        {e.classes.map((c) => (
-          <RatioBarChart
-            key={c.name}
-            title={c.name}
-            width={w}
-            height={170}
-            data={[
-              { label: "R", ratio: c.ratio.rOhmPerM },
-              { label: "C", ratio: c.ratio.cFPerM },
-              { label: "RC", ratio: c.ratio.rcS },
-              { label: "Delay", ratio: c.ratio.delayS },
-              { label: "Rep.", ratio: c.ratio.repeaters },
-              { label: "Energy", ratio: c.ratio.energyJ },
-            ]}
-          />
-        ))}
-      </div>
-      <p className="mt-1 text-[11px] text-muted">Per-length R and C; RC, delay and energy at each class&apos;s typical length. Green: better than the baseline, red: worse.</p>
-    </Card>
-  );
-});
-
-const Distributions = memo(function Distributions({ e, budgetS }: { e: Evaluation; budgetS: number }) {
-  const [ref, width] = useWidth<HTMLDivElement>(800);
-  const withHist = e.classes.filter((c) => c.scenario.distribution.source === "histogram");
-  if (withHist.length === 0) return null;
-  const cols = width > 700 ? 2 : 1;
-  const w = Math.floor((width - (cols - 1) * 16) / cols);
-  return (
-    <Card title="Delay distribution against the budget">
-      <div ref={ref} className="grid gap-4" style={{ gridTemplateColumns: `repeat(${cols}, minmax(0, 1fr))` }}>
-        {withHist.map((c) => (
-          <DelayDistributionChart
-            key={c.name}
-            title={`${c.name} — ${c.scenario.distribution.totalNets.toLocaleString("en")} nets`}
-            width={w}
-            height={220}
-            budgetS={budgetS}
-            data={[
-              { label: "Baseline", bins: c.baseline.distribution.bins, color: CHART.grey, dash: "5 3" },
-              { label: "Scenario", bins: c.scenario.distribution.bins, color: CHART.copper },
-            ]}
-          />
-        ))}
-      </div>
-    </Card>
-  );
-});
 
 function ReadOnlySettings({ settings: s }: { settings: ScenarioSettings }) {
   const n = (v: number) => String(Number(v.toPrecision(6)));

@@ -5,11 +5,19 @@ import { inputClass } from "@/components/ui/field";
 import { NumberField } from "./number-field";
 import { U, formatValue, parseValue } from "./units";
 
+// Short enough to show whole in the select; LEVEL_HINT says the rest under it.
 export const LEVEL_LABEL: Record<ModelLevel, string> = {
-  ideal: "Ideal scaling (parallel plate, bulk ρ)",
+  ideal: "Ideal (plate, bulk ρ)",
   fringe: "+ fringing",
   coupled: "+ neighbour coupling",
-  full: "+ size effects and fixed barrier (full)",
+  full: "Full: + size effects",
+};
+
+const LEVEL_HINT: Record<ModelLevel, string> = {
+  ideal: "Parallel plate, bulk resistivity, no driver or load.",
+  fringe: "Adds single-line fringing to the plate capacitance.",
+  coupled: "Adds neighbour coupling (Miller factor below).",
+  full: "Coupling plus size-effect resistivity; barrier as set below.",
 };
 
 const positive = (label: string, max = 20) => (v: number) => (v <= 0 ? `${label} must be greater than 0.` : v > max ? `${label} must be at most ${max}.` : undefined);
@@ -43,6 +51,7 @@ export function SettingsPanel({ settings, onChange, classes, errors }: Props) {
             </option>
           ))}
         </select>
+        <p className="mt-1 text-[11px] text-muted">{LEVEL_HINT[settings.level]}</p>
       </div>
       <SliderField label="Miller factor" hint="0 = neighbours switch with the victim, 1 = quiet, 2 = opposite" min={0} max={2} step={0.05} value={settings.miller} onChange={(v) => set("miller", v)} check={millerCheck} errors={err("miller")} name="miller" />
       <fieldset>

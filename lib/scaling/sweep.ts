@@ -43,6 +43,12 @@ function checkCount(n: number): void {
 export function sweep(p: {
   classes: WireClass[]; technology: Technology; settings: ScenarioSettings; variable: SweepVariable; metric: SweepMetric;
   from: number; to: number; points: number; levels?: ModelLevel[]; spacing?: "linear" | "log"; classNames?: string[];
+  /**
+   * S sweeps only: what the length factor does while S moves. "scenario" (default) keeps the scenario's S_L (and
+   * per-class S_L overrides); "follow" sets S_L = S (local-style wires that shrink with the cell); "fixed" sets
+   * S_L = 1 (global-style wires that keep their length). Ignored for S_L and k sweeps.
+   */
+  lengthMode?: "scenario" | "follow" | "fixed";
 }): SweepCurve[] {
   checkTechnology(p.technology);
   checkSettings(p.settings);
@@ -54,10 +60,12 @@ export function sweep(p: {
   const levels = p.levels ?? MODEL_LEVELS;
   const classes = p.classNames ? p.classes.filter((c) => p.classNames!.includes(c.name)) : p.classes;
   const key: keyof ClassOverride = p.variable;
+  const lengthMode = p.variable === "s" ? (p.lengthMode ?? "scenario") : "scenario";
   const overrides: Record<string, ClassOverride> = {};
   for (const [name, o] of Object.entries(p.settings.overrides)) {
     const copy = { ...o };
     delete copy[key];
+    if (lengthMode !== "scenario") delete copy.sL;
     overrides[name] = copy;
   }
   const curves: SweepCurve[] = [];
@@ -72,8 +80,11 @@ export function sweep(p: {
     }));
     for (const x of xs) {
       const st = base;
-      if (p.variable === "s") st.s = x;
-      else if (p.variable === "sL") st.sL = x;
+      if (p.variable === "s") {
+        st.s = x;
+        if (lengthMode === "follow") st.sL = x;
+        else if (lengthMode === "fixed") st.sL = 1;
+      } else if (p.variable === "sL") st.sL = x;
       else st.k = x;
       for (let i = 0; i < classes.length; i++) {
         const curve = perClass[i]!;

@@ -89,7 +89,11 @@ describe("scenario editor in the browser", () => {
     await page.screenshot({ path: `${SHOTS}/editor-top.png` });
 
     // First-load JS of the editor page: gzip sum of its script tags.
-    const scripts = await page.evaluate(() => [...document.querySelectorAll("script[src]")].map((s) => (s as HTMLScriptElement).src));
+    // The <script src> of the server's HTML (not the DOM after load, which also holds the lazily loaded chart chunks);
+    // nomodule polyfills are not loaded by a current browser and are left out.
+    const html = (await editor.client.get(`/teams/${teamId}/scenarios/${sid}`)).text;
+    const scripts = [...html.matchAll(/<script([^>]*?)src="([^"]+)"([^>]*)>/g)].filter((m) => !/nomodule/i.test(m[1]! + m[3]!)).map((m) => new URL(m[2]!.replace(/&amp;/g, "&"), baseUrl).href);
+    expect(scripts.length).toBeGreaterThan(0);
     let gz = 0;
     for (const src of scripts) gz += zlib.gzipSync(Buffer.from(await (await fetch(src)).arrayBuffer())).length;
     console.log(`[workspace] editor first-load JS: ${(gz / 1024).toFixed(1)} kB gzip in ${scripts.length} scripts`);
@@ -158,6 +162,27 @@ describe("scenario editor in the browser", () => {
     // The view state lives in the URL.
     await page.selectOption("select[name=metric]", "c");
     await page.waitForFunction(() => new URL(location.href).searchParams.get("metric") === "c");
+    await page.selectOption("select[name=metric]", "delay");
+    // The plateau: by default curves are relative to S = 1 with the length following S, and a reading says where the
+    // full model stops improving; the view choices live in the URL too.
+    await waitForResults(page);
+    expect(await page.inputValue("select[name=scale]")).toBe("relative");
+    expect(await page.inputValue("select[name=length]")).toBe("follow");
+    const reading = await page.locator('[data-testid=sweep-reading] li[data-class="local"]').innerText();
+    expect(reading).toMatch(/Delay is lowest at S ≈ [\d.]+ \(0\.\d+× of S = 1\)/);
+    expect(reading).toMatch(/At this scenario's S = 1\.6/);
+    await page.selectOption("select[name=length]", "fixed");
+    await page.waitForFunction(() => new URL(location.href).searchParams.get("length") === "fixed");
+    await page.waitForFunction(() => /gets no better from shrinking/.test(document.querySelector('[data-testid=sweep-reading] li[data-class="local"]')?.textContent ?? ""));
+    await page.selectOption("select[name=scale]", "absolute");
+    await page.waitForFunction(() => new URL(location.href).searchParams.get("scale") === "absolute");
+    await page.reload();
+    await waitForResults(page);
+    expect(await page.inputValue("select[name=scale]")).toBe("absolute");
+    expect(await page.inputValue("select[name=length]")).toBe("fixed");
+    await page.selectOption("select[name=scale]", "relative");
+    await page.selectOption("select[name=length]", "follow");
+    expect(await page.getAttribute("[data-testid=results-csv]", "href")).toBe(`/api/scenarios/${sid}/results.csv`);
 
     // Screenshots of the parts.
     await page.selectOption("select[name=metric]", "delay");
@@ -193,9 +218,14 @@ describe("scenario editor in the browser", () => {
     await page.screenshot({ path: `${SHOTS}/viewer-editor.png` });
     await page.goto(`${baseUrl}/teams/${teamId}/baselines/${baselineId}`);
     await page.waitForSelector("[data-testid=class-table]");
-    for (const sel of ["[data-testid=save-baseline]", "button:has-text('Add class')", "button:has-text('Duplicate baseline')", "[data-testid=class-table] input"]) {
+    for (const sel of ["[data-testid=save-baseline]", "button:has-text('Add class')", "button:has-text('Duplicate baseline')", "[data-testid=class-table] input", "a[href*='/import']"]) {
       await expect(page.locator(sel).count(), sel).resolves.toBe(0);
     }
+    // Viewers still get the exports.
+    await expect(page.locator(`a[href="/api/baselines/${baselineId}/export.csv"]`).count()).resolves.toBe(1);
+    await expect(page.locator(`a[href="/api/baselines/${baselineId}/histograms/export.csv"]`).count()).resolves.toBe(1);
+    await page.goto(`${baseUrl}/teams/${teamId}/baselines`);
+    await expect(page.locator("[data-testid=new-baseline-from-csv]").count()).resolves.toBe(0);
     await page.goto(`${baseUrl}/teams/${teamId}/scenarios`);
     await expect(page.locator("text=New scenario").count()).resolves.toBe(0);
     await ctx.close();
@@ -207,6 +237,15 @@ describe("scenario editor in the browser", () => {
     await page.goto(`${baseUrl}/teams/${teamId}/baselines/${baselineId}`);
     await page.waitForSelector("[data-testid=class-table]");
     await page.screenshot({ path: `${SHOTS}/baseline.png`, fullPage: true });
+    // Editors get the import links next to the exports.
+    const links = page.locator("[data-testid=baseline-csv-links]");
+    await expect(links.locator(`a[href="/teams/${teamId}/baselines/${baselineId}/import"]`).count()).resolves.toBe(1);
+    await expect(links.locator(`a[href="/teams/${teamId}/baselines/${baselineId}/import?kind=histograms"]`).count()).resolves.toBe(1);
+    await expect(links.locator('a[href="/help/csv"]').count()).resolves.toBe(1);
+    await page.goto(`${baseUrl}/teams/${teamId}/baselines`);
+    expect(await page.getAttribute("[data-testid=new-baseline-from-csv]", "href")).toBe(`/teams/${teamId}/baselines/import`);
+    await page.goto(`${baseUrl}/teams/${teamId}/baselines/${baselineId}`);
+    await page.waitForSelector("[data-testid=class-table]");
     const width = page.getByLabel("Width of local (nm)");
     expect(await width.inputValue()).toBe("24");
     await width.fill("20 furlongs");

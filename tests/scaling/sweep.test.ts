@@ -45,3 +45,33 @@ describe("sweep({ variable: 's', ... })", () => {
     expectClose(p[3]!.y / p[0]!.y, 4, 1e-12);
   });
 });
+
+// Source: common practice, no source — the textbook reading of ideal scaling: with every cross-section dimension
+// and the length divided by S, R per length grows as S², C per length stays, the length falls as 1/S, so the wire's
+// RC (and the ideal 0.377·RC delay) stays put; with the length kept, RC grows as S².
+describe("sweep lengthMode (S_L follows S, or is fixed at 1)", () => {
+  const settings = { ...baselineSettings("ideal", tech), sL: 1.7, overrides: { m2: { sL: 2.5 } } };
+  const run = (lengthMode: "follow" | "fixed" | "scenario", metric: "rc" | "delay") =>
+    sweep({ classes: [testClass()], technology: tech, settings, variable: "s", metric, from: 0.5, to: 4, points: 15, spacing: "log", levels: ["ideal"], lengthMode })[0]!;
+  const atOne = (lengthMode: "follow" | "fixed" | "scenario", metric: "rc" | "delay") =>
+    sweep({ classes: [testClass()], technology: tech, settings, variable: "s", metric, from: 1, to: 1, points: 1, levels: ["ideal"], lengthMode })[0]!.points[0]!.y;
+
+  it("follow: ideal RC is constant in S and ideal delay relative to S = 1 stays 1", () => {
+    const rc = run("follow", "rc");
+    expect(rc.points).toHaveLength(15);
+    for (const p of rc.points) expectClose(p.y / rc.points[0]!.y, 1, 1e-9);
+    const d = run("follow", "delay");
+    const d1 = atOne("follow", "delay");
+    for (const p of d.points) expectClose(p.y / d1, 1, 1e-9);
+  });
+  it("fixed: ideal RC relative to S = 1 grows as S² (and ignores the scenario's and the class's S_L)", () => {
+    const rc = run("fixed", "rc");
+    const rc1 = atOne("fixed", "rc");
+    for (const p of rc.points) expectClose(p.y / rc1, p.x * p.x, 1e-9);
+  });
+  it("scenario (default) keeps the per-class S_L override, so it differs from fixed", () => {
+    const fixed = run("fixed", "rc");
+    const scen = run("scenario", "rc");
+    expectClose(fixed.points[0]!.y / scen.points[0]!.y, 2.5 * 2.5, 1e-9);
+  });
+});

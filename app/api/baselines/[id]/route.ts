@@ -28,7 +28,11 @@ export const PATCH = apiRoute<{ id: string }>(async (req, { id }) => {
     throw badRequest("A baseline with this name already exists in the team.", { name: ["A baseline with this name already exists in the team."] });
   }
   return withStale(async () => {
-    await patchBaseline(db, { id, userId: a.user.id, patch });
+    await db.transaction(async (trx) => {
+      const version = await patchBaseline(trx, { id, userId: a.user.id, patch });
+      const fields = (["name", "description", "technology"] as const).filter((k) => patch[k] !== undefined);
+      await audit({ teamId: a.teamId, userId: a.user.id, action: "baseline.update", entityType: "baseline", entityId: id, detail: { version, fields } }, trx);
+    });
     return Response.json({ baseline: await getBaselineWithClasses(db, id) });
   });
 });
@@ -37,7 +41,9 @@ export const DELETE = apiRoute<{ id: string }>(async (_req, { id }) => {
   const a = await requireResourceRole(() => baselineTeamId(db, id), "editor", "Baseline");
   const b = await getBaseline(db, id);
   if (a.role !== "owner" && b?.createdBy !== a.user.id) throw forbidden("Only a team owner or the baseline's author can delete it.");
-  await deleteBaseline(db, id);
-  await audit({ teamId: a.teamId, userId: a.user.id, action: "baseline.delete", entityType: "baseline", entityId: id, detail: { name: b?.name } });
+  await db.transaction(async (trx) => {
+    await deleteBaseline(trx, id);
+    await audit({ teamId: a.teamId, userId: a.user.id, action: "baseline.delete", entityType: "baseline", entityId: id, detail: { name: b?.name } }, trx);
+  });
   return new Response(null, { status: 204 });
 });

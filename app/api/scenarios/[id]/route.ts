@@ -31,7 +31,12 @@ export const PATCH = apiRoute<{ id: string }>(async (req, { id }) => {
     throw badRequest("A scenario with this name already exists on this baseline.", { name: ["A scenario with this name already exists on this baseline."] });
   }
   return withStale(async () => {
-    const scenario = await updateScenario(db, { id, userId: a.user.id, version: input.version, name: input.name, notes: input.notes, settings });
+    const scenario = await db.transaction(async (trx) => {
+      const updated = await updateScenario(trx, { id, userId: a.user.id, version: input.version, name: input.name, notes: input.notes, settings });
+      const fields = (["name", "notes", "settings"] as const).filter((k) => input[k] !== undefined);
+      await audit({ teamId: a.teamId, userId: a.user.id, action: "scenario.update", entityType: "scenario", entityId: id, detail: { version: updated.version, fields } }, trx);
+      return updated;
+    });
     return Response.json({ scenario });
   });
 });
@@ -40,7 +45,9 @@ export const DELETE = apiRoute<{ id: string }>(async (_req, { id }) => {
   const a = await requireResourceRole(() => scenarioTeamId(db, id), "editor", "Scenario");
   const s = await getScenario(db, id);
   if (a.role !== "owner" && s?.createdBy !== a.user.id) throw forbidden("Only a team owner or the scenario's author can delete it.");
-  await deleteScenario(db, id);
-  await audit({ teamId: a.teamId, userId: a.user.id, action: "scenario.delete", entityType: "scenario", entityId: id, detail: { name: s?.name } });
+  await db.transaction(async (trx) => {
+    await deleteScenario(trx, id);
+    await audit({ teamId: a.teamId, userId: a.user.id, action: "scenario.delete", entityType: "scenario", entityId: id, detail: { name: s?.name } }, trx);
+  });
   return new Response(null, { status: 204 });
 });

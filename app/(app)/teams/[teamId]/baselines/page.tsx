@@ -21,7 +21,19 @@ export default async function BaselinesPage({ params }: { params: Promise<{ team
         <p className="text-sm text-muted">Today&apos;s wiring of a design: a named set of wire classes (geometry, material, statistics, driver and load) and the technology they share.</p>
       </div>
       {canEdit ? (
-        <Card title="New baseline">
+        <Card
+          title="New baseline"
+          actions={
+            <span className="flex items-center gap-3 text-xs">
+              <Link href={`/teams/${teamId}/baselines/import`} className="font-medium text-copper-dark hover:underline" data-testid="new-baseline-from-csv">
+                New baseline from CSV…
+              </Link>
+              <Link href="/help/csv" className="text-muted hover:underline">
+                CSV format
+              </Link>
+            </span>
+          }
+        >
           <NewBaselineForm teamId={teamId} baselines={baselines.map((b) => ({ id: b.id, name: b.name }))} />
         </Card>
       ) : null}

@@ -1,6 +1,6 @@
 import { db } from "@/db/client";
 import { baselineNameTaken, baselineTeamId, duplicateBaseline, freeBaselineName, getBaseline, getBaselineWithClasses } from "@/db/queries/baselines";
-import { requireResourceRole } from "@/lib/access";
+import { audit, requireResourceRole } from "@/lib/access";
 import { apiRoute, badRequest } from "@/lib/api";
 import { readInput } from "@/lib/workspace/input";
 import { baselineDuplicateSchema } from "@/lib/validation/baseline";
@@ -15,6 +15,10 @@ export const POST = apiRoute<{ id: string }>(async (req, { id }) => {
   if (await baselineNameTaken(db, a.teamId, name)) {
     throw badRequest("A baseline with this name already exists in the team.", { name: ["A baseline with this name already exists in the team."] });
   }
-  const newId = await duplicateBaseline(db, { id, userId: a.user.id, name });
+  const newId = await db.transaction(async (trx) => {
+    const created = await duplicateBaseline(trx, { id, userId: a.user.id, name });
+    await audit({ teamId: a.teamId, userId: a.user.id, action: "baseline.create", entityType: "baseline", entityId: created, detail: { name, duplicatedFrom: id } }, trx);
+    return created;
+  });
   return Response.json({ baseline: await getBaselineWithClasses(db, newId) }, { status: 201 });
 });

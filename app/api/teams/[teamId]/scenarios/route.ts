@@ -2,7 +2,7 @@ import { db } from "@/db/client";
 import { getBaseline } from "@/db/queries/baselines";
 import { listClasses } from "@/db/queries/wire-classes";
 import { createScenario, getScenario, listScenarios, scenarioNameTaken } from "@/db/queries/scenarios";
-import { requireTeamRole } from "@/lib/access";
+import { audit, requireTeamRole } from "@/lib/access";
 import { apiRoute, badRequest, notFound } from "@/lib/api";
 import { readInput } from "@/lib/workspace/input";
 import { SCENARIO_JSON_LIMIT, scenarioCreateSchema } from "@/lib/validation/scenario";
@@ -28,6 +28,10 @@ export const POST = apiRoute<{ teamId: string }>(async (req, { teamId }) => {
   if (await scenarioNameTaken(db, baseline.id, input.name)) {
     throw badRequest("A scenario with this name already exists on this baseline.", { name: ["A scenario with this name already exists on this baseline."] });
   }
-  const id = await createScenario(db, { teamId, baselineId: baseline.id, userId: a.user.id, name: input.name, notes: input.notes, settings });
+  const id = await db.transaction(async (trx) => {
+    const newId = await createScenario(trx, { teamId, baselineId: baseline.id, userId: a.user.id, name: input.name, notes: input.notes, settings });
+    await audit({ teamId, userId: a.user.id, action: "scenario.create", entityType: "scenario", entityId: newId, detail: { name: input.name, baselineId: baseline.id } }, trx);
+    return newId;
+  });
   return Response.json({ scenario: await getScenario(db, id) }, { status: 201 });
 });

@@ -5,6 +5,7 @@ import { getBaseline } from "@/db/queries/baselines";
 import { getScenario } from "@/db/queries/scenarios";
 import { listClassesWithHistograms } from "@/db/queries/wire-classes";
 import { ScenarioEditor } from "@/components/workspace/scenario-editor";
+import { parseSweepChoices } from "@/lib/workspace/sweep-view";
 import type { SweepMetric } from "@/lib/scaling";
 import { getTeamContext } from "@/lib/team-context";
 import { coarsenHistogram } from "@/lib/workspace/histogram";
@@ -30,7 +31,7 @@ export default async function ScenarioPage({ params, searchParams }: { params: P
   let from = num("from", 0.5);
   let to = num("to", 4);
   if (!(to > from)) [from, to] = [0.5, 4];
-  const view = { metric, from, to, classes: (one("classes") ?? "").split(",").filter(Boolean) };
+  const view = { metric, from, to, classes: (one("classes") ?? "").split(",").filter(Boolean), ...parseSweepChoices(one("scale"), one("length")) };
   return (
     <ScenarioEditor
       teamId={teamId}
