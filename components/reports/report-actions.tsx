@@ -27,6 +27,18 @@ interface Props {
 }
 
 const fmt = (ms: number) => new Date(ms).toISOString().slice(0, 16).replace("T", " ") + " UTC";
+const dayFmt = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short", timeZone: "UTC" });
+const timeFmt = new Intl.DateTimeFormat("en-GB", { hour: "2-digit", minute: "2-digit", hour12: false, timeZone: "UTC" });
+/** A compact UTC time (day over time) for the narrow share-link table; the full stamp is in the tooltip. */
+function Stamp({ ms }: { ms: number }) {
+  const d = new Date(ms);
+  return (
+    <time dateTime={d.toISOString()} title={fmt(ms)}>
+      <span className="block whitespace-nowrap">{dayFmt.format(d)}</span>
+      <span className="block text-muted">{timeFmt.format(d)}</span>
+    </time>
+  );
+}
 
 async function call(method: string, url: string, body?: unknown) {
   const res = await fetch(url, {
@@ -191,7 +203,8 @@ export function ReportActions({ teamId, reportId, canEdit, canDelete, versions, 
               </div>
             ) : null}
             {links.length > 0 ? (
-              <table className="mt-2 w-full text-xs">
+              <table className="mt-2 w-full caption-bottom text-xs">
+                <caption className="pt-1 text-left text-[11px] text-faint">Times in UTC; hover for the full stamp.</caption>
                 <thead>
                   <tr className="text-left text-muted">
                     <th scope="col" className="py-1 pr-2 font-medium">Made</th>
@@ -205,13 +218,13 @@ export function ReportActions({ teamId, reportId, canEdit, canDelete, versions, 
                 </thead>
                 <tbody>
                   {links.map((l) => (
-                    <tr key={l.id} className="border-t border-rule/60">
+                    <tr key={l.id} className="border-t border-rule/60 align-top">
                       <td className="py-1 pr-2">
-                        {fmt(l.createdAt)}
-                        {l.createdByName ? <span className="text-muted"> · {l.createdByName}</span> : null}
+                        <Stamp ms={l.createdAt} />
+                        {l.createdByName ? <span className="block text-muted">{l.createdByName}</span> : null}
                       </td>
-                      <td className="py-1 pr-2 tabular">{fmt(l.expiresAt)}</td>
-                      <td className="py-1 pr-2 tabular">{l.lastUsedAt ? fmt(l.lastUsedAt) : "never"}</td>
+                      <td className="py-1 pr-2 tabular"><Stamp ms={l.expiresAt} /></td>
+                      <td className="py-1 pr-2 tabular">{l.lastUsedAt ? <Stamp ms={l.lastUsedAt} /> : "never"}</td>
                       <td className="py-1 pr-2">
                         <Badge tone={l.status === "active" ? "good" : l.status === "revoked" ? "bad" : "neutral"}>{l.status}</Badge>
                       </td>

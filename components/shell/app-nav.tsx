@@ -84,7 +84,7 @@ export function SectionNav() {
   if (!params.teamId) return null;
   const base = `/teams/${params.teamId}`;
   return (
-    <nav aria-label="Team sections" className="flex items-center gap-1">
+    <nav aria-label="Team sections" className="order-last -mx-1 flex w-full items-center gap-0.5 overflow-x-auto px-1 sm:order-none sm:mx-0 sm:w-auto sm:gap-1 sm:overflow-visible sm:px-0">
       {SECTIONS.map((s) => {
         const href = base + s.path;
         const active = s.path === "" ? pathname === base : pathname === href || pathname.startsWith(href + "/");
@@ -93,7 +93,7 @@ export function SectionNav() {
             key={s.label}
             href={href}
             aria-current={active ? "page" : undefined}
-            className={`rounded-md px-2.5 py-1 text-sm ${active ? "bg-copper-soft font-medium text-copper-dark" : "text-muted hover:bg-rule/50 hover:text-ink"}`}
+            className={`shrink-0 rounded-md px-2 py-1 text-sm sm:px-2.5 ${active ? "bg-copper-soft font-medium text-copper-dark" : "text-muted hover:bg-rule/50 hover:text-ink"}`}
           >
             {s.label}
           </Link>

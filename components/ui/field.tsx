@@ -1,7 +1,7 @@
 import type { ComponentProps, ReactNode } from "react";
 
 const inputClass =
-  "block w-full rounded-md border border-rule-strong bg-panel px-2.5 py-1.5 text-sm text-ink placeholder:text-faint focus:border-copper focus:outline-none aria-[invalid=true]:border-bad";
+  "block w-full rounded-md border border-rule-strong bg-panel px-2.5 py-1.5 text-sm text-ink placeholder:text-faint focus:border-copper focus:outline-none focus:ring-2 focus:ring-copper/25 aria-[invalid=true]:border-bad";
 
 /** A labelled input with its error list wired through aria-describedby. */
 export function TextField({

@@ -30,19 +30,20 @@ export interface BaselineFullDto {
 }
 
 type NumKey = "widthM" | "thicknessM" | "spacingM" | "ildBelowM" | "ildAboveM" | "barrierM" | "k" | "netCount" | "meanLengthM" | "driverOhm" | "loadF" | "activity";
-const NUM_COLS: { key: NumKey; label: string; unit: DisplayUnit; optional?: boolean; int?: boolean }[] = [
-  { key: "widthM", label: "Width", unit: U.nm },
-  { key: "thicknessM", label: "Thickness", unit: U.nm },
-  { key: "spacingM", label: "Spacing", unit: U.nm },
-  { key: "ildBelowM", label: "ILD below", unit: U.nm, optional: true },
-  { key: "ildAboveM", label: "ILD above", unit: U.nm, optional: true },
-  { key: "barrierM", label: "Barrier", unit: U.nm },
-  { key: "k", label: "k", unit: U.none },
-  { key: "netCount", label: "Nets", unit: U.none, int: true },
-  { key: "meanLengthM", label: "Mean length", unit: U.um },
-  { key: "driverOhm", label: "Driver", unit: U.ohm },
-  { key: "loadF", label: "Load", unit: U.fF },
-  { key: "activity", label: "Activity", unit: U.none },
+// Input widths per column (Tailwind classes) keep the editable table within a 1280 px layout.
+const NUM_COLS: { key: NumKey; label: string; unit: DisplayUnit; optional?: boolean; int?: boolean; width: string }[] = [
+  { key: "widthM", label: "Width", unit: U.nm, width: "w-14" },
+  { key: "thicknessM", label: "Thickness", unit: U.nm, width: "w-14" },
+  { key: "spacingM", label: "Spacing", unit: U.nm, width: "w-14" },
+  { key: "ildBelowM", label: "ILD below", unit: U.nm, optional: true, width: "w-14" },
+  { key: "ildAboveM", label: "ILD above", unit: U.nm, optional: true, width: "w-14" },
+  { key: "barrierM", label: "Barrier", unit: U.nm, width: "w-12" },
+  { key: "k", label: "k", unit: U.none, width: "w-12" },
+  { key: "netCount", label: "Nets", unit: U.none, int: true, width: "w-20" },
+  { key: "meanLengthM", label: "Mean length", unit: U.um, width: "w-14" },
+  { key: "driverOhm", label: "Driver", unit: U.ohm, width: "w-14" },
+  { key: "loadF", label: "Load", unit: U.fF, width: "w-12" },
+  { key: "activity", label: "Activity", unit: U.none, width: "w-12" },
 ];
 
 interface Row {
@@ -250,9 +251,9 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
             </>
           ) : (
             <div className="mt-1 space-y-1">
-              <input aria-label="Baseline name" name="baseline-name" className="w-full max-w-xl rounded border border-transparent bg-transparent px-1 text-xl font-semibold text-ink hover:border-rule focus:border-copper focus:outline-none" value={meta.name} onChange={(e) => setMeta((m) => ({ ...m, name: e.target.value }))} />
+              <input aria-label="Baseline name" name="baseline-name" className="w-full max-w-xl rounded border border-transparent bg-transparent px-1 text-xl font-semibold text-ink hover:border-rule focus:border-copper focus:outline-none focus:ring-2 focus:ring-copper/25" title="Click to rename" value={meta.name} onChange={(e) => setMeta((m) => ({ ...m, name: e.target.value }))} />
               {serverErrors.name ? <p className="text-xs text-bad">{serverErrors.name.join(" ")}</p> : null}
-              <input aria-label="Description" className="w-full max-w-4xl rounded border border-transparent bg-transparent px-1 text-sm text-muted hover:border-rule focus:border-copper focus:outline-none" placeholder="Description" value={meta.description} onChange={(e) => setMeta((m) => ({ ...m, description: e.target.value }))} />
+              <input aria-label="Description" className="w-full max-w-4xl rounded border border-transparent bg-transparent px-1 text-sm text-muted hover:border-rule focus:border-copper focus:outline-none focus:ring-2 focus:ring-copper/25" placeholder="Add a description" title="Click to edit the description" value={meta.description} onChange={(e) => setMeta((m) => ({ ...m, description: e.target.value }))} />
             </div>
           )}
         </div>
@@ -348,24 +349,32 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
           ) : null
         }
       >
-        <p className="mb-2 text-xs text-muted">Type values in the column&apos;s unit, or with any SI prefix (“0.02 µm” in a nm column). Empty ILD = no plane on that side.</p>
-        <div className="overflow-x-auto">
+        <p className="mb-2 text-xs text-muted">
+          {readOnly ? "Values in the unit under each column heading." : "Type values in the unit under each column heading, or with any SI prefix (“0.02 µm” in a nm column)."} Empty ILD = no plane on that side.
+        </p>
+        {/* Scrolls sideways only on narrow screens; the class name stays pinned on the left. */}
+        <div className="relative overflow-x-auto" role="region" aria-label="Wire class table" tabIndex={-1}>
           <table className="num w-full text-xs" data-testid="class-table">
             <thead className="text-muted">
-              <tr className="border-b border-rule-strong">
-                {!readOnly ? <th className="pr-1 font-medium"><span className="sr-only">Row actions</span></th> : null}
-                <th className="py-1 pr-1 text-left font-medium">Class</th>
-                <th className="px-1 text-left font-medium">Tier</th>
-                <th className="px-1 text-left font-medium">Metal</th>
+              <tr className="border-b border-rule-strong align-bottom">
+                <th scope="col" className={`${STICKY} py-1 pr-1 text-left font-medium`}>Class</th>
+                <th scope="col" className="px-1 py-1 text-left font-medium">Tier</th>
+                <th scope="col" className="px-1 py-1 text-left font-medium">Metal</th>
                 {NUM_COLS.map((c) => (
-                  <th key={c.key} className="px-1 text-right font-medium">
+                  <th key={c.key} scope="col" className="px-1 py-1 text-right font-medium leading-tight">
                     {c.label}
                     <span className="block text-[10px] font-normal text-faint">{c.unit.label || "\u00a0"}</span>
                   </th>
                 ))}
-                <th className="px-1 text-right font-medium" title="Length histogram bins (imported)">
+                <th scope="col" className="px-1 py-1 text-right font-medium leading-tight" title="Imported length-histogram bins">
                   Hist.
+                  <span className="block text-[10px] font-normal text-faint">bins</span>
                 </th>
+                {!readOnly ? (
+                  <th scope="col" className="py-1 pl-1 font-medium">
+                    <span className="sr-only">Row actions</span>
+                  </th>
+                ) : null}
               </tr>
             </thead>
             <tbody>
@@ -373,7 +382,7 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
                 <tr key={r.key} className="border-b border-rule/60 align-top">
                   {readOnly ? (
                     <>
-                      <th scope="row" className="py-1 pr-1 text-left font-medium">{r.name}</th>
+                      <th scope="row" className={`${STICKY} py-1 pr-1 text-left font-medium`}>{r.name}</th>
                       <td className="px-1 py-1">{r.tier}</td>
                       <td className="px-1 py-1">{r.metal}</td>
                       {NUM_COLS.map((c) => (
@@ -383,7 +392,37 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
                     </>
                   ) : (
                     <>
-                      <td className="whitespace-nowrap py-0.5 pr-1">
+                      <td className={`${STICKY} py-0.5 pr-1`}>
+                        <Cell label={`Name of row ${i + 1}`} value={r.name} onChange={(v) => update(i, { name: v })} errors={cellErr(i, "name")} width="w-24" />
+                      </td>
+                      <td className="px-1 py-0.5">
+                        <div className="w-[7.25rem]"><select aria-label={`Tier of ${r.name}`} className={`${inputClass} px-1 py-1 text-xs`} value={r.tier} onChange={(e) => update(i, { tier: e.target.value as Tier })}>
+                          {TIERS.map((t) => (
+                            <option key={t} value={t}>
+                              {t}
+                            </option>
+                          ))}
+                        </select></div>
+                      </td>
+                      <td className="px-1 py-0.5">
+                        <div className="w-16"><select aria-label={`Metal of ${r.name}`} className={`${inputClass} px-1 py-1 text-xs`} value={r.metal} onChange={(e) => update(i, { metal: e.target.value })}>
+                          {Object.keys(METALS).map((m) => (
+                            <option key={m} value={m}>
+                              {m}
+                            </option>
+                          ))}
+                        </select></div>
+                        {cellErr(i, "metal").length ? <p className="text-[11px] text-bad">{cellErr(i, "metal").join(" ")}</p> : null}
+                      </td>
+                      {NUM_COLS.map((c) => (
+                        <td key={c.key} className="px-1 py-0.5">
+                          <Cell label={`${c.label} of ${r.name}${c.unit.label ? ` (${c.unit.label})` : ""}`} value={r.cells[c.key]} onChange={(v) => setCell(i, c.key, v)} errors={cellErr(i, c.key)} numeric placeholder={c.optional ? "none" : ""} width={c.width} />
+                        </td>
+                      ))}
+                      <td className="tabular px-1 py-1.5 text-right text-muted" title={r.histogramBins ? "Kept while the class keeps its row (renames included)" : undefined}>
+                        {r.histogramBins || "—"}
+                      </td>
+                      <td className="whitespace-nowrap py-0.5 pl-1">
                         <IconButton label={`Move ${r.name} up`} onClick={() => move(i, -1)} disabled={i === 0}>
                           ↑
                         </IconButton>
@@ -397,37 +436,6 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
                           ✕
                         </IconButton>
                       </td>
-                      <td className="py-0.5 pr-1">
-                        <Cell label={`Name of row ${i + 1}`} value={r.name} onChange={(v) => update(i, { name: v })} errors={cellErr(i, "name")} wide />
-                      </td>
-                      <td className="px-1 py-0.5">
-                        <div className="w-[6rem]"><select aria-label={`Tier of ${r.name}`} className={`${inputClass} px-1 py-1 text-xs`} value={r.tier} onChange={(e) => update(i, { tier: e.target.value as Tier })}>
-                          {TIERS.map((t) => (
-                            <option key={t} value={t}>
-                              {t}
-                            </option>
-                          ))}
-                        </select></div>
-                      </td>
-                      <td className="px-1 py-0.5">
-                        <div className="w-14"><select aria-label={`Metal of ${r.name}`} className={`${inputClass} px-1 py-1 text-xs`} value={r.metal} onChange={(e) => update(i, { metal: e.target.value })}>
-                          {Object.keys(METALS).map((m) => (
-                            <option key={m} value={m}>
-                              {m}
-                            </option>
-                          ))}
-                        </select></div>
-                        {cellErr(i, "metal").length ? <p className="text-[11px] text-bad">{cellErr(i, "metal").join(" ")}</p> : null}
-                      </td>
-                      {NUM_COLS.map((c) => (
-                        <td key={c.key} className="px-1 py-0.5">
-                          <Cell label={`${c.label} of ${r.name}${c.unit.label ? ` (${c.unit.label})` : ""}`} value={r.cells[c.key]} onChange={(v) => setCell(i, c.key, v)} errors={cellErr(i, c.key)} numeric placeholder={c.optional ? "none" : ""} width={c.key === "netCount" ? "w-20" : undefined} />
-                        </td>
-                      ))}
-                      <td className="tabular px-1 py-1 text-right text-muted" title={r.histogramBins ? "Kept while the class keeps its row (renames included)" : undefined}>
-                        {r.histogramBins || "—"}
-                      </td>
-
                     </>
                   )}
                 </tr>
@@ -478,6 +486,9 @@ function CsvLinks({ teamId, baselineId, canImport }: { teamId: string; baselineI
   );
 }
 
+/** The class-name column stays in view when the table scrolls sideways on narrow screens. */
+const STICKY = "sticky left-0 z-[1] bg-panel shadow-[1px_0_0_var(--color-rule)]";
+
 function Fact({ label, value }: { label: string; value: string }) {
   return (
     <div>
@@ -487,9 +498,9 @@ function Fact({ label, value }: { label: string; value: string }) {
   );
 }
 
-function Cell({ label, value, onChange, errors, numeric, wide, placeholder, width }: { label: string; value: string; onChange: (v: string) => void; errors: string[]; numeric?: boolean; wide?: boolean; placeholder?: string; width?: string }) {
+function Cell({ label, value, onChange, errors, numeric, placeholder, width }: { label: string; value: string; onChange: (v: string) => void; errors: string[]; numeric?: boolean; placeholder?: string; width: string }) {
   return (
-    <div className={width ?? (wide ? "w-24" : "w-16")}>
+    <div className={width}>
       <input aria-label={label} value={value} placeholder={placeholder} onChange={(e) => onChange(e.target.value)} aria-invalid={errors.length ? true : undefined} inputMode={numeric ? "decimal" : undefined} className={`${inputClass} px-1 py-1 text-xs ${numeric ? "tabular text-right" : ""}`} />
       {errors.length ? <p className="mt-0.5 text-[11px] leading-tight text-bad">{errors.join(" ")}</p> : null}
     </div>

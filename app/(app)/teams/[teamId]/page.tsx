@@ -8,7 +8,10 @@ import { Badge, EmptyState, Notice } from "@/components/ui/card";
 import { roleAtLeast } from "@/lib/access";
 import { getTeamContext } from "@/lib/team-context";
 
-export const metadata: Metadata = { title: "Team home" };
+export async function generateMetadata({ params }: { params: Promise<{ teamId: string }> }): Promise<Metadata> {
+  const { team } = await getTeamContext((await params).teamId);
+  return { title: team.name };
+}
 
 const dateFmt = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" });
 const when = (ms: number) => dateFmt.format(new Date(ms));
@@ -47,6 +50,15 @@ export default async function TeamHomePage({ params }: { params: Promise<{ teamI
         </div>
         {team.isDemo ? <Badge tone="warn">Demo team: all data here is invented</Badge> : null}
       </div>
+      {role === "owner" && home.counts.members === 1 ? (
+        <Notice>
+          You are the only member.{" "}
+          <Link href={`${base}/settings`} className="font-medium text-copper-dark underline-offset-2 hover:underline">
+            Invite colleagues
+          </Link>{" "}
+          as editors (they change baselines, scenarios and reports) or viewers (read only).
+        </Notice>
+      ) : null}
       {role === "viewer" ? <Notice>You can read everything in this team; ask an owner if you need to edit.</Notice> : null}
 
       <div className="grid gap-6 lg:grid-cols-3">
@@ -54,10 +66,10 @@ export default async function TeamHomePage({ params }: { params: Promise<{ teamI
           {home.baselines.length === 0 ? (
             <EmptyState
               title="No baselines yet"
-              action={canEdit ? <ButtonLink href={`${base}/baselines`}>Create or copy a baseline</ButtonLink> : undefined}
+              action={canEdit ? <ButtonLink href={`${base}/baselines`}>Create a baseline</ButtonLink> : undefined}
             >
               {canEdit
-                ? "Create one from a wire-class CSV, or copy the demo baseline to start from plausible values."
+                ? "Import your design's wire classes from a CSV (a template with plausible invented values is provided), or start from an empty class table."
                 : "An editor or owner of this team can create the first baseline."}
             </EmptyState>
           ) : (

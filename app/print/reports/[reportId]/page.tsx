@@ -10,7 +10,23 @@ import { verifyPrintToken } from "@/lib/reports/print-token";
 import { summarizeReport } from "@/lib/reports/summary";
 
 export const dynamic = "force-dynamic";
-export const metadata: Metadata = { title: "Report (print)", robots: { index: false } };
+
+/** The report if this request may print it: a valid print token, or a signed-in member of its team. */
+async function printableReport(reportId: string, t: string | undefined) {
+  await ready();
+  const report = await getReport(db, reportId);
+  if (!report) return null;
+  if (verifyPrintToken(reportId, t)) return report;
+  const { user } = await validateRequest();
+  return user && (await getMembershipRole(report.teamId, user.id)) ? report : null;
+}
+
+// The title is the browser's default file name when the page is saved as PDF.
+export async function generateMetadata({ params, searchParams }: { params: Promise<{ reportId: string }>; searchParams: Promise<{ t?: string }> }): Promise<Metadata> {
+  const { t } = await searchParams;
+  const report = await printableReport((await params).reportId, typeof t === "string" ? t : undefined);
+  return { title: report ? `${report.title} (v${report.version})` : "Report (print)", robots: { index: false } };
+}
 
 /**
  * The report alone, laid out for paper: no navigation. Opened by a signed-in member of the team, or by the
@@ -19,15 +35,8 @@ export const metadata: Metadata = { title: "Report (print)", robots: { index: fa
 export default async function PrintReportPage({ params, searchParams }: { params: Promise<{ reportId: string }>; searchParams: Promise<{ t?: string }> }) {
   const { reportId } = await params;
   const { t } = await searchParams;
-  await ready();
-  const report = await getReport(db, reportId);
+  const report = await printableReport(reportId, typeof t === "string" ? t : undefined);
   if (!report) notFound();
-  let allowed = verifyPrintToken(reportId, typeof t === "string" ? t : undefined);
-  if (!allowed) {
-    const { user } = await validateRequest();
-    allowed = Boolean(user && (await getMembershipRole(report.teamId, user.id)));
-  }
-  if (!allowed) notFound();
   return (
     <div className="min-h-screen bg-white">
       <div className="mx-auto max-w-[190mm] px-6 py-8 print:max-w-none print:p-0">

@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { db } from "@/db/client";
 import { listBaselines } from "@/db/queries/baselines";
+import { ButtonLink, buttonClass } from "@/components/ui/button";
 import { Badge, Card, EmptyState } from "@/components/ui/card";
 import { NewBaselineForm } from "@/components/workspace/new-baseline-form";
 import { roleAtLeast } from "@/lib/access";
@@ -38,7 +39,23 @@ export default async function BaselinesPage({ params }: { params: Promise<{ team
         </Card>
       ) : null}
       {baselines.length === 0 ? (
-        <EmptyState title="No baselines yet">{canEdit ? "Create one above (empty or as a copy), then edit its class table." : "Editors of this team have not created a baseline yet."}</EmptyState>
+        <EmptyState
+          title="No baselines yet"
+          action={
+            canEdit ? (
+              <span className="flex flex-wrap justify-center gap-2">
+                <ButtonLink href={`/teams/${teamId}/baselines/import`}>New baseline from CSV…</ButtonLink>
+                <a className={buttonClass("secondary")} href="/templates/wire-classes-template.csv" download>
+                  Download the CSV template
+                </a>
+              </span>
+            ) : undefined
+          }
+        >
+          {canEdit
+            ? "Import your design's wire classes from a CSV (the template holds four plausible invented classes to start from), or name an empty baseline above and fill in its class table."
+            : "Editors of this team have not created a baseline yet."}
+        </EmptyState>
       ) : (
         <div className="overflow-x-auto rounded-lg border border-rule bg-panel">
           <table className="num w-full text-sm">

@@ -6,7 +6,12 @@ import { listScenarios } from "@/db/queries/scenarios";
 import { BaselineEditor } from "@/components/workspace/baseline-editor";
 import { getTeamContext } from "@/lib/team-context";
 
-export const metadata: Metadata = { title: "Baseline" };
+export async function generateMetadata({ params }: { params: Promise<{ teamId: string; baselineId: string }> }): Promise<Metadata> {
+  const { teamId, baselineId } = await params;
+  await getTeamContext(teamId);
+  const b = await getBaselineWithClasses(db, baselineId);
+  return { title: b && b.teamId === teamId ? `${b.name} · Baseline` : "Baseline" };
+}
 
 export default async function BaselinePage({ params }: { params: Promise<{ teamId: string; baselineId: string }> }) {
   const { teamId, baselineId } = await params;

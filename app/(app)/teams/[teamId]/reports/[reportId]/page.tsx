@@ -53,7 +53,7 @@ export default async function ReportPage({ params }: { params: Promise<{ teamId:
       </div>
       <aside className="no-print xl:sticky xl:top-16 xl:self-start" aria-label="Report actions">
         <div className="rounded-lg border border-rule bg-panel p-4">
-          <h2 className="mb-3 text-sm font-semibold text-ink">Share, export, refresh</h2>
+          <h2 className="mb-3 text-sm font-semibold text-ink">{canEdit ? "Share, export, refresh" : "Export and print"}</h2>
           <ReportActions
             teamId={teamId}
             reportId={report.id}

@@ -10,7 +10,12 @@ import type { SweepMetric } from "@/lib/scaling";
 import { getTeamContext } from "@/lib/team-context";
 import { coarsenHistogram } from "@/lib/workspace/histogram";
 
-export const metadata: Metadata = { title: "Scenario" };
+export async function generateMetadata({ params }: { params: Promise<{ teamId: string; scenarioId: string }> }): Promise<Metadata> {
+  const { teamId, scenarioId } = await params;
+  await getTeamContext(teamId);
+  const s = await getScenario(db, scenarioId);
+  return { title: s && s.teamId === teamId ? `${s.name} · Scenario` : "Scenario" };
+}
 
 const METRICS: SweepMetric[] = ["delay", "rc", "r", "c"];
 

@@ -9,7 +9,13 @@ import { Notice } from "@/components/ui/card";
 import { roleAtLeast } from "@/lib/access";
 import { getTeamContext } from "@/lib/team-context";
 
-export const metadata: Metadata = { title: "Import CSV" };
+export async function generateMetadata({ params, searchParams }: { params: Promise<{ teamId: string; baselineId: string }>; searchParams: Promise<{ kind?: string }> }): Promise<Metadata> {
+  const { teamId, baselineId } = await params;
+  const what = (await searchParams).kind === "histograms" ? "Import length histograms" : "Import wire classes";
+  await getTeamContext(teamId);
+  const b = await getBaseline(db, baselineId);
+  return { title: b && b.teamId === teamId ? `${what} · ${b.name}` : what };
+}
 
 const tabClass = (active: boolean) =>
   `rounded-md px-3 py-1.5 text-sm font-medium ${active ? "bg-copper-soft text-copper-dark" : "text-muted hover:bg-rule/50 hover:text-ink"}`;
@@ -52,6 +58,21 @@ export default async function BaselineImportPage({
           Length histograms
         </Link>
       </nav>
+      <p className="max-w-3xl text-sm text-muted">
+        {kind === "histograms" ? (
+          <>
+            Rows of <code className="font-mono text-xs text-ink">class, length_um, count</code>: one row per length bin, many per class. Each class
+            named must already be in this baseline ({classes.length ? classes.map((c) => c.name).join(", ") : "none yet"}). With histograms, delay
+            distributions, nets over the budget and repeater totals use the bins instead of the mean length.
+          </>
+        ) : (
+          <>
+            One row per wire class, with the unit in each column name (<code className="font-mono text-xs text-ink">width_nm</code>,{" "}
+            <code className="font-mono text-xs text-ink">mean_length_um</code>, …). After the file is checked you choose to replace the class
+            table or merge into it; this baseline has {classes.length} class{classes.length === 1 ? "" : "es"} now.
+          </>
+        )}
+      </p>
       {!roleAtLeast(role, "editor") ? (
         <Notice tone="warn">Your role in this team is viewer: you can read and export this baseline, but importing needs an editor or owner.</Notice>
       ) : kind === "histograms" && classes.length === 0 ? (
