@@ -38,12 +38,14 @@ export async function up(knex: Knex): Promise<void> {
     t.double("activity").notNullable();
     t.unique(["baseline_id", "name"]);
   });
-  await knex.schema.createTable("histogram_bins", (t) => {
-    t.increments("id");
-    t.text("class_id").notNullable().references("wire_classes.id").onDelete("CASCADE");
-    t.double("length_m").notNullable();
-    t.integer("count").notNullable();
-    t.index(["class_id"]);
+  // One row per class: its whole length histogram as two BLOBs of little-endian float64
+  // (db/histogram-blob.ts is the only codec): lengths in m, strictly ascending; counts, whole numbers.
+  await knex.schema.createTable("class_histograms", (t) => {
+    t.text("class_id").primary().references("wire_classes.id").onDelete("CASCADE");
+    t.integer("bin_count").notNullable();
+    t.integer("net_count").notNullable();
+    t.binary("lengths_m").notNullable();
+    t.binary("counts").notNullable();
   });
   await knex.schema.createTable("baseline_revisions", (t) => {
     t.increments("id");
@@ -87,7 +89,7 @@ export async function up(knex: Knex): Promise<void> {
 }
 
 export async function down(knex: Knex): Promise<void> {
-  for (const t of ["scenario_revisions", "scenarios", "baseline_revisions", "histogram_bins", "wire_classes", "baselines"]) {
+  for (const t of ["scenario_revisions", "scenarios", "baseline_revisions", "class_histograms", "wire_classes", "baselines"]) {
     await knex.schema.dropTableIfExists(t);
   }
 }

@@ -1,7 +1,8 @@
 /// <reference lib="webworker" />
 // Parses the chosen CSV off the main thread, with the same streaming reader and row validation as
 // the server (lib/import), so the preview shows exactly the errors the upload would get.
-import { parseHistogramCsv, type HistogramSink } from "@/lib/import/histograms";
+import { HistogramAccumulator } from "@/lib/import/histogram-accumulator";
+import { parseHistogramCsv } from "@/lib/import/histograms";
 import { MAX_IMPORT_BYTES, MAX_LISTED_ERRORS } from "@/lib/import/limits";
 import { ImportFatalError } from "@/lib/import/types";
 import { parseWireClassStream } from "@/lib/import/wire-classes";
@@ -10,8 +11,6 @@ import type { WorkerRequest, WorkerMessage } from "./protocol";
 const PREVIEW_ROWS = 8;
 
 const post = (m: WorkerMessage) => (self as unknown as DedicatedWorkerGlobalScope).postMessage(m);
-
-const countingSink: HistogramSink = { push() {}, close() {}, dispose() {} };
 
 self.onmessage = async (ev: MessageEvent<WorkerRequest>) => {
   const { kind, file, classNames } = ev.data;
@@ -46,7 +45,10 @@ self.onmessage = async (ev: MessageEvent<WorkerRequest>) => {
   };
   try {
     if (kind === "histograms") {
-      const r = await parseHistogramCsv(bytes(), classNames, { ...opts, sink: countingSink });
+      // the same collector as the server (20 bytes per bin), so repeats in unsorted files are found here too
+      const acc = new HistogramAccumulator(classNames.length);
+      const r = await parseHistogramCsv(bytes(), classNames, { ...opts, sink: acc });
+      acc.release();
       post({
         type: "done",
         header,

@@ -1,18 +1,17 @@
 import "server-only";
 import { randomUUID } from "node:crypto";
-import type Database from "better-sqlite3";
 import type { Knex } from "knex";
 import type { Technology } from "@/lib/scaling";
 import type { WireClassInput } from "@/lib/validation/wire-class";
 import type { ImportMode } from "@/lib/validation/import";
-import type { Spool } from "@/lib/import/spool";
+import { decodeHistogram, encodeHistogram, toLengthBins, type HistogramArrays, type HistogramColumns } from "@/db/histogram-blob";
 import { getBaseline } from "./baselines";
 import { listClasses, listClassesWithHistograms, replaceClasses } from "./wire-classes";
 
 /**
- * SQL of CSV import and export. Every import is ONE transaction; histogram rows are inserted with
- * better-sqlite3 prepared multi-row statements on the transaction's own connection (knex would
- * build and bind 1,000,000 rows far more slowly), yielding to the event loop between batches.
+ * SQL of CSV import and export. Every import is ONE transaction. A histogram is one
+ * `class_histograms` row per class (two float64 BLOBs, db/histogram-blob.ts), so even a
+ * 1,000,000-bin import writes only a few rows.
  */
 
 /** Classes with their histograms attached, as the engine reads them (alias of the workspace query). */
@@ -46,61 +45,89 @@ async function auditIn(trx: Knex.Transaction, e: { teamId: string; userId: strin
   await trx("audit_log").insert({ team_id: e.teamId, user_id: e.userId, action: e.action, entity_type: "baseline", entity_id: e.entityId, detail: JSON.stringify(e.detail), at: Date.now() });
 }
 
-const ROWS_PER_STATEMENT = 200;
-const ROWS_PER_YIELD = 50_000;
+/** One class's validated bins, in ascending length order. */
+export interface ClassBinsInput {
+  /** Index into `classNames`. */
+  classIndex: number;
+  lengthsM: Float64Array;
+  counts: Float64Array;
+}
 
 /**
- * Store spooled histogram bins. replace: every class's bins are replaced by the file's (classes
- * absent from the file end with none); merge: only the classes in the file get new bins.
+ * Store imported histograms: one `class_histograms` row per class in the file (encoded and checked
+ * before the transaction starts, so the transaction only deletes and inserts a few rows).
+ * replace: every class's histogram is replaced by the file's (classes absent from the file end with
+ * none); merge: only the classes in the file get new histograms.
  */
 export async function storeHistograms(
   db: Knex,
-  p: { baselineId: string; teamId: string; userId: string; mode: ImportMode; classNames: readonly string[]; spool: Spool; summary: string; detail: unknown },
+  p: { baselineId: string; teamId: string; userId: string; mode: ImportMode; classNames: readonly string[]; histograms: readonly ClassBinsInput[]; summary: string; detail: unknown },
+): Promise<{ version: number; inserted: number }> {
+  const encoded = p.histograms.map((h) => ({ classIndex: h.classIndex, columns: encodeHistogram(h.lengthsM, h.counts) }));
+  const bytes = encoded.reduce((n, e) => n + e.columns.lengths_m.byteLength + e.columns.counts.byteLength, 0);
+  return bytes < LARGE_WRITE_BYTES ? writeHistograms(db, p, encoded) : withDeferredCheckpoint(db, () => writeHistograms(db, p, encoded));
+}
+
+/** Above this many bytes of blobs, the WAL checkpoint runs after the answer rather than inside the commit. */
+const LARGE_WRITE_BYTES = 1 << 20;
+
+/**
+ * Run a large write with SQLite's automatic WAL checkpoint suspended, then checkpoint right after.
+ * A commit in WAL mode is complete once its frames are in the WAL (with synchronous=NORMAL, as set in
+ * db/connect.ts, that is the durability the app has for every write); the automatic checkpoint that
+ * a big commit triggers copies the pages into the main file and syncs both files to disk — for a
+ * 1,000,000-bin import (16 MB of blobs) that is the larger part of the storing time on a slow disk.
+ * It is the same work either way; here it is done just after the request is answered (PASSIVE:
+ * never waits for readers; through the pool, so never inside another transaction).
+ */
+/** Large writes in flight per database, and the auto-checkpoint setting to restore after the last. */
+const suspended = new WeakMap<Knex, { inFlight: number; every: number }>();
+
+async function withDeferredCheckpoint<T>(db: Knex, write: () => Promise<T>): Promise<T> {
+  // concurrent large imports share one suspension: the first reads the setting, the last restores it
+  let s = suspended.get(db);
+  const first = !s;
+  if (!s) suspended.set(db, (s = { inFlight: 0, every: 1000 }));
+  s.inFlight += 1;
+  try {
+    if (first) {
+      const rows = (await db.raw("pragma wal_autocheckpoint")) as { wal_autocheckpoint: number }[];
+      const every = Number(rows[0]?.wal_autocheckpoint);
+      if (Number.isSafeInteger(every) && every > 0) s.every = every;
+      await db.raw("pragma wal_autocheckpoint = 0");
+    }
+    return await write();
+  } finally {
+    s.inFlight -= 1;
+    if (s.inFlight === 0) {
+      suspended.delete(db);
+      await db.raw(`pragma wal_autocheckpoint = ${s.every}`);
+      setTimeout(() => void db.raw("pragma wal_checkpoint(PASSIVE)").catch(() => undefined), 20).unref();
+    }
+  }
+}
+
+async function writeHistograms(
+  db: Knex,
+  p: { baselineId: string; teamId: string; userId: string; mode: ImportMode; classNames: readonly string[]; summary: string; detail: unknown },
+  encoded: { classIndex: number; columns: HistogramColumns }[],
 ): Promise<{ version: number; inserted: number }> {
   return db.transaction(async (trx) => {
     const current: { id: string; name: string }[] = await trx("wire_classes").where({ baseline_id: p.baselineId }).select("id", "name");
     const idByName = new Map(current.map((c) => [c.name, c.id]));
     const ids = p.classNames.map((n) => idByName.get(n));
-    const usedIdx = new Set<number>();
-    for (const batch of p.spool.batches(4096)) {
-      for (const r of batch) usedIdx.add(r.classIndex);
-      if (usedIdx.size === p.classNames.length) break;
-    }
-    const missing = [...usedIdx].filter((i) => !ids[i]).map((i) => p.classNames[i]);
+    const missing = encoded.filter((e) => !ids[e.classIndex]).map((e) => p.classNames[e.classIndex]);
     if (missing.length) throw new ImportConflictError(`Classes ${missing.join(", ")} were removed from the baseline during the upload; upload again.`);
     if (p.mode === "replace") {
-      await trx("histogram_bins").whereIn("class_id", trx("wire_classes").where({ baseline_id: p.baselineId }).select("id")).delete();
+      await trx("class_histograms").whereIn("class_id", trx("wire_classes").where({ baseline_id: p.baselineId }).select("id")).delete();
     } else {
-      const touched = [...usedIdx].map((i) => ids[i]!);
-      for (let i = 0; i < touched.length; i += 500) await trx("histogram_bins").whereIn("class_id", touched.slice(i, i + 500)).delete();
+      const touched = encoded.map((e) => ids[e.classIndex]!);
+      for (let i = 0; i < touched.length; i += 500) await trx("class_histograms").whereIn("class_id", touched.slice(i, i + 500)).delete();
     }
-    const conn = (await trx.client.acquireConnection()) as Database.Database;
-    const many = conn.prepare(`INSERT INTO histogram_bins (class_id, length_m, count) VALUES ${Array(ROWS_PER_STATEMENT).fill("(?, ?, ?)").join(", ")}`);
-    const one = conn.prepare("INSERT INTO histogram_bins (class_id, length_m, count) VALUES (?, ?, ?)");
-    const params: (string | number)[] = new Array(ROWS_PER_STATEMENT * 3);
     let inserted = 0;
-    let sinceYield = 0;
-    for (const batch of p.spool.batches()) {
-      let i = 0;
-      for (; i + ROWS_PER_STATEMENT <= batch.length; i += ROWS_PER_STATEMENT) {
-        for (let j = 0; j < ROWS_PER_STATEMENT; j++) {
-          const r = batch[i + j]!;
-          params[3 * j] = ids[r.classIndex]!;
-          params[3 * j + 1] = r.lengthM;
-          params[3 * j + 2] = r.count;
-        }
-        many.run(params);
-      }
-      for (; i < batch.length; i++) {
-        const r = batch[i]!;
-        one.run(ids[r.classIndex]!, r.lengthM, r.count);
-      }
-      inserted += batch.length;
-      sinceYield += batch.length;
-      if (sinceYield >= ROWS_PER_YIELD) {
-        sinceYield = 0;
-        await new Promise<void>((resolve) => setImmediate(resolve));
-      }
+    for (const e of encoded) {
+      await trx("class_histograms").insert({ class_id: ids[e.classIndex]!, ...e.columns });
+      inserted += e.columns.bin_count;
     }
     const version = await bump(trx, p.baselineId, p.userId);
     await writeImportRevision(trx, p.baselineId, version, p.userId, p.summary);
@@ -170,15 +197,10 @@ export async function createBaselineFromImport(
   return id;
 }
 
-/** One page of a class's histogram bins in stored (import) order; keyset on the bin id, served by the class_id index. */
-export async function histogramPage(db: Knex, classId: string, afterId: number, limit: number): Promise<{ id: number; lengthM: number; count: number }[]> {
-  const rows: { id: number; length_m: number; count: number }[] = await db("histogram_bins")
-    .where("class_id", classId)
-    .andWhere("id", ">", afterId)
-    .orderBy("id")
-    .limit(limit)
-    .select("id", "length_m", "count");
-  return rows.map((r) => ({ id: r.id, lengthM: r.length_m, count: r.count }));
+/** A class's stored histogram (ascending lengths), or null when it has none. */
+export async function classHistogram(db: Knex, classId: string): Promise<HistogramArrays | null> {
+  const row = await db("class_histograms").where({ class_id: classId }).first("bin_count", "net_count", "lengths_m", "counts");
+  return row ? decodeHistogram(row) : null;
 }
 
 /** Classes of a baseline (id and name) in table order. */
@@ -186,13 +208,16 @@ export async function classIdsAndNames(db: Knex, baselineId: string): Promise<{ 
   return db("wire_classes").where({ baseline_id: baselineId }).orderBy("position").select("id", "name");
 }
 
-/** Per-class histogram bins (in stored order) of a baseline, for the JSON API. */
-export async function histogramsByClass(db: Knex, baselineId: string): Promise<{ name: string; bins: { lengthM: number; count: number }[] }[]> {
-  const classes: { id: string; name: string }[] = await db("wire_classes").where({ baseline_id: baselineId }).orderBy("position").select("id", "name");
-  const out: { name: string; bins: { lengthM: number; count: number }[] }[] = [];
-  for (const c of classes) {
-    const bins: { length_m: number; count: number }[] = await db("histogram_bins").where({ class_id: c.id }).orderBy("id").select("length_m", "count");
-    out.push({ name: c.name, bins: bins.map((b) => ({ lengthM: b.length_m, count: b.count })) });
-  }
-  return out;
+/** Per-class histogram bins (ascending length) of a baseline, for the JSON API; classes without one have no bins. */
+export async function histogramsByClass(db: Knex, baselineId: string): Promise<{ name: string; netCount: number; bins: { lengthM: number; count: number }[] }[]> {
+  const rows: { name: string; bin_count: number | null; net_count: number | null; lengths_m: Buffer | null; counts: Buffer | null }[] = await db("wire_classes as c")
+    .leftJoin("class_histograms as h", "h.class_id", "c.id")
+    .where("c.baseline_id", baselineId)
+    .orderBy("c.position")
+    .select("c.name", "h.bin_count", "h.net_count", "h.lengths_m", "h.counts");
+  return rows.map((r) =>
+    r.bin_count === null || r.lengths_m === null || r.counts === null
+      ? { name: r.name, netCount: 0, bins: [] }
+      : { name: r.name, netCount: Number(r.net_count), bins: toLengthBins(decodeHistogram({ bin_count: r.bin_count, net_count: r.net_count ?? undefined, lengths_m: r.lengths_m, counts: r.counts })) },
+  );
 }

@@ -3,6 +3,7 @@
 import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
 import { newId } from "@/lib/ids";
+import { decodeHistogram, toLengthBins } from "@/db/histogram-blob";
 import type { FreezeInput } from "@/lib/reports/freeze";
 import type { LengthBin, ScenarioSettings, Technology, Tier, WireClass } from "@/lib/scaling/types";
 import {
@@ -294,16 +295,11 @@ export async function loadReportInputs(
   }
   const classRows = (await conn("wire_classes").where({ baseline_id: p.baselineId }).orderBy("position").select("*")) as ClassRow[];
   if (classRows.length === 0) throw new ReportInputError(400, "The baseline has no wire classes yet; add classes before composing a report.", "baselineId");
-  const bins = (await conn("histogram_bins")
+  const stored = (await conn("class_histograms")
     .whereIn("class_id", classRows.map((c) => c.id))
-    .orderBy([{ column: "class_id" }, { column: "length_m" }])
-    .select("class_id", "length_m", "count")) as { class_id: string; length_m: number; count: number }[];
+    .select("class_id", "bin_count", "net_count", "lengths_m", "counts")) as { class_id: string; bin_count: number; net_count: number; lengths_m: Buffer; counts: Buffer }[];
   const hist = new Map<string, LengthBin[]>();
-  for (const x of bins) {
-    const list = hist.get(x.class_id) ?? [];
-    list.push({ lengthM: x.length_m, count: x.count });
-    hist.set(x.class_id, list);
-  }
+  for (const x of stored) hist.set(x.class_id, toLengthBins(decodeHistogram(x)));
   const classes: WireClass[] = classRows.map((c) => {
     const h = hist.get(c.id);
     return {

@@ -3,6 +3,7 @@ import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
 import type { LengthBin, Tier, WireClass } from "@/lib/scaling";
 import type { WireClassInput } from "@/lib/validation/wire-class";
+import { decodeHistogram, toLengthBins } from "@/db/histogram-blob";
 
 /** A stored wire class: the engine's WireClass plus its row id, position and histogram size. */
 export interface StoredWireClass extends WireClass {
@@ -82,23 +83,19 @@ function toRow(baselineId: string, position: number, c: Omit<WireClassInput, "id
 export async function listClasses(db: Knex, baselineId: string): Promise<StoredWireClass[]> {
   const rows: ClassRow[] = await db("wire_classes as c")
     .where("c.baseline_id", baselineId)
-    .select("c.*", db.raw("(select count(*) from histogram_bins h where h.class_id = c.id) as bins"))
+    .select("c.*", db.raw("(select h.bin_count from class_histograms h where h.class_id = c.id) as bins"))
     .orderBy("c.position");
   return rows.map(toWireClass);
 }
 
-/** Histogram bins of the given classes, sorted by length, keyed by class id. */
+/** Histogram bins of the given classes, sorted by length, keyed by class id (classes without one are absent). */
 export async function loadHistograms(db: Knex, classIds: string[]): Promise<Map<string, LengthBin[]>> {
   const out = new Map<string, LengthBin[]>();
-  if (classIds.length === 0) return out;
-  const rows: { class_id: string; length_m: number; count: number }[] = await db("histogram_bins")
-    .whereIn("class_id", classIds)
-    .select("class_id", "length_m", "count")
-    .orderBy([{ column: "class_id" }, { column: "length_m" }]);
-  for (const r of rows) {
-    let list = out.get(r.class_id);
-    if (!list) out.set(r.class_id, (list = []));
-    list.push({ lengthM: r.length_m, count: r.count });
+  for (let i = 0; i < classIds.length; i += 500) {
+    const rows: { class_id: string; bin_count: number; net_count: number; lengths_m: Buffer; counts: Buffer }[] = await db("class_histograms")
+      .whereIn("class_id", classIds.slice(i, i + 500))
+      .select("class_id", "bin_count", "net_count", "lengths_m", "counts");
+    for (const r of rows) out.set(r.class_id, toLengthBins(decodeHistogram(r)));
   }
   return out;
 }
@@ -120,7 +117,7 @@ export async function listClassesWithHistograms(db: Knex, baselineId: string): P
 /**
  * Replace a baseline's classes inside the caller's transaction. A row whose `id` (or, without an id,
  * whose name) matches an existing class is updated in place so its histogram survives; other
- * existing classes are deleted (their bins cascade); the rest are inserted.
+ * existing classes are deleted (their histograms cascade); the rest are inserted.
  */
 export async function replaceClasses(trx: Knex.Transaction, baselineId: string, classes: WireClassInput[]): Promise<void> {
   const existing: { id: string; name: string }[] = await trx("wire_classes").where({ baseline_id: baselineId }).select("id", "name");
@@ -157,6 +154,6 @@ export async function copyClasses(trx: Knex.Transaction, fromBaselineId: string,
     const newId = randomUUID();
     const { bins: _b, ...rest } = r;
     await trx("wire_classes").insert({ ...rest, id: newId, baseline_id: toBaselineId });
-    await trx.raw("insert into histogram_bins (class_id, length_m, count) select ?, length_m, count from histogram_bins where class_id = ? order by id", [newId, r.id]);
+    await trx.raw("insert into class_histograms (class_id, bin_count, net_count, lengths_m, counts) select ?, bin_count, net_count, lengths_m, counts from class_histograms where class_id = ?", [newId, r.id]);
   }
 }

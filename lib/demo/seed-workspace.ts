@@ -4,6 +4,7 @@ import type { Knex } from "knex";
 import { parseHistogramCsv, parseWireClassCsv } from "@/scaling/csv";
 import type { ScenarioSettings, Technology } from "@/lib/scaling";
 import { createBaseline } from "@/db/queries/baselines";
+import { histogramRow, sortedHistogram } from "@/db/histogram-blob";
 import { createScenario } from "@/db/queries/scenarios";
 import { scenarioSettingsSchema } from "@/lib/validation/scenario";
 import { technologySchema } from "@/lib/validation/baseline";
@@ -49,9 +50,9 @@ export async function seedDemoWorkspace(db: Knex, p: { teamId: string; ownerId: 
       const rows: { id: string; name: string }[] = await trx("wire_classes").where({ baseline_id: id }).select("id", "name");
       for (const r of rows) {
         const bins = hist.bins[r.name] ?? [];
-        for (let i = 0; i < bins.length; i += 200) {
-          await trx("histogram_bins").insert(bins.slice(i, i + 200).map((b) => ({ class_id: r.id, length_m: b.lengthM, count: b.count })));
-        }
+        if (bins.length === 0) continue;
+        const h = sortedHistogram(bins);
+        await trx("class_histograms").insert(histogramRow(r.id, h.lengthsM, h.counts));
       }
     });
     baseline = { id };

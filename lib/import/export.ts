@@ -1,6 +1,7 @@
 import "server-only";
 import type { Knex } from "knex";
-import { classIdsAndNames, histogramPage } from "@/db/queries/import";
+import { classHistogram, classIdsAndNames } from "@/db/queries/import";
+import type { HistogramArrays } from "@/db/histogram-blob";
 import type { StoredWireClass } from "@/db/queries/wire-classes";
 import type { ClassComparison, Evaluation } from "@/lib/scaling";
 import { WIRE_CLASS_COLUMNS } from "@/scaling/csv";
@@ -36,12 +37,16 @@ export function classesCsv(classes: StoredWireClass[]): string {
 
 const PAGE = 20_000;
 
-/** Histogram CSV (`class, length_um, count`) streamed page by page: memory stays flat for a million bins. */
+/**
+ * Histogram CSV (`class, length_um, count`, lengths ascending) streamed page by page: one class's
+ * stored histogram is decoded at a time (16 bytes per bin) and its text is produced 20,000 bins per chunk.
+ */
 export function histogramCsvStream(db: Knex, baselineId: string): ReadableStream<Uint8Array> {
   const enc = new TextEncoder();
   let classes: { id: string; name: string }[] | null = null;
   let ci = 0;
-  let after = 0;
+  let current: HistogramArrays | null = null;
+  let at = 0;
   return new ReadableStream<Uint8Array>({
     async pull(controller) {
       if (!classes) {
@@ -51,15 +56,19 @@ export function histogramCsvStream(db: Knex, baselineId: string): ReadableStream
       }
       while (ci < classes.length) {
         const c = classes[ci]!;
-        const rows = await histogramPage(db, c.id, after, PAGE);
-        if (rows.length === 0) {
+        if (!current) {
+          current = await classHistogram(db, c.id);
+          at = 0;
+        }
+        if (!current || at >= current.lengthsM.length) {
+          current = null;
           ci += 1;
-          after = 0;
           continue;
         }
-        after = rows[rows.length - 1]!.id;
+        const end = Math.min(at + PAGE, current.lengthsM.length);
         let text = "";
-        for (const r of rows) text += csvLine([c.name, formatScaled(r.lengthM, -6), r.count]);
+        for (let i = at; i < end; i++) text += csvLine([c.name, formatScaled(current.lengthsM[i]!, -6), current.counts[i]!]);
+        at = end;
         controller.enqueue(enc.encode(text));
         return;
       }

@@ -20,13 +20,14 @@ export interface ClassTotal {
   maxLengthM: number;
 }
 
-/** Where validated rows go: a disk spool on the server; nothing in the browser preview. */
+/**
+ * Where validated rows go: the server's HistogramAccumulator (typed arrays per class), or the
+ * browser preview's. `findRepeats`, when present, finds repeated lengths of classes whose rows did
+ * not ascend (ascending repeats are caught while reading).
+ */
 export interface HistogramSink {
   push(classIndex: number, lengthM: number, count: number, line: number): void;
-  close(): void;
-  dispose(): void;
-  /** Read the rows back (the duplicate check for classes whose lengths do not ascend needs it). */
-  batches?(): Iterable<{ classIndex: number; lengthM: number; line: number }[]>;
+  findRepeats?(classIndex: number, found: (line: number, firstLine: number, lengthM: number) => void): void;
 }
 
 export interface HistogramParse<S extends HistogramSink = HistogramSink> {
@@ -37,15 +38,53 @@ export interface HistogramParse<S extends HistogramSink = HistogramSink> {
   bytes: number;
   delimiter: Delimiter;
   perClass: ClassTotal[];
-  /** Validated rows (only when ok); the caller stores and disposes it. */
-  spool: S | null;
+  /** The sink holding the validated rows (only when ok). */
+  sink: S | null;
+}
+
+const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
+
+/**
+ * Fast path of parseScaled for the common cell: an unsigned plain decimal ("12", "0.25", "5.", ".5")
+ * with at most 15 digits and nothing else (no sign, exponent or spaces). The mantissa is then an
+ * exact integer and 10^k an exact double (k ≤ 22), so one IEEE division (or multiplication) gives the
+ * correctly rounded value — exactly what parseScaled's decimal shift gives. NaN: use the general path.
+ */
+export function fastScaled(s: string, exp10: number): number {
+  return fastScaledAt(s, 0, s.length, exp10);
+}
+
+/** fastScaled of the cell text[start, end), read in place. */
+export function fastScaledAt(text: string, start: number, end: number, exp10: number): number {
+  if (end <= start || end - start > 16) return NaN;
+  let m = 0;
+  let frac = 0;
+  let digits = 0;
+  let dot = false;
+  for (let i = start; i < end; i++) {
+    const c = text.charCodeAt(i);
+    if (c >= 48 && c <= 57) {
+      m = m * 10 + (c - 48);
+      digits += 1;
+      if (dot) frac += 1;
+    } else if (c === 46 && !dot) dot = true;
+    else return NaN;
+  }
+  if (digits === 0 || digits > 15) return NaN;
+  const k = frac - exp10;
+  if (k === 0) return m;
+  if (k > 0) return k <= 22 ? m / POW10[k]! : NaN;
+  return -k <= 22 ? m * POW10[-k]! : NaN;
 }
 
 /**
- * Stream-parse and validate a histogram CSV against the baseline's class names. Valid rows are
- * spooled to a temporary file; nothing touches the database. Duplicated (class, length) pairs
- * are errors: a bin is one row. Checked on the fly while each class's lengths ascend (the usual
- * export order); otherwise by a second pass over the spool for the classes that did not.
+ * Stream-parse and validate a histogram CSV against the baseline's class names. Valid rows go to
+ * the sink; nothing touches the database. Duplicated (class, length) pairs are errors: a bin is one
+ * row. Checked on the fly while each class's lengths ascend (the usual export order); otherwise at
+ * the end by the sink (`findRepeats`) for the classes that did not.
+ * Cells are checked by a hand-written fast path for plain numbers that are valid; anything else
+ * (signs, exponents, spaces, bad values) takes the general path with the zod schemas, so every
+ * message is the schemas' own.
  */
 export async function parseHistogramCsv<S extends HistogramSink>(
   source: AsyncIterable<Uint8Array>,
@@ -55,34 +94,90 @@ export async function parseHistogramCsv<S extends HistogramSink>(
   const issues = new IssueList(opts.maxErrors ?? MAX_LISTED_ERRORS);
   const classIndex = new Map(classNames.map((n, i) => [n, i]));
   const lowerIndex = new Map(classNames.map((n) => [n.toLowerCase(), n]));
-  const totals = classNames.map((name) => ({ name, bins: 0, nets: 0, minLengthM: Infinity, maxLengthM: 0 }));
+  // per-class totals in typed arrays (touched once per row)
+  const bins = new Float64Array(classNames.length);
+  const nets = new Float64Array(classNames.length);
+  const minLength = new Float64Array(classNames.length).fill(Infinity);
+  const maxLength = new Float64Array(classNames.length);
   const lastLength = new Float64Array(classNames.length).fill(-1);
   const lastLine = new Uint32Array(classNames.length);
   const unsorted = new Set<number>();
-  const spool = opts.sink;
-  let col = { cls: 0, len: 1, cnt: 2 };
+  const sink = opts.sink;
+  let colCls = 0;
+  let colLen = 1;
+  let colCnt = 2;
   let width = 3;
-  try {
-    const res = await readCsv(
-      source,
-      {
-        header(h) {
-          const idx = resolveHeader(h.fields, HISTOGRAM_COLUMNS, "length histograms");
-          col = { cls: idx.get("class")!, len: idx.get("length_um")!, cnt: idx.get("count")! };
-          width = h.fields.length;
-        },
-        malformed(line, message) {
-          issues.add({ line, column: null, value: null, message });
-        },
-        row(f, line) {
-          if (f.length !== width && !(f.length === width + 1 && f[width] === "")) {
-            issues.add({ line, column: null, value: null, message: `has ${f.length} fields, the header has ${width}` });
-            return;
-          }
-          const rawName = f[col.cls]!;
+  // the class cell usually repeats row after row: remember the last known one
+  let lastRawName: string | null = null;
+  let lastCi = -1;
+
+  /** General path of a length cell: parseScaled + zod (every message). NaN when invalid (issue added). */
+  const slowLength = (text: string, line: number): number => {
+    const len = parseScaled(text, -6);
+    if (!len.ok) {
+      issues.add({ line, column: "length_um", value: text, message: len.reason });
+      return NaN;
+    }
+    const z = histogramLengthSchema.safeParse(len.value);
+    if (!z.success) {
+      issues.add({ line, column: "length_um", value: text, message: z.error.issues[0]!.message });
+      return NaN;
+    }
+    return z.data;
+  };
+  const slowCount = (text: string, line: number): number => {
+    const cnt = parseScaled(text, 0);
+    if (!cnt.ok) {
+      issues.add({ line, column: "count", value: text, message: cnt.reason });
+      return NaN;
+    }
+    const z = histogramCountSchema.safeParse(cnt.value);
+    if (!z.success) {
+      issues.add({ line, column: "count", value: text, message: z.error.issues[0]!.message });
+      return NaN;
+    }
+    return z.data;
+  };
+
+  let delimiter: string = ",";
+  /** A valid row that is not a repeat: order, totals, sink. */
+  const take = (ci: number, lengthM: number, count: number, line: number) => {
+    if (lengthM < lastLength[ci]!) unsorted.add(ci);
+    lastLength[ci] = lengthM;
+    lastLine[ci] = line;
+    bins[ci]! += 1;
+    nets[ci]! += count;
+    if (lengthM < minLength[ci]!) minLength[ci] = lengthM;
+    if (lengthM > maxLength[ci]!) maxLength[ci] = lengthM;
+    sink.push(ci, lengthM, count, line);
+  };
+
+  const res = await readCsv(
+    source,
+    {
+      header(h) {
+        const idx = resolveHeader(h.fields, HISTOGRAM_COLUMNS, "length histograms");
+        colCls = idx.get("class")!;
+        colLen = idx.get("length_um")!;
+        colCnt = idx.get("count")!;
+        width = h.fields.length;
+        delimiter = h.delimiter;
+      },
+      malformed(line, message) {
+        issues.add({ line, column: null, value: null, message });
+      },
+      row(f, line) {
+        if (f.length !== width && !(f.length === width + 1 && f[width] === "")) {
+          issues.add({ line, column: null, value: null, message: `has ${f.length} fields, the header has ${width}` });
+          return;
+        }
+        const rawName = f[colCls]!;
+        let ci: number | undefined;
+        let ok = true;
+        if (rawName === lastRawName) ci = lastCi;
+        else {
           const name = rawName.charCodeAt(0) === 39 ? unneutralise(rawName.trim()) : rawName.trim();
-          const ci = classIndex.get(name);
-          let ok = true;
+          ci = classIndex.get(name);
           if (name === "") {
             issues.add({ line, column: "class", value: rawName, message: "is required" });
             ok = false;
@@ -96,94 +191,89 @@ export async function parseHistogramCsv<S extends HistogramSink>(
               message: near ? `is not a class of this baseline (did you mean "${near}"? names are case-sensitive)` : `is not a class of this baseline; known classes: ${known}`,
             });
             ok = false;
-          }
-          const lenText = f[col.len]!;
-          const cntText = f[col.cnt]!;
-          const len = parseScaled(lenText, -6);
-          let lengthM = 0;
-          if (!len.ok) {
-            issues.add({ line, column: "length_um", value: lenText, message: len.reason });
-            ok = false;
           } else {
-            const z = histogramLengthSchema.safeParse(len.value);
-            if (!z.success) {
-              issues.add({ line, column: "length_um", value: lenText, message: z.error.issues[0]!.message });
-              ok = false;
-            } else lengthM = z.data;
+            lastRawName = rawName;
+            lastCi = ci;
           }
-          const cnt = parseScaled(cntText, 0);
-          let count = 0;
-          if (!cnt.ok) {
-            issues.add({ line, column: "count", value: cntText, message: cnt.reason });
-            ok = false;
-          } else {
-            const z = histogramCountSchema.safeParse(cnt.value);
-            if (!z.success) {
-              issues.add({ line, column: "count", value: cntText, message: z.error.issues[0]!.message });
-              ok = false;
-            } else count = z.data;
-          }
-          if (!ok || ci === undefined) return;
-          const prev = lastLength[ci]!;
-          if (lengthM === prev) {
-            issues.add({ line, column: "length_um", value: lenText, message: `repeats the bin of class "${name}" at this length from line ${lastLine[ci]} (one row per class and length)` });
-            return;
-          }
-          if (lengthM < prev) unsorted.add(ci);
-          lastLength[ci] = lengthM;
-          lastLine[ci] = line;
-          const t = totals[ci]!;
-          t.bins += 1;
-          t.nets += count;
-          if (lengthM < t.minLengthM) t.minLengthM = lengthM;
-          if (lengthM > t.maxLengthM) t.maxLengthM = lengthM;
-          spool.push(ci, lengthM, count, line);
-        },
+        }
+        const lenText = f[colLen]!;
+        const cntText = f[colCnt]!;
+        let lengthM = fastScaled(lenText, -6);
+        if (!(lengthM > 0)) lengthM = slowLength(lenText, line); // NaN, or 0 ("must be > 0")
+        let count = fastScaled(cntText, 0);
+        if (!Number.isInteger(count)) count = slowCount(cntText, line); // NaN, or a fraction ("must be a whole number")
+        if (!ok || ci === undefined || lengthM !== lengthM || count !== count) return;
+        const prev = lastLength[ci]!;
+        if (lengthM === prev) {
+          issues.add({ line, column: "length_um", value: lenText, message: `repeats the bin of class "${classNames[ci]}" at this length from line ${lastLine[ci]} (one row per class and length)` });
+          return;
+        }
+        take(ci, lengthM, count, line);
       },
-      opts,
-    );
-    if (res.rows === 0 && issues.total === 0) {
-      throw new ImportFatalError({ line: 2, column: null, value: null, message: "The file has a header but no data rows." });
-    }
-    if (unsorted.size > 0) findUnsortedDuplicates(spool, unsorted, classNames, issues);
-    spool.close();
-    const ok = issues.ok;
-    if (!ok) spool.dispose();
-    issues.items.sort((a, b) => (a.line ?? 0) - (b.line ?? 0));
-    return {
-      ok,
-      errors: issues.items,
-      errorCount: issues.total,
-      rows: res.rows,
-      bytes: res.bytes,
-      delimiter: res.delimiter,
-      perClass: totals.filter((t) => t.bins > 0).map((t) => ({ ...t, minLengthM: Number.isFinite(t.minLengthM) ? t.minLengthM : 0 })),
-      spool: ok ? spool : null,
-    };
-  } catch (e) {
-    spool.dispose();
-    throw e;
+      plainRecord(text, start, end, line) {
+        // The usual row, read in place: three cells, the same class as the row before, both numbers
+        // plain and valid, no repeat. Anything else returns false and goes through row() above.
+        if (width !== 3) return false;
+        const d1 = text.indexOf(delimiter, start);
+        if (d1 === -1 || d1 >= end) return false;
+        const d2 = text.indexOf(delimiter, d1 + 1);
+        if (d2 === -1 || d2 >= end) return false;
+        let e3 = end;
+        const d3 = text.indexOf(delimiter, d2 + 1);
+        if (d3 !== -1 && d3 < end) {
+          if (d3 !== end - 1) return false;
+          e3 = d3; // a trailing delimiter: a fourth, empty field
+        }
+        const cs = colCls === 0 ? start : colCls === 1 ? d1 + 1 : d2 + 1;
+        const ce = colCls === 0 ? d1 : colCls === 1 ? d2 : e3;
+        if (lastRawName === null || ce - cs !== lastRawName.length || !text.startsWith(lastRawName, cs)) return false;
+        const ci = lastCi;
+        const lengthM = colLen === 0 ? fastScaledAt(text, start, d1, -6) : colLen === 1 ? fastScaledAt(text, d1 + 1, d2, -6) : fastScaledAt(text, d2 + 1, e3, -6);
+        if (!(lengthM > 0) || lengthM === lastLength[ci]) return false;
+        const count = colCnt === 0 ? fastScaledAt(text, start, d1, 0) : colCnt === 1 ? fastScaledAt(text, d1 + 1, d2, 0) : fastScaledAt(text, d2 + 1, e3, 0);
+        if (!Number.isInteger(count)) return false;
+        take(ci, lengthM, count, line);
+        return true;
+      },
+    },
+    opts,
+  );
+  if (res.rows === 0 && issues.total === 0) {
+    throw new ImportFatalError({ line: 2, column: null, value: null, message: "The file has a header but no data rows." });
   }
+  if (unsorted.size > 0 && sink.findRepeats) findUnsortedDuplicates(sink, unsorted, classNames, issues);
+  for (let i = 0; i < classNames.length; i++) {
+    if (nets[i]! > Number.MAX_SAFE_INTEGER) {
+      issues.add({ line: null, column: "count", value: null, message: `The counts of class "${classNames[i]}" add up to more than ${Number.MAX_SAFE_INTEGER.toLocaleString("en-US")} nets, more than a histogram can hold.` });
+    }
+  }
+  const ok = issues.ok;
+  issues.items.sort((a, b) => (a.line ?? 0) - (b.line ?? 0));
+  return {
+    ok,
+    errors: issues.items,
+    errorCount: issues.total,
+    rows: res.rows,
+    bytes: res.bytes,
+    delimiter: res.delimiter,
+    perClass: classNames
+      .map((name, i) => ({ name, bins: bins[i]!, nets: nets[i]!, minLengthM: minLength[i]!, maxLengthM: maxLength[i]! }))
+      .filter((t) => t.bins > 0),
+    sink: ok ? sink : null,
+  };
 }
 
-/** Second pass for classes whose lengths did not ascend: a map of length → first line per such class. */
-function findUnsortedDuplicates(spool: HistogramSink, unsorted: Set<number>, classNames: readonly string[], issues: IssueList): void {
-  if (!spool.batches) return; // the server checks again with its spool
-  const seen = new Map<number, Map<number, number>>();
-  for (const ci of unsorted) seen.set(ci, new Map());
-  for (const batch of spool.batches()) {
-    for (const r of batch) {
-      const m = seen.get(r.classIndex);
-      if (!m) continue;
-      const first = m.get(r.lengthM);
-      if (first !== undefined) {
-        issues.add({
-          line: r.line,
-          column: "length_um",
-          value: formatScaled(r.lengthM, -6),
-          message: `repeats the bin of class "${classNames[r.classIndex]}" at this length from line ${first} (one row per class and length)`,
-        });
-      } else m.set(r.lengthM, r.line);
-    }
+/** Repeats in classes whose lengths did not ascend, added in line order (as a pass over the file would). */
+function findUnsortedDuplicates(sink: HistogramSink, unsorted: Set<number>, classNames: readonly string[], issues: IssueList): void {
+  const found: { line: number; first: number; ci: number; lengthM: number }[] = [];
+  for (const ci of unsorted) sink.findRepeats!(ci, (line, first, lengthM) => found.push({ line, first, ci, lengthM }));
+  found.sort((a, b) => a.line - b.line);
+  for (const r of found) {
+    issues.add({
+      line: r.line,
+      column: "length_um",
+      value: formatScaled(r.lengthM, -6),
+      message: `repeats the bin of class "${classNames[r.ci]}" at this length from line ${r.first} (one row per class and length)`,
+    });
   }
 }

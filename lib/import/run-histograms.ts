@@ -3,15 +3,18 @@ import type { Knex } from "knex";
 import { listClasses } from "@/db/queries/wire-classes";
 import { storeHistograms } from "@/db/queries/import";
 import type { ImportMode } from "@/lib/validation/import";
+import { HistogramAccumulator } from "./histogram-accumulator";
 import { parseHistogramCsv } from "./histograms";
 import { MAX_IMPORT_BYTES } from "./limits";
+import { nodeUtf8Decoder } from "./node-utf8";
 import { formatScaled } from "./numbers";
 import { invalidCsvResponse } from "./respond";
-import { Spool } from "./spool";
 
 /**
  * The whole histogram import of one request: stream-parse and validate against the baseline's
- * classes (spooled, database untouched), then, unless it is a dry run, store in one transaction.
+ * classes, collecting bins per class in typed arrays (the database untouched, no connection held
+ * while the client uploads: a request killed mid-upload stores nothing), then, unless it is a dry
+ * run, store one row per class in one short transaction.
  */
 export async function runHistogramImport(
   db: Knex,
@@ -19,10 +22,10 @@ export async function runHistogramImport(
 ): Promise<Response> {
   const classes = await listClasses(db, p.baselineId);
   const names = classes.map((c) => c.name);
-  const parsed = await parseHistogramCsv(p.source, names, { maxBytes: p.maxBytes ?? MAX_IMPORT_BYTES, sink: new Spool() });
-  if (!parsed.ok || !parsed.spool) return invalidCsvResponse({ errors: parsed.errors, errorCount: parsed.errorCount, rows: parsed.rows });
-  const spool = parsed.spool;
+  const acc = new HistogramAccumulator(names.length);
   try {
+    const parsed = await parseHistogramCsv(p.source, names, { maxBytes: p.maxBytes ?? MAX_IMPORT_BYTES, utf8: nodeUtf8Decoder, sink: acc });
+    if (!parsed.ok) return invalidCsvResponse({ errors: parsed.errors, errorCount: parsed.errorCount, rows: parsed.rows });
     const netCount = new Map(classes.map((c) => [c.name, c.netCount]));
     const perClass = parsed.perClass.map((t) => ({
       name: t.name,
@@ -44,12 +47,12 @@ export async function runHistogramImport(
       userId: p.userId,
       mode: p.mode,
       classNames: names,
-      spool,
+      histograms: acc.classIndices().map((classIndex) => ({ classIndex, ...acc.sorted(classIndex) })),
       summary,
       detail: { mode: p.mode, rows: parsed.rows, bytes: parsed.bytes, classes: perClass.map((c) => c.name) },
     });
     return Response.json({ ok: true, dryRun: false, stored: true, version: r.version, ...summaryBody });
   } finally {
-    spool.dispose();
+    acc.release();
   }
 }

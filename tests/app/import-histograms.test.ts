@@ -3,6 +3,7 @@ import http from "node:http";
 import os from "node:os";
 import { describe, expect, it } from "vitest";
 import { Client, userWithTeam } from "../helpers/http";
+import { decodeHistogram } from "@/db/histogram-blob";
 import { dbState, memberClient, ownerWithBaseline, postCsv, sql, TEMPLATE_HISTOGRAMS } from "./import-helpers";
 
 const H = "class,length_um,count";
@@ -51,8 +52,12 @@ describe("POST /api/baselines/[id]/histograms", () => {
     const copy = await postCsv(o.client, `/api/teams/${o.teamId}/baselines/import?name=Copy`, classes.text);
     const r = await postCsv(o.client, `/api/baselines/${copy.json.baseline.id}/histograms?mode=replace`, bins.text);
     expect(r.status).toBe(200);
-    const q = "select c.name, h.length_m, h.count from histogram_bins h join wire_classes c on c.id = h.class_id where c.baseline_id = ? order by c.position, h.id";
-    expect(sql(q, copy.json.baseline.id)).toEqual(sql(q, o.baselineId));
+    const q = "select c.name, h.bin_count, h.net_count, h.lengths_m, h.counts from class_histograms h join wire_classes c on c.id = h.class_id where c.baseline_id = ? order by c.position";
+    const copied = sql<{ name: string; bin_count: number; net_count: number; lengths_m: Buffer; counts: Buffer }>(q, copy.json.baseline.id);
+    expect(copied.map((x) => [x.name, x.bin_count])).toEqual([["local", 48], ["intermediate", 48], ["semi-global", 48], ["global", 48]]);
+    expect(copied).toEqual(sql(q, o.baselineId));
+    // and the blobs decode to the template's bins
+    expect(decodeHistogram(copied[0]!).lengthsM[0]).toBe(3.17e-7);
   });
 
   it("merge replaces only the classes in the file; replace clears the others", async () => {
@@ -61,8 +66,11 @@ describe("POST /api/baselines/[id]/histograms", () => {
     const m = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=merge`, `${H}\nglobal,100,5\nglobal,200,6\n`);
     expect(m.status).toBe(200);
     expect(m.json.warnings[0]).toMatch(/^Class "global": the histogram holds 11 nets, the class table says 4,000/);
-    const count = () => Object.fromEntries(sql<{ name: string; n: number }>("select c.name, count(h.id) as n from wire_classes c left join histogram_bins h on h.class_id = c.id where c.baseline_id = ? group by c.id", o.baselineId).map((x) => [x.name, x.n]));
+    const count = () => Object.fromEntries(sql<{ name: string; n: number }>("select c.name, coalesce(h.bin_count, 0) as n from wire_classes c left join class_histograms h on h.class_id = c.id where c.baseline_id = ?", o.baselineId).map((x) => [x.name, x.n]));
     expect(count()).toEqual({ local: 48, intermediate: 48, "semi-global": 48, global: 2 });
+    const g = sql<{ bin_count: number; net_count: number; lengths_m: Buffer; counts: Buffer }>("select h.* from class_histograms h join wire_classes c on c.id = h.class_id where c.baseline_id = ? and c.name = 'global'", o.baselineId)[0]!;
+    const gh = decodeHistogram(g);
+    expect([[...gh.lengthsM], [...gh.counts], g.net_count]).toEqual([[1e-4, 2e-4], [5, 6], 11]);
     const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace`, `${H}\nlocal,1,1\n`);
     expect(r.status).toBe(200);
     expect(count()).toEqual({ local: 1, intermediate: 0, "semi-global": 0, global: 0 });

@@ -3,7 +3,7 @@ import Database from "better-sqlite3";
 import { inject } from "vitest";
 import { Client, userWithTeam, signedUpClient } from "../helpers/http";
 
-export const WORKSPACE_TABLES = ["baselines", "wire_classes", "histogram_bins", "baseline_revisions", "scenarios", "scenario_revisions"] as const;
+export const WORKSPACE_TABLES = ["baselines", "wire_classes", "class_histograms", "baseline_revisions", "scenarios", "scenario_revisions"] as const;
 
 /** Row counts and a SHA-256 of every row of the workspace tables, read from the server's SQLite file read-only. */
 export function snapshot(): Record<string, { rows: number; sha: string }> {

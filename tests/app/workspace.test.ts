@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { evaluateScenario, type WireClass } from "@/lib/scaling";
+import { decodeHistogram, histogramRow, toLengthBins } from "@/db/histogram-blob";
 import { Client } from "../helpers/http";
 import { TECH, createBaseline, rawDb, sampleClasses, snapshot, teamWithRoles } from "./workspace-helpers";
 
@@ -44,8 +45,8 @@ describe("baselines: CRUD, versions and revisions", () => {
     const b = await createBaseline(owner.client, teamId);
     const [m1, m2] = b.classes;
     const db = rawDb();
-    const ins = db.prepare("insert into histogram_bins (class_id, length_m, count) values (?, ?, ?)");
-    for (const c of [m1!, m2!]) for (let i = 1; i <= 5; i++) ins.run(c.id, i * 1e-6, 10 * i);
+    const ins = db.prepare("insert into class_histograms (class_id, bin_count, net_count, lengths_m, counts) values (@class_id, @bin_count, @net_count, @lengths_m, @counts)");
+    for (const c of [m1!, m2!]) ins.run(histogramRow(c.id, [1, 2, 3, 4, 5].map((i) => i * 1e-6), [10, 20, 30, 40, 50]));
     db.close();
     const classes = sampleClasses();
     const put = await owner.client.put(`/api/baselines/${b.id}/classes`, {
@@ -66,8 +67,10 @@ describe("baselines: CRUD, versions and revisions", () => {
     const drop = await owner.client.put(`/api/baselines/${b.id}/classes`, { version: 2, classes: [{ ...classes[0], id: m1!.id, name: "M1 renamed" }] });
     expect(drop.status).toBe(200);
     const db2 = rawDb();
-    expect((db2.prepare("select count(*) n from histogram_bins where class_id = ?").get(m2!.id) as { n: number }).n).toBe(0);
-    expect((db2.prepare("select count(*) n from histogram_bins where class_id = ?").get(m1!.id) as { n: number }).n).toBe(5);
+    expect(db2.prepare("select * from class_histograms where class_id = ?").get(m2!.id)).toBeUndefined();
+    const kept = db2.prepare("select * from class_histograms where class_id = ?").get(m1!.id) as Parameters<typeof decodeHistogram>[0];
+    expect(kept.bin_count).toBe(5);
+    expect([...decodeHistogram(kept).counts]).toEqual([10, 20, 30, 40, 50]);
     db2.close();
   });
 
@@ -75,7 +78,7 @@ describe("baselines: CRUD, versions and revisions", () => {
     const { owner, editor, teamId } = await teamWithRoles();
     const b = await createBaseline(owner.client, teamId, "Original");
     const db = rawDb();
-    db.prepare("insert into histogram_bins (class_id, length_m, count) values (?, ?, ?)").run(b.classes[0]!.id, 1e-6, 7);
+    db.prepare("insert into class_histograms (class_id, bin_count, net_count, lengths_m, counts) values (@class_id, @bin_count, @net_count, @lengths_m, @counts)").run(histogramRow(b.classes[0]!.id, [1e-6], [7]));
     db.close();
     const d = await editor.client.post(`/api/baselines/${b.id}/duplicate`, {});
     expect(d.status).toBe(201);
@@ -83,6 +86,10 @@ describe("baselines: CRUD, versions and revisions", () => {
     expect(d.json.baseline.classes.map((c: { name: string }) => c.name)).toEqual(["M1", "M2"]);
     expect(d.json.baseline.classes[0].histogramBins).toBe(1);
     expect(d.json.baseline.classes[0].id).not.toBe(b.classes[0]!.id);
+    const db3 = rawDb();
+    const copied = db3.prepare("select * from class_histograms where class_id = ?").get(d.json.baseline.classes[0].id) as Parameters<typeof decodeHistogram>[0];
+    db3.close();
+    expect(toLengthBins(decodeHistogram(copied))).toEqual([{ lengthM: 1e-6, count: 7 }]);
     const d2 = await editor.client.post(`/api/baselines/${b.id}/duplicate`, {});
     expect(d2.json.baseline.name).toBe("Original (copy 2)");
   });
@@ -250,4 +257,52 @@ describe("bad input: status, field message, nothing stored changes", () => {
       expect(snapshot()).toEqual(before);
     });
   }
+});
+
+describe("audit log: creates and edits of baselines, classes and scenarios", () => {
+  const auditOf = (teamId: string) => {
+    const db = rawDb();
+    try {
+      return db.prepare("select action, entity_type, entity_id, user_id, detail from audit_log where team_id = ? order by id").all(teamId) as { action: string; entity_type: string; entity_id: string; user_id: string; detail: string }[];
+    } finally {
+      db.close();
+    }
+  };
+
+  it("writes one row per create, edit, duplicate, restore and delete, by the acting user; a stale save writes none", async () => {
+    const { owner, editor, teamId } = await teamWithRoles();
+    const b = await createBaseline(owner.client, teamId, "Audited");
+    expect((await editor.client.patch(`/api/baselines/${b.id}`, { version: 1, description: "edited" })).status).toBe(200);
+    const classes = (await owner.client.get(`/api/baselines/${b.id}`)).json.baseline.classes;
+    expect((await editor.client.put(`/api/baselines/${b.id}/classes`, { version: 2, classes: classes.slice(0, 1) })).status).toBe(200);
+    const dup = await editor.client.post(`/api/baselines/${b.id}/duplicate`, {});
+    expect(dup.status).toBe(201);
+    const sc = (await editor.client.post(`/api/teams/${teamId}/scenarios`, { baselineId: b.id, name: "Audited shrink" })).json.scenario;
+    const saved = await editor.client.patch(`/api/scenarios/${sc.id}`, { version: 1, settings: { ...sc.settings, s: 1.4 } });
+    expect(saved.status).toBe(200);
+    const rowsBeforeStale = auditOf(teamId).length;
+    expect((await owner.client.patch(`/api/scenarios/${sc.id}`, { version: 1, notes: "late" })).status).toBe(409);
+    expect((await owner.client.put(`/api/baselines/${b.id}/classes`, { version: 1, classes })).status).toBe(409);
+    expect(auditOf(teamId)).toHaveLength(rowsBeforeStale);
+    const rev1 = (await editor.client.get(`/api/scenarios/${sc.id}/revisions`)).json.revisions.find((r: { version: number }) => r.version === 1);
+    expect((await editor.client.post(`/api/scenarios/${sc.id}/restore`, { revisionId: rev1.id, version: 2 })).status).toBe(200);
+    expect((await owner.client.del(`/api/scenarios/${sc.id}`)).status).toBe(204);
+
+    const rows = auditOf(teamId).filter((r) => r.action.startsWith("baseline.") || r.action.startsWith("scenario."));
+    expect(rows.map((r) => [r.action, r.entity_id])).toEqual([
+      ["baseline.create", b.id],
+      ["baseline.update", b.id],
+      ["baseline.classes_update", b.id],
+      ["baseline.create", dup.json.baseline.id],
+      ["scenario.create", sc.id],
+      ["scenario.update", sc.id],
+      ["scenario.update", sc.id],
+      ["scenario.delete", sc.id],
+    ]);
+    expect(rows.map((r) => r.user_id)).toEqual([owner.userId, editor.userId, editor.userId, editor.userId, editor.userId, editor.userId, editor.userId, owner.userId]);
+    expect(JSON.parse(rows[2]!.detail)).toEqual({ version: 3, classes: 1 });
+    expect(JSON.parse(rows[3]!.detail)).toMatchObject({ duplicatedFrom: b.id });
+    expect(JSON.parse(rows[5]!.detail)).toEqual({ version: 2, fields: ["settings"] });
+    expect(JSON.parse(rows[6]!.detail)).toEqual({ version: 3, restoredVersion: 1 });
+  });
 });

@@ -23,9 +23,24 @@ describe("migrations", () => {
   it("creates every table the product needs", async () => {
     const rows = await db.raw<{ name: string }[]>("select name from sqlite_master where type = 'table'");
     const names = rows.map((r) => r.name);
-    for (const t of ["users", "sessions", "teams", "memberships", "invites", "audit_log", "outbox", "baselines", "wire_classes", "histogram_bins", "scenarios", "scenario_revisions", "reports", "share_links"]) {
+    for (const t of ["users", "sessions", "teams", "memberships", "invites", "audit_log", "outbox", "baselines", "wire_classes", "class_histograms", "scenarios", "scenario_revisions", "reports", "share_links"]) {
       expect(names).toContain(t);
     }
+  });
+
+  it("stores a histogram as one class_histograms row per class, deleted with its class", async () => {
+    const cols = await db.raw<{ name: string; type: string; notnull: number; pk: number }[]>("pragma table_info(class_histograms)");
+    expect(cols.map((c) => [c.name, c.type.toLowerCase(), c.notnull || c.pk])).toEqual([
+      ["class_id", "text", 1],
+      ["bin_count", "integer", 1],
+      ["net_count", "integer", 1],
+      ["lengths_m", "blob", 1],
+      ["counts", "blob", 1],
+    ]);
+    const fks = await db.raw<{ table: string; from: string; to: string; on_delete: string }[]>("pragma foreign_key_list(class_histograms)");
+    expect(fks.map((f) => [f.table, f.from, f.to, f.on_delete])).toEqual([["wire_classes", "class_id", "id", "CASCADE"]]);
+    const names = (await db.raw<{ name: string }[]>("select name from sqlite_master where type = 'table'")).map((r) => r.name);
+    expect(names).not.toContain("histogram_bins");
   });
 
   it("turns foreign keys and WAL on", async () => {

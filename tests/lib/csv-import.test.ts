@@ -1,8 +1,8 @@
 import fs from "node:fs";
 import { describe, expect, it } from "vitest";
 import { detectDelimiter } from "@/lib/import/csv-stream";
-import { parseHistogramCsv } from "@/lib/import/histograms";
-import { Spool } from "@/lib/import/spool";
+import { fastScaled, parseHistogramCsv } from "@/lib/import/histograms";
+import { HistogramAccumulator } from "@/lib/import/histogram-accumulator";
 import { multipartField } from "@/lib/import/request-body";
 import { formatScaled, parseScaled } from "@/lib/import/numbers";
 import { ImportFatalError, type ImportIssue } from "@/lib/import/types";
@@ -19,7 +19,7 @@ const HEADER = "class,tier,width_nm,thickness_nm,spacing_nm,ild_below_nm,ild_abo
 const ROW_LOCAL = "local,local,24,48,24,30,30,2,Cu,2.7,1200000,4,8000,0.4,0.15";
 const ROW_GLOBAL = "global,global,400,800,400,400,,5,Cu,3.0,4000,1500,300,5.0,0.1";
 const classes = (text: string, size = 7) => parseWireClassStream(chunks(text, size), { maxBytes: 1 << 20 });
-const hist = (text: string | Uint8Array, names = ["local", "global"], size = 7) => parseHistogramCsv(chunks(text, size), names, { maxBytes: 1 << 20, sink: new Spool() });
+const hist = (text: string | Uint8Array, names = ["local", "global"], size = 7) => parseHistogramCsv(chunks(text, size), names, { maxBytes: 1 << 20, sink: new HistogramAccumulator(names.length) });
 
 async function fatal(p: Promise<unknown>): Promise<ImportIssue & { status: number }> {
   try {
@@ -169,7 +169,7 @@ describe("parseHistogramCsv (length histograms)", () => {
     expect(r.ok).toBe(true);
     expect(r.rows).toBe(192);
     expect(r.perClass.map((c) => [c.name, c.bins])).toEqual([["local", 48], ["intermediate", 48], ["semi-global", 48], ["global", 48]]);
-    r.spool?.dispose();
+    expect(r.sink?.binCount(0)).toBe(48);
   });
 
   it("rejects an unknown class name, suggesting the known ones", async () => {
@@ -178,7 +178,7 @@ describe("parseHistogramCsv (length histograms)", () => {
       { line: 3, column: "class", value: "Local", message: 'is not a class of this baseline (did you mean "local"? names are case-sensitive)' },
       { line: 4, column: "class", value: "M7", message: "is not a class of this baseline; known classes: local, global" },
     ]);
-    expect(r.spool).toBeNull();
+    expect(r.sink).toBeNull();
   });
 
   it("rejects the same class and length twice, in order or not", async () => {
@@ -204,7 +204,7 @@ describe("parseHistogramCsv (length histograms)", () => {
   it("caps the listed errors but counts them all", async () => {
     let text = "class,length_um,count\n";
     for (let i = 0; i < 500; i++) text += `local,${i + 1},x\n`;
-    const r = await parseHistogramCsv(chunks(text, 1000), ["local"], { maxBytes: 1 << 20, maxErrors: 200, sink: new Spool() });
+    const r = await parseHistogramCsv(chunks(text, 1000), ["local"], { maxBytes: 1 << 20, maxErrors: 200, sink: new HistogramAccumulator(1) });
     expect(r.errors.length).toBe(200);
     expect(r.errorCount).toBe(500);
   });
@@ -226,6 +226,119 @@ describe("parseHistogramCsv (length histograms)", () => {
     expect((await fatal(hist("class,length_um,count\r\n"))).message).toBe("The file has a header but no data rows.");
     expect((await fatal(hist("class,length_um,count,count\n"))).message).toMatch(/Column "count" appears twice/);
     expect((await fatal(hist("class\tlength_um\tcount\nlocal\t1\t1\n"))).message).toMatch(/not tabs/);
+  });
+});
+
+describe("histogram cells: fast path and general path agree", () => {
+  it("fastScaled gives exactly parseScaled's value for plain decimals, and NaN for everything it leaves to the general path", () => {
+    let seed = 12345;
+    const rnd = (n: number) => ((seed = (seed * 1103515245 + 12345) % 2147483648), seed % n);
+    for (let i = 0; i < 20_000; i++) {
+      const intDigits = rnd(9);
+      const fracDigits = rnd(7);
+      let t = "";
+      for (let d = 0; d < intDigits; d++) t += String(rnd(10));
+      if (fracDigits > 0 || rnd(4) === 0) t += ".";
+      for (let d = 0; d < fracDigits; d++) t += String(rnd(10));
+      if (!/\d/.test(t)) continue;
+      for (const exp of [-6, 0]) {
+        const slow = parseScaled(t, exp);
+        expect(slow.ok, t).toBe(true);
+        expect(fastScaled(t, exp), `${t} e${exp}`).toBe(slow.ok ? slow.value : NaN);
+      }
+    }
+    expect(fastScaled("0.3", -6)).toBe(3e-7);
+    expect(fastScaled("123456789012345", 0)).toBe(123456789012345);
+    for (const t of ["", ".", "1.2.3", "-4", "+4", " 4", "4 ", "1e3", "1,5", "NaN", "Infinity", "1234567890123456", "0x10"]) expect(fastScaled(t, -6), t).toBeNaN();
+  });
+
+  it("cells outside the fast path are read as before (spaces, signs, exponents), and sorted by length for storage", async () => {
+    const r = await hist("class,length_um,count\nlocal, 5 ,+3\nlocal,1e0,2.0\nlocal,0.5,007\nglobal,2.50,1\n");
+    expect(r.errors).toEqual([]);
+    const acc = r.sink!;
+    const local = acc.sorted(0);
+    expect([...local.lengthsM]).toEqual([5e-7, 1e-6, 5e-6]);
+    expect([...local.counts]).toEqual([7, 2, 3]);
+    expect([...acc.sorted(1).lengthsM]).toEqual([2.5e-6]);
+    expect(r.perClass.map((c) => [c.name, c.bins, c.nets])).toEqual([["local", 3, 12], ["global", 1, 1]]);
+  });
+
+  it("names the first line of a length for every repeat, in order or not", async () => {
+    const asc = await hist("class,length_um,count\nlocal,1,2\nlocal,1,3\nlocal,1,4\n");
+    expect(asc.errors.map((e) => [e.line, e.message])).toEqual([
+      [3, 'repeats the bin of class "local" at this length from line 2 (one row per class and length)'],
+      [4, 'repeats the bin of class "local" at this length from line 2 (one row per class and length)'],
+    ]);
+    const mixed = await hist("class,length_um,count\nlocal,9,1\nlocal,2,1\nglobal,9,1\nlocal,9.0,1\nlocal,3,1\nlocal,9,1\nlocal,2,1\n");
+    expect(mixed.errors).toEqual([
+      { line: 5, column: "length_um", value: "9", message: 'repeats the bin of class "local" at this length from line 2 (one row per class and length)' },
+      { line: 7, column: "length_um", value: "9", message: 'repeats the bin of class "local" at this length from line 2 (one row per class and length)' },
+      { line: 8, column: "length_um", value: "2", message: 'repeats the bin of class "local" at this length from line 3 (one row per class and length)' },
+    ]);
+    expect(mixed.sink).toBeNull();
+  });
+
+  it("the quote-free fast lane gives exactly what the papaparse path gives (errors, lines, totals, bins)", async () => {
+    const names = ["local", "global", "M 3"];
+    let body = "";
+    let seed = 7;
+    const rnd = (n: number) => ((seed = (seed * 1103515245 + 12345) % 2147483648), seed % n);
+    const cells = ["1", "2.5", "0.3", "10", "0", "-1", "1e2", " 4", "4 ", "x", "", "1.5", "007", "3.", ".5", "99999999999999999"];
+    const classes = ["local", "local", "local", "global", "global", "M 3", "'M 3", "Local", "", "nope"];
+    for (let i = 0; i < 3000; i++) {
+      const r = rnd(40);
+      if (r === 0) body += "\n"; // blank line
+      else if (r === 1) body += `local,${i + 1},2,\n`; // trailing delimiter
+      else if (r === 2) body += `local,${i + 1}\n`; // too few fields
+      else if (r === 3) body += `global,${i},1,1,1\n`; // too many
+      else if (r === 4) body += "   \n";
+      else body += `${classes[rnd(classes.length)]},${rnd(3) ? String(rnd(500) + 1) : cells[rnd(cells.length)]},${rnd(3) ? String(rnd(1000)) : cells[rnd(cells.length)]}\n`;
+    }
+    const variants: [string, string][] = [
+      ["class,length_um,count", body],
+      ["count;class;length_um", body.replace(/^([^,\n]*),([^,\n]*),([^,\n]*)/gm, "$3;$1;$2").replace(/,/g, ";")],
+      ["class,length_um,count", body.replace(/\n/g, "\r\n")],
+    ];
+    for (const [head, text] of variants) {
+      for (const size of [5, 4096, 65536]) {
+        const run = async (tapped: boolean) => {
+          const acc = new HistogramAccumulator(names.length);
+          const r = await parseHistogramCsv(chunks(`${head}\n${text}`.replace(/\n/g, text.includes("\r\n") ? "\r\n" : "\n").replace(/\r\r/g, "\r"), size), names, {
+            maxBytes: 1 << 24,
+            maxErrors: 100_000,
+            sink: acc,
+            ...(tapped ? { tap: { row: () => undefined } } : {}), // a row tap turns the fast lane off
+          });
+          return { ...r, sink: null, bins: names.map((_, i) => [...acc.sorted(i).lengthsM, ...acc.sorted(i).counts]) };
+        };
+        const fast = await run(false);
+        const slow = await run(true);
+        expect(fast.errorCount).toBeGreaterThan(100);
+        expect(fast.perClass.length).toBe(3);
+        expect(fast).toEqual(slow);
+      }
+    }
+  });
+
+  it("rejects counts whose sum a stored histogram cannot hold exactly", async () => {
+    const r = await hist("class,length_um,count\nlocal,1,9007199254740991\nlocal,2,1\nglobal,1,9007199254740991\n");
+    expect(r.errors).toEqual([{ line: null, column: "count", value: null, message: 'The counts of class "local" add up to more than 9,007,199,254,740,991 nets, more than a histogram can hold.' }]);
+    expect(r.sink).toBeNull();
+  });
+
+  it("collects many unsorted bins in ascending order with their counts", async () => {
+    let text = "class,length_um,count\n";
+    const n = 5000;
+    for (let i = 0; i < n; i++) text += `local,${((i * 7919) % n) + 1},${i}\n`;
+    const r = await hist(text, ["local", "global"], 4096);
+    expect(r.ok).toBe(true);
+    const s = r.sink!.sorted(0);
+    expect(s.lengthsM.length).toBe(n);
+    for (let k = 0; k < n; k++) {
+      expect(s.lengthsM[k]).toBe(Number(`${k + 1}e-6`));
+      // row i holds length ((i*7919) % n) + 1 and count i
+      expect((Number(s.counts[k]) * 7919) % n).toBe(k);
+    }
   });
 });
 
@@ -254,7 +367,7 @@ describe("readCsv limits on pathological input", () => {
   it("rejects a record longer than 1 MiB (an unclosed quote) without quadratic re-parsing", async () => {
     const t0 = performance.now();
     const text = `class,length_um,count\nlocal,1,2\n"local,2,3\n${"local,3,4\n".repeat(300_000)}`;
-    const e = await fatal(parseHistogramCsv(chunks(text, 65536), ["local"], { maxBytes: 64 << 20, sink: new Spool() }));
+    const e = await fatal(parseHistogramCsv(chunks(text, 65536), ["local"], { maxBytes: 64 << 20, sink: new HistogramAccumulator(1) }));
     expect(e).toMatchObject({ line: 3, message: "Line 3 starts a record longer than 1 MiB: a quote is probably not closed, or this is not a CSV file." });
     expect(performance.now() - t0).toBeLessThan(5000);
   });

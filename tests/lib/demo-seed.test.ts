@@ -20,10 +20,12 @@ afterAll(async () => {
   fs.rmSync(dir, { recursive: true, force: true });
 });
 
-const TABLES = ["users", "teams", "memberships", "baselines", "wire_classes", "histogram_bins", "scenarios", "reports", "audit_log"];
+const TABLES = ["users", "teams", "memberships", "baselines", "wire_classes", "class_histograms", "scenarios", "reports", "audit_log"];
 async function counts(): Promise<Record<string, number>> {
   const out: Record<string, number> = {};
   for (const t of TABLES) out[t] = Number(((await db(t).count({ n: "*" }).first()) as { n: number }).n);
+  // one class_histograms row per class: count the bins they hold too
+  out["histogram bins"] = Number(((await db("class_histograms").sum({ n: "bin_count" }).first()) as { n: number | null }).n ?? 0);
   return out;
 }
 
@@ -45,6 +47,7 @@ describe("seedDemo", () => {
 
   it("is idempotent: a second run changes nothing and keeps later edits", async () => {
     const first = await counts();
+    expect(first).toMatchObject({ class_histograms: 4, "histogram bins": 192 });
     const team = await db("teams").where({ is_demo: 1 }).first("id");
     // A user's later change (a role change by the owner) must survive a re-run.
     const viewer = await db("users").where({ email: "viewer@harrowbay.example" }).first("id");
