@@ -70,16 +70,32 @@ export function cohnThickStripFringeFPerM(epsFPerM: number, thicknessM: number, 
 /**
  * Ground/coupling split (ours, fitted to the field solver; see scaling/README.md for the fit and its error).
  * With neighbours, the fringe to the plane(s) is limited by the gaps between the lines: the ground fringe is the
- * isolated fringe f_iso and a gap-limited fringe f_gap combined as (f_iso^−4 + f_gap^−4)^(−1/4).
- * - one plane: f_iso = C1/ε − W/H (Sakurai–Tamaru), f_gap = 1.2·(S/H)^0.64; coupling per neighbour is the rest of
- *   the Sakurai–Tamaru total: C_couple = (C1 + 2·C21 − C_ground)/2, so the total with quiet neighbours is unchanged.
- * - two planes: f_iso = Cohn's fringe, f_gap = 0.86·[(S/H)^0.74 + (S/H2)^0.74]; coupling per neighbour
- *   C_couple/ε = [0.8974·T/S + 1.0308 + 4.2272·T/b + 0.1371·W/b − 0.0061·ln(S/b)]·exp(−π·S/b), b = H + T + H2
- *   (exp(−π·S/b) is the decay of the field between parallel planes).
+ * isolated fringe f_iso and a gap-limited fringe f_gap combined as (f_iso^−n + f_gap^−n)^(−1/n) (n = `norm`).
+ * Both splits are built so that, with grounded neighbours, the total C_ground + 2·C_couple can only rise as the
+ * neighbours approach, the ground part only fall and the coupling only rise (every piece is monotonic in S):
+ * - one plane: f_iso = C1/ε − W/H (Sakurai–Tamaru), f_gap = 1.2·(S/H)^0.64, n = 4; coupling per neighbour is the rest
+ *   of the Sakurai–Tamaru total: C_couple = (C1 + 2·C21 − C_ground)/2 = C21 + (f_iso − f_ground)/2, so the total with
+ *   quiet neighbours is Sakurai–Tamaru's (C21 ≥ 0 falls with S).
+ * - two planes (since engine 1.1.0): f_iso = Cohn's fringe, b = H + T + H2,
+ *   f_gap = 0.709·(1 + 0.110·T/b)·[(S/H)^0.674 + (S/H2)^0.674]·exp(0.646·S/b), n = 2.55;
+ *   total with grounded neighbours C_tot/ε = W/H + W/H2 + f_iso + 2·X, where
+ *   X = [1.042·T/S + 0.370 + 3.625·T/b + 0.335·W/b]·exp(−1.95·π·S/b) ≥ 0 is half the rise of the total over the
+ *   isolated line (it falls as S grows; the field between parallel planes decays as exp(−π·S/b), and the total's rise
+ *   is second order in that field); coupling per neighbour C_couple = (C_tot − C_ground)/2 = X + (f_iso − f_ground)/2.
+ *   Coefficients by a minimax-weighted fit to 1,350 field solves (scaling/README.md).
+ * The ground deficit f_iso − f_ground is computed as −f_iso·expm1(−log1p((f_iso/f_gap)^n)/n), free of cancellation.
+ * `twoPlane.couple` holds engine 1.0.0's two-plane coupling fit, kept for reference only (it let the total dip by up
+ * to ~2% as spacing shrank).
  */
 export const SPLIT_FIT = {
   onePlane: { a: 1.2, b: 0.64 },
-  twoPlane: { a: 0.86, b: 0.74, couple: [0.8974, 1.0308, 4.2272, 0.1371, -0.0061] as const },
+  twoPlane: {
+    a: 0.709, b: 0.674, growth: 0.646, thick: 0.11, norm: 2.55,
+    total: [1.042, 0.37, 3.625, 0.335] as const, decay: 1.95,
+    /** @deprecated engine 1.0.0's two-plane coupling coefficients; no longer used. */
+    couple: [0.8974, 1.0308, 4.2272, 0.1371, -0.0061] as const,
+  },
+  /** Norm of the one-plane fringe combination. */
   norm: 4,
 } as const;
 
@@ -87,7 +103,7 @@ export const SPLIT_FIT = {
 export const CAPACITANCE_ACCURACY: Readonly<Record<CapacitanceModel, string>> = {
   ideal: "parallel plate: a lower bound that ignores fringing and coupling; several times too low for W/H ≤ 1",
   fringe: "Yuan–Trick (one plane): within 11% of the field solver for W ≥ T/2; Cohn (two planes): within 2.5% (measured)",
-  coupled: "Sakurai–Tamaru total (one plane): within 6% (C1) / 11% (with neighbours) of the field solver in the fitted ranges; ground/coupling split fitted to the field solver: ground within 11%, Miller-weighted total within 15% (measured); two planes (H2/H ≤ 2): Cohn + fitted split, ground within 4.2%, total within 4.1% (Miller 2: 6.7%) (measured)",
+  coupled: "Sakurai–Tamaru total (one plane): within 6% (C1) / 11% (with neighbours) of the field solver in the fitted ranges; ground/coupling split fitted to the field solver: ground within 11%, Miller-weighted total within 15% (measured); two planes (H2/H ≤ 2, S/H ≤ 4): Cohn + fitted split, ground within 3.3%, total within 2.9% (Miller 2: 4.4%), coupling per neighbour within 21% (measured); with grounded neighbours the total never falls as they approach",
   field: "numeric 2D field solve (finite differences): < 1% on analytic cases",
 };
 
@@ -98,10 +114,12 @@ export interface Split {
   couple: number;
 }
 
-const NORM = SPLIT_FIT.norm;
-
-function combineFringe(fIso: number, fGap: number): number {
-  return Math.pow(Math.pow(fIso, -NORM) + Math.pow(fGap, -NORM), -1 / NORM);
+/**
+ * Ground deficit f_iso − (f_iso^−n + f_gap^−n)^(−1/n) = −f_iso·expm1(−log1p((f_iso/f_gap)^n)/n), computed without
+ * cancellation; in (0, f_iso), falling as f_gap grows.
+ */
+function fringeDeficit(fIso: number, fGap: number, n: number): number {
+  return -fIso * Math.expm1(-Math.log1p(Math.pow(fIso / fGap, n)) / n);
 }
 
 /** Closed forms, one plane at height h. Dimensionless work in units of ε, scaled at the end. */
@@ -124,9 +142,9 @@ function onePlane(model: "ideal" | "fringe" | "coupled", eps: number, w: number,
   const th = t / h;
   const s = sp / h;
   const c21 = Math.max(0, (0.03 * wh + 0.83 * th - 0.07 * Math.pow(th, 0.222)) * Math.pow(s, -1.34));
-  const ground = wh + combineFringe(c1 - wh, SPLIT_FIT.onePlane.a * Math.pow(s, SPLIT_FIT.onePlane.b));
-  out.ground = eps * ground;
-  out.couple = (eps * (c1 + 2 * c21 - ground)) / 2;
+  const deficit = fringeDeficit(c1 - wh, SPLIT_FIT.onePlane.a * Math.pow(s, SPLIT_FIT.onePlane.b), SPLIT_FIT.norm);
+  out.ground = eps * (c1 - deficit);
+  out.couple = eps * (c21 + deficit / 2); // = (C1 + 2·C21 − ground)/2
 }
 
 /** Closed forms, planes at h (below) and h2 (above). */
@@ -145,11 +163,13 @@ function twoPlanes(model: "ideal" | "fringe" | "coupled", eps: number, w: number
     return;
   }
   const tp = SPLIT_FIT.twoPlane;
-  const fGap = tp.a * (Math.pow(sp / h, tp.b) + Math.pow(sp / h2, tp.b));
-  out.ground = eps * (plates + combineFringe(fIso, fGap));
-  const q = tp.couple;
   const sb = sp / b;
-  out.couple = eps * Math.max(0, (q[0] * t) / sp + q[1] + (q[2] * t) / b + (q[3] * w) / b + q[4] * Math.log(sb)) * Math.exp(-Math.PI * sb);
+  const fGap = tp.a * (1 + (tp.thick * t) / b) * (Math.pow(sp / h, tp.b) + Math.pow(sp / h2, tp.b)) * Math.exp(tp.growth * sb);
+  const deficit = fringeDeficit(fIso, fGap, tp.norm);
+  const q = tp.total;
+  const rise = ((q[0] * t) / sp + q[1] + (q[2] * t) / b + (q[3] * w) / b) * Math.exp(-tp.decay * Math.PI * sb);
+  out.ground = eps * (plates + fIso - deficit);
+  out.couple = eps * (rise + deficit / 2); // = (C_tot − C_ground)/2 with C_tot/ε = plates + f_iso + 2·rise
 }
 
 function flagsFor(model: CapacitanceModel, w: number, t: number, h: number, h2: number | null, sp: number | null, flags: ValidityFlag[]): void {
@@ -271,11 +291,21 @@ export function closedFormInto(
   model: "ideal" | "fringe" | "coupled", eps: number, w: number, t: number, sp: number | null, hb: number, ha: number | null,
   out: Split, validity: ValidityFlag[] | null,
 ): void {
+  closedForm(model, eps, w, t, sp, hb, ha, out);
+  if (validity !== null) closedFormFlags(model, w, t, sp, hb, ha, validity);
+}
+
+/** The closed forms alone (no checks, no flags) into `out`: the evaluation and sweep hot path. */
+export function closedForm(model: "ideal" | "fringe" | "coupled", eps: number, w: number, t: number, sp: number | null, hb: number, ha: number | null, out: Split): void {
   out.area = 0;
   out.ground = 0;
   out.couple = 0;
   const useSp = model === "coupled" ? sp : null;
   if (ha === null) onePlane(model, eps, w, t, hb, useSp, out);
   else twoPlanes(model, eps, w, t, hb, ha, useSp, out);
-  if (validity !== null) flagsFor(model, w, t, hb, ha, useSp, validity);
+}
+
+/** The validity flags of closedForm's models for this geometry, pushed into `validity`. */
+export function closedFormFlags(model: "ideal" | "fringe" | "coupled", w: number, t: number, sp: number | null, hb: number, ha: number | null, validity: ValidityFlag[]): void {
+  flagsFor(model, w, t, hb, ha, model === "coupled" ? sp : null, validity);
 }

@@ -23,5 +23,9 @@ export const SAKURAI_DISTRIBUTED_COEFF = 0.377;
 export const REPEATER_A = LN2;
 export const REPEATER_B = SAKURAI_DISTRIBUTED_COEFF;
 
-/** Version of the engine's models and result shapes; frozen into reports. */
-export const ENGINE_VERSION = "1.0.0";
+/**
+ * Version of the engine's models and result shapes; frozen into reports.
+ * 1.1.0: two-plane ground/coupling split refitted so that the total can only rise as neighbours approach;
+ * repeaters.count = 1 reports the class's own delay, and stages are inserted only where they beat it.
+ */
+export const ENGINE_VERSION = "1.1.0";

@@ -27,43 +27,62 @@ export interface DistributionInput {
  * shareOverBudget counts nets with delay strictly above the budget.
  */
 export function classDistribution(p: DistributionInput): DistributionResult {
-  const { rOhmPerM: r, cFPerM: c, driverOhm: rd, loadF: cl, r0Ohm: r0, c0F: c0, delayBudgetS } = p;
+  return distributionCore(p.bins, p.lengthDivisor ?? 1, p.source, p.rOhmPerM, p.cFPerM, p.driverOhm, p.loadF, p.r0Ohm, p.c0F, p.delayBudgetS);
+}
+
+/**
+ * classDistribution with positional arguments (the evaluation hot path: no input object). When `stats` is given,
+ * stats[0] receives the largest delay over the bins that hold nets (0 if none), for the scenario totals.
+ */
+export function distributionCore(
+  bins: readonly LengthBin[], div: number, source: "histogram" | "mean", r: number, c: number, rd: number, cl: number,
+  r0: number, c0: number, delayBudgetS: number, stats?: Float64Array,
+): DistributionResult {
   const a = REPEATER_A;
   const b = REPEATER_B;
   const rc0 = r0 * c0;
+  const aRc0 = a * rc0;
+  const rdCl = rd * cl;
   const hFixed = 2 * a * Math.sqrt(r0 * c0 * r * c); // a·R0·C/h* + a·R·h*·C0 = 2a·sqrt(R0·C0·r·c)·L
-  const out: DistributionResult["bins"] = new Array(p.bins.length);
-  const div = p.lengthDivisor ?? 1;
+  const n = bins.length;
+  const out: DistributionResult["bins"] = new Array(n);
   let total = 0;
   let over = 0;
   let reps = 0;
   let sumDelay = 0;
   let sumC = 0;
-  for (let i = 0; i < p.bins.length; i++) {
-    const bin = p.bins[i]!;
+  let worst = 0;
+  for (let i = 0; i < n; i++) {
+    const bin = bins[i]!;
+    const count = bin.count;
     const L = bin.lengthM / div;
     const R = r * L;
     const C = c * L;
     const rcT = R * C;
-    let delay = SAKURAI_DISTRIBUTED_COEFF * rcT + LN2 * (rd * C + rd * cl + R * cl);
+    let delay = SAKURAI_DISTRIBUTED_COEFF * rcT + LN2 * (rd * C + rdCl + R * cl);
     let inserted = 0;
-    const kStar = Math.sqrt((b * rcT) / (a * rc0));
+    const bRc = b * rcT;
+    const kStar = Math.sqrt(bRc / aRc0); // k* = sqrt(b·R·C/(a·R0·C0))
     if (kStar > 1) {
       let k = Math.floor(kStar);
-      if (a * (k + 1) * rc0 + (b * rcT) / (k + 1) < a * k * rc0 + (b * rcT) / k) k += 1;
-      const rep = hFixed * L + a * k * rc0 + (b * rcT) / k;
-      if (k >= 2 && rep < delay) {
-        delay = rep;
-        inserted = k - 1;
+      if (a * (k + 1) * rc0 + bRc / (k + 1) < a * k * rc0 + bRc / k) k += 1;
+      if (k >= 2) {
+        const rep = hFixed * L + a * k * rc0 + bRc / k;
+        if (rep < delay) {
+          delay = rep;
+          inserted = k - 1;
+        }
       }
     }
-    out[i] = { lengthM: L, count: bin.count, delayS: delay, repeaters: inserted };
-    total += bin.count;
-    if (delay > delayBudgetS) over += bin.count;
-    reps += inserted * bin.count;
-    sumDelay += delay * bin.count;
-    sumC += C * bin.count;
+    out[i] = { lengthM: L, count, delayS: delay, repeaters: inserted };
+    total += count;
+    if (delay > delayBudgetS) over += count;
+    if (count > 0 && delay > worst) worst = delay;
+    reps += inserted * count;
+    sumDelay += delay * count;
+    sumC += C * count;
   }
+  if (stats !== undefined) stats[0] = worst;
   return {
     bins: out,
     totalNets: total,
@@ -71,7 +90,7 @@ export function classDistribution(p: DistributionInput): DistributionResult {
     totalRepeaters: reps,
     meanDelayS: total > 0 ? sumDelay / total : 0,
     totalCapacitanceF: sumC,
-    source: p.source,
+    source,
   };
 }
 

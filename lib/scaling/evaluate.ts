@@ -3,15 +3,16 @@
  * energy and the length distribution, with validity flags and accuracy statements. SI units.
  */
 import { getMetal, type Metal } from "../../scaling/materials";
-import { CAPACITANCE_ACCURACY, closedFormInto, type Split } from "./capacitance";
+import { CAPACITANCE_ACCURACY, closedForm, closedFormFlags, type Split } from "./capacitance";
 import { ENGINE_VERSION, EPSILON_0_F_PER_M, LN2, SAKURAI_DISTRIBUTED_COEFF } from "./constants";
 import { lineDelayUnchecked } from "./delay";
-import { classDistribution } from "./distribution";
+import { distributionCore } from "./distribution";
 import { REPEATER_ACCURACY, optimalRepeatersUnchecked } from "./repeaters";
 import { RESISTIVITY_ACCURACY, sizeEffectFactor, sizeEffectFlags } from "./resistance";
 import type {
   CapacitanceModel, CapacitanceParts, ClassComparison, ClassResult, Evaluation, ModelLevel, ScenarioSettings, Technology, ValidityFlag, WireClass,
 } from "./types";
+import { newScaledClass, scaleClassInto, type ScaledClass } from "./scale";
 import { checkSettings, checkTechnology, checkWireClass, dedupeFlags } from "./validity";
 
 /**
@@ -70,61 +71,64 @@ export function evaluateClass(p: { wireClass: WireClass; technology: Technology;
   return evaluateClassCore(p.wireClass, p.technology, p.settings, true);
 }
 
-/** Scratch state of one class's electrical evaluation (reused on the sweep's hot path). */
+/** Scratch state of one class's electrical evaluation (reused: the engine is synchronous and never re-entered). */
 interface Electrical {
-  w: number; t: number; sp: number; hb: number | null; ha: number | null; bar: number; sL: number; L: number;
-  metal: Metal; k: number; miller: number; rho: number; rPerM: number; cPerM: number; rd: number; cl: number; r0: number; c0: number;
+  /** Geometry and options after scaling (scaleClassInto, the one implementation of the scaling rules). */
+  g: ScaledClass;
+  metal: Metal; rho: number; rPerM: number; cPerM: number; rd: number; cl: number; r0: number; c0: number;
   split: Split;
 }
 
 function newElectrical(): Electrical {
-  return {
-    w: 0, t: 0, sp: 0, hb: null, ha: null, bar: 0, sL: 1, L: 0, metal: getMetal("Cu"), k: 1, miller: 1, rho: 0, rPerM: 0, cPerM: 0,
-    rd: 0, cl: 0, r0: 0, c0: 0, split: { area: 0, ground: 0, couple: 0 },
-  };
+  return { g: newScaledClass(), metal: getMetal("Cu"), rho: 0, rPerM: 0, cPerM: 0, rd: 0, cl: 0, r0: 0, c0: 0, split: { area: 0, ground: 0, couple: 0 } };
 }
 
-/** Geometry → C, R per length, driver and load of one class at one scenario, into `e` (no allocation). */
-function electricalInto(wc: WireClass, tech: Technology, settings: ScenarioSettings, e: Electrical, validity: ValidityFlag[] | null): void {
+/**
+ * Geometry → C, R per length, driver and load of one class at one scenario, into `e` (no allocation, no flags:
+ * the same code serves the sweep and the evaluation; validityInto adds the flags where a result needs them).
+ */
+function electricalInto(wc: WireClass, tech: Technology, settings: ScenarioSettings, e: Electrical): void {
   const level = settings.level;
-  const o = settings.overrides[wc.name];
-  const s = o?.s ?? settings.s;
-  const sL = o?.sL ?? settings.sL;
-  const w = wc.widthM / s;
-  const t = o?.aspectRatio !== undefined ? o.aspectRatio * w : wc.thicknessM / s;
-  const barrierScales = level === "ideal" ? true : (o?.barrierScales ?? settings.barrierScales);
-  const bar = o?.barrierM !== undefined ? o.barrierM : barrierScales ? wc.barrierM / s : wc.barrierM;
-  const hb = wc.ildBelowM === null ? null : wc.ildBelowM / s;
-  const ha = wc.ildAboveM === null ? null : wc.ildAboveM / s;
-  const sp = wc.spacingM / s;
-  const k = o?.k ?? settings.k ?? wc.k;
-  const miller = o?.miller ?? settings.miller;
-  const metalId = o?.metal ?? settings.metal ?? wc.metal;
-  const metal = metalId === e.metal.id ? e.metal : getMetal(metalId);
+  const g = scaleClassInto(wc, settings, e.g);
+  const w = g.widthM;
+  const t = g.thicknessM;
+  const bar = g.barrierM;
+  const hb = g.ildBelowM;
+  const ha = g.ildAboveM;
+  const metal = g.metal === e.metal.id ? e.metal : getMetal(g.metal);
   // a lone plane above is treated as the plane (mirror symmetry)
-  closedFormInto(CAP_MODEL[level] as "ideal" | "fringe" | "coupled", EPSILON_0_F_PER_M * k, w, t, sp, hb ?? (ha as number), hb === null ? null : ha, e.split, validity);
+  closedForm(CAP_MODEL[level] as ClosedFormModel, EPSILON_0_F_PER_M * g.k, w, t, g.spacingM, hb ?? (ha as number), hb === null ? null : ha, e.split);
   const wCond = w - 2 * bar;
   const hCond = t - bar;
   if (!(wCond > 0 && hCond > 0)) {
     throw new RangeError(`barrierM must be < widthM/2 and < thicknessM after scaling (got barrier ${bar}, width ${w}, thickness ${t} in class ${wc.name})`);
   }
   let rho = metal.resistivityOhmM;
-  if (level === "full") {
-    rho *= sizeEffectFactor(metal, wCond, hCond);
-    if (validity !== null) sizeEffectFlags(metal, wCond, hCond, validity);
-  }
+  if (level === "full") rho *= sizeEffectFactor(metal, wCond, hCond);
   const ideal = level === "ideal";
-  e.w = w; e.t = t; e.sp = sp; e.hb = hb; e.ha = ha; e.bar = bar; e.sL = sL; e.L = wc.meanLengthM / sL;
-  e.metal = metal; e.k = k; e.miller = miller; e.rho = rho;
+  e.metal = metal;
+  e.rho = rho;
   e.rPerM = rho / (wCond * hCond);
-  e.cPerM = e.split.ground + 2 * miller * e.split.couple;
+  e.cPerM = e.split.ground + 2 * g.miller * e.split.couple;
   e.rd = ideal ? 0 : wc.driverOhm * settings.deviceRFactor;
   e.cl = ideal ? 0 : wc.loadF * settings.deviceCFactor;
   e.r0 = tech.repeaterR0Ohm * settings.deviceRFactor;
   e.c0 = tech.repeaterC0F * settings.deviceCFactor;
 }
 
+type ClosedFormModel = "ideal" | "fringe" | "coupled";
+
+/** The validity flags of the models electricalInto used for `e` (once per class result). */
+function validityInto(level: ModelLevel, e: Electrical, validity: ValidityFlag[]): void {
+  const g = e.g;
+  const hb = g.ildBelowM;
+  const ha = g.ildAboveM;
+  closedFormFlags(CAP_MODEL[level] as ClosedFormModel, g.widthM, g.thicknessM, g.spacingM, hb ?? (ha as number), hb === null ? null : ha, validity);
+  if (level === "full") sizeEffectFlags(e.metal, g.widthM - 2 * g.barrierM, g.thicknessM - g.barrierM, validity);
+}
+
 const SWEEP_SCRATCH = newElectrical();
+const CLASS_SCRATCH = newElectrical();
 
 /**
  * One sweep metric of a class at its scaled mean length (delay: delayS, rc: rcS, r: rOhm, c: cF), with no result
@@ -132,27 +136,33 @@ const SWEEP_SCRATCH = newElectrical();
  */
 export function classMetricCore(wc: WireClass, tech: Technology, settings: ScenarioSettings, metric: "delay" | "rc" | "r" | "c"): number {
   const e = SWEEP_SCRATCH;
-  electricalInto(wc, tech, settings, e, null);
-  const R = e.rPerM * e.L;
-  const C = e.cPerM * e.L;
+  electricalInto(wc, tech, settings, e);
+  const L = e.g.lengthM;
+  const R = e.rPerM * L;
+  const C = e.cPerM * L;
   if (metric === "r") return R;
   if (metric === "c") return C;
   if (metric === "rc") return R * C;
   return SAKURAI_DISTRIBUTED_COEFF * R * C + (settings.level === "ideal" ? 0 : LN2 * (e.rd * C + e.rd * e.cl + R * e.cl));
 }
 
-/** evaluateClass without the input checks; `withDistribution` false skips the histogram. */
-export function evaluateClassCore(wc: WireClass, tech: Technology, settings: ScenarioSettings, withDistribution: boolean): ClassResult {
+/**
+ * evaluateClass without the input checks; `withDistribution` false skips the histogram. `stats`, when given,
+ * receives the distribution's worst delay in stats[0] (see distributionCore).
+ */
+export function evaluateClassCore(wc: WireClass, tech: Technology, settings: ScenarioSettings, withDistribution: boolean, stats?: Float64Array): ClassResult {
   const level = settings.level;
   const validity: ValidityFlag[] = [];
-  const e = newElectrical();
-  electricalInto(wc, tech, settings, e, validity);
+  const e = CLASS_SCRATCH;
+  electricalInto(wc, tech, settings, e);
+  validityInto(level, e, validity);
+  const g = e.g;
   const sp = e.split;
   const cap: CapacitanceParts = {
-    areaFPerM: sp.area, fringeFPerM: sp.ground - sp.area, couplingFPerM: 2 * e.miller * sp.couple, totalFPerM: e.cPerM,
+    areaFPerM: sp.area, fringeFPerM: sp.ground - sp.area, couplingFPerM: 2 * g.miller * sp.couple, totalFPerM: e.cPerM,
     couplingPerNeighbourFPerM: sp.couple, model: CAP_MODEL[level],
   };
-  const L = e.L;
+  const L = g.lengthM;
   const rPerM = e.rPerM;
   const cPerM = e.cPerM;
   const R = rPerM * L;
@@ -160,32 +170,33 @@ export function evaluateClassCore(wc: WireClass, tech: Technology, settings: Sce
   const rd = e.rd;
   const cl = e.cl;
   const d = lineDelayUnchecked(R, C, rd, cl);
-  const repeaters = optimalRepeatersUnchecked(R, C, L, e.r0, e.c0);
+  const delayS = level === "ideal" ? d.intrinsicS : d.t50S;
+  const repeaters = optimalRepeatersUnchecked(R, C, L, e.r0, e.c0, delayS);
   const v2 = settings.supplyV * settings.supplyV;
   const energyJ = (C + cl) * v2;
-  const hasHist = wc.histogram !== undefined && wc.histogram.length > 0;
-  const distribution = classDistribution({
-    bins: !withDistribution ? [] : hasHist ? wc.histogram! : [{ lengthM: wc.meanLengthM, count: wc.netCount }],
-    lengthDivisor: e.sL,
-    source: hasHist ? "histogram" : "mean", rOhmPerM: rPerM, cFPerM: cPerM, driverOhm: rd, loadF: cl, r0Ohm: e.r0, c0F: e.c0, delayBudgetS: tech.delayBudgetS,
-  });
+  const hist = wc.histogram;
+  const hasHist = hist !== undefined && hist.length > 0;
+  const distribution = distributionCore(
+    !withDistribution ? [] : hasHist ? hist : [{ lengthM: wc.meanLengthM, count: wc.netCount }], g.sL,
+    hasHist ? "histogram" : "mean", rPerM, cPerM, rd, cl, e.r0, e.c0, tech.delayBudgetS, stats,
+  );
   // Energy over the distribution's nets: V²·(Σ wire C + nets·CL); equals netCount·energyJ at the mean length.
   const totalEnergyJ = withDistribution ? v2 * (distribution.totalCapacitanceF + distribution.totalNets * cl) : wc.netCount * energyJ;
   const powerW = 0.5 * wc.activity * tech.clockHz * totalEnergyJ;
-  const twoPlanes = e.hb !== null && e.ha !== null;
+  const twoPlanes = g.ildBelowM !== null && g.ildAboveM !== null;
   return {
     name: wc.name,
     tier: wc.tier,
-    widthM: e.w,
-    thicknessM: e.t,
-    spacingM: e.sp,
-    ildBelowM: e.hb,
-    ildAboveM: e.ha,
-    barrierM: e.bar,
-    pitchM: e.w + e.sp,
+    widthM: g.widthM,
+    thicknessM: g.thicknessM,
+    spacingM: g.spacingM,
+    ildBelowM: g.ildBelowM,
+    ildAboveM: g.ildAboveM,
+    barrierM: g.barrierM,
+    pitchM: g.widthM + g.spacingM,
     lengthM: L,
     metal: e.metal.id,
-    k: e.k,
+    k: g.k,
     resistivityOhmM: e.rho,
     rOhmPerM: rPerM,
     capacitance: cap,
@@ -194,7 +205,7 @@ export function evaluateClassCore(wc: WireClass, tech: Technology, settings: Sce
     cF: C,
     rcS: R * C,
     intrinsicDelayS: d.intrinsicS,
-    delayS: level === "ideal" ? d.intrinsicS : d.t50S,
+    delayS,
     elmoreS: d.elmoreS,
     repeaters,
     driverOhm: rd,
@@ -227,8 +238,8 @@ export function evaluateScenario(p: { classes: WireClass[]; technology: Technolo
   let ns = 0;
   for (let i = 0; i < p.classes.length; i++) {
     const wc = p.classes[i]!;
-    const b = evaluateClassCore(wc, p.technology, base, true);
-    const s = evaluateClassCore(wc, p.technology, p.settings, true);
+    const b = evaluateClassCore(wc, p.technology, base, true, WORST_B);
+    const s = evaluateClassCore(wc, p.technology, p.settings, true, WORST_S);
     classes[i] = {
       name: wc.name,
       baseline: b,
@@ -244,21 +255,25 @@ export function evaluateScenario(p: { classes: WireClass[]; technology: Technolo
         energyJ: s.energyJ / b.energyJ,
       },
     };
-    nb += addTotals(tb, b);
-    ns += addTotals(ts, s);
+    nb += addTotals(tb, b, WORST_B[0]!);
+    ns += addTotals(ts, s, WORST_S[0]!);
   }
   tb.meanDelayS = nb > 0 ? tb.meanDelayS / nb : 0;
   ts.meanDelayS = ns > 0 ? ts.meanDelayS / ns : 0;
   return { engineVersion: ENGINE_VERSION, level: p.settings.level, classes, totals: { baseline: tb, scenario: ts } };
 }
 
-function addTotals(t: Evaluation["totals"]["baseline"], r: ClassResult): number {
+const WORST_B = new Float64Array(1);
+const WORST_S = new Float64Array(1);
+
+/** Adds one class result to the totals; `worstDelayS` is the class's largest delay over bins with nets. */
+function addTotals(t: Evaluation["totals"]["baseline"], r: ClassResult, worstDelayS: number): number {
   const d = r.distribution;
   t.capacitanceF += d.totalCapacitanceF;
   t.energyJ += r.totalEnergyJ;
   t.powerW += r.powerW;
   t.repeaters += d.totalRepeaters;
-  for (const bin of d.bins) if (bin.count > 0 && bin.delayS > t.worstDelayS) t.worstDelayS = bin.delayS;
+  if (worstDelayS > t.worstDelayS) t.worstDelayS = worstDelayS;
   t.meanDelayS += d.meanDelayS * d.totalNets;
   return d.totalNets;
 }

@@ -34,25 +34,38 @@ export function criticalLengthM(p: { rOhmPerM: number; cFPerM: number; r0Ohm: nu
  * Optimal whole number of stages k ≥ 1 (the better of floor and ceil of k*), optimal size h*, the repeated
  * delay T(k, h*) of the whole line, the optimal delay per metre T* ÷ L and the critical length.
  * count = 1 means no inserted repeater (the first stage is the driver).
+ *
+ * Which delay count = 1 reports depends on `unrepeatedDelayS`:
+ * - given (the engine passes the class's own delayS: its driver as given, line and load): repeaters are inserted
+ *   only where they make the line faster, as in the length distribution: count = k only if k ≥ 2 and
+ *   T(k, h*) < unrepeatedDelayS, otherwise count = 1 and delayS = unrepeatedDelayS. So delayS < unrepeatedDelayS
+ *   exactly when repeaters help, and delayS = unrepeatedDelayS otherwise.
+ * - omitted: the bare Bakoglu–Meindl optimum, where count = 1 is T(1, h*), a driver resized to h* (which can be
+ *   faster or slower than any real driver).
  */
-export function optimalRepeaters(p: { rOhm: number; cF: number; lengthM: number; r0Ohm: number; c0F: number }): RepeaterResult {
+export function optimalRepeaters(p: { rOhm: number; cF: number; lengthM: number; r0Ohm: number; c0F: number; unrepeatedDelayS?: number }): RepeaterResult {
   positive("rOhm", p.rOhm);
   positive("cF", p.cF);
   positive("lengthM", p.lengthM);
   positive("r0Ohm", p.r0Ohm);
   positive("c0F", p.c0F);
-  return optimalRepeatersUnchecked(p.rOhm, p.cF, p.lengthM, p.r0Ohm, p.c0F);
+  if (p.unrepeatedDelayS !== undefined) positive("unrepeatedDelayS", p.unrepeatedDelayS);
+  return optimalRepeatersUnchecked(p.rOhm, p.cF, p.lengthM, p.r0Ohm, p.c0F, p.unrepeatedDelayS);
 }
 
 /** optimalRepeaters without input checks (hot path). */
-export function optimalRepeatersUnchecked(r: number, c: number, lengthM: number, r0: number, c0: number): RepeaterResult {
+export function optimalRepeatersUnchecked(r: number, c: number, lengthM: number, r0: number, c0: number, unrepeatedDelayS?: number): RepeaterResult {
   const a = REPEATER_A;
   const b = REPEATER_B;
   const kStar = Math.sqrt((b * r * c) / (a * r0 * c0));
   const h = Math.sqrt((r0 * c) / (r * c0));
-  const k = bestWholeStages(kStar, r, c, r0, c0);
+  let k = bestWholeStages(kStar, r, c, r0, c0);
   const fixed = (a * r0 * c) / h + a * r * h * c0;
-  const delayS = fixed + a * k * r0 * c0 + (b * r * c) / k;
+  let delayS = fixed + a * k * r0 * c0 + (b * r * c) / k;
+  if (unrepeatedDelayS !== undefined && (k === 1 || !(delayS < unrepeatedDelayS))) {
+    k = 1;
+    delayS = unrepeatedDelayS;
+  }
   const rc0 = r0 * c0;
   return {
     count: k,

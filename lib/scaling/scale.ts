@@ -27,27 +27,40 @@ export interface ScaledClass {
  * thickness otherwise, and an override `barrierM` replaces it outright. `aspectRatio` sets T = AR·W after scaling.
  */
 export function scaleClass(wc: WireClass, settings: ScenarioSettings): ScaledClass {
+  return scaleClassInto(wc, settings, newScaledClass());
+}
+
+/** A blank ScaledClass (fields in scaleClass's order), to be filled by scaleClassInto. */
+export function newScaledClass(): ScaledClass {
+  return {
+    s: 1, sL: 1, widthM: 0, thicknessM: 0, spacingM: 0, ildBelowM: null, ildAboveM: null, barrierM: 0, lengthM: 0,
+    metal: "", k: 1, miller: 1,
+  };
+}
+
+/**
+ * scaleClass into a caller-owned `out` (no allocation); returns `out`. The one implementation of the scaling
+ * rules: scaleClass and the evaluation and sweep hot paths (evaluate.ts) all call it.
+ */
+export function scaleClassInto(wc: WireClass, settings: ScenarioSettings, out: ScaledClass): ScaledClass {
   const o = settings.overrides[wc.name];
   const s = o?.s ?? settings.s;
   const sL = o?.sL ?? settings.sL;
   const widthM = wc.widthM / s;
-  const thicknessM = o?.aspectRatio !== undefined ? o.aspectRatio * widthM : wc.thicknessM / s;
   const barrierScales = settings.level === "ideal" ? true : (o?.barrierScales ?? settings.barrierScales);
-  const barrierM = o?.barrierM !== undefined ? o.barrierM : barrierScales ? wc.barrierM / s : wc.barrierM;
-  return {
-    s,
-    sL,
-    widthM,
-    thicknessM,
-    spacingM: wc.spacingM / s,
-    ildBelowM: wc.ildBelowM === null ? null : wc.ildBelowM / s,
-    ildAboveM: wc.ildAboveM === null ? null : wc.ildAboveM / s,
-    barrierM,
-    lengthM: wc.meanLengthM / sL,
-    metal: o?.metal ?? settings.metal ?? wc.metal,
-    k: o?.k ?? settings.k ?? wc.k,
-    miller: o?.miller ?? settings.miller,
-  };
+  out.s = s;
+  out.sL = sL;
+  out.widthM = widthM;
+  out.thicknessM = o?.aspectRatio !== undefined ? o.aspectRatio * widthM : wc.thicknessM / s;
+  out.spacingM = wc.spacingM / s;
+  out.ildBelowM = wc.ildBelowM === null ? null : wc.ildBelowM / s;
+  out.ildAboveM = wc.ildAboveM === null ? null : wc.ildAboveM / s;
+  out.barrierM = o?.barrierM !== undefined ? o.barrierM : barrierScales ? wc.barrierM / s : wc.barrierM;
+  out.lengthM = wc.meanLengthM / sL;
+  out.metal = o?.metal ?? settings.metal ?? wc.metal;
+  out.k = o?.k ?? settings.k ?? wc.k;
+  out.miller = o?.miller ?? settings.miller;
+  return out;
 }
 
 /**

@@ -133,11 +133,17 @@ export interface CapacitanceParts {
 }
 
 export interface RepeaterResult {
-  /** Whole number of repeater stages, >= 1 (1 = just the driver, no inserted repeater). */
+  /**
+   * Whole number of repeater stages, >= 1 (1 = just the driver, no inserted repeater). In evaluations, stages are
+   * inserted only where they make the line faster than the class's own driver (as in the length distribution).
+   */
   count: number;
-  /** Repeater size h in units of a minimum repeater. */
+  /** Optimal repeater size h* in units of a minimum repeater (used by the stages when count >= 2). */
   size: number;
-  /** Delay of the repeated line of the class's length. */
+  /**
+   * Delay of the line of the class's length with `count` stages. In evaluations: count = 1 reports the class's own
+   * delayS (driver as given, no resizing); count >= 2 the Bakoglu–Meindl delay T(count, h*), which is then < delayS.
+   */
   delayS: number;
   /** Repeated delay per metre at the optimum. */
   delayPerMS: number;

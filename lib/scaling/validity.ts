@@ -10,28 +10,45 @@ import { TIERS } from "./types";
 
 /** Throws RangeError on an impossible wire class (non-positive sizes, k < 1, NaN, infinities, unknown metal). */
 export function checkWireClass(wc: WireClass): void {
-  const n = (f: string) => `${wc.name}.${f}`;
-  if (!TIERS.includes(wc.tier)) throw new RangeError(`${n("tier")} must be one of ${TIERS.join(", ")} (got ${wc.tier})`);
-  positive(n("widthM"), wc.widthM);
-  positive(n("thicknessM"), wc.thicknessM);
-  positive(n("spacingM"), wc.spacingM);
-  if (wc.ildBelowM !== null) positive(n("ildBelowM"), wc.ildBelowM);
-  if (wc.ildAboveM !== null) positive(n("ildAboveM"), wc.ildAboveM);
-  if (wc.ildBelowM === null && wc.ildAboveM === null) throw new RangeError(`${n("ildBelowM")} or ${n("ildAboveM")} must be given (got no plane)`);
-  nonNegative(n("barrierM"), wc.barrierM);
+  // Field names ("<class>.<field>") are built only when a check fails: this runs for every class of every evaluation.
+  const c = wc.name;
+  if (!TIERS.includes(wc.tier)) throw new RangeError(`${c}.tier must be one of ${TIERS.join(", ")} (got ${wc.tier})`);
+  pos(c, "widthM", wc.widthM);
+  pos(c, "thicknessM", wc.thicknessM);
+  pos(c, "spacingM", wc.spacingM);
+  if (wc.ildBelowM !== null) pos(c, "ildBelowM", wc.ildBelowM);
+  if (wc.ildAboveM !== null) pos(c, "ildAboveM", wc.ildAboveM);
+  if (wc.ildBelowM === null && wc.ildAboveM === null) throw new RangeError(`${c}.ildBelowM or ${c}.ildAboveM must be given (got no plane)`);
+  nonNeg(c, "barrierM", wc.barrierM);
   getMetal(wc.metal);
-  atLeast(n("k"), wc.k, 1);
-  nonNegative(n("netCount"), wc.netCount);
-  positive(n("meanLengthM"), wc.meanLengthM);
-  nonNegative(n("driverOhm"), wc.driverOhm);
-  nonNegative(n("loadF"), wc.loadF);
-  inRange(n("activity"), wc.activity, 0, 1);
-  if (wc.histogram) {
-    for (const b of wc.histogram) {
-      positive(n("histogram.lengthM"), b.lengthM);
-      nonNegative(n("histogram.count"), b.count);
+  if (!(wc.k >= 1) || wc.k === Infinity) atLeast(`${c}.k`, wc.k, 1);
+  nonNeg(c, "netCount", wc.netCount);
+  pos(c, "meanLengthM", wc.meanLengthM);
+  nonNeg(c, "driverOhm", wc.driverOhm);
+  nonNeg(c, "loadF", wc.loadF);
+  if (!(wc.activity >= 0 && wc.activity <= 1)) inRange(`${c}.activity`, wc.activity, 0, 1);
+  const h = wc.histogram;
+  if (h) {
+    for (let i = 0; i < h.length; i++) {
+      const b = h[i]!;
+      const l = b.lengthM;
+      const n = b.count;
+      if (!(l > 0 && l !== Infinity && n >= 0 && n !== Infinity)) {
+        pos(c, "histogram.lengthM", l);
+        nonNeg(c, "histogram.count", n);
+      }
     }
   }
+}
+
+/** positive(`${cls}.${field}`, v) with the name built only on failure. */
+function pos(cls: string, field: string, v: number): void {
+  if (!(v > 0) || v === Infinity) positive(`${cls}.${field}`, v);
+}
+
+/** nonNegative(`${cls}.${field}`, v) with the name built only on failure. */
+function nonNeg(cls: string, field: string, v: number): void {
+  if (!(v >= 0) || v === Infinity) nonNegative(`${cls}.${field}`, v);
 }
 
 export function checkTechnology(t: Technology): void {

@@ -47,15 +47,28 @@ describe("properties", () => {
       expect(b.totalFPerM).toBeLessThan(a.totalFPerM);
     }), { numRuns: 300 });
   });
-  it("coupling rises as spacing shrinks (one and two planes)", () => {
-    fc.assert(fc.property(nm(20, 400), nm(20, 400), nm(20, 400), fc.option(nm(20, 400)), fc.double({ min: 1.05, max: 3, noNaN: true }), (w, h, sp, h2, f) => {
-      const g = { widthM: w, thicknessM: 1.8 * w, heightBelowM: h, heightAboveM: h2, k: 3, miller: 1, model: "coupled" as const };
-      const far = lineCapacitance({ ...g, spacingM: sp * f });
-      const near = lineCapacitance({ ...g, spacingM: sp });
-      expect(near.couplingPerNeighbourFPerM).toBeGreaterThan(far.couplingPerNeighbourFPerM);
-      // The total with grounded neighbours may only rise as they approach (physics); the fitted two-plane split is
-      // allowed 2% of fit noise where ground and coupling nearly cancel at S/H ≈ 3–5 (a known artefact of the fit, measured dips up to ~0.6%).
-      expect(near.totalFPerM).toBeGreaterThan(far.totalFPerM * (1 - 2e-2));
-    }), { numRuns: Number(process.env.PROP_RUNS ?? 400) });
+  // With grounded neighbours the total capacitance of the middle line can only rise as they approach (a grounded
+  // conductor moved closer only adds capacitance); the ground part falls and the coupling rises. Both splits are
+  // built monotonic in S (capacitance.ts, SPLIT_FIT), so only rounding is allowed: 1e-9 relative.
+  for (const planes of ["one plane", "two planes"] as const) {
+    it(`coupling rises, ground falls and the total never falls as spacing shrinks (${planes})`, () => {
+      const above = planes === "one plane" ? fc.constant(null) : nm(20, 400);
+      fc.assert(fc.property(nm(20, 400), nm(20, 400), nm(20, 400), above, fc.double({ min: 1.05, max: 3, noNaN: true }), fc.double({ min: 0.5, max: 3, noNaN: true }), (w, h, sp, h2, f, ar) => {
+        const g = { widthM: w, thicknessM: ar * w, heightBelowM: h, heightAboveM: h2, k: 3, miller: 1, model: "coupled" as const };
+        const far = lineCapacitance({ ...g, spacingM: sp * f });
+        const near = lineCapacitance({ ...g, spacingM: sp });
+        expect(near.couplingPerNeighbourFPerM).toBeGreaterThan(far.couplingPerNeighbourFPerM);
+        expect(near.areaFPerM + near.fringeFPerM).toBeLessThanOrEqual((far.areaFPerM + far.fringeFPerM) * (1 + 1e-9));
+        expect(near.totalFPerM).toBeGreaterThanOrEqual(far.totalFPerM * (1 - 1e-9));
+        expect(near.couplingPerNeighbourFPerM).toBeGreaterThan(0);
+        expect(near.areaFPerM + near.fringeFPerM).toBeGreaterThan(0);
+      }), { numRuns: Number(process.env.PROP_RUNS ?? 400) });
+    });
+  }
+  it("the reported counterexample of engine 1.0.0 (two planes, S 306.6 nm vs 831 nm): the total rises as the neighbours approach", () => {
+    const g = { widthM: 46.57e-9, thicknessM: 1.8 * 46.57e-9, heightBelowM: 98.16e-9, heightAboveM: 103.8e-9, k: 3, miller: 1, model: "coupled" as const };
+    const near = lineCapacitance({ ...g, spacingM: 306.6e-9 });
+    const far = lineCapacitance({ ...g, spacingM: 831e-9 });
+    expect(near.totalFPerM).toBeGreaterThan(far.totalFPerM);
   });
 });
