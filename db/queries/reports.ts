@@ -3,9 +3,9 @@
 import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
 import { newId } from "@/lib/ids";
-import { decodeHistogram, toLengthBins } from "@/db/histogram-blob";
+import { listClassesWithHistograms } from "@/db/queries/wire-classes";
 import type { FreezeInput } from "@/lib/reports/freeze";
-import type { LengthBin, ScenarioSettings, Technology, Tier, WireClass } from "@/lib/scaling/types";
+import type { ScenarioSettings, Technology, WireClass } from "@/lib/scaling/types";
 import {
   frozenReportSchema,
   settingsSnapshotSchema,
@@ -233,24 +233,6 @@ export async function deleteReport(conn: Knex, p: { id: string; teamId: string; 
 // ---------------------------------------------------------------------------------------------
 // Inputs of a report: the team's baseline (technology, classes, histograms) and chosen scenarios.
 
-interface ClassRow {
-  id: string;
-  name: string;
-  tier: Tier;
-  width_m: number;
-  thickness_m: number;
-  spacing_m: number;
-  ild_below_m: number | null;
-  ild_above_m: number | null;
-  barrier_m: number;
-  metal: string;
-  k: number;
-  net_count: number;
-  mean_length_m: number;
-  driver_ohm: number;
-  load_f: number;
-  activity: number;
-}
 
 /** Scenario settings as stored, with the workspace's defaults for fields an older row may lack. */
 export function settingsFromStored(json: string, technology: Technology): ScenarioSettings {
@@ -293,34 +275,11 @@ export async function loadReportInputs(
       throw new ReportInputError(400, `Scenario "${r.name}" belongs to another baseline; pick scenarios of the chosen baseline.`, "scenarioIds");
     }
   }
-  const classRows = (await conn("wire_classes").where({ baseline_id: p.baselineId }).orderBy("position").select("*")) as ClassRow[];
-  if (classRows.length === 0) throw new ReportInputError(400, "The baseline has no wire classes yet; add classes before composing a report.", "baselineId");
-  const stored = (await conn("class_histograms")
-    .whereIn("class_id", classRows.map((c) => c.id))
-    .select("class_id", "bin_count", "net_count", "lengths_m", "counts")) as { class_id: string; bin_count: number; net_count: number; lengths_m: Buffer; counts: Buffer }[];
-  const hist = new Map<string, LengthBin[]>();
-  for (const x of stored) hist.set(x.class_id, toLengthBins(decodeHistogram(x)));
-  const classes: WireClass[] = classRows.map((c) => {
-    const h = hist.get(c.id);
-    return {
-      name: c.name,
-      tier: c.tier,
-      widthM: c.width_m,
-      thicknessM: c.thickness_m,
-      spacingM: c.spacing_m,
-      ildBelowM: c.ild_below_m,
-      ildAboveM: c.ild_above_m,
-      barrierM: c.barrier_m,
-      metal: c.metal,
-      k: c.k,
-      netCount: c.net_count,
-      meanLengthM: c.mean_length_m,
-      driverOhm: c.driver_ohm,
-      loadF: c.load_f,
-      activity: c.activity,
-      ...(h && h.length > 0 ? { histogram: h } : {}),
-    };
-  });
+  // The same loader the workspace evaluates with; the stored id, position and bin count are not part of a WireClass.
+  const classes: WireClass[] = (await listClassesWithHistograms(conn, p.baselineId)).map(
+    ({ id: _id, position: _position, histogramBins: _bins, ...wc }) => wc,
+  );
+  if (classes.length === 0) throw new ReportInputError(400, "The baseline has no wire classes yet; add classes before composing a report.", "baselineId");
   return {
     baseline: { id: b.id, name: b.name, description: b.description ?? "", version: b.version, technology, classes },
     scenarios: p.scenarioIds.map((id) => {
