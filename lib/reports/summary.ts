@@ -117,10 +117,18 @@ export function classVerdict(report: FrozenReport, className: string): ClassVerd
   const others = rest.map((r) => `Option ${r.key}: ${dir(r.change)} the baseline`).join("; ");
   // "Intermediate wires (M3):" — or just "Intermediate wires:" when the class is named after its tier.
   const who = className.toLowerCase() === tier ? `${capitalize(tierWords(tier))} wires` : `${capitalize(tierWords(tier))} wires (${className})`;
+  // Options within 0.1% of the fastest are a tie: naming one of them "fastest" would mislead a manager.
+  const tied = ranking.filter((r) => r.delayS - win!.delayS <= Math.abs(win!.delayS) * 1e-3);
+  const rest2 = ranking.filter((r) => !tied.includes(r));
+  const others2 = rest2.map((r) => `Option ${r.key}: ${dir(r.change)} the baseline`).join("; ");
   const sentence =
     ranking.length === 1
       ? `${who}: delay ${dir(win!.change)} the baseline with Option ${win!.key}.`
-      : `${who}: Option ${win!.key} is fastest, delay ${dir(win!.change)} the baseline${others ? ` (${others})` : ""}.`;
+      : tied.length === ranking.length
+        ? `${who}: all options about the same, delay ${dir(win!.change)} the baseline.`
+        : tied.length > 1
+          ? `${who}: Options ${tied.map((r) => r.key).join(" and ")} are equally fastest, delay ${dir(win!.change)} the baseline${others2 ? ` (${others2})` : ""}.`
+          : `${who}: Option ${win!.key} is fastest, delay ${dir(win!.change)} the baseline${others ? ` (${others})` : ""}.`;
   return { className, tier, ranking, sentence };
 }
 
