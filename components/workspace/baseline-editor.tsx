@@ -10,6 +10,7 @@ import { inputClass } from "@/components/ui/field";
 import { ApiFailure, api, fetcher } from "./api";
 import { NumberField } from "./number-field";
 import { U, formatValue, parseValue, type DisplayUnit } from "./units";
+import { ConfirmDelete } from "@/components/ui/confirm-delete";
 
 export interface StoredClassDto extends WireClass {
   id: string;
@@ -105,7 +106,6 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
   const [msg, setMsg] = useState<{ tone: "good" | "bad" | "warn"; text: string } | null>(null);
   const [stale, setStale] = useState<number | null>(null);
   const [busy, setBusy] = useState(false);
-  const [confirmDelete, setConfirmDelete] = useState(false);
 
   const parsed = useMemo(() => rows.map(parseRow), [rows]);
   const dupNames = useMemo(() => {
@@ -269,23 +269,7 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
               <Button onClick={save} disabled={busy || clientInvalid || !(classesDirty || metaDirty)} data-testid="save-baseline">
                 {busy ? "Saving…" : "Save"}
               </Button>
-              {canDelete ? (
-                confirmDelete ? (
-                  <span className="flex items-center gap-1 text-xs">
-                    Delete with its {scenarios.length} scenario(s)?
-                    <Button variant="danger" onClick={remove} disabled={busy}>
-                      Delete
-                    </Button>
-                    <Button variant="ghost" onClick={() => setConfirmDelete(false)}>
-                      Keep
-                    </Button>
-                  </span>
-                ) : (
-                  <Button variant="ghost" onClick={() => setConfirmDelete(true)}>
-                    Delete…
-                  </Button>
-                )
-              ) : null}
+              {canDelete ? <ConfirmDelete question={`Delete with its ${scenarios.length} scenario(s)?`} onDelete={remove} busy={busy} /> : null}
             </>
           ) : (
             <Badge>Read only — you are a viewer</Badge>

@@ -16,6 +16,7 @@ import { RevisionHistory, type RevisionRow } from "./revision-history";
 import { LEVEL_LABEL, SettingsPanel } from "./settings-panel";
 import { SweepPanel, type SweepView } from "./sweep-panel";
 import { fmt, U } from "./units";
+import { ConfirmDelete } from "@/components/ui/confirm-delete";
 
 // Charts (visx) and the field check load in the browser after the first paint: the settings and the results
 // table do not wait for them (first-load JS without visx).
@@ -119,7 +120,6 @@ export function ScenarioEditor(props: {
   const [fieldErrors, setFieldErrors] = useState<Record<string, string[]>>({});
   const [message, setMessage] = useState<{ tone: "good" | "bad" | "warn"; text: string } | null>(null);
   const [conflict, setConflict] = useState<{ currentVersion: number } | null>(null);
-  const [confirmDelete, setConfirmDelete] = useState(false);
 
   async function save() {
     setBusy(true);
@@ -250,23 +250,7 @@ export function ScenarioEditor(props: {
               <Button onClick={save} disabled={busy || !dirty || !evalResult.ok} data-testid="save">
                 {busy ? "Saving…" : "Save"}
               </Button>
-              {canDelete ? (
-                confirmDelete ? (
-                  <span className="flex items-center gap-1 text-xs">
-                    Delete this scenario and its history?
-                    <Button variant="danger" onClick={remove} disabled={busy}>
-                      Delete
-                    </Button>
-                    <Button variant="ghost" onClick={() => setConfirmDelete(false)}>
-                      Keep
-                    </Button>
-                  </span>
-                ) : (
-                  <Button variant="ghost" onClick={() => setConfirmDelete(true)}>
-                    Delete…
-                  </Button>
-                )
-              ) : null}
+              {canDelete ? <ConfirmDelete question="Delete this scenario and its history?" onDelete={remove} busy={busy} /> : null}
             </>
           )}
         </div>
