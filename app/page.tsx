@@ -35,8 +35,12 @@ function CrossSection() {
         <line x1="0" y1="0" x2="0" y2="160" stroke="#5f6368" strokeWidth="1" />
         <path d="M6 18 C 40 90, 70 128, 110 134 S 160 136, 176 136" fill="none" stroke="#b4622d" strokeWidth="2.5" />
         <path d="M6 18 C 40 95, 80 150, 176 156" fill="none" stroke="#8a8f96" strokeWidth="1.5" strokeDasharray="4 4" />
-        <text x="90" y="178" textAnchor="middle" fontSize="11" fill="#5f6368">scale factor S</text>
-        <text x="-80" y="-8" transform="rotate(-90)" textAnchor="middle" fontSize="11" fill="#5f6368">delay</text>
+        <text x="90" y="178" textAnchor="middle" fontSize="11" fill="#5f6368">
+          scale factor S
+        </text>
+        <text x="-80" y="-8" transform="rotate(-90)" textAnchor="middle" fontSize="11" fill="#5f6368">
+          delay
+        </text>
       </g>
     </svg>
   );
@@ -67,10 +71,9 @@ export default async function LandingPage() {
         <div>
           <h1 className="text-3xl font-semibold tracking-tight text-ink">Plan on-chip wiring across process nodes.</h1>
           <p className="mt-4 text-base leading-relaxed text-muted">
-            Plateau is where back-end-of-line architects, DTCO engineers and physical-design leads keep a design&apos;s wire classes as a
-            shared baseline, try what-if scenarios of cross-section and length scaling, dielectric, metal and barrier, and see each class&apos;s
-            resistance, capacitance, RC delay, repeaters and switching energy — including where delay stops improving as wires shrink — then
-            hand managers a frozen side-by-side report.
+            Plateau is where back-end-of-line architects, DTCO engineers and physical-design leads keep a design&apos;s wire classes as a shared baseline, try
+            what-if scenarios of cross-section and length scaling, dielectric, metal and barrier, and see each class&apos;s resistance, capacitance, RC delay,
+            repeaters and switching energy — including where delay stops improving as wires shrink — then hand managers a frozen side-by-side report.
           </p>
           <div className="mt-6 flex flex-wrap gap-2">
             {user ? (

@@ -53,7 +53,8 @@ function toBlob(a: ArrayLike<number>): Buffer {
 function fromBlob(b: Uint8Array, n: number, what: string): Float64Array {
   if (b.byteLength !== n * 8) throw new HistogramBlobError(`stored histogram ${what} hold ${b.byteLength} bytes, expected ${n} × 8`);
   const out = new Float64Array(n);
-  if (LITTLE_ENDIAN) new Uint8Array(out.buffer).set(b); // copy: the blob's offset need not be 8-aligned
+  if (LITTLE_ENDIAN)
+    new Uint8Array(out.buffer).set(b); // copy: the blob's offset need not be 8-aligned
   else {
     const v = new DataView(b.buffer, b.byteOffset, b.byteLength);
     for (let i = 0; i < n; i++) out[i] = v.getFloat64(i * 8, true);
@@ -83,7 +84,8 @@ export function decodeHistogram(row: { bin_count: number; net_count?: number; le
   const lengthsM = fromBlob(row.lengths_m, n, "lengths");
   const counts = fromBlob(row.counts, n, "counts");
   const nets = check(lengthsM, counts);
-  if (row.net_count !== undefined && Number(row.net_count) !== nets) throw new HistogramBlobError(`stored histogram net_count ${row.net_count} differs from the sum of its counts ${nets}`);
+  if (row.net_count !== undefined && Number(row.net_count) !== nets)
+    throw new HistogramBlobError(`stored histogram net_count ${row.net_count} differs from the sum of its counts ${nets}`);
   return { lengthsM, counts };
 }
 

@@ -1,5 +1,8 @@
 import "server-only";
+import { cache } from "react";
 import { db, ready } from "@/db/client";
+import { getMembershipRole as membershipRole } from "@/db/queries/access";
+import { listTeamsOfUser, type TeamWithRole } from "@/db/queries/teams";
 import { validateRequest, type AuthUser } from "@/lib/auth";
 import { forbidden, notFound, unauthorized } from "@/lib/api";
 
@@ -18,11 +21,21 @@ export async function requireApiUser(): Promise<AuthUser> {
   return user;
 }
 
+/** The user's role in the team, or undefined when they are not a member (or there is no such team). */
 export async function getMembershipRole(teamId: string, userId: string): Promise<Role | undefined> {
   await ready();
-  const row = await db("memberships").where({ team_id: teamId, user_id: userId }).first("role");
-  return row?.role as Role | undefined;
+  return membershipRole(db, teamId, userId);
 }
+
+/**
+ * The user's teams with their role, read once per page render (React `cache`): the shell's team switcher,
+ * the membership gate of /teams/[teamId] pages (getTeamContext) and the outbox scope all answer from this
+ * one query. Outside a render (route handlers) `cache` does not memoise, so API checks use getMembershipRole.
+ */
+export const teamsOfUser = cache(async (userId: string): Promise<TeamWithRole[]> => {
+  await ready();
+  return listTeamsOfUser(db, userId);
+});
 
 export interface TeamAccess {
   user: AuthUser;
@@ -48,32 +61,33 @@ export async function requireTeamRole(teamId: string, min: Role, what = "Team"):
  * (undefined when the row does not exist), then apply requireTeamRole. Missing rows and
  * other teams' rows both answer 404 with the same message.
  */
-export async function requireResourceRole(
-  teamIdOf: () => Promise<string | undefined>,
-  min: Role,
-  what: string,
-): Promise<TeamAccess> {
-  const user = await requireApiUser();
-  const teamId = await teamIdOf();
-  if (!teamId) throw notFound(what);
-  const role = await getMembershipRole(teamId, user.id);
-  if (!role) throw notFound(what);
-  if (!roleAtLeast(role, min)) throw forbidden();
-  return { user, teamId, role };
+export async function requireResourceRole(teamIdOf: () => Promise<string | undefined>, min: Role, what: string): Promise<TeamAccess> {
+  const { resource: _teamOnly, ...access } = await requireResource(
+    async () => {
+      const teamId = await teamIdOf();
+      return teamId ? { teamId } : undefined;
+    },
+    min,
+    what,
+  );
+  return access;
 }
 
-/** Append to the audit log (inside the caller's transaction when one is passed). */
-export async function audit(
-  entry: { teamId: string | null; userId: string | null; action: string; entityType?: string; entityId?: string; detail?: unknown },
-  trx = db,
-): Promise<void> {
-  await trx("audit_log").insert({
-    team_id: entry.teamId,
-    user_id: entry.userId,
-    action: entry.action,
-    entity_type: entry.entityType ?? null,
-    entity_id: entry.entityId ?? null,
-    detail: entry.detail === undefined ? null : JSON.stringify(entry.detail),
-    at: Date.now(),
-  });
+/**
+ * requireResourceRole for a handler that needs the row itself: `load` reads it (undefined when it does not
+ * exist) and the check uses its `teamId`, so the row is read once. Same answers: 401, then 404 for a missing
+ * row or another team's, then 403.
+ */
+export async function requireResource<T extends { teamId: string }>(
+  load: () => Promise<T | undefined>,
+  min: Role,
+  what: string,
+): Promise<TeamAccess & { resource: T }> {
+  const user = await requireApiUser();
+  const resource = await load();
+  if (!resource) throw notFound(what);
+  const role = await getMembershipRole(resource.teamId, user.id);
+  if (!role) throw notFound(what);
+  if (!roleAtLeast(role, min)) throw forbidden();
+  return { user, teamId: resource.teamId, role, resource };
 }

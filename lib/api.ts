@@ -1,5 +1,8 @@
 import "server-only";
-import { z } from "zod";
+import { type z } from "zod";
+import { ConflictError, InvalidInputError, NotFoundError, StaleVersionError } from "@/db/errors";
+import { InvalidCsvError, UploadInterruptedError } from "@/lib/import/errors";
+import { ImportFatalError, type ImportIssue } from "@/lib/import/types";
 
 /** Error body of every API answer: `{ error: { code, message, fields? } }`. */
 export type ApiErrorBody = { error: { code: string; message: string; fields?: Record<string, string[]> } };
@@ -40,6 +43,55 @@ export function parseOrThrow<T extends z.ZodType>(schema: T, value: unknown, mes
   const r = schema.safeParse(value);
   if (!r.success) throw badRequest(message, zodFields(r.error));
   return r.data;
+}
+
+/** 409 body of a versioned write that lost the race: `{ error: { code: "stale_version", message, currentVersion } }`. */
+function staleResponse(e: StaleVersionError): Response {
+  return Response.json(
+    {
+      error: {
+        code: "stale_version",
+        message: `${e.what} was saved by someone else since you loaded it (now version ${e.currentVersion}, yours ${e.yourVersion}). Reload theirs or save yours as a copy.`,
+        currentVersion: e.currentVersion,
+      },
+    },
+    { status: 409 },
+  );
+}
+
+/** 400 (or the fatal error's status) listing the problems of a CSV: `{ error: { code, message, errors, errorCount, rows? } }`. */
+function invalidCsvResponse(p: { errors: ImportIssue[]; errorCount: number; rows?: number; status: number; code: string; message: string }): Response {
+  return Response.json(
+    {
+      error: {
+        code: p.code,
+        message: p.message,
+        errors: p.errors,
+        errorCount: p.errorCount,
+        ...(p.rows !== undefined ? { rows: p.rows } : {}),
+      },
+    },
+    { status: p.status },
+  );
+}
+
+/**
+ * THE mapping of errors to answers: ApiError as it says; the domain errors of db/errors.ts (writes and
+ * queries) and the CSV import's errors to their status and code. Undefined for anything else (a 500).
+ */
+export function knownErrorResponse(e: unknown): Response | undefined {
+  if (e instanceof ApiError) return errorResponse(e);
+  if (e instanceof StaleVersionError) return staleResponse(e);
+  if (e instanceof NotFoundError) return errorResponse(new ApiError(404, "not_found", e.message, e.field ? { [e.field]: [e.message] } : undefined));
+  if (e instanceof ConflictError) return errorResponse(conflict(e.message, e.fields));
+  if (e instanceof InvalidInputError) return errorResponse(badRequest(e.message, e.fields));
+  if (e instanceof InvalidCsvError) return invalidCsvResponse(e);
+  if (e instanceof ImportFatalError) {
+    const csv = new InvalidCsvError([e.issue], 1, undefined, e.status, e.code);
+    return invalidCsvResponse(csv);
+  }
+  if (e instanceof UploadInterruptedError) return errorResponse(new ApiError(400, "upload_incomplete", e.message));
+  return undefined;
 }
 
 const STATE_CHANGING = new Set(["POST", "PUT", "PATCH", "DELETE"]);
@@ -107,8 +159,8 @@ async function readTextLimited(req: Request, maxBytes: number): Promise<string> 
 type Ctx<P> = { params: Promise<P> };
 
 /**
- * Wrap a route handler: origin check, then the handler; ApiError → its status and body,
- * anything else → 500 with a generic message (the cause is logged, never returned).
+ * Wrap a route handler: origin check, then the handler; ApiError and the domain errors → their status
+ * and body (knownErrorResponse), anything else → 500 with a generic message (the cause is logged, never returned).
  */
 export function apiRoute<P = Record<string, string>>(fn: (req: Request, params: P) => Promise<Response>) {
   return async (req: Request, ctx: Ctx<P>): Promise<Response> => {
@@ -117,7 +169,8 @@ export function apiRoute<P = Record<string, string>>(fn: (req: Request, params: 
       const params = ctx?.params ? await ctx.params : ({} as P);
       return await fn(req, params);
     } catch (e) {
-      if (e instanceof ApiError) return errorResponse(e);
+      const known = knownErrorResponse(e);
+      if (known) return known;
       console.error(`[api] ${req.method} ${new URL(req.url).pathname} failed`, e);
       return errorResponse(new ApiError(500, "internal", "Something went wrong on our side. The error was logged."));
     }

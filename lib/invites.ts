@@ -1,6 +1,8 @@
 import "server-only";
 import { createHash, randomBytes } from "node:crypto";
-import type { Invite } from "@/db/queries/invites";
+import { inviteStatus, type Invite } from "@/db/queries/invites";
+
+export { inviteStatus, type InviteStatus } from "@/db/queries/invites";
 
 export const INVITE_TTL_MS = 7 * 24 * 60 * 60 * 1000;
 
@@ -14,30 +16,20 @@ export function hashInviteToken(token: string): string {
   return createHash("sha256").update(token, "utf8").digest("hex");
 }
 
-export type InviteStatus = "pending" | "accepted" | "revoked" | "expired";
-
-export function inviteStatus(i: Pick<Invite, "acceptedAt" | "revokedAt" | "expiresAt">, now = Date.now()): InviteStatus {
-  if (i.acceptedAt !== null) return "accepted";
-  if (i.revokedAt !== null) return "revoked";
-  if (i.expiresAt <= now) return "expired";
-  return "pending";
-}
+/** An invite as the API and the team settings page show it (never its token). */
+export type PublicInvite = ReturnType<typeof publicInvite>;
 
 export function publicInvite(i: Invite, now = Date.now()) {
-  return { id: i.id, email: i.email, role: i.role, createdAt: i.createdAt, expiresAt: i.expiresAt, acceptedAt: i.acceptedAt, revokedAt: i.revokedAt, status: inviteStatus(i, now) };
-}
-
-/**
- * Base URL for links in e-mail: PLATEAU_PUBLIC_URL when set, else the origin the request came in on
- * (the Host header, as the browser saw it).
- */
-export function publicBaseUrl(req: Request): string {
-  const env = process.env.PLATEAU_PUBLIC_URL?.trim();
-  if (env) return env.replace(/\/+$/, "");
-  const url = new URL(req.url);
-  const host = req.headers.get("x-forwarded-host") ?? req.headers.get("host") ?? url.host;
-  const proto = req.headers.get("x-forwarded-proto") ?? url.protocol.replace(":", "");
-  return `${proto}://${host}`;
+  return {
+    id: i.id,
+    email: i.email,
+    role: i.role,
+    createdAt: i.createdAt,
+    expiresAt: i.expiresAt,
+    acceptedAt: i.acceptedAt,
+    revokedAt: i.revokedAt,
+    status: inviteStatus(i, now),
+  };
 }
 
 const ROLE_WORDS = { owner: "an owner", editor: "an editor", viewer: "a viewer" } as const;

@@ -1,9 +1,7 @@
 import "server-only";
 import { notFound, redirect } from "next/navigation";
 import { cache } from "react";
-import { db } from "@/db/client";
-import { getTeam } from "@/db/queries/teams";
-import { getMembershipRole, type Role } from "@/lib/access";
+import { teamsOfUser, type Role } from "@/lib/access";
 import { validateRequest, type AuthUser } from "@/lib/auth";
 
 export interface TeamContext {
@@ -21,13 +19,12 @@ export async function requirePageUser(next?: string): Promise<AuthUser> {
 
 /**
  * For pages under /teams/[teamId]: signed out → /sign-in; not a member or no such team → notFound()
- * (same answer either way, like the API's 404). Cached per request, so layout and page share one lookup.
+ * (same answer either way, like the API's 404). Cached per request, so layout and page share one lookup;
+ * the team and role come from the request's one teams-of-user read, which the app shell makes anyway.
  */
 export const getTeamContext = cache(async (teamId: string): Promise<TeamContext> => {
   const user = await requirePageUser(`/teams/${encodeURIComponent(teamId)}`);
-  const role = await getMembershipRole(teamId, user.id);
-  if (!role) notFound();
-  const team = await getTeam(db, teamId);
+  const team = (await teamsOfUser(user.id)).find((t) => t.id === teamId);
   if (!team) notFound();
-  return { user, team: { id: team.id, name: team.name, isDemo: team.isDemo }, role };
+  return { user, team: { id: team.id, name: team.name, isDemo: team.isDemo }, role: team.role };
 });

@@ -1,6 +1,6 @@
 import "server-only";
 import type { Knex } from "knex";
-import { deleteThrottleRows, getThrottleRows, pruneThrottle, putThrottleRow } from "@/db/queries/throttle";
+import { deleteThrottleRows, getThrottleRows, updateThrottleRows, type ThrottleRow } from "@/db/queries/throttle";
 
 /**
  * Sign-in throttling. Two keys per attempt: the account (the normalised e-mail, whether or not it
@@ -22,7 +22,10 @@ export function throttleKeys(email: string, clientAddress: string): ThrottleKey[
 
 /** When the attempt is locked out: the time (ms) the lock ends; otherwise null. */
 export async function lockedUntil(q: Knex, keys: ThrottleKey[], now = Date.now()): Promise<number | null> {
-  const rows = await getThrottleRows(q, keys.map((k) => k.key));
+  const rows = await getThrottleRows(
+    q,
+    keys.map((k) => k.key),
+  );
   let until: number | null = null;
   for (const r of rows) if (r.lockedUntil !== null && r.lockedUntil > now) until = Math.max(until ?? 0, r.lockedUntil);
   return until;
@@ -30,30 +33,38 @@ export async function lockedUntil(q: Knex, keys: ThrottleKey[], now = Date.now()
 
 /** Count a failure on every key; returns the lock end if this failure started a lock. */
 export async function recordFailure(q: Knex, keys: ThrottleKey[], now = Date.now()): Promise<number | null> {
-  return q.transaction(async (trx) => {
-    const rows = new Map((await getThrottleRows(trx, keys.map((k) => k.key))).map((r) => [r.key, r]));
-    let locked: number | null = null;
-    for (const k of keys) {
-      const prev = rows.get(k.key);
-      const fresh = !prev || now - prev.windowStart >= WINDOW_MS;
-      const failures = fresh ? 1 : prev.failures + 1;
-      const windowStart = fresh ? now : prev.windowStart;
-      let lockEnd = prev?.lockedUntil && prev.lockedUntil > now ? prev.lockedUntil : null;
-      if (failures >= LIMITS[k.kind] && lockEnd === null) {
-        lockEnd = now + LOCK_MS;
-        locked = Math.max(locked ?? 0, lockEnd);
+  const pruneBefore = Math.random() < 0.02 ? now - Math.max(WINDOW_MS, LOCK_MS) : undefined;
+  return updateThrottleRows(
+    q,
+    keys.map((k) => k.key),
+    (stored) => {
+      const rows: ThrottleRow[] = [];
+      let locked: number | null = null;
+      for (const k of keys) {
+        const prev = stored.get(k.key);
+        const fresh = !prev || now - prev.windowStart >= WINDOW_MS;
+        const failures = fresh ? 1 : prev.failures + 1;
+        const windowStart = fresh ? now : prev.windowStart;
+        let lockEnd = prev?.lockedUntil && prev.lockedUntil > now ? prev.lockedUntil : null;
+        if (failures >= LIMITS[k.kind] && lockEnd === null) {
+          lockEnd = now + LOCK_MS;
+          locked = Math.max(locked ?? 0, lockEnd);
+        }
+        // After a lock the count starts again, so the next lock needs a full set of new failures.
+        rows.push({ key: k.key, failures: lockEnd ? 0 : failures, windowStart: lockEnd ? now : windowStart, lockedUntil: lockEnd });
       }
-      // After a lock the count starts again, so the next lock needs a full set of new failures.
-      await putThrottleRow(trx, { key: k.key, failures: lockEnd ? 0 : failures, windowStart: lockEnd ? now : windowStart, lockedUntil: lockEnd });
-    }
-    if (Math.random() < 0.02) await pruneThrottle(trx, now - Math.max(WINDOW_MS, LOCK_MS));
-    return locked;
-  });
+      return { rows, result: locked };
+    },
+    pruneBefore,
+  );
 }
 
 /** A successful sign-in clears the account's count (the client's count stays). */
 export async function recordSuccess(q: Knex, keys: ThrottleKey[]): Promise<void> {
-  await deleteThrottleRows(q, keys.filter((k) => k.kind === "account").map((k) => k.key));
+  await deleteThrottleRows(
+    q,
+    keys.filter((k) => k.kind === "account").map((k) => k.key),
+  );
 }
 
 /** Client address for throttling: the first hop of x-forwarded-for, else x-real-ip, else null. */

@@ -72,9 +72,7 @@ export async function benchField(): Promise<{ ms: number; relErr: number; cells:
     const caseMs = median(runs.map((r) => r.elapsedMs));
     const fine20 = fieldSolve({ ...c.input, resolution: 20 });
     const fine = fieldSolve({ ...c.input, resolution: REFERENCE_RESOLUTION });
-    const extrapolated = Object.fromEntries(
-      QUANTITIES.map((q) => [q, fine[q] + (fine[q] - fine20[q]) / 3]),
-    ) as Record<(typeof QUANTITIES)[number], number>;
+    const extrapolated = Object.fromEntries(QUANTITIES.map((q) => [q, fine[q] + (fine[q] - fine20[q]) / 3])) as Record<(typeof QUANTITIES)[number], number>;
     const err = maxRelErr(result, fine);
     const errExtrapolated = maxRelErr(result, extrapolated);
     ms = Math.max(ms, caseMs);

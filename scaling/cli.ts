@@ -3,17 +3,38 @@
  *   npm run scaling -- <command> [options]      or      npx tsx scaling/cli.ts <command> [options]
  * Commands: capacitance, delay, evaluate, sweep, materials. `--json` prints only JSON on standard output.
  * Values take SI-prefixed units ("20nm", "1.5fF", "2kohm") or bare SI numbers. Bad arguments exit with code 2
- * and one line naming the argument and the expected unit. No network access.
+ * and one line naming the argument and the expected unit. CSV files are read with the app's one reader (lib/import)
+ * and the formats' rules (lib/scaling/formats.ts), so a file the upload rejects is rejected here with the same message.
+ * Without --technology the engine's DEFAULT_TECHNOLOGY is used. No network access.
  */
 import { readFileSync } from "node:fs";
 import { pathToFileURL } from "node:url";
 import { parseArgs } from "node:util";
 import {
-  baselineSettings, defaultTechnology, evaluateScenario, formatEngineering, lineCapacitance, lineDelay, MODEL_LEVELS, parseQuantity, sweep,
-  type BaseUnit, type CapacitanceModel, type ClassResult, type ModelLevel, type ScenarioSettings, type SweepMetric, type SweepVariable, type Technology,
+  baselineSettings,
+  DEFAULT_TECHNOLOGY,
+  DIELECTRICS,
+  evaluateScenario,
+  formatEngineering,
+  lineCapacitance,
+  lineDelay,
+  METALS,
+  MODEL_LEVELS,
+  parseQuantity,
+  sweep,
+  type BaseUnit,
+  type CapacitanceModel,
+  type ClassResult,
+  type ModelLevel,
+  type ScenarioSettings,
+  type SweepMetric,
+  type SweepVariable,
+  type Technology,
+  type WireClass,
 } from "../lib/scaling/index";
-import { parseHistogramCsv, parseWireClassCsv } from "./csv";
-import { DIELECTRICS, METALS } from "./materials";
+import { parseHistogramBins } from "../lib/import/histograms";
+import { ImportFatalError, type ImportIssue } from "../lib/import/types";
+import { parseWireClassCsv } from "../lib/import/wire-classes";
 
 export interface CliResult {
   code: number;
@@ -84,7 +105,12 @@ function parse(argv: string[], options: Record<string, { type: "string" | "boole
     } else args.push(a);
   }
   try {
-    const { values, positionals } = parseArgs({ args, options: { ...options, json: { type: "boolean" }, help: { type: "boolean" } }, strict: true, allowPositionals: true });
+    const { values, positionals } = parseArgs({
+      args,
+      options: { ...options, json: { type: "boolean" }, help: { type: "boolean" } },
+      strict: true,
+      allowPositionals: true,
+    });
     if (positionals.length > 0) throw new UsageError(`unexpected argument "${positionals[0]}"`);
     return values as Record<string, string | boolean | undefined>;
   } catch (e) {
@@ -94,11 +120,47 @@ function parse(argv: string[], options: Record<string, { type: "string" | "boole
   }
 }
 
-function readText(path: string, arg: string): string {
+function readBytes(path: string, arg: string): Uint8Array {
   try {
-    return readFileSync(path, "utf8");
+    return readFileSync(path);
   } catch {
     throw new UsageError(`--${arg}: cannot read file "${path}"`);
+  }
+}
+
+/** One problem of a CSV file as one line: where (line, column, value) and why. */
+function issueText(arg: string, path: string, e: ImportIssue, total = 1): string {
+  const where = [e.line !== null ? `line ${e.line}` : "", e.column ? `column ${e.column}` : "", e.column && e.value ? `value ${JSON.stringify(e.value)}` : ""]
+    .filter(Boolean)
+    .join(", ");
+  return `--${arg}: ${path}${where ? ` ${where}` : ""}: ${e.message}${total > 1 ? ` (and ${total - 1} more error${total > 2 ? "s" : ""})` : ""}`;
+}
+
+/**
+ * Reads a CSV file with the app's reader and rules (lib/import: the same classes and errors as an upload); the
+ * first problem becomes a usage error naming line, column, value and reason.
+ */
+function readCsvFile<R extends { ok: boolean; errors: ImportIssue[]; errorCount: number }>(arg: string, path: string, parse: (bytes: Uint8Array) => R): R {
+  const bytes = readBytes(path, arg);
+  let r: R;
+  try {
+    r = parse(bytes);
+  } catch (e) {
+    if (e instanceof ImportFatalError) throw new UsageError(issueText(arg, path, e.issue));
+    throw e;
+  }
+  if (!r.ok) throw new UsageError(issueText(arg, path, r.errors[0]!, r.errorCount));
+  return r;
+}
+
+/** The CLI's technology: DEFAULT_TECHNOLOGY, with the fields of the --technology JSON file over it. */
+export function cliTechnology(technologyPath?: string): Technology {
+  if (technologyPath === undefined) return { ...DEFAULT_TECHNOLOGY };
+  const text = new TextDecoder().decode(readBytes(technologyPath, "technology"));
+  try {
+    return { ...DEFAULT_TECHNOLOGY, ...(JSON.parse(text) as Partial<Technology>) };
+  } catch {
+    throw new UsageError(`--technology: ${technologyPath} is not valid JSON`);
   }
 }
 
@@ -106,8 +168,14 @@ const json = (x: unknown) => JSON.stringify(x, null, 2) + "\n";
 
 function capacitanceCmd(argv: string[]): CliResult {
   const v = parse(argv, {
-    width: { type: "string" }, thickness: { type: "string" }, height: { type: "string" }, "height-above": { type: "string" },
-    spacing: { type: "string" }, k: { type: "string" }, miller: { type: "string" }, model: { type: "string" },
+    width: { type: "string" },
+    thickness: { type: "string" },
+    height: { type: "string" },
+    "height-above": { type: "string" },
+    spacing: { type: "string" },
+    k: { type: "string" },
+    miller: { type: "string" },
+    model: { type: "string" },
   });
   if (v.help) return ok(HELP);
   const widthM = need(v, "width", "m", LEN);
@@ -117,13 +185,27 @@ function capacitanceCmd(argv: string[]): CliResult {
   const spacing = q(v, "spacing", "m", LEN);
   const k = q(v, "k", "", NUMS("a relative permittivity >= 1")) ?? 3.9;
   const miller = q(v, "miller", "", NUMS("a Miller factor from 0 to 2")) ?? 1;
-  for (const [n, x] of [["width", widthM], ["thickness", thicknessM], ["height", heightM], ["height-above", above], ["spacing", spacing]] as const) positiveOrThrow(n, x, "a length in metres");
+  for (const [n, x] of [
+    ["width", widthM],
+    ["thickness", thicknessM],
+    ["height", heightM],
+    ["height-above", above],
+    ["spacing", spacing],
+  ] as const)
+    positiveOrThrow(n, x, "a length in metres");
   if (!(k >= 1)) throw new UsageError(`--k: expected a relative permittivity >= 1, got ${k}`);
   if (!(miller >= 0 && miller <= 2)) throw new UsageError(`--miller: expected a Miller factor from 0 to 2, got ${miller}`);
   const model = (v.model as string | undefined) ?? (spacing !== undefined ? "coupled" : "fringe");
   if (!["ideal", "fringe", "coupled", "field"].includes(model)) throw new UsageError(`--model: expected ideal, fringe, coupled or field, got "${model}"`);
   const r = lineCapacitance({
-    widthM, thicknessM, spacingM: spacing ?? null, heightBelowM: heightM, heightAboveM: above ?? null, k, miller, model: model as CapacitanceModel,
+    widthM,
+    thicknessM,
+    spacingM: spacing ?? null,
+    heightBelowM: heightM,
+    heightAboveM: above ?? null,
+    k,
+    miller,
+    model: model as CapacitanceModel,
   });
   const out = {
     model: r.model,
@@ -152,7 +234,12 @@ function capacitanceCmd(argv: string[]): CliResult {
 }
 
 function delayCmd(argv: string[]): CliResult {
-  const v = parse(argv, { "r-total": { type: "string" }, "c-total": { type: "string" }, driver: { type: "string" }, load: { type: "string" } });
+  const v = parse(argv, {
+    "r-total": { type: "string" },
+    "c-total": { type: "string" },
+    driver: { type: "string" },
+    load: { type: "string" },
+  });
   if (v.help) return ok(HELP);
   const rOhm = need(v, "r-total", "ohm", RES);
   const cF = need(v, "c-total", "F", CAP);
@@ -169,42 +256,37 @@ function delayCmd(argv: string[]): CliResult {
   );
 }
 
-function loadBaseline(v: Record<string, unknown>) {
+function loadBaseline(v: Record<string, unknown>): { classes: WireClass[]; technology: Technology } {
   const path = v.baseline;
-  if (typeof path !== "string") throw new UsageError("--baseline is required: a wire-class CSV file (see PRODUCT.md)");
-  const parsed = parseWireClassCsv(readText(path, "baseline"));
-  if (parsed.errors.length > 0) {
-    const e = parsed.errors[0]!;
-    throw new UsageError(`--baseline: ${path} line ${e.line}${e.column ? `, column ${e.column}` : ""}: ${e.message}${parsed.errors.length > 1 ? ` (and ${parsed.errors.length - 1} more errors)` : ""}`);
-  }
-  const classes = parsed.classes;
-  if (typeof v.histograms === "string") {
-    const h = parseHistogramCsv(readText(v.histograms, "histograms"));
-    if (h.errors.length > 0) {
-      const e = h.errors[0]!;
-      throw new UsageError(`--histograms: ${v.histograms} line ${e.line}${e.column ? `, column ${e.column}` : ""}: ${e.message}`);
-    }
-    for (const name of Object.keys(h.bins)) {
-      if (!classes.some((c) => c.name === name)) throw new UsageError(`--histograms: class "${name}" is not in the baseline`);
-    }
+  if (typeof path !== "string") throw new UsageError("--baseline is required: a wire-class CSV file (format: /help/csv in the app)");
+  const classes: WireClass[] = readCsvFile("baseline", path, (bytes) => parseWireClassCsv(bytes)).classes;
+  const histograms = v.histograms;
+  if (typeof histograms === "string") {
+    const h = readCsvFile("histograms", histograms, (bytes) =>
+      parseHistogramBins(
+        bytes,
+        classes.map((c) => c.name),
+      ),
+    );
     for (const c of classes) if (h.bins[c.name]) c.histogram = h.bins[c.name];
   }
-  let technology: Technology = defaultTechnology();
-  if (typeof v.technology === "string") {
-    try {
-      technology = { ...technology, ...(JSON.parse(readText(v.technology, "technology")) as Partial<Technology>) };
-    } catch (e) {
-      if (e instanceof UsageError) throw e;
-      throw new UsageError(`--technology: ${v.technology} is not valid JSON`);
-    }
-  }
-  return { classes, technology };
+  return { classes, technology: cliTechnology(typeof v.technology === "string" ? v.technology : undefined) };
 }
 
 const SCENARIO_OPTIONS = {
-  baseline: { type: "string" }, histograms: { type: "string" }, technology: { type: "string" }, s: { type: "string" }, sl: { type: "string" },
-  model: { type: "string" }, miller: { type: "string" }, k: { type: "string" }, metal: { type: "string" }, barrier: { type: "string" },
-  supply: { type: "string" }, "device-r": { type: "string" }, "device-c": { type: "string" },
+  baseline: { type: "string" },
+  histograms: { type: "string" },
+  technology: { type: "string" },
+  s: { type: "string" },
+  sl: { type: "string" },
+  model: { type: "string" },
+  miller: { type: "string" },
+  k: { type: "string" },
+  metal: { type: "string" },
+  barrier: { type: "string" },
+  supply: { type: "string" },
+  "device-r": { type: "string" },
+  "device-c": { type: "string" },
 } as const;
 
 function settingsFrom(v: Record<string, unknown>, technology: Technology, requireS: boolean): ScenarioSettings {
@@ -212,9 +294,15 @@ function settingsFrom(v: Record<string, unknown>, technology: Technology, requir
   if (!(MODEL_LEVELS as readonly string[]).includes(model)) throw new UsageError(`--model: expected ideal, fringe, coupled or full, got "${model}"`);
   const st = baselineSettings(model as ModelLevel, technology);
   const s = requireS ? need(v, "s", "", NUMS("a cross-section factor S > 0")) : q(v, "s", "", NUMS("a cross-section factor S > 0"));
-  if (s !== undefined) { positiveOrThrow("s", s, "a cross-section factor S"); st.s = s; }
+  if (s !== undefined) {
+    positiveOrThrow("s", s, "a cross-section factor S");
+    st.s = s;
+  }
   const sl = q(v, "sl", "", NUMS("a length factor S_L > 0"));
-  if (sl !== undefined) { positiveOrThrow("sl", sl, "a length factor S_L"); st.sL = sl; }
+  if (sl !== undefined) {
+    positiveOrThrow("sl", sl, "a length factor S_L");
+    st.sL = sl;
+  }
   const miller = q(v, "miller", "", NUMS("a Miller factor from 0 to 2"));
   if (miller !== undefined) {
     if (!(miller >= 0 && miller <= 2)) throw new UsageError(`--miller: expected a Miller factor from 0 to 2, got ${miller}`);
@@ -226,7 +314,8 @@ function settingsFrom(v: Record<string, unknown>, technology: Technology, requir
     st.k = k;
   }
   if (typeof v.metal === "string") {
-    if (!Object.keys(METALS).some((m) => m.toLowerCase() === (v.metal as string).toLowerCase())) throw new UsageError(`--metal: expected one of ${Object.keys(METALS).join(", ")}, got "${v.metal}"`);
+    if (!Object.keys(METALS).some((m) => m.toLowerCase() === (v.metal as string).toLowerCase()))
+      throw new UsageError(`--metal: expected one of ${Object.keys(METALS).join(", ")}, got "${v.metal}"`);
     st.metal = v.metal;
   }
   if (v.barrier !== undefined) {
@@ -234,23 +323,60 @@ function settingsFrom(v: Record<string, unknown>, technology: Technology, requir
     st.barrierScales = v.barrier === "scales";
   }
   const supply = q(v, "supply", "V", "a supply voltage in volts, e.g. 0.75V");
-  if (supply !== undefined) { positiveOrThrow("supply", supply, "a supply voltage in volts"); st.supplyV = supply; }
+  if (supply !== undefined) {
+    positiveOrThrow("supply", supply, "a supply voltage in volts");
+    st.supplyV = supply;
+  }
   const dr = q(v, "device-r", "", NUMS("a driver resistance factor > 0"));
-  if (dr !== undefined) { positiveOrThrow("device-r", dr, "a driver resistance factor"); st.deviceRFactor = dr; }
+  if (dr !== undefined) {
+    positiveOrThrow("device-r", dr, "a driver resistance factor");
+    st.deviceRFactor = dr;
+  }
   const dc = q(v, "device-c", "", NUMS("a device capacitance factor > 0"));
-  if (dc !== undefined) { positiveOrThrow("device-c", dc, "a device capacitance factor"); st.deviceCFactor = dc; }
+  if (dc !== undefined) {
+    positiveOrThrow("device-c", dc, "a device capacitance factor");
+    st.deviceCFactor = dc;
+  }
   return st;
 }
 
 function summary(r: ClassResult) {
   return {
-    lengthM: r.lengthM, widthM: r.widthM, thicknessM: r.thicknessM, spacingM: r.spacingM, barrierM: r.barrierM, metal: r.metal, k: r.k,
-    resistivityOhmM: r.resistivityOhmM, rOhmPerM: r.rOhmPerM, cFPerM: r.cFPerM,
-    capacitance: { areaFPerM: r.capacitance.areaFPerM, fringeFPerM: r.capacitance.fringeFPerM, couplingFPerM: r.capacitance.couplingFPerM, model: r.capacitance.model },
-    rOhm: r.rOhm, cF: r.cF, rcS: r.rcS, delayS: r.delayS, elmoreS: r.elmoreS, intrinsicDelayS: r.intrinsicDelayS,
-    repeaters: r.repeaters.count, repeaterSize: r.repeaters.size, repeatedDelayS: r.repeaters.delayS, criticalLengthM: r.repeaters.criticalLengthM,
-    energyJ: r.energyJ, powerW: r.powerW,
-    distribution: { source: r.distribution.source, totalNets: r.distribution.totalNets, shareOverBudget: r.distribution.shareOverBudget, totalRepeaters: r.distribution.totalRepeaters, meanDelayS: r.distribution.meanDelayS },
+    lengthM: r.lengthM,
+    widthM: r.widthM,
+    thicknessM: r.thicknessM,
+    spacingM: r.spacingM,
+    barrierM: r.barrierM,
+    metal: r.metal,
+    k: r.k,
+    resistivityOhmM: r.resistivityOhmM,
+    rOhmPerM: r.rOhmPerM,
+    cFPerM: r.cFPerM,
+    capacitance: {
+      areaFPerM: r.capacitance.areaFPerM,
+      fringeFPerM: r.capacitance.fringeFPerM,
+      couplingFPerM: r.capacitance.couplingFPerM,
+      model: r.capacitance.model,
+    },
+    rOhm: r.rOhm,
+    cF: r.cF,
+    rcS: r.rcS,
+    delayS: r.delayS,
+    elmoreS: r.elmoreS,
+    intrinsicDelayS: r.intrinsicDelayS,
+    repeaters: r.repeaters.count,
+    repeaterSize: r.repeaters.size,
+    repeatedDelayS: r.repeaters.delayS,
+    criticalLengthM: r.repeaters.criticalLengthM,
+    energyJ: r.energyJ,
+    powerW: r.powerW,
+    distribution: {
+      source: r.distribution.source,
+      totalNets: r.distribution.totalNets,
+      shareOverBudget: r.distribution.shareOverBudget,
+      totalRepeaters: r.distribution.totalRepeaters,
+      meanDelayS: r.distribution.meanDelayS,
+    },
     validity: r.validity,
   };
 }
@@ -272,9 +398,18 @@ function evaluateCmd(argv: string[]): CliResult {
   const lines = [`Scenario S = ${settings.s}, S_L = ${settings.sL}, level ${settings.level} (engine ${ev.engineVersion}); scenario/baseline`];
   const head = ["class", "length", "R", "C", "RC", "delay", "stages", "energy", "×R", "×C", "×RC", "×delay"];
   const rows = ev.classes.map((c) => [
-    c.name, formatEngineering(c.scenario.lengthM, "m", 3), formatEngineering(c.scenario.rOhm, "Ω", 3), formatEngineering(c.scenario.cF, "F", 3),
-    formatEngineering(c.scenario.rcS, "s", 3), formatEngineering(c.scenario.delayS, "s", 3), String(c.scenario.repeaters.count),
-    formatEngineering(c.scenario.energyJ, "J", 3), c.ratio.rOhm.toFixed(3), c.ratio.cF.toFixed(3), c.ratio.rcS.toFixed(3), c.ratio.delayS.toFixed(3),
+    c.name,
+    formatEngineering(c.scenario.lengthM, "m", 3),
+    formatEngineering(c.scenario.rOhm, "Ω", 3),
+    formatEngineering(c.scenario.cF, "F", 3),
+    formatEngineering(c.scenario.rcS, "s", 3),
+    formatEngineering(c.scenario.delayS, "s", 3),
+    String(c.scenario.repeaters.count),
+    formatEngineering(c.scenario.energyJ, "J", 3),
+    c.ratio.rOhm.toFixed(3),
+    c.ratio.cF.toFixed(3),
+    c.ratio.rcS.toFixed(3),
+    c.ratio.delayS.toFixed(3),
   ]);
   const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i]!.length)));
   lines.push(head.map((h, i) => (i === 0 ? h.padEnd(widths[i]!) : h.padStart(widths[i]!))).join("  "));
@@ -285,8 +420,17 @@ function evaluateCmd(argv: string[]): CliResult {
 
 function sweepCmd(argv: string[]): CliResult {
   const v = parse(argv, {
-    ...SCENARIO_OPTIONS, "s-from": { type: "string" }, "s-to": { type: "string" }, from: { type: "string" }, to: { type: "string" },
-    points: { type: "string" }, metric: { type: "string" }, variable: { type: "string" }, levels: { type: "string" }, class: { type: "string" }, log: { type: "boolean" },
+    ...SCENARIO_OPTIONS,
+    "s-from": { type: "string" },
+    "s-to": { type: "string" },
+    from: { type: "string" },
+    to: { type: "string" },
+    points: { type: "string" },
+    metric: { type: "string" },
+    variable: { type: "string" },
+    levels: { type: "string" },
+    class: { type: "string" },
+    log: { type: "boolean" },
   });
   if (v.help) return ok(HELP);
   const { classes, technology } = loadBaseline(v);
@@ -300,16 +444,27 @@ function sweepCmd(argv: string[]): CliResult {
   positiveOrThrow(fromName, from, `the first value of ${variable}`);
   positiveOrThrow(toName, to, `the last value of ${variable}`);
   const points = need(v, "points", "", NUMS("a whole number of points from 2 to 10000"));
-  if (!(Number.isInteger(points) && points >= 2 && points <= 10000)) throw new UsageError(`--points: expected a whole number of points from 2 to 10000, got ${points}`);
+  if (!(Number.isInteger(points) && points >= 2 && points <= 10000))
+    throw new UsageError(`--points: expected a whole number of points from 2 to 10000, got ${points}`);
   const metric = (v.metric as string | undefined) ?? "delay";
   if (!["delay", "rc", "r", "c"].includes(metric)) throw new UsageError(`--metric: expected delay, rc, r or c, got "${metric}"`);
   const levels = typeof v.levels === "string" ? v.levels.split(",").map((x) => x.trim()) : [...MODEL_LEVELS];
-  for (const l of levels) if (!(MODEL_LEVELS as readonly string[]).includes(l)) throw new UsageError(`--levels: expected a comma list of ideal, fringe, coupled, full, got "${l}"`);
+  for (const l of levels)
+    if (!(MODEL_LEVELS as readonly string[]).includes(l)) throw new UsageError(`--levels: expected a comma list of ideal, fringe, coupled, full, got "${l}"`);
   const classNames = typeof v.class === "string" ? [v.class] : undefined;
   if (classNames && !classes.some((c) => c.name === classNames[0])) throw new UsageError(`--class: no class "${classNames[0]}" in the baseline`);
   const curves = sweep({
-    classes, technology, settings, variable: variable as SweepVariable, metric: metric as SweepMetric, from, to, points,
-    levels: levels as ModelLevel[], spacing: v.log ? "log" : "linear", classNames,
+    classes,
+    technology,
+    settings,
+    variable: variable as SweepVariable,
+    metric: metric as SweepMetric,
+    from,
+    to,
+    points,
+    levels: levels as ModelLevel[],
+    spacing: v.log ? "log" : "linear",
+    classNames,
   });
   if (v.json) return ok(json({ metric, variable, curves }));
   const lines: string[] = [`${metric} against ${variable} (${levels.join(", ")})`];
@@ -317,7 +472,9 @@ function sweepCmd(argv: string[]): CliResult {
   for (const c of curves) {
     const first = c.points[0];
     const last = c.points[c.points.length - 1];
-    lines.push(`${c.className.padEnd(14)} ${c.level.padEnd(8)} ${first ? `${first.x.toFixed(3)}: ${formatEngineering(first.y, unit, 3)}` : "-"}  →  ${last ? `${last.x.toFixed(3)}: ${formatEngineering(last.y, unit, 3)}` : "-"}${c.skipped ? `  (${c.skipped.length} points skipped)` : ""}`);
+    lines.push(
+      `${c.className.padEnd(14)} ${c.level.padEnd(8)} ${first ? `${first.x.toFixed(3)}: ${formatEngineering(first.y, unit, 3)}` : "-"}  →  ${last ? `${last.x.toFixed(3)}: ${formatEngineering(last.y, unit, 3)}` : "-"}${c.skipped ? `  (${c.skipped.length} points skipped)` : ""}`,
+    );
   }
   return ok(lines.join("\n") + "\n");
 }
@@ -328,7 +485,9 @@ function materialsCmd(argv: string[]): CliResult {
   if (v.json) return ok(json({ metals: METALS, dielectrics: DIELECTRICS }));
   const lines = ["Metals (bulk resistivity at 20 °C, mean free path, specularity p, grain reflection R, Steinhögl C):"];
   for (const m of Object.values(METALS)) {
-    lines.push(`  ${m.id.padEnd(3)} ρ0 = ${(m.resistivityOhmM * 1e8).toFixed(3)} µΩ·cm  λ = ${(m.meanFreePathM * 1e9).toFixed(1)} nm  p = ${m.specularity}  R = ${m.grainReflection}  C = ${m.steinhoglC}`);
+    lines.push(
+      `  ${m.id.padEnd(3)} ρ0 = ${(m.resistivityOhmM * 1e8).toFixed(3)} µΩ·cm  λ = ${(m.meanFreePathM * 1e9).toFixed(1)} nm  p = ${m.specularity}  R = ${m.grainReflection}  C = ${m.steinhoglC}`,
+    );
     lines.push(`      ρ0: ${m.sources.resistivity}`, `      λ: ${m.sources.meanFreePath}`);
   }
   lines.push("Dielectrics (relative permittivity k):");
@@ -345,13 +504,23 @@ export function run(argv: string[]): CliResult {
   const [command, ...rest] = argv;
   try {
     switch (command) {
-      case "capacitance": return capacitanceCmd(rest);
-      case "delay": return delayCmd(rest);
-      case "evaluate": return evaluateCmd(rest);
-      case "sweep": return sweepCmd(rest);
-      case "materials": return materialsCmd(rest);
-      case undefined: case "--help": case "-h": case "help": return ok(HELP + "\n");
-      default: throw new UsageError(`unknown command "${command}": expected capacitance, delay, evaluate, sweep or materials`);
+      case "capacitance":
+        return capacitanceCmd(rest);
+      case "delay":
+        return delayCmd(rest);
+      case "evaluate":
+        return evaluateCmd(rest);
+      case "sweep":
+        return sweepCmd(rest);
+      case "materials":
+        return materialsCmd(rest);
+      case undefined:
+      case "--help":
+      case "-h":
+      case "help":
+        return ok(HELP + "\n");
+      default:
+        throw new UsageError(`unknown command "${command}": expected capacitance, delay, evaluate, sweep or materials`);
     }
   } catch (e) {
     if (e instanceof UsageError || e instanceof RangeError) return { code: 2, stdout: "", stderr: `error: ${e.message}\n` };

@@ -1,9 +1,8 @@
 import Link from "next/link";
 import type { ReactNode } from "react";
-import { db } from "@/db/client";
-import { listTeamsOfUser } from "@/db/queries/teams";
 import { AccountMenu, SectionNav, TeamSwitcher } from "@/components/shell/app-nav";
 import { Wordmark } from "@/components/shell/wordmark";
+import { teamsOfUser } from "@/lib/access";
 import { outboxScope } from "@/lib/outbox-access";
 import { requirePageUser } from "@/lib/team-context";
 import { signOutAction } from "./actions";
@@ -13,10 +12,14 @@ export const dynamic = "force-dynamic";
 
 export default async function AppLayout({ children }: { children: ReactNode }) {
   const user = await requirePageUser();
-  const [teams, scope] = await Promise.all([listTeamsOfUser(db, user.id), outboxScope(user.id)]);
+  // One read of the user's teams per request: the switcher, the outbox scope and the team pages' gate share it.
+  const [teams, scope] = await Promise.all([teamsOfUser(user.id), outboxScope(user.id)]);
   return (
     <div className="flex min-h-screen flex-col">
-      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:rounded focus:bg-panel focus:px-3 focus:py-2">
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:rounded focus:bg-panel focus:px-3 focus:py-2"
+      >
         Skip to content
       </a>
       <header className="no-print sticky top-0 z-20 border-b border-rule bg-panel/95 backdrop-blur">

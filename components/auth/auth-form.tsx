@@ -1,37 +1,28 @@
 "use client";
 import Link from "next/link";
 import { useRouter } from "next/navigation";
-import { useState, type FormEvent } from "react";
+import type { FormEvent } from "react";
 import { Notice } from "@/components/ui/card";
 import { TextField } from "@/components/ui/field";
-import { ApiRequestError, apiSend } from "@/lib/api-client";
+import { useApiForm } from "@/components/ui/use-api-form";
+import { apiSend } from "@/lib/api-client";
 
 type Mode = "sign-in" | "sign-up";
 
 export function AuthForm({ mode, next, email: initialEmail = "" }: { mode: Mode; next: string; email?: string }) {
   const router = useRouter();
-  const [fields, setFields] = useState<Record<string, string[]>>({});
-  const [message, setMessage] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+  // Field errors are shown at their fields; the notice carries the rest.
+  const { fields, message, busy, run } = useApiForm({ fieldsMessage: "Check the highlighted fields." });
 
-  async function onSubmit(e: FormEvent<HTMLFormElement>) {
+  function onSubmit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
     const data = Object.fromEntries(new FormData(e.currentTarget)) as Record<string, string>;
-    setBusy(true);
-    setMessage(null);
-    setFields({});
-    try {
+    void run(async () => {
       await apiSend("POST", mode === "sign-in" ? "/api/auth/sign-in" : "/api/auth/sign-up", data);
       // "/teams?landing=1" lets the teams page go straight to the only team a member has.
       router.replace(next === "/teams" ? "/teams?landing=1" : next);
       router.refresh();
-    } catch (err) {
-      const f = err instanceof ApiRequestError ? err.failure : { message: "Something went wrong.", fields: {} };
-      setFields(f.fields);
-      // Field errors are shown at their fields; the notice carries the rest.
-      setMessage(Object.keys(f.fields).length ? "Check the highlighted fields." : f.message);
-      setBusy(false);
-    }
+    });
   }
 
   const q = next !== "/teams" ? `?next=${encodeURIComponent(next)}` : "";
@@ -54,7 +45,11 @@ export function AuthForm({ mode, next, email: initialEmail = "" }: { mode: Mode;
         hint={mode === "sign-up" ? "10 to 128 characters. A few unrelated words work well." : undefined}
         errors={fields.password}
       />
-      <button type="submit" disabled={busy} className="inline-flex w-full items-center justify-center rounded-md bg-copper px-3 py-2 text-sm font-medium text-white hover:bg-copper-dark disabled:opacity-50">
+      <button
+        type="submit"
+        disabled={busy}
+        className="inline-flex w-full items-center justify-center rounded-md bg-copper px-3 py-2 text-sm font-medium text-white hover:bg-copper-dark disabled:opacity-50"
+      >
         {busy ? "Please wait…" : mode === "sign-in" ? "Sign in" : "Create account"}
       </button>
       <p className="text-center text-sm text-muted">

@@ -17,4 +17,3 @@ export const chartTheme = buildChartTheme({
   xTickLineStyles: { stroke: CHART.rule },
   yTickLineStyles: { stroke: CHART.rule },
 });
-

@@ -61,10 +61,25 @@ export function DelayDistributionChart({ data, width, height, budgetS, title }: 
         accessibilityLabel={`${title ?? "Delay distribution"} against the delay budget`}
       >
         <Grid columns={false} numTicks={4} lineStyle={{ stroke: CHART.grid }} />
-        <Axis orientation="bottom" label="50% delay (ps)" tickValues={logTicks(lo, hi, Math.max(3, Math.floor(width / 70)))} tickFormat={(v) => tick(Number(v))} labelOffset={14} />
+        <Axis
+          orientation="bottom"
+          label="50% delay (ps)"
+          tickValues={logTicks(lo, hi, Math.max(3, Math.floor(width / 70)))}
+          tickFormat={(v) => tick(Number(v))}
+          labelOffset={14}
+        />
         <Axis orientation="left" label="Nets at or below (%)" numTicks={5} tickFormat={(v) => tick(Number(v))} labelOffset={30} />
         {series.map((s) => (
-          <LineSeries key={s.label} dataKey={s.label} data={s.points} xAccessor={xAcc} yAccessor={yAcc} colorAccessor={() => s.color} strokeDasharray={s.dash} strokeWidth={2} />
+          <LineSeries
+            key={s.label}
+            dataKey={s.label}
+            data={s.points}
+            xAccessor={xAcc}
+            yAccessor={yAcc}
+            colorAccessor={() => s.color}
+            strokeDasharray={s.dash}
+            strokeWidth={2}
+          />
         ))}
         <RefLine x={budgetS * 1e12} color={CHART.bad} label={`budget ${tick(budgetS * 1e12)} ps`} />
         <Tooltip<Datum>

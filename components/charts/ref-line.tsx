@@ -3,7 +3,21 @@ import { useContext } from "react";
 import { DataContext } from "@visx/xychart";
 
 /** A reference line inside an XYChart at a y (horizontal) or x (vertical) data value, with an optional label. */
-export function RefLine({ y, x, color, label, dash = "4 3", labelAt = "bottom" }: { y?: number; x?: number; color: string; label?: string; dash?: string; labelAt?: "top" | "bottom" }) {
+export function RefLine({
+  y,
+  x,
+  color,
+  label,
+  dash = "4 3",
+  labelAt = "bottom",
+}: {
+  y?: number;
+  x?: number;
+  color: string;
+  label?: string;
+  dash?: string;
+  labelAt?: "top" | "bottom";
+}) {
   const { xScale, yScale, innerWidth, innerHeight, margin } = useContext(DataContext);
   if (!xScale || !yScale || !margin || innerWidth === undefined || innerHeight === undefined) return null;
   if (y !== undefined) {
@@ -29,7 +43,13 @@ export function RefLine({ y, x, color, label, dash = "4 3", labelAt = "bottom" }
         {label ? (
           labelAt === "top" ? (
             // Right of the line, unless that would run past the plot's right edge.
-            <text x={px > margin.left + innerWidth - 50 ? px - 3 : px + 3} y={margin.top + 9} textAnchor={px > margin.left + innerWidth - 50 ? "end" : "start"} fontSize={10} fill={color}>
+            <text
+              x={px > margin.left + innerWidth - 50 ? px - 3 : px + 3}
+              y={margin.top + 9}
+              textAnchor={px > margin.left + innerWidth - 50 ? "end" : "start"}
+              fontSize={10}
+              fill={color}
+            >
               {label}
             </text>
           ) : (

@@ -37,7 +37,19 @@ const xAcc = (d: Datum) => d.x;
 const yAcc = (d: Datum) => d.y;
 
 /** A metric against the scale factor for one class, one curve per model level: where the copper curve flattens, scaling stops paying. */
-export function SweepChart({ data, width, height, metric, xLabel = "S (cross-section factor)", markerX, markerDots = true, relative = false, logX = true, logY = true, legend = false }: SweepChartProps) {
+export function SweepChart({
+  data,
+  width,
+  height,
+  metric,
+  xLabel = "S (cross-section factor)",
+  markerX,
+  markerDots = true,
+  relative = false,
+  logX = true,
+  logY = true,
+  legend = false,
+}: SweepChartProps) {
   const m = relative ? { ...SWEEP_METRIC[metric], unit: "×", scale: 1 } : SWEEP_METRIC[metric];
   const yLabel = relative ? `${m.label} ÷ value at S = 1` : `${m.label} (${m.unit})`;
   const series = useMemo(
@@ -68,7 +80,11 @@ export function SweepChart({ data, width, height, metric, xLabel = "S (cross-sec
   return (
     <figure className="sweep-chart m-0" data-class={data.className}>
       <figcaption className="mb-1 text-xs font-semibold text-ink">
-        {data.className} <span className="font-normal text-muted">· {m.label}{relative ? " relative to S = 1" : ` (${m.unit})`}</span>
+        {data.className}{" "}
+        <span className="font-normal text-muted">
+          · {m.label}
+          {relative ? " relative to S = 1" : ` (${m.unit})`}
+        </span>
       </figcaption>
       <XYChart
         width={width}
@@ -123,9 +139,7 @@ export function SweepChart({ data, width, height, metric, xLabel = "S (cross-sec
                   .map(([k, v]) => (
                     <div key={k} className="flex justify-between gap-3">
                       <span style={{ color: LEVEL_STYLE[(v.datum as Datum).level].color }}>{k}</span>
-                      <span className="tabular">
-                        {relative ? `${tick((v.datum as Datum).y)}×` : `${tick((v.datum as Datum).y)} ${m.unit}`}
-                      </span>
+                      <span className="tabular">{relative ? `${tick((v.datum as Datum).y)}×` : `${tick((v.datum as Datum).y)} ${m.unit}`}</span>
                     </div>
                   ))}
               </div>

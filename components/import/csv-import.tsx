@@ -7,6 +7,7 @@ import { Button, buttonClass } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { Notice } from "@/components/ui/card";
 import { TextField } from "@/components/ui/field";
+import { ApiRequestError, apiUpload, errorMessage, isAbortError } from "@/lib/api-client";
 import { csvLine } from "@/lib/csv-safe";
 import type { ImportIssue } from "@/lib/import/types";
 import type { ClassTotalRow, ImportKind, WorkerMessage, WorkerRequest } from "./protocol";
@@ -106,7 +107,9 @@ function PreviewTables({ preview, kind }: { preview: Preview; kind: ImportKind }
       <dl className="grid grid-cols-2 gap-x-6 gap-y-1 text-sm sm:grid-cols-4">
         <div>
           <dt className="text-xs text-muted">Rows</dt>
-          <dd className="tabular font-medium" data-testid="preview-rows">{nf.format(preview.rows)}</dd>
+          <dd className="tabular font-medium" data-testid="preview-rows">
+            {nf.format(preview.rows)}
+          </dd>
         </div>
         <div>
           <dt className="text-xs text-muted">Delimiter</dt>
@@ -152,7 +155,9 @@ function PreviewTables({ preview, kind }: { preview: Preview; kind: ImportKind }
       </div>
       {preview.totals.length > 0 ? (
         <div>
-          <h3 className="mb-1 text-xs font-semibold uppercase tracking-wide text-muted">{kind === "histograms" ? "Per-class totals" : "Classes in the file"}</h3>
+          <h3 className="mb-1 text-xs font-semibold uppercase tracking-wide text-muted">
+            {kind === "histograms" ? "Per-class totals" : "Classes in the file"}
+          </h3>
           <table className="num w-full max-w-2xl text-sm" data-testid="preview-totals">
             <thead className="text-left text-xs text-muted">
               <tr className="border-b border-rule">
@@ -223,17 +228,20 @@ export function CsvImport({
   const [name, setName] = useState("");
   const [dragging, setDragging] = useState(false);
   const workerRef = useRef<Worker | null>(null);
-  const xhrRef = useRef<XMLHttpRequest | null>(null);
+  const uploadRef = useRef<AbortController | null>(null);
   const inputId = useId();
 
   const stopWorker = () => {
     workerRef.current?.terminate();
     workerRef.current = null;
   };
-  useEffect(() => () => {
-    stopWorker();
-    xhrRef.current?.abort();
-  }, []);
+  useEffect(
+    () => () => {
+      stopWorker();
+      uploadRef.current?.abort();
+    },
+    [],
+  );
 
   const start = useCallback(
     (file: File) => {
@@ -255,7 +263,11 @@ export function CsvImport({
       };
       w.onerror = (e) => {
         stopWorker();
-        setState({ step: "fatal", file, issue: { line: null, column: null, value: null, message: `The file could not be read in the browser (${e.message}).` } });
+        setState({
+          step: "fatal",
+          file,
+          issue: { line: null, column: null, value: null, message: `The file could not be read in the browser (${e.message}).` },
+        });
       };
       const req: WorkerRequest = { kind, file, classNames };
       w.postMessage(req);
@@ -276,50 +288,45 @@ export function CsvImport({
     return `/api/baselines/${target.baselineId}/${path}?mode=${mode}`;
   };
 
-  const upload = () => {
+  const upload = async () => {
     if (state.step !== "preview" && state.step !== "server-error") return;
     const { file, preview } = state;
-    const xhr = new XMLHttpRequest();
-    xhrRef.current = xhr;
+    const ctl = new AbortController();
+    uploadRef.current = ctl;
     setState({ step: "uploading", file, preview, sent: 0, total: file.size });
-    xhr.upload.onprogress = (e) => setState((s) => (s.step === "uploading" ? { ...s, sent: e.loaded, total: e.lengthComputable ? e.total : file.size } : s));
-    xhr.onload = () => {
-      xhrRef.current = null;
-      let body: { error?: { message: string; errors?: ImportIssue[]; errorCount?: number }; baseline?: { id: string }; classes?: unknown[]; rows?: number } = {};
-      try {
-        body = JSON.parse(xhr.responseText);
-      } catch {
-        /* not JSON */
+    try {
+      const body = await apiUpload<{ baseline?: { id: string }; rows?: number } | undefined>(uploadUrl(), file, {
+        contentType: "text/csv",
+        signal: ctl.signal,
+        onProgress: (sent, total) => setState((s) => (s.step === "uploading" ? { ...s, sent, total } : s)),
+      });
+      const href = target.kind === "new-baseline" && body?.baseline ? `/teams/${target.teamId}/baselines/${body.baseline.id}` : doneHref;
+      setState({ step: "done", message: `Stored ${nf.format(body?.rows ?? preview.rows)} rows.` });
+      if (href) {
+        router.push(href);
+        router.refresh();
       }
-      if (xhr.status >= 200 && xhr.status < 300) {
-        const href = target.kind === "new-baseline" && body.baseline ? `/teams/${target.teamId}/baselines/${body.baseline.id}` : doneHref;
-        setState({ step: "done", message: `Stored ${nf.format(body.rows ?? preview.rows)} rows.` });
-        if (href) {
-          router.push(href);
-          router.refresh();
-        }
-      } else {
+    } catch (err) {
+      if (isAbortError(err)) setState({ step: "preview", file, preview });
+      else if (err instanceof ApiRequestError && err.isNetworkError) {
         setState({
           step: "server-error",
           file,
           preview,
-          message: body.error?.message ?? `The server answered ${xhr.status}.`,
-          errors: body.error?.errors ?? [],
-          errorCount: body.error?.errorCount ?? 0,
+          message: `${err.message} The upload did not finish; nothing was stored.`,
+          errors: [],
+          errorCount: 0,
         });
+      } else {
+        // An invalid file answers 400 with the first issues and their total in the error object.
+        const extra = err instanceof ApiRequestError ? err.body : {};
+        const errors = Array.isArray(extra.errors) ? (extra.errors as ImportIssue[]) : [];
+        const errorCount = typeof extra.errorCount === "number" ? extra.errorCount : errors.length;
+        setState({ step: "server-error", file, preview, message: errorMessage(err), errors, errorCount });
       }
-    };
-    xhr.onerror = () => {
-      xhrRef.current = null;
-      setState({ step: "server-error", file, preview, message: "The upload failed (network error). Nothing was stored.", errors: [], errorCount: 0 });
-    };
-    xhr.onabort = () => {
-      xhrRef.current = null;
-      setState({ step: "preview", file, preview });
-    };
-    xhr.open("POST", uploadUrl());
-    xhr.setRequestHeader("content-type", "text/csv");
-    xhr.send(file);
+    } finally {
+      if (uploadRef.current === ctl) uploadRef.current = null;
+    }
   };
 
   const reset = () => {
@@ -347,7 +354,10 @@ export function CsvImport({
             className={`flex flex-col items-center justify-center gap-2 rounded-lg border-2 border-dashed px-6 py-10 text-center ${dragging ? "border-copper bg-copper-soft" : "border-rule-strong bg-ground/60"}`}
           >
             <p className="text-sm text-ink">Drop a .csv file here, or</p>
-            <label htmlFor={inputId} className={buttonClass("secondary", "cursor-pointer focus-within:outline focus-within:outline-2 focus-within:outline-copper")}>
+            <label
+              htmlFor={inputId}
+              className={buttonClass("secondary", "cursor-pointer focus-within:outline focus-within:outline-2 focus-within:outline-copper")}
+            >
               Choose a file…
               <input
                 id={inputId}
@@ -420,13 +430,27 @@ export function CsvImport({
         <Card title="3. Store">
           <div className="space-y-4">
             {target.kind === "new-baseline" ? (
-              <TextField label="Name of the new baseline" name="baseline-name" value={name} maxLength={100} onChange={(e) => setName(e.target.value)} hint="The technology starts from invented defaults; edit it on the baseline page." />
+              <TextField
+                label="Name of the new baseline"
+                name="baseline-name"
+                value={name}
+                maxLength={100}
+                onChange={(e) => setName(e.target.value)}
+                hint="The technology starts from invented defaults; edit it on the baseline page."
+              />
             ) : (
               <fieldset>
                 <legend className="mb-1 text-sm font-medium text-ink">How should the file be applied?</legend>
                 <div className="space-y-1.5 text-sm">
                   <label className="flex items-start gap-2">
-                    <input type="radio" name="mode" value="replace" checked={mode === "replace"} onChange={() => setMode("replace")} className="mt-1 accent-copper" />
+                    <input
+                      type="radio"
+                      name="mode"
+                      value="replace"
+                      checked={mode === "replace"}
+                      onChange={() => setMode("replace")}
+                      className="mt-1 accent-copper"
+                    />
                     <span>
                       <strong>Replace</strong> —{" "}
                       {kind === "classes"
@@ -438,7 +462,9 @@ export function CsvImport({
                     <input type="radio" name="mode" value="merge" checked={mode === "merge"} onChange={() => setMode("merge")} className="mt-1 accent-copper" />
                     <span>
                       <strong>Merge</strong> —{" "}
-                      {kind === "classes" ? "classes of the same name are updated, new ones added, the others kept." : "only the classes in the file get new histograms; the others keep theirs."}
+                      {kind === "classes"
+                        ? "classes of the same name are updated, new ones added, the others kept."
+                        : "only the classes in the file get new histograms; the others keep theirs."}
                     </span>
                   </label>
                 </div>
@@ -446,8 +472,12 @@ export function CsvImport({
             )}
             {state.step === "uploading" ? (
               <div className="space-y-3">
-                <ProgressBar label={state.sent >= state.total ? "Uploaded; the server is checking and storing…" : "Uploading"} value={state.sent} max={state.total} />
-                <Button variant="secondary" onClick={() => xhrRef.current?.abort()}>
+                <ProgressBar
+                  label={state.sent >= state.total ? "Uploaded; the server is checking and storing…" : "Uploading"}
+                  value={state.sent}
+                  max={state.total}
+                />
+                <Button variant="secondary" onClick={() => uploadRef.current?.abort()}>
                   Cancel upload
                 </Button>
               </div>

@@ -1,6 +1,7 @@
 /// <reference lib="webworker" />
-// Parses the chosen CSV off the main thread, with the same streaming reader and row validation as
-// the server (lib/import), so the preview shows exactly the errors the upload would get.
+// Parses the chosen CSV off the main thread with the same pipelines as the server and the command line
+// (lib/import's one reader; column definitions, header rules and row validation from lib/scaling/formats.ts),
+// so the preview shows exactly the errors the upload would get.
 import { HistogramAccumulator } from "@/lib/import/histogram-accumulator";
 import { parseHistogramCsv } from "@/lib/import/histograms";
 import { MAX_IMPORT_BYTES, MAX_LISTED_ERRORS } from "@/lib/import/limits";
@@ -76,6 +77,15 @@ self.onmessage = async (ev: MessageEvent<WorkerRequest>) => {
     }
   } catch (e) {
     if (e instanceof ImportFatalError) post({ type: "fatal", issue: e.issue });
-    else post({ type: "fatal", issue: { line: null, column: null, value: null, message: `The file could not be read: ${e instanceof Error ? e.message : String(e)}` } });
+    else
+      post({
+        type: "fatal",
+        issue: {
+          line: null,
+          column: null,
+          value: null,
+          message: `The file could not be read: ${e instanceof Error ? e.message : String(e)}`,
+        },
+      });
   }
 };

@@ -3,7 +3,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Notice } from "@/components/ui/card";
 import { Button } from "@/components/ui/button";
-import { apiSend, ApiRequestError } from "@/lib/api-client";
+import { apiSend, errorMessage } from "@/lib/api-client";
 
 export function AcceptInvite({ token, teamName }: { token: string; teamName: string }) {
   const router = useRouter();
@@ -17,7 +17,7 @@ export function AcceptInvite({ token, teamName }: { token: string; teamName: str
       router.push(`/teams/${r.team.id}`);
       router.refresh();
     } catch (err) {
-      setError(err instanceof ApiRequestError ? err.failure.message : "Something went wrong.");
+      setError(errorMessage(err));
       setBusy(false);
     }
   }

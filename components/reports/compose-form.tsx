@@ -4,15 +4,9 @@ import { useMemo, useState, type FormEvent } from "react";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/card";
 import { FieldErrors, SelectField, TextField, inputClass } from "@/components/ui/field";
+import type { ComposeChoices } from "@/db/queries/reports";
+import { ApiRequestError, apiSend, errorMessage } from "@/lib/api-client";
 import { DEFAULT_REPORT_METRICS, REPORT_METRICS, type ReportMetric } from "@/lib/validation/report";
-
-export interface ComposeBaseline {
-  id: string;
-  name: string;
-  isDemo: boolean;
-  scenarios: { id: string; name: string }[];
-  classes: { name: string; tier: string }[];
-}
 
 const METRIC_LABELS: Record<ReportMetric, string> = {
   delay: "Delay",
@@ -26,7 +20,7 @@ const METRIC_LABELS: Record<ReportMetric, string> = {
 };
 
 /** Compose a report: baseline, 2–4 of its scenarios, title, audience note, classes and metrics. */
-export function ComposeForm({ teamId, baselines }: { teamId: string; baselines: ComposeBaseline[] }) {
+export function ComposeForm({ teamId, baselines }: { teamId: string; baselines: ComposeChoices }) {
   const router = useRouter();
   const usable = baselines.filter((b) => b.scenarios.length >= 2);
   const [baselineId, setBaselineId] = useState(usable[0]?.id ?? "");
@@ -41,11 +35,7 @@ export function ComposeForm({ teamId, baselines }: { teamId: string; baselines: 
   const [busy, setBusy] = useState(false);
 
   if (usable.length === 0) {
-    return (
-      <p className="text-sm text-muted">
-        A report compares a baseline with 2 to 4 of its scenarios. Create at least two scenarios on a baseline first.
-      </p>
-    );
+    return <p className="text-sm text-muted">A report compares a baseline with 2 to 4 of its scenarios. Create at least two scenarios on a baseline first.</p>;
   }
 
   function pickBaseline(id: string) {
@@ -63,28 +53,19 @@ export function ComposeForm({ teamId, baselines }: { teamId: string; baselines: 
     setErrors({});
     setMessage(null);
     try {
-      const res = await fetch(`/api/teams/${encodeURIComponent(teamId)}/reports`, {
-        method: "POST",
-        headers: { "content-type": "application/json" },
-        body: JSON.stringify({
-          baselineId,
-          // Keep the order of the baseline's scenario list: it becomes Option A, B, ...
-          scenarioIds: baseline?.scenarios.map((s) => s.id).filter((id) => scenarioIds.includes(id)) ?? scenarioIds,
-          title,
-          audienceNote,
-          classNames: baseline?.classes.map((c) => c.name).filter((n) => classNames.includes(n)),
-          metrics: REPORT_METRICS.filter((m) => metrics.includes(m)),
-        }),
+      const r = await apiSend<{ report: { id: string } }>("POST", `/api/teams/${encodeURIComponent(teamId)}/reports`, {
+        baselineId,
+        // Keep the order of the baseline's scenario list: it becomes Option A, B, ...
+        scenarioIds: baseline?.scenarios.map((s) => s.id).filter((id) => scenarioIds.includes(id)) ?? scenarioIds,
+        title,
+        audienceNote,
+        classNames: baseline?.classes.map((c) => c.name).filter((n) => classNames.includes(n)),
+        metrics: REPORT_METRICS.filter((m) => metrics.includes(m)),
       });
-      const body = await res.json().catch(() => null);
-      if (res.status === 201) {
-        router.push(`/teams/${encodeURIComponent(teamId)}/reports/${body.report.id}`);
-        return;
-      }
-      setErrors(body?.error?.fields ?? {});
-      setMessage(body?.error?.message ?? `The report could not be made (${res.status}).`);
-    } catch {
-      setMessage("The server could not be reached. Try again.");
+      router.push(`/teams/${encodeURIComponent(teamId)}/reports/${encodeURIComponent(r.report.id)}`);
+    } catch (err) {
+      setErrors(err instanceof ApiRequestError ? err.fields : {});
+      setMessage(errorMessage(err));
     } finally {
       setBusy(false);
     }
@@ -103,7 +84,16 @@ export function ComposeForm({ teamId, baselines }: { teamId: string; baselines: 
             </option>
           ))}
         </SelectField>
-        <TextField label="Title" name="title" value={title} onChange={(e) => setTitle(e.target.value)} errors={errors.title} required maxLength={200} placeholder="e.g. Skua tile: wiring options for the next node" />
+        <TextField
+          label="Title"
+          name="title"
+          value={title}
+          onChange={(e) => setTitle(e.target.value)}
+          errors={errors.title}
+          required
+          maxLength={200}
+          placeholder="e.g. Skua tile: wiring options for the next node"
+        />
       </div>
       <fieldset>
         <legend className="mb-1 text-sm font-medium text-ink">
@@ -131,7 +121,15 @@ export function ComposeForm({ teamId, baselines }: { teamId: string; baselines: 
         <label htmlFor="f-audienceNote" className="mb-1 block text-sm font-medium text-ink">
           Audience note <span className="font-normal text-muted">(optional: who it is for, what to decide)</span>
         </label>
-        <textarea id="f-audienceNote" name="audienceNote" rows={2} maxLength={2000} value={audienceNote} onChange={(e) => setAudienceNote(e.target.value)} className={inputClass} />
+        <textarea
+          id="f-audienceNote"
+          name="audienceNote"
+          rows={2}
+          maxLength={2000}
+          value={audienceNote}
+          onChange={(e) => setAudienceNote(e.target.value)}
+          className={inputClass}
+        />
         <FieldErrors id="f-audienceNote-error" errors={errors.audienceNote} />
       </div>
       <div className="grid gap-4 md:grid-cols-2">
@@ -140,7 +138,14 @@ export function ComposeForm({ teamId, baselines }: { teamId: string; baselines: 
           <div className="flex flex-wrap gap-x-5 gap-y-1.5">
             {baseline?.classes.map((c) => (
               <label key={c.name} className="inline-flex items-center gap-2 text-sm text-ink">
-                <input type="checkbox" name="classNames" value={c.name} checked={classNames.includes(c.name)} onChange={(e) => setClassNames(toggle(classNames, c.name, e.target.checked))} className="accent-copper" />
+                <input
+                  type="checkbox"
+                  name="classNames"
+                  value={c.name}
+                  checked={classNames.includes(c.name)}
+                  onChange={(e) => setClassNames(toggle(classNames, c.name, e.target.checked))}
+                  className="accent-copper"
+                />
                 {c.name} <span className="text-xs text-muted">{c.tier}</span>
               </label>
             ))}
@@ -152,7 +157,14 @@ export function ComposeForm({ teamId, baselines }: { teamId: string; baselines: 
           <div className="flex flex-wrap gap-x-5 gap-y-1.5">
             {REPORT_METRICS.map((m) => (
               <label key={m} className="inline-flex items-center gap-2 text-sm text-ink">
-                <input type="checkbox" name="metrics" value={m} checked={metrics.includes(m)} onChange={(e) => setMetrics(toggle(metrics, m, e.target.checked))} className="accent-copper" />
+                <input
+                  type="checkbox"
+                  name="metrics"
+                  value={m}
+                  checked={metrics.includes(m)}
+                  onChange={(e) => setMetrics(toggle(metrics, m, e.target.checked))}
+                  className="accent-copper"
+                />
                 {METRIC_LABELS[m]}
               </label>
             ))}

@@ -2,29 +2,27 @@
 import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useState, type FormEvent } from "react";
+import useSWR from "swr";
 import { Button, buttonClass } from "@/components/ui/button";
 import { Badge, Notice } from "@/components/ui/card";
 import { FieldErrors, inputClass } from "@/components/ui/field";
-
-export interface ShareLinkRow {
-  id: string;
-  createdAt: number;
-  createdByName: string | null;
-  expiresAt: number;
-  revokedAt: number | null;
-  lastUsedAt: number | null;
-  status: "active" | "expired" | "revoked";
-}
+import type { ReportVersion } from "@/db/queries/reports";
+import type { ShareLink } from "@/db/queries/share-links";
+import { ApiRequestError, apiSend, errorMessage, fetchJson } from "@/lib/api-client";
+import { swrKeys } from "@/lib/swr-keys";
 
 interface Props {
   teamId: string;
   reportId: string;
   canEdit: boolean;
   canDelete: boolean;
-  versions: { id: string; version: number; createdAt: number; createdByName: string | null }[];
+  versions: ReportVersion[];
   currentVersion: number;
-  initialLinks: ShareLinkRow[];
+  initialLinks: ShareLink[];
 }
+
+/** Answer of POST /api/reports/[id]/email (200, or 502 with the same body when every delivery failed). */
+type EmailAnswer = { sent: number; failed: number };
 
 const fmt = (ms: number) => new Date(ms).toISOString().slice(0, 16).replace("T", " ") + " UTC";
 const dayFmt = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short", timeZone: "UTC" });
@@ -40,21 +38,15 @@ function Stamp({ ms }: { ms: number }) {
   );
 }
 
-async function call(method: string, url: string, body?: unknown) {
-  const res = await fetch(url, {
-    method,
-    headers: body === undefined ? undefined : { "content-type": "application/json" },
-    body: body === undefined ? undefined : JSON.stringify(body),
-  });
-  const json = res.status === 204 ? null : await res.json().catch(() => null);
-  return { status: res.status, json };
-}
-
 /** Everything one can do with a report besides reading it: export, print, share, e-mail, refresh, versions. */
 export function ReportActions({ teamId, reportId, canEdit, canDelete, versions, currentVersion, initialLinks }: Props) {
   const router = useRouter();
   const base = `/api/reports/${encodeURIComponent(reportId)}`;
-  const [links, setLinks] = useState(initialLinks);
+  // Share links are for editors and owners only (the API answers 403 to viewers): no key, no request.
+  const { data: linkData, mutate: reloadLinks } = useSWR<{ links: ShareLink[] }>(canEdit ? swrKeys.reportShareLinks(reportId) : null, fetchJson, {
+    fallbackData: { links: initialLinks },
+  });
+  const links = linkData?.links ?? initialLinks;
   const [days, setDays] = useState("14");
   const [newUrl, setNewUrl] = useState<string | null>(null);
   const [shareError, setShareError] = useState<string | null>(null);
@@ -64,66 +56,97 @@ export function ReportActions({ teamId, reportId, canEdit, canDelete, versions, 
   const [busy, setBusy] = useState<string | null>(null);
   const [topError, setTopError] = useState<string | null>(null);
 
-  async function reloadLinks() {
-    const r = await call("GET", `${base}/share-links`);
-    if (r.status === 200) setLinks(r.json.links);
-  }
-
   async function createLink(e: FormEvent) {
     e.preventDefault();
     setBusy("share");
     setShareError(null);
-    const r = await call("POST", `${base}/share-links`, { expiresInDays: Number(days) });
-    setBusy(null);
-    if (r.status === 201) {
-      setNewUrl(r.json.url);
+    try {
+      const r = await apiSend<{ link: ShareLink; url: string }>("POST", swrKeys.reportShareLinks(reportId), {
+        expiresInDays: Number(days),
+      });
+      setNewUrl(r.url);
       await reloadLinks();
-    } else setShareError(r.json?.error?.fields?.expiresInDays?.[0] ?? r.json?.error?.message ?? `Could not create the link (${r.status}).`);
+    } catch (err) {
+      setShareError(err instanceof ApiRequestError ? (err.fields.expiresInDays?.[0] ?? err.message) : errorMessage(err));
+    } finally {
+      setBusy(null);
+    }
   }
 
   async function revoke(id: string) {
     setBusy(`revoke-${id}`);
-    await call("DELETE", `${base}/share-links/${encodeURIComponent(id)}`);
-    setBusy(null);
+    setShareError(null);
+    try {
+      await apiSend("DELETE", `${swrKeys.reportShareLinks(reportId)}/${encodeURIComponent(id)}`);
+    } catch (err) {
+      setShareError(errorMessage(err));
+    } finally {
+      setBusy(null);
+    }
     await reloadLinks();
   }
 
   async function sendMail(e: FormEvent) {
     e.preventDefault();
-    const addresses = to.split(/[\s,;]+/).map((s) => s.trim()).filter(Boolean);
+    const addresses = to
+      .split(/[\s,;]+/)
+      .map((s) => s.trim())
+      .filter(Boolean);
     setBusy("mail");
     setMailState(null);
-    const r = await call("POST", `${base}/email`, { to: addresses, message: note });
-    setBusy(null);
-    if (r.status === 200) {
-      setMailState({ tone: "good", text: `Sent to ${r.json.sent} address${r.json.sent === 1 ? "" : "es"}${r.json.failed ? `; ${r.json.failed} failed (see the outbox)` : ""}, with a new share link.` });
+    try {
+      const r = await apiSend<EmailAnswer>("POST", `${base}/email`, { to: addresses, message: note });
+      setMailState({
+        tone: "good",
+        text: `Sent to ${r.sent} address${r.sent === 1 ? "" : "es"}${r.failed ? `; ${r.failed} failed (see the outbox)` : ""}, with a new share link.`,
+      });
       setTo("");
       await reloadLinks();
-    } else {
-      const fields = r.json?.error?.fields as Record<string, string[]> | undefined;
-      const detail = fields ? Object.values(fields).flat().slice(0, 3).join(" ") : "";
-      setMailState({ tone: "bad", text: `${r.json?.error?.message ?? `Could not send (${r.status}).`} ${detail}`.trim(), fields });
+    } catch (err) {
+      const failed = err instanceof ApiRequestError && err.status === 502 ? (err.answer as Partial<EmailAnswer> | undefined)?.failed : undefined;
+      if (failed !== undefined) {
+        // Every delivery failed; the share link was still made.
+        setMailState({
+          tone: "bad",
+          text: `Could not send: ${failed === 1 ? "the message" : `all ${failed} messages`} failed (see the outbox).`,
+        });
+        await reloadLinks();
+      } else {
+        const fields = err instanceof ApiRequestError && err.hasFields ? err.fields : undefined;
+        const detail = fields ? Object.values(fields).flat().slice(0, 3).join(" ") : "";
+        setMailState({ tone: "bad", text: `${errorMessage(err)} ${detail}`.trim(), fields });
+      }
+    } finally {
+      setBusy(null);
     }
   }
 
   async function refresh() {
     setBusy("refresh");
     setTopError(null);
-    const r = await call("POST", `${base}/refresh`);
-    setBusy(null);
-    if (r.status === 201) router.push(`/teams/${encodeURIComponent(teamId)}/reports/${r.json.report.id}`);
-    else setTopError(r.json?.error?.message ?? `Could not refresh (${r.status}).`);
+    try {
+      const r = await apiSend<{ report: { id: string } }>("POST", `${base}/refresh`);
+      router.push(`/teams/${encodeURIComponent(teamId)}/reports/${encodeURIComponent(r.report.id)}`);
+    } catch (err) {
+      setTopError(errorMessage(err));
+    } finally {
+      setBusy(null);
+    }
   }
 
   async function remove() {
     if (!window.confirm("Delete this version of the report and its share links?")) return;
     setBusy("delete");
-    const r = await call("DELETE", base);
-    setBusy(null);
-    if (r.status === 204) {
+    setTopError(null);
+    try {
+      await apiSend("DELETE", base);
       router.push(`/teams/${encodeURIComponent(teamId)}/reports`);
       router.refresh();
-    } else setTopError(r.json?.error?.message ?? `Could not delete (${r.status}).`);
+    } catch (err) {
+      setTopError(errorMessage(err));
+    } finally {
+      setBusy(null);
+    }
   }
 
   return (
@@ -140,7 +163,12 @@ export function ReportActions({ teamId, reportId, canEdit, canDelete, versions, 
           Print view
         </a>
         {canEdit ? (
-          <Button variant="secondary" onClick={refresh} disabled={busy !== null} title="Evaluate the scenarios as they are now, as a new version; this version is kept">
+          <Button
+            variant="secondary"
+            onClick={refresh}
+            disabled={busy !== null}
+            title="Evaluate the scenarios as they are now, as a new version; this version is kept"
+          >
             {busy === "refresh" ? "Refreshing…" : "Refresh from current scenarios"}
           </Button>
         ) : null}
@@ -184,7 +212,16 @@ export function ReportActions({ teamId, reportId, canEdit, canDelete, versions, 
                 <label htmlFor="share-days" className="mb-1 block text-xs text-ink">
                   Valid for (days, 1–90)
                 </label>
-                <input id="share-days" type="number" min={1} max={90} value={days} onChange={(e) => setDays(e.target.value)} className={`${inputClass} w-24`} aria-describedby={shareError ? "share-days-error" : undefined} />
+                <input
+                  id="share-days"
+                  type="number"
+                  min={1}
+                  max={90}
+                  value={days}
+                  onChange={(e) => setDays(e.target.value)}
+                  className={`${inputClass} w-24`}
+                  aria-describedby={shareError ? "share-days-error" : undefined}
+                />
               </div>
               <Button type="submit" disabled={busy !== null}>
                 Create share link
@@ -195,7 +232,14 @@ export function ReportActions({ teamId, reportId, canEdit, canDelete, versions, 
               <div className="mt-2 rounded-md border border-good/30 bg-good-soft p-2 text-xs text-good" role="status">
                 <p className="mb-1">New read-only link (shown only now; anyone with it can read this report until it expires):</p>
                 <div className="flex gap-2">
-                  <input readOnly value={newUrl} aria-label="New share link" className={`${inputClass} font-mono text-xs`} onFocus={(e) => e.currentTarget.select()} data-testid="new-share-url" />
+                  <input
+                    readOnly
+                    value={newUrl}
+                    aria-label="New share link"
+                    className={`${inputClass} font-mono text-xs`}
+                    onFocus={(e) => e.currentTarget.select()}
+                    data-testid="new-share-url"
+                  />
                   <Button variant="secondary" onClick={() => navigator.clipboard?.writeText(newUrl)}>
                     Copy
                   </Button>
@@ -207,10 +251,18 @@ export function ReportActions({ teamId, reportId, canEdit, canDelete, versions, 
                 <caption className="pt-1 text-left text-[11px] text-faint">Times in UTC; hover for the full stamp.</caption>
                 <thead>
                   <tr className="text-left text-muted">
-                    <th scope="col" className="py-1 pr-2 font-medium">Made</th>
-                    <th scope="col" className="py-1 pr-2 font-medium">Expires</th>
-                    <th scope="col" className="py-1 pr-2 font-medium">Last opened</th>
-                    <th scope="col" className="py-1 pr-2 font-medium">Status</th>
+                    <th scope="col" className="py-1 pr-2 font-medium">
+                      Made
+                    </th>
+                    <th scope="col" className="py-1 pr-2 font-medium">
+                      Expires
+                    </th>
+                    <th scope="col" className="py-1 pr-2 font-medium">
+                      Last opened
+                    </th>
+                    <th scope="col" className="py-1 pr-2 font-medium">
+                      Status
+                    </th>
                     <th scope="col" className="py-1 font-medium">
                       <span className="sr-only">Action</span>
                     </th>
@@ -223,7 +275,9 @@ export function ReportActions({ teamId, reportId, canEdit, canDelete, versions, 
                         <Stamp ms={l.createdAt} />
                         {l.createdByName ? <span className="block text-muted">{l.createdByName}</span> : null}
                       </td>
-                      <td className="py-1 pr-2 tabular"><Stamp ms={l.expiresAt} /></td>
+                      <td className="py-1 pr-2 tabular">
+                        <Stamp ms={l.expiresAt} />
+                      </td>
                       <td className="py-1 pr-2 tabular">{l.lastUsedAt ? <Stamp ms={l.lastUsedAt} /> : "never"}</td>
                       <td className="py-1 pr-2">
                         <Badge tone={l.status === "active" ? "good" : l.status === "revoked" ? "bad" : "neutral"}>{l.status}</Badge>
@@ -251,7 +305,14 @@ export function ReportActions({ teamId, reportId, canEdit, canDelete, versions, 
                 <label htmlFor="mail-to" className="mb-1 block text-xs text-ink">
                   To (up to 20 addresses, separated by commas or new lines)
                 </label>
-                <textarea id="mail-to" rows={2} value={to} onChange={(e) => setTo(e.target.value)} className={inputClass} placeholder="director@example.com, pm@example.com" />
+                <textarea
+                  id="mail-to"
+                  rows={2}
+                  value={to}
+                  onChange={(e) => setTo(e.target.value)}
+                  className={inputClass}
+                  placeholder="director@example.com, pm@example.com"
+                />
               </div>
               <div>
                 <label htmlFor="mail-note" className="mb-1 block text-xs text-ink">

@@ -4,18 +4,11 @@ import { optionAssumptions, levelWords } from "@/lib/reports/assumptions";
 import { count, dateTime, eng, fixed, plain } from "@/lib/reports/format";
 import { materialSources, modelsUsed, validityFlags } from "@/lib/reports/models";
 import { signedPct, type Change, type ReportSummary } from "@/lib/reports/summary";
-import type { FrozenClassResult, FrozenReport, ReportMetric } from "@/lib/validation/report";
+import type { PublicReport } from "@/lib/reports/service";
+import type { FrozenClassResult, ReportMetric } from "@/lib/validation/report";
 import { ClassRatioChart } from "./class-ratio-chart";
 import { SERIES_STYLE, SweepFigure } from "./sweep-figure";
 import "./report.css";
-
-export interface ReportView {
-  title: string;
-  audienceNote: string;
-  version: number;
-  createdAt: number;
-  frozen: FrozenReport;
-}
 
 const NM = 1e-9;
 const UM = 1e-6;
@@ -46,7 +39,15 @@ const METRIC_ROWS: Record<ReportMetric, MetricRow[]> = {
   repeaters: [{ label: "Repeater stages per net", unit: "", value: (r) => r.repeaters.count, format: (v) => count(v) }],
   energy: [{ label: "Energy per transition", unit: "fJ", value: (r) => r.energyJ, format: (v) => fixed(v, FF) }],
   power: [{ label: "Switching power, all nets", unit: "µW", value: (r) => r.powerW, format: (v) => fixed(v, 1e-6) }],
-  overBudget: [{ label: "Nets over the delay budget", unit: "%", value: (r) => r.distribution.shareOverBudget * 100, format: (v) => plain(v, 3), kind: "points" }],
+  overBudget: [
+    {
+      label: "Nets over the delay budget",
+      unit: "%",
+      value: (r) => r.distribution.shareOverBudget * 100,
+      format: (v) => plain(v, 3),
+      kind: "points",
+    },
+  ],
 };
 
 function tone(c: number | null): string {
@@ -105,7 +106,7 @@ function Figure({ label, change, value, unit }: { label: string; change: Change;
  * first (for managers), exact figures with units after (for engineers), then assumptions, models, flags and
  * the caution. Everything comes from the frozen document; nothing is recomputed by the engine.
  */
-export function ReportBody({ report, summary, isDemo = false }: { report: ReportView; summary: ReportSummary; isDemo?: boolean }) {
+export function ReportBody({ report, summary, isDemo = false }: { report: PublicReport; summary: ReportSummary; isDemo?: boolean }) {
   const f = report.frozen;
   const optionNames = Object.fromEntries(f.options.map((o) => [o.key, o.name]));
   const first = f.options[0]!;
@@ -156,17 +157,18 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Report
         </ul>
         {!summary.baselineConsistent ? (
           <p className="mt-2 text-xs text-warn">
-            The options use different model levels or Miller factors, so each is compared with the baseline evaluated the same way; compare their deltas rather than their absolute figures.
+            The options use different model levels or Miller factors, so each is compared with the baseline evaluated the same way; compare their deltas rather
+            than their absolute figures.
           </p>
         ) : null}
       </Section>
 
       <Section id="headlines" title="Headline figures per option (whole design, all classes)" breakBefore>
         <p className="mb-3 text-xs text-muted">
-          Changes are against the baseline ({first.evaluation.level === "ideal" ? "ideal model" : `model level “${first.evaluation.level}”`}): worst-class delay{" "}
-          {fixed(summary.headlines[0]!.worstDelay.baseline, PS)} ps ({summary.headlines[0]!.worstDelay.baselineClass}), mean net delay {fixed(summary.headlines[0]!.meanDelay.baseline, PS)} ps, wire
-          capacitance {eng(summary.headlines[0]!.capacitance.baseline, "F")}, switching energy {eng(summary.headlines[0]!.energy.baseline, "J")}, {count(summary.headlines[0]!.repeaters.baseline)}{" "}
-          repeaters. Green is lower (better), red higher.
+          Changes are against the baseline ({first.evaluation.level === "ideal" ? "ideal model" : `model level “${first.evaluation.level}”`}
+          ): worst-class delay {fixed(summary.headlines[0]!.worstDelay.baseline, PS)} ps ({summary.headlines[0]!.worstDelay.baselineClass}), mean net delay{" "}
+          {fixed(summary.headlines[0]!.meanDelay.baseline, PS)} ps, wire capacitance {eng(summary.headlines[0]!.capacitance.baseline, "F")}, switching energy{" "}
+          {eng(summary.headlines[0]!.energy.baseline, "J")}, {count(summary.headlines[0]!.repeaters.baseline)} repeaters. Green is lower (better), red higher.
         </p>
         <div className="grid gap-3 sm:grid-cols-2 print:grid-cols-2">
           {summary.headlines.map((h) => (
@@ -192,7 +194,6 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Report
             </div>
           ))}
         </div>
-
       </Section>
 
       <Section id="table" title="Side by side, per class" breakBefore>
@@ -228,7 +229,10 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Report
                 <tbody key={name} className="border-b border-rule">
                   <tr>
                     <th scope="rowgroup" colSpan={2 + 2 * f.options.length} className="bg-ground/70 px-1 py-1 text-left text-xs font-semibold text-ink">
-                      {name} <span className="font-normal text-muted">· {base.tier} · {base.metal}, k {plain(base.k)}</span>
+                      {name}{" "}
+                      <span className="font-normal text-muted">
+                        · {base.tier} · {base.metal}, k {plain(base.k)}
+                      </span>
                     </th>
                   </tr>
                   {rows.map((m) => (
@@ -260,16 +264,17 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Report
           </table>
         </div>
         <p className="mt-2 text-xs text-muted">
-          Per net at the class&apos;s mean length. Change = option ÷ baseline − 1, each option against the baseline evaluated at its own model level and Miller factor.
+          Per net at the class&apos;s mean length. Change = option ÷ baseline − 1, each option against the baseline evaluated at its own model level and Miller
+          factor.
         </p>
       </Section>
 
       {f.sweeps.length > 0 ? (
         <Section id="sweeps" title="Where delay stops improving: delay against S" breakBefore>
           <p className="mb-3 max-w-3xl text-xs text-muted">
-            Each curve shrinks the cross-section further (larger S, same wire lengths) with the option&apos;s other choices kept; the marker is where the option sits. Where a curve bends upward,
-            resistance grows faster than capacitance falls and a further shrink stops paying off. The grey dashed line is Option A without size effects: the gap to Option A is what electron
-            scattering at surfaces and grain boundaries costs.
+            Each curve shrinks the cross-section further (larger S, same wire lengths) with the option&apos;s other choices kept; the marker is where the option
+            sits. Where a curve bends upward, resistance grows faster than capacitance falls and a further shrink stops paying off. The grey dashed line is
+            Option A without size effects: the gap to Option A is what electron scattering at surfaces and grain boundaries costs.
           </p>
           <div className="grid gap-6 lg:grid-cols-2 print:grid-cols-1">
             {f.sweeps.map((s) => (
@@ -301,7 +306,8 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Report
         </div>
         <p className="mt-2 text-xs text-muted">
           Technology (same for all): supply {plain(f.baseline.technology.supplyV)} V, clock {eng(f.baseline.technology.clockHz, "Hz")}, minimum repeater R0{" "}
-          {eng(f.baseline.technology.repeaterR0Ohm, "Ω")} and C0 {eng(f.baseline.technology.repeaterC0F, "F")}, delay budget {eng(f.baseline.technology.delayBudgetS, "s")}.
+          {eng(f.baseline.technology.repeaterR0Ohm, "Ω")} and C0 {eng(f.baseline.technology.repeaterC0F, "F")}, delay budget{" "}
+          {eng(f.baseline.technology.delayBudgetS, "s")}.
         </p>
       </Section>
 
@@ -366,7 +372,9 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Report
           <p className="text-sm text-good">Every input is inside the validity ranges of the models used.</p>
         ) : (
           <>
-            <p className="mb-2 text-xs text-muted">Where an input leaves the range a model was fitted or derived on, the figure is less certain than the stated accuracy.</p>
+            <p className="mb-2 text-xs text-muted">
+              Where an input leaves the range a model was fitted or derived on, the figure is less certain than the stated accuracy.
+            </p>
             <ul className="space-y-0.5 text-xs">
               {flags.map((fl) => (
                 <li key={`${fl.option}${fl.className}${fl.model}${fl.message}`} className="text-warn">
@@ -380,7 +388,9 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Report
           </>
         )}
         {f.binsTrimmed ? (
-          <p className="mt-2 text-xs text-muted">The baseline&apos;s length histograms were used for the totals; their bins are too many to keep in the report itself.</p>
+          <p className="mt-2 text-xs text-muted">
+            The baseline&apos;s length histograms were used for the totals; their bins are too many to keep in the report itself.
+          </p>
         ) : null}
       </Section>
 

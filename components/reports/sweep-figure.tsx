@@ -32,7 +32,8 @@ function ticks(lo: number, hi: number, target: number): number[] {
 function Marker({ kind, x, y, color }: { kind: string; x: number; y: number; color: string }) {
   const r = 4;
   if (kind === "square") return <rect x={x - r} y={y - r} width={2 * r} height={2 * r} fill={color} stroke="#fff" strokeWidth={1} />;
-  if (kind === "diamond") return <path d={`M${x},${y - r - 1}L${x + r + 1},${y}L${x},${y + r + 1}L${x - r - 1},${y}Z`} fill={color} stroke="#fff" strokeWidth={1} />;
+  if (kind === "diamond")
+    return <path d={`M${x},${y - r - 1}L${x + r + 1},${y}L${x},${y + r + 1}L${x - r - 1},${y}Z`} fill={color} stroke="#fff" strokeWidth={1} />;
   if (kind === "triangle") return <path d={`M${x},${y - r - 1}L${x + r + 1},${y + r}L${x - r - 1},${y + r}Z`} fill={color} stroke="#fff" strokeWidth={1} />;
   return <circle cx={x} cy={y} r={r} fill={color} stroke="#fff" strokeWidth={1} />;
 }
@@ -84,7 +85,15 @@ export function SweepFigure({ sweep, optionNames }: { sweep: FrozenSweep; option
         {sweep.series.map((s) => {
           const st = SERIES_STYLE[s.key] ?? SERIES_STYLE.reference!;
           return (
-            <path key={s.key} d={path(s.points)} fill="none" stroke={st.color} strokeWidth={s.key === "reference" ? 1.4 : 2} strokeDasharray={st.dash} strokeLinejoin="round">
+            <path
+              key={s.key}
+              d={path(s.points)}
+              fill="none"
+              stroke={st.color}
+              strokeWidth={s.key === "reference" ? 1.4 : 2}
+              strokeDasharray={st.dash}
+              strokeLinejoin="round"
+            >
               <title>{s.key === "reference" ? s.label : `Option ${s.key}: ${optionNames[s.key] ?? ""}`}</title>
             </path>
           );

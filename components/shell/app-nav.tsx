@@ -2,13 +2,10 @@
 import Link from "next/link";
 import { useParams, usePathname } from "next/navigation";
 import { useEffect, useRef, useState, type ReactNode } from "react";
+import type { TeamWithRole } from "@/db/queries/teams";
 
-export interface NavTeam {
-  id: string;
-  name: string;
-  role: "owner" | "editor" | "viewer";
-  isDemo: boolean;
-}
+/** What the team switcher shows of each of the user's teams. */
+export type NavTeam = Pick<TeamWithRole, "id" | "name" | "role" | "isDemo">;
 
 const SECTIONS = [
   { label: "Home", path: "" },
@@ -22,8 +19,13 @@ const SECTIONS = [
 function Menu({ label, buttonLabel, children, align = "left" }: { label: string; buttonLabel: ReactNode; children: ReactNode; align?: "left" | "right" }) {
   const [open, setOpen] = useState(false);
   const ref = useRef<HTMLDivElement>(null);
+  // Navigation closes the menu (adjusted while rendering, not in an effect).
   const pathname = usePathname();
-  useEffect(() => setOpen(false), [pathname]);
+  const [shownOn, setShownOn] = useState(pathname);
+  if (shownOn !== pathname) {
+    setShownOn(pathname);
+    setOpen(false);
+  }
   useEffect(() => {
     if (!open) return;
     const onKey = (e: KeyboardEvent) => e.key === "Escape" && setOpen(false);
@@ -51,7 +53,9 @@ function Menu({ label, buttonLabel, children, align = "left" }: { label: string;
         </svg>
       </button>
       {open ? (
-        <div className={`absolute z-30 mt-1 min-w-56 rounded-md border border-rule bg-panel py-1 shadow-md ${align === "right" ? "right-0" : "left-0"}`}>{children}</div>
+        <div className={`absolute z-30 mt-1 min-w-56 rounded-md border border-rule bg-panel py-1 shadow-md ${align === "right" ? "right-0" : "left-0"}`}>
+          {children}
+        </div>
       ) : null}
     </div>
   );
@@ -84,7 +88,10 @@ export function SectionNav() {
   if (!params.teamId) return null;
   const base = `/teams/${params.teamId}`;
   return (
-    <nav aria-label="Team sections" className="order-last -mx-1 flex w-full items-center gap-0.5 overflow-x-auto px-1 sm:order-none sm:mx-0 sm:w-auto sm:gap-1 sm:overflow-visible sm:px-0">
+    <nav
+      aria-label="Team sections"
+      className="order-last -mx-1 flex w-full items-center gap-0.5 overflow-x-auto px-1 sm:order-none sm:mx-0 sm:w-auto sm:gap-1 sm:overflow-visible sm:px-0"
+    >
       {SECTIONS.map((s) => {
         const href = base + s.path;
         const active = s.path === "" ? pathname === base : pathname === href || pathname.startsWith(href + "/");

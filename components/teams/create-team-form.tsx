@@ -1,34 +1,24 @@
 "use client";
 import { useRouter } from "next/navigation";
-import { useState, type FormEvent } from "react";
+import type { FormEvent } from "react";
 import { Notice } from "@/components/ui/card";
 import { TextField } from "@/components/ui/field";
 import { buttonClass } from "@/components/ui/button";
-import { ApiRequestError, apiSend } from "@/lib/api-client";
+import { useApiForm } from "@/components/ui/use-api-form";
+import { apiSend } from "@/lib/api-client";
 
 export function CreateTeamForm() {
   const router = useRouter();
-  const [fields, setFields] = useState<Record<string, string[]>>({});
-  const [message, setMessage] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+  const { fields, message, busy, run } = useApiForm();
 
-  async function onSubmit(e: FormEvent<HTMLFormElement>) {
+  function onSubmit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
     const name = String(new FormData(e.currentTarget).get("name") ?? "");
-    setBusy(true);
-    setFields({});
-    setMessage(null);
-    try {
+    void run(async () => {
       const r = await apiSend<{ team: { id: string } }>("POST", "/api/teams", { name });
       router.push(`/teams/${r.team.id}`);
       router.refresh();
-    } catch (err) {
-      if (err instanceof ApiRequestError) {
-        setFields(err.failure.fields);
-        if (!Object.keys(err.failure.fields).length) setMessage(err.failure.message);
-      } else setMessage("Something went wrong.");
-      setBusy(false);
-    }
+    });
   }
 
   return (

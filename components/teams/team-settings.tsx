@@ -5,26 +5,16 @@ import useSWR, { SWRConfig } from "swr";
 import { Badge, Card, Notice } from "@/components/ui/card";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Button, buttonClass } from "@/components/ui/button";
-import { ApiRequestError, apiSend, fetchJson } from "@/lib/api-client";
+import type { Member } from "@/db/queries/teams";
+import type { Role } from "@/lib/access";
+import type { publicInvite } from "@/lib/invites";
+import { ApiRequestError, apiSend, errorMessage, fetchJson } from "@/lib/api-client";
+import { swrKeys } from "@/lib/swr-keys";
 
-type Role = "owner" | "editor" | "viewer";
-export interface SettingsMember {
-  userId: string;
-  email: string;
-  name: string;
-  role: Role;
-  joinedAt: number;
-}
-export interface SettingsInvite {
-  id: string;
-  email: string;
-  role: Role;
-  createdAt: number;
-  expiresAt: number;
-  status: "pending" | "accepted" | "revoked" | "expired";
-}
-type MembersBody = { members: SettingsMember[]; you: { userId: string; role: Role } };
-type InvitesBody = { invites: SettingsInvite[] };
+/** An invite as the API shows it (GET/POST /api/teams/[teamId]/invites). */
+type PublicInvite = ReturnType<typeof publicInvite>;
+type MembersBody = { members: Member[]; you: { userId: string; role: Role } };
+type InvitesBody = { invites: PublicInvite[] };
 
 const dateFmt = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" });
 const ROLE_HELP: Record<Role, string> = {
@@ -33,13 +23,9 @@ const ROLE_HELP: Record<Role, string> = {
   viewer: "read only",
 };
 
-function messageOf(err: unknown): string {
-  return err instanceof ApiRequestError ? err.failure.message : "Something went wrong.";
-}
-
 export function TeamSettings(props: { teamId: string; teamName: string; role: Role; userId: string; members: MembersBody; invites: InvitesBody | null }) {
-  const fallback: Record<string, unknown> = { [`/api/teams/${props.teamId}/members`]: props.members };
-  if (props.invites) fallback[`/api/teams/${props.teamId}/invites`] = props.invites;
+  const fallback: Record<string, unknown> = { [swrKeys.teamMembers(props.teamId)]: props.members };
+  if (props.invites) fallback[swrKeys.teamInvites(props.teamId)] = props.invites;
   return (
     <SWRConfig value={{ fallback, fetcher: fetchJson }}>
       <SettingsBody {...props} />
@@ -51,7 +37,11 @@ function SettingsBody({ teamId, teamName, role, userId }: { teamId: string; team
   const isOwner = role === "owner";
   return (
     <div className="space-y-6">
-      {isOwner ? <RenameTeam teamId={teamId} teamName={teamName} /> : <Notice>Only owners can change members, roles, invites and the team name. You are {role === "editor" ? "an editor" : "a viewer"} here.</Notice>}
+      {isOwner ? (
+        <RenameTeam teamId={teamId} teamName={teamName} />
+      ) : (
+        <Notice>Only owners can change members, roles, invites and the team name. You are {role === "editor" ? "an editor" : "a viewer"} here.</Notice>
+      )}
       <Members teamId={teamId} isOwner={isOwner} userId={userId} />
       {isOwner ? <Invites teamId={teamId} /> : null}
     </div>
@@ -72,7 +62,7 @@ function RenameTeam({ teamId, teamName }: { teamId: string; teamName: string }) 
       setStatus("Saved.");
       router.refresh();
     } catch (err) {
-      setErrors(err instanceof ApiRequestError && err.failure.fields.name ? err.failure.fields.name : [messageOf(err)]);
+      setErrors(err instanceof ApiRequestError && err.fields.name ? err.fields.name : [errorMessage(err)]);
     }
   }
   return (
@@ -94,23 +84,23 @@ function RenameTeam({ teamId, teamName }: { teamId: string; teamName: string }) 
 
 function Members({ teamId, isOwner, userId }: { teamId: string; isOwner: boolean; userId: string }) {
   const router = useRouter();
-  const key = `/api/teams/${teamId}/members`;
+  const key = swrKeys.teamMembers(teamId);
   const { data, mutate } = useSWR<MembersBody>(key);
   const [error, setError] = useState<string | null>(null);
   const members = data?.members ?? [];
 
-  async function changeRole(m: SettingsMember, role: Role) {
+  async function changeRole(m: Member, role: Role) {
     setError(null);
     try {
       await apiSend("PATCH", `${key}/${m.userId}`, { role });
       await mutate();
       if (m.userId === userId) router.refresh();
     } catch (err) {
-      setError(messageOf(err));
+      setError(errorMessage(err));
       await mutate();
     }
   }
-  async function remove(m: SettingsMember) {
+  async function remove(m: Member) {
     const self = m.userId === userId;
     if (!window.confirm(self ? "Leave this team? You lose access to its data." : `Remove ${m.name} (${m.email}) from the team?`)) return;
     setError(null);
@@ -121,7 +111,7 @@ function Members({ teamId, isOwner, userId }: { teamId: string; isOwner: boolean
         router.refresh();
       } else await mutate();
     } catch (err) {
-      setError(messageOf(err));
+      setError(errorMessage(err));
     }
   }
 
@@ -136,11 +126,21 @@ function Members({ teamId, isOwner, userId }: { teamId: string; isOwner: boolean
         <caption className="sr-only">Team members and their roles</caption>
         <thead>
           <tr className="border-b border-rule text-left text-xs uppercase tracking-wide text-muted">
-            <th scope="col" className="py-1.5 pr-3 font-medium">Name</th>
-            <th scope="col" className="py-1.5 pr-3 font-medium">E-mail</th>
-            <th scope="col" className="py-1.5 pr-3 font-medium">Role</th>
-            <th scope="col" className="py-1.5 pr-3 font-medium">Joined</th>
-            <th scope="col" className="py-1.5 font-medium"><span className="sr-only">Actions</span></th>
+            <th scope="col" className="py-1.5 pr-3 font-medium">
+              Name
+            </th>
+            <th scope="col" className="py-1.5 pr-3 font-medium">
+              E-mail
+            </th>
+            <th scope="col" className="py-1.5 pr-3 font-medium">
+              Role
+            </th>
+            <th scope="col" className="py-1.5 pr-3 font-medium">
+              Joined
+            </th>
+            <th scope="col" className="py-1.5 font-medium">
+              <span className="sr-only">Actions</span>
+            </th>
           </tr>
         </thead>
         <tbody className="divide-y divide-rule">
@@ -196,7 +196,7 @@ function Members({ teamId, isOwner, userId }: { teamId: string; isOwner: boolean
 }
 
 function Invites({ teamId }: { teamId: string }) {
-  const key = `/api/teams/${teamId}/invites`;
+  const key = swrKeys.teamInvites(teamId);
   const { data, mutate } = useSWR<InvitesBody>(key);
   const [fields, setFields] = useState<Record<string, string[]>>({});
   const [message, setMessage] = useState<{ tone: "good" | "bad"; text: string } | null>(null);
@@ -211,7 +211,7 @@ function Invites({ teamId }: { teamId: string }) {
     setFields({});
     setMessage(null);
     try {
-      const r = await apiSend<{ invite: SettingsInvite; mail: { status: string } }>("POST", key, body);
+      const r = await apiSend<{ invite: PublicInvite; mail: { status: string } }>("POST", key, body);
       setMessage(
         r.mail.status === "sent"
           ? { tone: "good", text: `Invite sent to ${r.invite.email}.` }
@@ -220,19 +220,19 @@ function Invites({ teamId }: { teamId: string }) {
       form.reset();
       await mutate();
     } catch (err) {
-      if (err instanceof ApiRequestError && Object.keys(err.failure.fields).length) setFields(err.failure.fields);
-      else setMessage({ tone: "bad", text: messageOf(err) });
+      if (err instanceof ApiRequestError && err.hasFields) setFields(err.fields);
+      else setMessage({ tone: "bad", text: errorMessage(err) });
     } finally {
       setBusy(false);
     }
   }
-  async function revoke(i: SettingsInvite) {
+  async function revoke(i: PublicInvite) {
     setMessage(null);
     try {
       await apiSend("DELETE", `${key}/${i.id}`);
       await mutate();
     } catch (err) {
-      setMessage({ tone: "bad", text: messageOf(err) });
+      setMessage({ tone: "bad", text: errorMessage(err) });
     }
   }
 
@@ -249,7 +249,9 @@ function Invites({ teamId }: { teamId: string }) {
           {busy ? "Sending…" : "Send invite"}
         </button>
       </form>
-      <p className="mt-2 text-xs text-muted">The link in the e-mail works once and expires after 7 days. A new invite to the same address replaces the old link.</p>
+      <p className="mt-2 text-xs text-muted">
+        The link in the e-mail works once and expires after 7 days. A new invite to the same address replaces the old link.
+      </p>
       {message ? (
         <div className="mt-3">
           <Notice tone={message.tone}>{message.text}</Notice>
@@ -260,11 +262,21 @@ function Invites({ teamId }: { teamId: string }) {
           <caption className="sr-only">Invites sent from this team</caption>
           <thead>
             <tr className="border-b border-rule text-left text-xs uppercase tracking-wide text-muted">
-              <th scope="col" className="py-1.5 pr-3 font-medium">E-mail</th>
-              <th scope="col" className="py-1.5 pr-3 font-medium">Role</th>
-              <th scope="col" className="py-1.5 pr-3 font-medium">Status</th>
-              <th scope="col" className="py-1.5 pr-3 font-medium">Expires</th>
-              <th scope="col" className="py-1.5 font-medium"><span className="sr-only">Actions</span></th>
+              <th scope="col" className="py-1.5 pr-3 font-medium">
+                E-mail
+              </th>
+              <th scope="col" className="py-1.5 pr-3 font-medium">
+                Role
+              </th>
+              <th scope="col" className="py-1.5 pr-3 font-medium">
+                Status
+              </th>
+              <th scope="col" className="py-1.5 pr-3 font-medium">
+                Expires
+              </th>
+              <th scope="col" className="py-1.5 font-medium">
+                <span className="sr-only">Actions</span>
+              </th>
             </tr>
           </thead>
           <tbody className="divide-y divide-rule">

@@ -49,7 +49,14 @@ export function SelectField({
       <label htmlFor={fieldId} className="mb-1 block text-sm font-medium text-ink">
         {label}
       </label>
-      <select id={fieldId} name={name} aria-invalid={errors?.length ? true : undefined} aria-describedby={errors?.length ? errId : undefined} className={inputClass} {...props}>
+      <select
+        id={fieldId}
+        name={name}
+        aria-invalid={errors?.length ? true : undefined}
+        aria-describedby={errors?.length ? errId : undefined}
+        className={inputClass}
+        {...props}
+      >
         {children}
       </select>
       <FieldErrors id={errId} errors={errors} />

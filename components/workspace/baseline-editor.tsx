@@ -3,34 +3,21 @@ import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useMemo, useState } from "react";
 import useSWR from "swr";
+import type { BaselineRevision, BaselineWithClasses } from "@/db/queries/baselines";
+import type { StoredWireClass } from "@/db/queries/wire-classes";
+import type { Role } from "@/lib/access";
 import { METALS, TIERS, type Technology, type Tier, type WireClass } from "@/lib/scaling";
+import { ApiRequestError, apiSend, errorMessage, fetchJson, staleVersionOf } from "@/lib/api-client";
+import { swrKeys } from "@/lib/swr-keys";
 import { Button, ButtonLink } from "@/components/ui/button";
 import { Badge, Card, Notice } from "@/components/ui/card";
 import { inputClass } from "@/components/ui/field";
-import { ApiFailure, api, fetcher } from "./api";
 import { NumberField } from "./number-field";
 import { U, formatValue, parseValue, type DisplayUnit } from "./units";
 import { ConfirmDelete } from "@/components/ui/confirm-delete";
 
-export interface StoredClassDto extends WireClass {
-  id: string;
-  position: number;
-  histogramBins: number;
-}
-
-export interface BaselineFullDto {
-  id: string;
-  teamId: string;
-  name: string;
-  description: string;
-  technology: Technology;
-  isDemo: boolean;
-  version: number;
-  createdBy: string | null;
-  classes: StoredClassDto[];
-}
-
-type NumKey = "widthM" | "thicknessM" | "spacingM" | "ildBelowM" | "ildAboveM" | "barrierM" | "k" | "netCount" | "meanLengthM" | "driverOhm" | "loadF" | "activity";
+type NumKey =
+  "widthM" | "thicknessM" | "spacingM" | "ildBelowM" | "ildAboveM" | "barrierM" | "k" | "netCount" | "meanLengthM" | "driverOhm" | "loadF" | "activity";
 // Input widths per column (Tailwind classes) keep the editable table within a 1280 px layout.
 const NUM_COLS: { key: NumKey; label: string; unit: DisplayUnit; optional?: boolean; int?: boolean; width: string }[] = [
   { key: "widthM", label: "Width", unit: U.nm, width: "w-14" },
@@ -58,7 +45,7 @@ interface Row {
 }
 
 let rowSeq = 0;
-function toRow(c: StoredClassDto | (WireClass & { id?: string; histogramBins?: number })): Row {
+function toRow(c: StoredWireClass | (WireClass & { id?: string; histogramBins?: number })): Row {
   const cells = {} as Record<NumKey, string>;
   for (const col of NUM_COLS) cells[col.key] = formatValue(c[col.key] as number | null, col.unit);
   return { key: `r${++rowSeq}`, id: c.id, name: c.name, tier: c.tier, metal: c.metal, cells, histogramBins: c.histogramBins ?? 0 };
@@ -85,16 +72,30 @@ function parseRow(r: Row): { value?: Record<string, unknown>; errors: Record<str
     else if (col.int && !Number.isInteger(p.value)) errors[col.key] = `${col.label} must be a whole number.`;
     else if (col.key === "k" && p.value < 1) errors[col.key] = "k must be at least 1 (vacuum).";
     else if (col.key === "activity" && p.value > 1) errors[col.key] = "Activity must be between 0 and 1.";
-    else if (["widthM", "thicknessM", "spacingM", "meanLengthM", "ildBelowM", "ildAboveM"].includes(col.key) && p.value === 0) errors[col.key] = `${col.label} must be greater than 0.`;
+    else if (["widthM", "thicknessM", "spacingM", "meanLengthM", "ildBelowM", "ildAboveM"].includes(col.key) && p.value === 0)
+      errors[col.key] = `${col.label} must be greater than 0.`;
     out[col.key] = p.value;
   }
   return { value: Object.keys(errors).length ? undefined : out, errors };
 }
 
-export function BaselineEditor({ initial, role, userId, scenarios }: { initial: BaselineFullDto; role: "owner" | "editor" | "viewer"; userId: string; scenarios: { id: string; name: string }[] }) {
+export function BaselineEditor({
+  initial,
+  role,
+  userId,
+  scenarios,
+}: {
+  initial: BaselineWithClasses;
+  role: Role;
+  userId: string;
+  scenarios: { id: string; name: string }[];
+}) {
   const router = useRouter();
-  const url = `/api/baselines/${initial.id}`;
-  const { data, mutate } = useSWR<{ baseline: BaselineFullDto }>(url, fetcher, { fallbackData: { baseline: initial }, revalidateOnFocus: false });
+  const url = swrKeys.baseline(initial.id);
+  const { data, mutate } = useSWR<{ baseline: BaselineWithClasses }>(url, fetchJson, {
+    fallbackData: { baseline: initial },
+    revalidateOnFocus: false,
+  });
   const b = data!.baseline;
   const readOnly = role === "viewer";
   const canDelete = role === "owner" || (role === "editor" && b.createdBy === userId);
@@ -149,11 +150,14 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
     try {
       let v = version;
       if (metaDirty) {
-        const r = await api<{ baseline: BaselineFullDto }>("PATCH", url, { version: v, ...meta });
+        const r = await apiSend<{ baseline: BaselineWithClasses }>("PATCH", url, { version: v, ...meta });
         v = r.baseline.version;
       }
       if (classesDirty) {
-        const r = await api<{ baseline: BaselineFullDto }>("PUT", `${url}/classes`, { version: v, classes: parsed.map((p) => p.value) });
+        const r = await apiSend<{ baseline: BaselineWithClasses }>("PUT", `${url}/classes`, {
+          version: v,
+          classes: parsed.map((p) => p.value),
+        });
         v = r.baseline.version;
         setRows(r.baseline.classes.map(toRow));
         await mutate({ baseline: r.baseline }, { revalidate: false });
@@ -161,11 +165,13 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
       setVersion(v);
       setMsg({ tone: "good", text: `Saved as version ${v}.` });
     } catch (e) {
-      if (e instanceof ApiFailure && e.code === "stale_version") setStale(Number(e.body.currentVersion));
-      else if (e instanceof ApiFailure) {
+      const current = staleVersionOf(e);
+      if (current !== null) setStale(current);
+      else if (e instanceof ApiRequestError && e.isNetworkError) setMsg({ tone: "bad", text: "Could not reach the server; your changes are still here." });
+      else if (e instanceof ApiRequestError) {
         setServerErrors(e.fields);
         setMsg({ tone: "bad", text: e.message });
-      } else setMsg({ tone: "bad", text: "Could not reach the server; your changes are still here." });
+      } else setMsg({ tone: "bad", text: errorMessage(e) });
     } finally {
       setBusy(false);
     }
@@ -185,7 +191,7 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
   async function saveAsCopy() {
     setBusy(true);
     try {
-      const r = await api<{ baseline: { id: string } }>("POST", `/api/teams/${b.teamId}/baselines`, {
+      const r = await apiSend<{ baseline: BaselineWithClasses }>("POST", `/api/teams/${b.teamId}/baselines`, {
         name: `${meta.name} (my copy ${new Date().toISOString().slice(0, 16).replace("T", " ")})`,
         description: meta.description,
         technology: meta.technology,
@@ -196,7 +202,7 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
       });
       router.push(`/teams/${b.teamId}/baselines/${r.baseline.id}`);
     } catch (e) {
-      setMsg({ tone: "bad", text: e instanceof Error ? e.message : "Could not save a copy." });
+      setMsg({ tone: "bad", text: errorMessage(e, "Could not save a copy.") });
       setBusy(false);
     }
   }
@@ -204,10 +210,10 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
   async function duplicate() {
     setBusy(true);
     try {
-      const r = await api<{ baseline: { id: string } }>("POST", `${url}/duplicate`, {});
+      const r = await apiSend<{ baseline: BaselineWithClasses }>("POST", `${url}/duplicate`, {});
       router.push(`/teams/${b.teamId}/baselines/${r.baseline.id}`);
     } catch (e) {
-      setMsg({ tone: "bad", text: e instanceof Error ? e.message : "Could not duplicate." });
+      setMsg({ tone: "bad", text: errorMessage(e, "Could not duplicate.") });
       setBusy(false);
     }
   }
@@ -215,10 +221,10 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
   async function remove() {
     setBusy(true);
     try {
-      await api("DELETE", url);
+      await apiSend("DELETE", url);
       router.push(`/teams/${b.teamId}/baselines`);
     } catch (e) {
-      setMsg({ tone: "bad", text: e instanceof Error ? e.message : "Delete failed." });
+      setMsg({ tone: "bad", text: errorMessage(e, "Delete failed.") });
       setBusy(false);
     }
   }
@@ -251,9 +257,23 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
             </>
           ) : (
             <div className="mt-1 space-y-1">
-              <input aria-label="Baseline name" name="baseline-name" className="w-full max-w-xl rounded border border-transparent bg-transparent px-1 text-xl font-semibold text-ink hover:border-rule focus:border-copper focus:outline-none focus:ring-2 focus:ring-copper/25" title="Click to rename" value={meta.name} onChange={(e) => setMeta((m) => ({ ...m, name: e.target.value }))} />
+              <input
+                aria-label="Baseline name"
+                name="baseline-name"
+                className="w-full max-w-xl rounded border border-transparent bg-transparent px-1 text-xl font-semibold text-ink hover:border-rule focus:border-copper focus:outline-none focus:ring-2 focus:ring-copper/25"
+                title="Click to rename"
+                value={meta.name}
+                onChange={(e) => setMeta((m) => ({ ...m, name: e.target.value }))}
+              />
               {serverErrors.name ? <p className="text-xs text-bad">{serverErrors.name.join(" ")}</p> : null}
-              <input aria-label="Description" className="w-full max-w-4xl rounded border border-transparent bg-transparent px-1 text-sm text-muted hover:border-rule focus:border-copper focus:outline-none focus:ring-2 focus:ring-copper/25" placeholder="Add a description" title="Click to edit the description" value={meta.description} onChange={(e) => setMeta((m) => ({ ...m, description: e.target.value }))} />
+              <input
+                aria-label="Description"
+                className="w-full max-w-4xl rounded border border-transparent bg-transparent px-1 text-sm text-muted hover:border-rule focus:border-copper focus:outline-none focus:ring-2 focus:ring-copper/25"
+                placeholder="Add a description"
+                title="Click to edit the description"
+                value={meta.description}
+                onChange={(e) => setMeta((m) => ({ ...m, description: e.target.value }))}
+              />
             </div>
           )}
         </div>
@@ -305,11 +325,46 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
             </>
           ) : (
             <>
-              <NumberField label="Supply" unit={U.V} value={tech.supplyV} onChange={(v) => setTech("supplyV", v)} check={(v) => (v <= 0 || v > 5 ? "Supply must be between 0 and 5 V." : undefined)} errors={serverErrors["technology.supplyV"]} />
-              <NumberField label="Clock" unit={U.GHz} value={tech.clockHz} onChange={(v) => setTech("clockHz", v)} check={(v) => (v <= 0 ? "Clock must be greater than 0." : undefined)} errors={serverErrors["technology.clockHz"]} />
-              <NumberField label="Repeater R0" unit={U.ohm} value={tech.repeaterR0Ohm} onChange={(v) => setTech("repeaterR0Ohm", v)} check={(v) => (v <= 0 ? "R0 must be greater than 0." : undefined)} errors={serverErrors["technology.repeaterR0Ohm"]} />
-              <NumberField label="Repeater C0" unit={U.fF} value={tech.repeaterC0F} onChange={(v) => setTech("repeaterC0F", v)} check={(v) => (v <= 0 ? "C0 must be greater than 0." : undefined)} errors={serverErrors["technology.repeaterC0F"]} />
-              <NumberField label="Delay budget" unit={U.ps} value={tech.delayBudgetS} onChange={(v) => setTech("delayBudgetS", v)} check={(v) => (v <= 0 ? "Budget must be greater than 0." : undefined)} errors={serverErrors["technology.delayBudgetS"]} />
+              <NumberField
+                label="Supply"
+                unit={U.V}
+                value={tech.supplyV}
+                onChange={(v) => setTech("supplyV", v)}
+                check={(v) => (v <= 0 || v > 5 ? "Supply must be between 0 and 5 V." : undefined)}
+                errors={serverErrors["technology.supplyV"]}
+              />
+              <NumberField
+                label="Clock"
+                unit={U.GHz}
+                value={tech.clockHz}
+                onChange={(v) => setTech("clockHz", v)}
+                check={(v) => (v <= 0 ? "Clock must be greater than 0." : undefined)}
+                errors={serverErrors["technology.clockHz"]}
+              />
+              <NumberField
+                label="Repeater R0"
+                unit={U.ohm}
+                value={tech.repeaterR0Ohm}
+                onChange={(v) => setTech("repeaterR0Ohm", v)}
+                check={(v) => (v <= 0 ? "R0 must be greater than 0." : undefined)}
+                errors={serverErrors["technology.repeaterR0Ohm"]}
+              />
+              <NumberField
+                label="Repeater C0"
+                unit={U.fF}
+                value={tech.repeaterC0F}
+                onChange={(v) => setTech("repeaterC0F", v)}
+                check={(v) => (v <= 0 ? "C0 must be greater than 0." : undefined)}
+                errors={serverErrors["technology.repeaterC0F"]}
+              />
+              <NumberField
+                label="Delay budget"
+                unit={U.ps}
+                value={tech.delayBudgetS}
+                onChange={(v) => setTech("delayBudgetS", v)}
+                check={(v) => (v <= 0 ? "Budget must be greater than 0." : undefined)}
+                errors={serverErrors["technology.delayBudgetS"]}
+              />
             </>
           )}
         </div>
@@ -324,7 +379,23 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
               onClick={() =>
                 setRows((rs) => [
                   ...rs,
-                  toRow({ name: freeName("New class"), tier: "intermediate", widthM: 40e-9, thicknessM: 80e-9, spacingM: 40e-9, ildBelowM: 80e-9, ildAboveM: 80e-9, barrierM: 2e-9, metal: "Cu", k: 2.7, netCount: 1000, meanLengthM: 50e-6, driverOhm: 2000, loadF: 1e-15, activity: 0.1 }),
+                  toRow({
+                    name: freeName("New class"),
+                    tier: "intermediate",
+                    widthM: 40e-9,
+                    thicknessM: 80e-9,
+                    spacingM: 40e-9,
+                    ildBelowM: 80e-9,
+                    ildAboveM: 80e-9,
+                    barrierM: 2e-9,
+                    metal: "Cu",
+                    k: 2.7,
+                    netCount: 1000,
+                    meanLengthM: 50e-6,
+                    driverOhm: 2000,
+                    loadF: 1e-15,
+                    activity: 0.1,
+                  }),
                 ])
               }
             >
@@ -334,16 +405,25 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
         }
       >
         <p className="mb-2 text-xs text-muted">
-          {readOnly ? "Values in the unit under each column heading." : "Type values in the unit under each column heading, or with any SI prefix (“0.02 µm” in a nm column)."} Empty ILD = no plane on that side.
+          {readOnly
+            ? "Values in the unit under each column heading."
+            : "Type values in the unit under each column heading, or with any SI prefix (“0.02 µm” in a nm column)."}{" "}
+          Empty ILD = no plane on that side.
         </p>
         {/* Scrolls sideways only on narrow screens; the class name stays pinned on the left. */}
         <div className="relative overflow-x-auto" role="region" aria-label="Wire class table" tabIndex={-1}>
           <table className="num w-full text-xs" data-testid="class-table">
             <thead className="text-muted">
               <tr className="border-b border-rule-strong align-bottom">
-                <th scope="col" className={`${STICKY} py-1 pr-1 text-left font-medium`}>Class</th>
-                <th scope="col" className="px-1 py-1 text-left font-medium">Tier</th>
-                <th scope="col" className="px-1 py-1 text-left font-medium">Metal</th>
+                <th scope="col" className={`${STICKY} py-1 pr-1 text-left font-medium`}>
+                  Class
+                </th>
+                <th scope="col" className="px-1 py-1 text-left font-medium">
+                  Tier
+                </th>
+                <th scope="col" className="px-1 py-1 text-left font-medium">
+                  Metal
+                </th>
                 {NUM_COLS.map((c) => (
                   <th key={c.key} scope="col" className="px-1 py-1 text-right font-medium leading-tight">
                     {c.label}
@@ -366,11 +446,15 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
                 <tr key={r.key} className="border-b border-rule/60 align-top">
                   {readOnly ? (
                     <>
-                      <th scope="row" className={`${STICKY} py-1 pr-1 text-left font-medium`}>{r.name}</th>
+                      <th scope="row" className={`${STICKY} py-1 pr-1 text-left font-medium`}>
+                        {r.name}
+                      </th>
                       <td className="px-1 py-1">{r.tier}</td>
                       <td className="px-1 py-1">{r.metal}</td>
                       {NUM_COLS.map((c) => (
-                        <td key={c.key} className="tabular px-1 py-1 text-right">{r.cells[c.key] || "—"}</td>
+                        <td key={c.key} className="tabular px-1 py-1 text-right">
+                          {r.cells[c.key] || "—"}
+                        </td>
                       ))}
                       <td className="tabular px-1 py-1 text-right">{r.histogramBins || "—"}</td>
                     </>
@@ -380,30 +464,55 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
                         <Cell label={`Name of row ${i + 1}`} value={r.name} onChange={(v) => update(i, { name: v })} errors={cellErr(i, "name")} width="w-24" />
                       </td>
                       <td className="px-1 py-0.5">
-                        <div className="w-[7.25rem]"><select aria-label={`Tier of ${r.name}`} className={`${inputClass} px-1 py-1 text-xs`} value={r.tier} onChange={(e) => update(i, { tier: e.target.value as Tier })}>
-                          {TIERS.map((t) => (
-                            <option key={t} value={t}>
-                              {t}
-                            </option>
-                          ))}
-                        </select></div>
+                        <div className="w-[7.25rem]">
+                          <select
+                            aria-label={`Tier of ${r.name}`}
+                            className={`${inputClass} px-1 py-1 text-xs`}
+                            value={r.tier}
+                            onChange={(e) => update(i, { tier: e.target.value as Tier })}
+                          >
+                            {TIERS.map((t) => (
+                              <option key={t} value={t}>
+                                {t}
+                              </option>
+                            ))}
+                          </select>
+                        </div>
                       </td>
                       <td className="px-1 py-0.5">
-                        <div className="w-16"><select aria-label={`Metal of ${r.name}`} className={`${inputClass} px-1 py-1 text-xs`} value={r.metal} onChange={(e) => update(i, { metal: e.target.value })}>
-                          {Object.keys(METALS).map((m) => (
-                            <option key={m} value={m}>
-                              {m}
-                            </option>
-                          ))}
-                        </select></div>
+                        <div className="w-16">
+                          <select
+                            aria-label={`Metal of ${r.name}`}
+                            className={`${inputClass} px-1 py-1 text-xs`}
+                            value={r.metal}
+                            onChange={(e) => update(i, { metal: e.target.value })}
+                          >
+                            {Object.keys(METALS).map((m) => (
+                              <option key={m} value={m}>
+                                {m}
+                              </option>
+                            ))}
+                          </select>
+                        </div>
                         {cellErr(i, "metal").length ? <p className="text-[11px] text-bad">{cellErr(i, "metal").join(" ")}</p> : null}
                       </td>
                       {NUM_COLS.map((c) => (
                         <td key={c.key} className="px-1 py-0.5">
-                          <Cell label={`${c.label} of ${r.name}${c.unit.label ? ` (${c.unit.label})` : ""}`} value={r.cells[c.key]} onChange={(v) => setCell(i, c.key, v)} errors={cellErr(i, c.key)} numeric placeholder={c.optional ? "none" : ""} width={c.width} />
+                          <Cell
+                            label={`${c.label} of ${r.name}${c.unit.label ? ` (${c.unit.label})` : ""}`}
+                            value={r.cells[c.key]}
+                            onChange={(v) => setCell(i, c.key, v)}
+                            errors={cellErr(i, c.key)}
+                            numeric
+                            placeholder={c.optional ? "none" : ""}
+                            width={c.width}
+                          />
                         </td>
                       ))}
-                      <td className="tabular px-1 py-1.5 text-right text-muted" title={r.histogramBins ? "Kept while the class keeps its row (renames included)" : undefined}>
+                      <td
+                        className="tabular px-1 py-1.5 text-right text-muted"
+                        title={r.histogramBins ? "Kept while the class keeps its row (renames included)" : undefined}
+                      >
                         {r.histogramBins || "—"}
                       </td>
                       <td className="whitespace-nowrap py-0.5 pl-1">
@@ -413,7 +522,16 @@ export function BaselineEditor({ initial, role, userId, scenarios }: { initial: 
                         <IconButton label={`Move ${r.name} down`} onClick={() => move(i, 1)} disabled={i === rows.length - 1}>
                           ↓
                         </IconButton>
-                        <IconButton label={`Duplicate ${r.name}`} onClick={() => setRows((rs) => [...rs.slice(0, i + 1), { ...r, key: `r${++rowSeq}`, id: undefined, name: freeName(`${r.name} copy`), histogramBins: 0 }, ...rs.slice(i + 1)])}>
+                        <IconButton
+                          label={`Duplicate ${r.name}`}
+                          onClick={() =>
+                            setRows((rs) => [
+                              ...rs.slice(0, i + 1),
+                              { ...r, key: `r${++rowSeq}`, id: undefined, name: freeName(`${r.name} copy`), histogramBins: 0 },
+                              ...rs.slice(i + 1),
+                            ])
+                          }
+                        >
                           +
                         </IconButton>
                         <IconButton label={`Delete ${r.name}`} onClick={() => setRows((rs) => rs.filter((_, j) => j !== i))}>
@@ -446,11 +564,15 @@ function CsvLinks({ teamId, baselineId, canImport }: { teamId: string; baselineI
           <Link className={link} href={importBase}>
             wire classes
           </Link>
-          <span className="text-faint" aria-hidden="true">·</span>
+          <span className="text-faint" aria-hidden="true">
+            ·
+          </span>
           <Link className={link} href={`${importBase}?kind=histograms`}>
             length histograms
           </Link>
-          <span className="text-faint" aria-hidden="true">·</span>
+          <span className="text-faint" aria-hidden="true">
+            ·
+          </span>
           <Link className={link} href="/help/csv">
             format reference
           </Link>
@@ -461,7 +583,9 @@ function CsvLinks({ teamId, baselineId, canImport }: { teamId: string; baselineI
         <a className={link} href={`/api/baselines/${baselineId}/export.csv`} download>
           wire classes
         </a>
-        <span className="text-faint" aria-hidden="true">·</span>
+        <span className="text-faint" aria-hidden="true">
+          ·
+        </span>
         <a className={link} href={`/api/baselines/${baselineId}/histograms/export.csv`} download>
           length histograms
         </a>
@@ -482,10 +606,34 @@ function Fact({ label, value }: { label: string; value: string }) {
   );
 }
 
-function Cell({ label, value, onChange, errors, numeric, placeholder, width }: { label: string; value: string; onChange: (v: string) => void; errors: string[]; numeric?: boolean; placeholder?: string; width: string }) {
+function Cell({
+  label,
+  value,
+  onChange,
+  errors,
+  numeric,
+  placeholder,
+  width,
+}: {
+  label: string;
+  value: string;
+  onChange: (v: string) => void;
+  errors: string[];
+  numeric?: boolean;
+  placeholder?: string;
+  width: string;
+}) {
   return (
     <div className={width}>
-      <input aria-label={label} value={value} placeholder={placeholder} onChange={(e) => onChange(e.target.value)} aria-invalid={errors.length ? true : undefined} inputMode={numeric ? "decimal" : undefined} className={`${inputClass} px-1 py-1 text-xs ${numeric ? "tabular text-right" : ""}`} />
+      <input
+        aria-label={label}
+        value={value}
+        placeholder={placeholder}
+        onChange={(e) => onChange(e.target.value)}
+        aria-invalid={errors.length ? true : undefined}
+        inputMode={numeric ? "decimal" : undefined}
+        className={`${inputClass} px-1 py-1 text-xs ${numeric ? "tabular text-right" : ""}`}
+      />
       {errors.length ? <p className="mt-0.5 text-[11px] leading-tight text-bad">{errors.join(" ")}</p> : null}
     </div>
   );
@@ -493,14 +641,20 @@ function Cell({ label, value, onChange, errors, numeric, placeholder, width }: {
 
 function IconButton({ label, children, ...props }: { label: string; children: React.ReactNode; onClick: () => void; disabled?: boolean }) {
   return (
-    <button type="button" aria-label={label} title={label} className="rounded px-1 py-0.5 text-muted hover:bg-rule/60 hover:text-ink disabled:opacity-30" {...props}>
+    <button
+      type="button"
+      aria-label={label}
+      title={label}
+      className="rounded px-1 py-0.5 text-muted hover:bg-rule/60 hover:text-ink disabled:opacity-30"
+      {...props}
+    >
       {children}
     </button>
   );
 }
 
 function BaselineHistory({ id, version }: { id: string; version: number }) {
-  const { data } = useSWR<{ revisions: { id: number; version: number; userName: string | null; at: number; summary: string }[] }>(`/api/baselines/${id}/revisions?v=${version}`, fetcher);
+  const { data } = useSWR<{ revisions: BaselineRevision[] }>(swrKeys.baselineRevisions(id, version), fetchJson);
   return (
     <Card title="History">
       {!data ? (

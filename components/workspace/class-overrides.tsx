@@ -1,5 +1,5 @@
 "use client";
-import { useEffect, useState } from "react";
+import { useState } from "react";
 import { METALS, type ClassOverride, type ScenarioSettings, type WireClass } from "@/lib/scaling";
 import { inputClass } from "@/components/ui/field";
 import { DielectricField } from "./settings-panel";
@@ -15,7 +15,19 @@ const CHECK: Record<NumKey, (v: number) => string | undefined> = {
 };
 
 /** Per-class overrides of the global settings; an empty cell inherits. */
-export function ClassOverrides({ settings, onChange, classes, readOnly, errors }: { settings: ScenarioSettings; onChange: (s: ScenarioSettings) => void; classes: WireClass[]; readOnly: boolean; errors: Record<string, string[]> }) {
+export function ClassOverrides({
+  settings,
+  onChange,
+  classes,
+  readOnly,
+  errors,
+}: {
+  settings: ScenarioSettings;
+  onChange: (s: ScenarioSettings) => void;
+  classes: WireClass[];
+  readOnly: boolean;
+  errors: Record<string, string[]>;
+}) {
   const setO = (name: string, patch: Partial<ClassOverride>) => {
     const next: ClassOverride = { ...(settings.overrides[name] ?? {}), ...patch };
     for (const k of Object.keys(next) as (keyof ClassOverride)[]) if (next[k] === undefined) delete next[k];
@@ -49,7 +61,9 @@ export function ClassOverrides({ settings, onChange, classes, readOnly, errors }
             if (readOnly)
               return (
                 <tr key={c.name} className="border-b border-rule/60">
-                  <th scope="row" className="py-1 pr-2 text-left font-medium">{c.name}</th>
+                  <th scope="row" className="py-1 pr-2 text-left font-medium">
+                    {c.name}
+                  </th>
                   <td className="px-1 text-right">{show(o.s)}</td>
                   <td className="px-1 text-right">{show(o.sL)}</td>
                   <td className="px-1">{show(o.k)}</td>
@@ -62,17 +76,36 @@ export function ClassOverrides({ settings, onChange, classes, readOnly, errors }
               );
             return (
               <tr key={c.name} className="border-b border-rule/60 align-top">
-                <th scope="row" className="pb-1 pr-2 pt-2.5 text-left font-medium">{c.name}</th>
+                <th scope="row" className="pb-1 pr-2 pt-2.5 text-left font-medium">
+                  {c.name}
+                </th>
                 {(["s", "sL"] as const).map((k) => (
                   <td key={k} className="px-1 py-0.5">
-                    <OptionalNumber label={`${k === "s" ? "S" : "S_L"} for ${c.name}`} value={o[k]} onChange={(v) => setO(c.name, { [k]: v })} check={CHECK[k]} errors={e(k)} />
+                    <OptionalNumber
+                      label={`${k === "s" ? "S" : "S_L"} for ${c.name}`}
+                      value={o[k]}
+                      onChange={(v) => setO(c.name, { [k]: v })}
+                      check={CHECK[k]}
+                      errors={e(k)}
+                    />
                   </td>
                 ))}
                 <td className="px-1 py-0.5">
-                  <DielectricField compact label={`k for ${c.name}`} value={o.k ?? null} onChange={(k) => setO(c.name, { k: k ?? undefined })} errors={e("k")} />
+                  <DielectricField
+                    compact
+                    label={`k for ${c.name}`}
+                    value={o.k ?? null}
+                    onChange={(k) => setO(c.name, { k: k ?? undefined })}
+                    errors={e("k")}
+                  />
                 </td>
                 <td className="px-1 py-0.5">
-                  <select aria-label={`Metal for ${c.name}`} className={`${inputClass} px-1 py-1 text-xs`} value={o.metal ?? ""} onChange={(ev) => setO(c.name, { metal: ev.target.value || undefined })}>
+                  <select
+                    aria-label={`Metal for ${c.name}`}
+                    className={`${inputClass} px-1 py-1 text-xs`}
+                    value={o.metal ?? ""}
+                    onChange={(ev) => setO(c.name, { metal: ev.target.value || undefined })}
+                  >
                     <option value="">—</option>
                     {Object.keys(METALS).map((m) => (
                       <option key={m} value={m}>
@@ -94,11 +127,24 @@ export function ClassOverrides({ settings, onChange, classes, readOnly, errors }
                   </select>
                 </td>
                 <td className="px-1 py-0.5">
-                  <OptionalNumber label={`Barrier thickness for ${c.name} (nm)`} unit={U.nm} value={o.barrierM} onChange={(v) => setO(c.name, { barrierM: v })} check={CHECK.barrierM} errors={e("barrierM")} />
+                  <OptionalNumber
+                    label={`Barrier thickness for ${c.name} (nm)`}
+                    unit={U.nm}
+                    value={o.barrierM}
+                    onChange={(v) => setO(c.name, { barrierM: v })}
+                    check={CHECK.barrierM}
+                    errors={e("barrierM")}
+                  />
                 </td>
                 {(["aspectRatio", "miller"] as const).map((k) => (
                   <td key={k} className="px-1 py-0.5">
-                    <OptionalNumber label={`${k === "miller" ? "Miller factor" : "Aspect ratio"} for ${c.name}`} value={o[k]} onChange={(v) => setO(c.name, { [k]: v })} check={CHECK[k]} errors={e(k)} />
+                    <OptionalNumber
+                      label={`${k === "miller" ? "Miller factor" : "Aspect ratio"} for ${c.name}`}
+                      value={o[k]}
+                      onChange={(v) => setO(c.name, { [k]: v })}
+                      check={CHECK[k]}
+                      errors={e(k)}
+                    />
                   </td>
                 ))}
               </tr>
@@ -106,22 +152,40 @@ export function ClassOverrides({ settings, onChange, classes, readOnly, errors }
           })}
         </tbody>
       </table>
-      <p className="mt-1 text-[11px] text-muted">Empty cells follow the global settings. Barrier nm replaces the barrier thickness (0 = barrier-free fill). k accepts an effective value for air gaps.</p>
+      <p className="mt-1 text-[11px] text-muted">
+        Empty cells follow the global settings. Barrier nm replaces the barrier thickness (0 = barrier-free fill). k accepts an effective value for air gaps.
+      </p>
     </div>
   );
 }
 
-function OptionalNumber({ label, value, onChange, check, errors, unit = U.none }: { unit?: DisplayUnit; label: string; value: number | undefined; onChange: (v: number | undefined) => void; check: (v: number) => string | undefined; errors?: string[] }) {
+function OptionalNumber({
+  label,
+  value,
+  onChange,
+  check,
+  errors,
+  unit = U.none,
+}: {
+  unit?: DisplayUnit;
+  label: string;
+  value: number | undefined;
+  onChange: (v: number | undefined) => void;
+  check: (v: number) => string | undefined;
+  errors?: string[];
+}) {
   const [text, setText] = useState(value === undefined ? "" : formatValue(value, unit));
   const [msg, setMsg] = useState<string | undefined>();
-  useEffect(() => {
+  // Follow a new value from outside (adjusted while rendering, not in an effect): keep the text when it already says it.
+  const [shown, setShown] = useState(value);
+  if (!Object.is(shown, value)) {
+    setShown(value);
     const p = parseValue(text, unit);
     if ((value === undefined && text.trim() !== "") || (value !== undefined && (!p.ok || p.value !== value))) {
       setText(value === undefined ? "" : formatValue(value, unit));
       setMsg(undefined);
     }
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [value]);
+  }
   const all = [...(msg ? [msg] : []), ...(errors ?? [])];
   return (
     <div className="w-16">

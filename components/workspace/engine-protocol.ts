@@ -1,4 +1,14 @@
-import type { FieldSolveInput, FieldSolveResult, ModelLevel, ScenarioSettings, SweepCurve, SweepMetric, SweepVariable, Technology, WireClass } from "@/lib/scaling";
+import type {
+  FieldSolveInput,
+  FieldSolveResult,
+  ModelLevel,
+  ScenarioSettings,
+  SweepCurve,
+  SweepMetric,
+  SweepVariable,
+  Technology,
+  WireClass,
+} from "@/lib/scaling";
 
 export interface SweepArgs {
   classes: WireClass[];

@@ -32,7 +32,15 @@ export function FieldCheck({ results }: { results: ClassResult[] }) {
     worker.current ??= new EngineWorker();
     try {
       const r = await worker.current.field(
-        { widthM: cls.widthM, thicknessM: cls.thicknessM, spacingM: cls.spacingM, heightBelowM: below, heightAboveM: above, k: cls.k, resolution },
+        {
+          widthM: cls.widthM,
+          thicknessM: cls.thicknessM,
+          spacingM: cls.spacingM,
+          heightBelowM: below,
+          heightAboveM: above,
+          k: cls.k,
+          resolution,
+        },
         (f) => setProgress(f),
       );
       setOut({ r, cls });
@@ -44,15 +52,29 @@ export function FieldCheck({ results }: { results: ClassResult[] }) {
   }
 
   const closed = out
-    ? lineCapacitance({ widthM: out.cls.widthM, thicknessM: out.cls.thicknessM, spacingM: out.cls.spacingM, heightBelowM: out.cls.ildBelowM ?? out.cls.ildAboveM, heightAboveM: out.cls.ildBelowM === null ? null : out.cls.ildAboveM, k: out.cls.k, miller: 1, model: "coupled" })
+    ? lineCapacitance({
+        widthM: out.cls.widthM,
+        thicknessM: out.cls.thicknessM,
+        spacingM: out.cls.spacingM,
+        heightBelowM: out.cls.ildBelowM ?? out.cls.ildAboveM,
+        heightAboveM: out.cls.ildBelowM === null ? null : out.cls.ildAboveM,
+        k: out.cls.k,
+        miller: 1,
+        model: "coupled",
+      })
     : null;
-  const rows = out && closed
-    ? [
-        { label: "Ground (to planes)", numeric: out.r.groundFPerM, closed: closed.areaFPerM + closed.fringeFPerM },
-        { label: "Coupling (one neighbour)", numeric: out.r.couplingFPerM, closed: closed.couplingPerNeighbourFPerM },
-        { label: "Total (ground + 2 × coupling)", numeric: out.r.totalFPerM, closed: closed.areaFPerM + closed.fringeFPerM + 2 * closed.couplingPerNeighbourFPerM },
-      ]
-    : [];
+  const rows =
+    out && closed
+      ? [
+          { label: "Ground (to planes)", numeric: out.r.groundFPerM, closed: closed.areaFPerM + closed.fringeFPerM },
+          { label: "Coupling (one neighbour)", numeric: out.r.couplingFPerM, closed: closed.couplingPerNeighbourFPerM },
+          {
+            label: "Total (ground + 2 × coupling)",
+            numeric: out.r.totalFPerM,
+            closed: closed.areaFPerM + closed.fringeFPerM + 2 * closed.couplingPerNeighbourFPerM,
+          },
+        ]
+      : [];
 
   return (
     <div className="grid gap-4 md:grid-cols-[auto_1fr]">
@@ -80,14 +102,28 @@ export function FieldCheck({ results }: { results: ClassResult[] }) {
             {progress !== null ? "Solving…" : "Run field check"}
           </Button>
         </div>
-        <CrossSection widthM={cls.widthM} thicknessM={cls.thicknessM} spacingM={cls.spacingM} heightBelowM={below ?? cls.thicknessM} heightAboveM={above} barrierM={cls.barrierM} />
+        <CrossSection
+          widthM={cls.widthM}
+          thicknessM={cls.thicknessM}
+          spacingM={cls.spacingM}
+          heightBelowM={below ?? cls.thicknessM}
+          heightAboveM={above}
+          barrierM={cls.barrierM}
+        />
         <p className="max-w-[260px] text-[11px] text-muted">Scaled cross-section of the scenario, one dielectric k = {cls.k}. Neighbours are grounded.</p>
       </div>
       <div>
         {progress !== null ? (
           <div className="mb-3" aria-live="polite">
             <div className="mb-1 text-xs text-muted">Solving Laplace&apos;s equation on the cross-section… {Math.round(progress * 100)}%</div>
-            <div className="h-2 w-full max-w-sm overflow-hidden rounded bg-rule" role="progressbar" aria-valuemin={0} aria-valuemax={100} aria-valuenow={Math.round(progress * 100)} aria-label="Field check progress">
+            <div
+              className="h-2 w-full max-w-sm overflow-hidden rounded bg-rule"
+              role="progressbar"
+              aria-valuemin={0}
+              aria-valuemax={100}
+              aria-valuenow={Math.round(progress * 100)}
+              aria-label="Field check progress"
+            >
               <div className="h-full bg-copper transition-[width]" style={{ width: `${Math.max(3, progress * 100)}%` }} />
             </div>
           </div>
@@ -96,9 +132,7 @@ export function FieldCheck({ results }: { results: ClassResult[] }) {
         {out ? (
           <div data-testid="field-check-result">
             <table className="num w-full max-w-lg text-xs">
-              <caption className="mb-1 text-left text-xs font-semibold text-ink">
-                {out.cls.name}: numeric 2D solve vs closed form
-              </caption>
+              <caption className="mb-1 text-left text-xs font-semibold text-ink">{out.cls.name}: numeric 2D solve vs closed form</caption>
               <thead className="text-muted">
                 <tr className="border-b border-rule">
                   <th className="py-1 text-left font-medium">Part</th>
@@ -125,11 +159,14 @@ export function FieldCheck({ results }: { results: ClassResult[] }) {
             </table>
             <p className="mt-1 max-w-lg text-[11px] text-muted">Closed form: {closed?.accuracy}</p>
             <p className="mt-1 text-[11px] text-muted">
-              {out.r.cells.toLocaleString("en")} cells, {out.r.iterations} iterations, residual {out.r.residual.toExponential(1)}, {Math.round(out.r.elapsedMs)} ms. Difference = closed form relative to the numeric solve.
+              {out.r.cells.toLocaleString("en")} cells, {out.r.iterations} iterations, residual {out.r.residual.toExponential(1)}, {Math.round(out.r.elapsedMs)}{" "}
+              ms. Difference = closed form relative to the numeric solve.
             </p>
           </div>
         ) : progress === null && !error ? (
-          <p className="text-sm text-muted">Run a field check to set the closed-form capacitance of a class against a numeric 2D solve of its scaled cross-section.</p>
+          <p className="text-sm text-muted">
+            Run a field check to set the closed-form capacitance of a class against a numeric 2D solve of its scaled cross-section.
+          </p>
         ) : null}
       </div>
     </div>

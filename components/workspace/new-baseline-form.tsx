@@ -4,39 +4,39 @@ import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/card";
-import { ApiFailure, api } from "./api";
+import type { BaselineWithClasses } from "@/db/queries/baselines";
+import { useApiForm } from "@/components/ui/use-api-form";
+import { apiSend } from "@/lib/api-client";
 
 /** New baseline: empty, or a copy of an existing one (the demo baseline is a good start). */
 export function NewBaselineForm({ teamId, baselines }: { teamId: string; baselines: { id: string; name: string }[] }) {
   const router = useRouter();
   const [name, setName] = useState("");
   const [from, setFrom] = useState("");
-  const [errors, setErrors] = useState<Record<string, string[]>>({});
-  const [msg, setMsg] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+  const { fields: errors, message: msg, busy, run } = useApiForm();
   return (
     <form
       className="flex flex-wrap items-end gap-3"
-      onSubmit={async (e) => {
+      onSubmit={(e) => {
         e.preventDefault();
-        setBusy(true);
-        setErrors({});
-        setMsg(null);
-        try {
+        void run(async () => {
           const r = from
-            ? await api<{ baseline: { id: string } }>("POST", `/api/baselines/${from}/duplicate`, { name })
-            : await api<{ baseline: { id: string } }>("POST", `/api/teams/${teamId}/baselines`, { name });
+            ? await apiSend<{ baseline: BaselineWithClasses }>("POST", `/api/baselines/${from}/duplicate`, { name })
+            : await apiSend<{ baseline: BaselineWithClasses }>("POST", `/api/teams/${teamId}/baselines`, { name });
           router.push(`/teams/${teamId}/baselines/${r.baseline.id}`);
-        } catch (err) {
-          if (err instanceof ApiFailure) {
-            setErrors(err.fields);
-            setMsg(err.message);
-          } else setMsg("Could not reach the server.");
-          setBusy(false);
-        }
+        });
       }}
     >
-      <TextField label="Baseline name" name="name" value={name} onChange={(e) => setName(e.target.value)} errors={errors.name} placeholder="e.g. Tile A, N5 wiring" className="min-w-64" required />
+      <TextField
+        label="Baseline name"
+        name="name"
+        value={name}
+        onChange={(e) => setName(e.target.value)}
+        errors={errors.name}
+        placeholder="e.g. Tile A, N5 wiring"
+        className="min-w-64"
+        required
+      />
       <SelectField label="Start from" name="from" value={from} onChange={(e) => setFrom(e.target.value)}>
         <option value="">An empty class table</option>
         {baselines.map((b) => (
@@ -48,7 +48,7 @@ export function NewBaselineForm({ teamId, baselines }: { teamId: string; baselin
       <Button type="submit" disabled={busy}>
         {busy ? "Creating…" : "New baseline"}
       </Button>
-      {msg && !Object.keys(errors).length ? <Notice tone="bad">{msg}</Notice> : null}
+      {msg ? <Notice tone="bad">{msg}</Notice> : null}
     </form>
   );
 }

@@ -1,5 +1,5 @@
 "use client";
-import { useEffect, useId, useState } from "react";
+import { useId, useState } from "react";
 import { FieldErrors, inputClass } from "@/components/ui/field";
 import { formatValue, parseValue, U, type DisplayUnit } from "./units";
 
@@ -26,14 +26,16 @@ export function NumberField({ label, value, onChange, unit = U.none, check, erro
   const id = useId();
   const [text, setText] = useState(() => formatValue(value, unit));
   const [local, setLocal] = useState<string | undefined>();
-  useEffect(() => {
+  // Follow a new value from outside (adjusted while rendering, not in an effect): keep the text when it already says it.
+  const [shown, setShown] = useState(value);
+  if (!Object.is(shown, value)) {
+    setShown(value);
     const p = parseValue(text, unit);
     if (!p.ok || p.value !== value) {
       setText(formatValue(value, unit));
       setLocal(undefined);
     }
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [value]);
+  }
   const all = [...(local ? [local] : []), ...(errors ?? [])];
   return (
     <div className={className}>

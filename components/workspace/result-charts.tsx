@@ -33,7 +33,10 @@ export const RatioCharts = memo(function RatioCharts({ e }: { e: Evaluation }) {
           />
         ))}
       </div>
-      <p className="mt-1 text-[11px] text-muted">Per-length R and C; RC, delay and energy at each class&apos;s typical length. Bars: scenario ÷ baseline (dashed line = 1×, the baseline). Green: better than the baseline, red: worse, grey: within ±0.5%.</p>
+      <p className="mt-1 text-[11px] text-muted">
+        Per-length R and C; RC, delay and energy at each class&apos;s typical length. Bars: scenario ÷ baseline (dashed line = 1×, the baseline). Green: better
+        than the baseline, red: worse, grey: within ±0.5%.
+      </p>
     </Card>
   );
 });

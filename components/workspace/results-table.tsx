@@ -8,19 +8,88 @@ const FF_PER_UM = { label: "fF/µm", unitSI: 1e-9, base: "" as const, suffix: ""
 const PS_PER_MM = { label: "ps/mm", unitSI: 1e-9, base: "" as const, suffix: "" };
 const FJ = { label: "fJ", unitSI: 1e-15, base: "" as const, suffix: "" };
 
-type Col = { key: string; label: string; unit: string; get: (r: ClassResult) => number; ratio?: (c: ClassComparison) => number; concern?: "capacitance" | "resistivity" | "delay" | "repeaters"; title?: string };
+type Col = {
+  key: string;
+  label: string;
+  unit: string;
+  get: (r: ClassResult) => number;
+  ratio?: (c: ClassComparison) => number;
+  concern?: "capacitance" | "resistivity" | "delay" | "repeaters";
+  title?: string;
+};
 
 const COLS: Col[] = [
-  { key: "r", label: "R", unit: "Ω/µm", get: (r) => Number(fmtRaw(r.rOhmPerM, PER_UM_OHM.unitSI)), ratio: (c) => c.ratio.rOhmPerM, concern: "resistivity" },
-  { key: "c", label: "C total", unit: "fF/µm", get: (r) => Number(fmtRaw(r.cFPerM, FF_PER_UM.unitSI)), ratio: (c) => c.ratio.cFPerM, concern: "capacitance" },
-  { key: "ca", label: "area", unit: "fF/µm", get: (r) => Number(fmtRaw(r.capacitance.areaFPerM, FF_PER_UM.unitSI)), title: "Parallel-plate part to the plane(s)" },
-  { key: "cf", label: "fringe", unit: "fF/µm", get: (r) => Number(fmtRaw(r.capacitance.fringeFPerM, FF_PER_UM.unitSI)), title: "Fringing to the plane(s)" },
-  { key: "cc", label: "coupling", unit: "fF/µm", get: (r) => Number(fmtRaw(r.capacitance.couplingFPerM, FF_PER_UM.unitSI)), title: "Line-to-line, both neighbours, Miller factor applied" },
+  {
+    key: "r",
+    label: "R",
+    unit: "Ω/µm",
+    get: (r) => Number(fmtRaw(r.rOhmPerM, PER_UM_OHM.unitSI)),
+    ratio: (c) => c.ratio.rOhmPerM,
+    concern: "resistivity",
+  },
+  {
+    key: "c",
+    label: "C total",
+    unit: "fF/µm",
+    get: (r) => Number(fmtRaw(r.cFPerM, FF_PER_UM.unitSI)),
+    ratio: (c) => c.ratio.cFPerM,
+    concern: "capacitance",
+  },
+  {
+    key: "ca",
+    label: "area",
+    unit: "fF/µm",
+    get: (r) => Number(fmtRaw(r.capacitance.areaFPerM, FF_PER_UM.unitSI)),
+    title: "Parallel-plate part to the plane(s)",
+  },
+  {
+    key: "cf",
+    label: "fringe",
+    unit: "fF/µm",
+    get: (r) => Number(fmtRaw(r.capacitance.fringeFPerM, FF_PER_UM.unitSI)),
+    title: "Fringing to the plane(s)",
+  },
+  {
+    key: "cc",
+    label: "coupling",
+    unit: "fF/µm",
+    get: (r) => Number(fmtRaw(r.capacitance.couplingFPerM, FF_PER_UM.unitSI)),
+    title: "Line-to-line, both neighbours, Miller factor applied",
+  },
   { key: "rc", label: "RC", unit: "ps", get: (r) => Number(fmtRaw(r.rcS, 1e-12)), ratio: (c) => c.ratio.rcS },
-  { key: "d", label: "Delay 50%", unit: "ps", get: (r) => Number(fmtRaw(r.delayS, 1e-12)), ratio: (c) => c.ratio.delayS, concern: "delay", title: "Driver + line + load at the class's typical (mean) length" },
-  { key: "n", label: "Repeaters", unit: "", get: (r) => r.repeaters.count - 1, ratio: (c) => c.ratio.repeaters, concern: "repeaters", title: "Inserted repeaters on a line of the typical length (0 = driver only)" },
-  { key: "rd", label: "Repeated", unit: "ps/mm", get: (r) => Number(fmtRaw(r.repeaters.delayPerMS, PS_PER_MM.unitSI)), title: "Delay per mm of an optimally repeated line" },
-  { key: "e", label: "Energy", unit: "fJ", get: (r) => Number(fmtRaw(r.energyJ, FJ.unitSI)), ratio: (c) => c.ratio.energyJ, title: "C·V² per transition, line + load" },
+  {
+    key: "d",
+    label: "Delay 50%",
+    unit: "ps",
+    get: (r) => Number(fmtRaw(r.delayS, 1e-12)),
+    ratio: (c) => c.ratio.delayS,
+    concern: "delay",
+    title: "Driver + line + load at the class's typical (mean) length",
+  },
+  {
+    key: "n",
+    label: "Repeaters",
+    unit: "",
+    get: (r) => r.repeaters.count - 1,
+    ratio: (c) => c.ratio.repeaters,
+    concern: "repeaters",
+    title: "Inserted repeaters on a line of the typical length (0 = driver only)",
+  },
+  {
+    key: "rd",
+    label: "Repeated",
+    unit: "ps/mm",
+    get: (r) => Number(fmtRaw(r.repeaters.delayPerMS, PS_PER_MM.unitSI)),
+    title: "Delay per mm of an optimally repeated line",
+  },
+  {
+    key: "e",
+    label: "Energy",
+    unit: "fJ",
+    get: (r) => Number(fmtRaw(r.energyJ, FJ.unitSI)),
+    ratio: (c) => c.ratio.energyJ,
+    title: "C·V² per transition, line + load",
+  },
 ];
 
 function fmtRaw(v: number, unitSI: number): number {
@@ -46,7 +115,9 @@ export function ResultsTable({ evaluation, dataKey }: { evaluation: Evaluation; 
         <caption className="sr-only">Results per wire class: baseline, scenario and scenario/baseline ratio</caption>
         <thead>
           <tr className="border-b border-rule-strong text-muted">
-            <th scope="col" className="py-1.5 pr-2 text-left font-medium">Class</th>
+            <th scope="col" className="py-1.5 pr-2 text-left font-medium">
+              Class
+            </th>
             <th scope="col" className="pr-2 text-left font-medium" />
             {COLS.map((c) => (
               <th key={c.key} scope="col" className="px-1.5 text-right font-medium" title={c.title}>

@@ -1,19 +1,25 @@
 "use client";
 import useSWR from "swr";
 import { Button } from "@/components/ui/button";
-import { fetcher } from "./api";
-
-export interface RevisionRow {
-  id: number;
-  version: number;
-  userName: string | null;
-  at: number;
-  summary: string;
-}
+import type { ScenarioRevision } from "@/db/queries/scenarios";
+import { fetchJson } from "@/lib/api-client";
+import { swrKeys } from "@/lib/swr-keys";
 
 /** A scenario's history, newest first; editors can restore an old revision (which becomes a new one). */
-export function RevisionHistory({ scenarioId, currentVersion, canRestore, onRestore, busy }: { scenarioId: string; currentVersion: number; canRestore: boolean; onRestore: (r: RevisionRow) => void; busy: boolean }) {
-  const { data, error } = useSWR<{ revisions: RevisionRow[] }>(`/api/scenarios/${scenarioId}/revisions?v=${currentVersion}`, fetcher);
+export function RevisionHistory({
+  scenarioId,
+  currentVersion,
+  canRestore,
+  onRestore,
+  busy,
+}: {
+  scenarioId: string;
+  currentVersion: number;
+  canRestore: boolean;
+  onRestore: (r: ScenarioRevision) => void;
+  busy: boolean;
+}) {
+  const { data, error } = useSWR<{ revisions: ScenarioRevision[] }>(swrKeys.scenarioRevisions(scenarioId, currentVersion), fetchJson);
   if (error) return <p className="text-xs text-bad">Could not load the history.</p>;
   if (!data) return <p className="text-xs text-muted">Loading history…</p>;
   return (
@@ -24,7 +30,8 @@ export function RevisionHistory({ scenarioId, currentVersion, canRestore, onRest
           <span className="flex-1">
             <span className="text-ink">{r.summary}</span>
             <span className="block text-muted">
-              {r.userName ?? "someone"} · <time dateTime={new Date(r.at).toISOString()}>{new Date(r.at).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short" })}</time>
+              {r.userName ?? "someone"} ·{" "}
+              <time dateTime={new Date(r.at).toISOString()}>{new Date(r.at).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short" })}</time>
             </span>
           </span>
           {canRestore && r.version !== currentVersion ? (

@@ -2,17 +2,21 @@
 import Link from "next/link";
 import { useRouter } from "next/navigation";
 import dynamic from "next/dynamic";
-import { useCallback, useDeferredValue, useEffect, useMemo, useState } from "react";
+import { useCallback, useDeferredValue, useMemo, useState } from "react";
 import useSWR from "swr";
-import { evaluateScenario, type Evaluation, type ScenarioSettings, type Technology, type WireClass } from "@/lib/scaling";
+import type { BaselineWithClasses } from "@/db/queries/baselines";
+import type { Role } from "@/lib/access";
+import type { Scenario, ScenarioRevision, ScenarioSummary } from "@/db/queries/scenarios";
+import { evaluateScenario, type Evaluation, type ScenarioSettings, type WireClass } from "@/lib/scaling";
+import { apiSend, errorMessage, fetchJson, staleVersionOf, ApiRequestError } from "@/lib/api-client";
+import { swrKeys } from "@/lib/swr-keys";
 import { Caution } from "@/components/caution";
 import { Button } from "@/components/ui/button";
 import { Badge, Card, Notice } from "@/components/ui/card";
 import { inputClass } from "@/components/ui/field";
-import { ApiFailure, api, fetcher } from "./api";
 import { ClassOverrides } from "./class-overrides";
 import { ResultsTable } from "./results-table";
-import { RevisionHistory, type RevisionRow } from "./revision-history";
+import { RevisionHistory } from "./revision-history";
 import { LEVEL_LABEL, SettingsPanel } from "./settings-panel";
 import { SweepPanel, type SweepView } from "./sweep-panel";
 import { fmt, U } from "./units";
@@ -31,28 +35,6 @@ const FieldCheck = dynamic(() => import("./field-check").then((m) => m.FieldChec
   loading: () => <p className="text-sm text-muted">Loading the field check…</p>,
 });
 
-export interface ScenarioDto {
-  id: string;
-  teamId: string;
-  baselineId: string;
-  name: string;
-  notes: string;
-  settings: ScenarioSettings;
-  version: number;
-  isDemo: boolean;
-  createdBy: string | null;
-  updatedAt: number;
-}
-
-export interface BaselineDto {
-  id: string;
-  name: string;
-  version: number;
-  isDemo: boolean;
-  technology: Technology;
-  classes: (WireClass & { id: string; histogramBins: number })[];
-}
-
 type Draft = { name: string; notes: string; settings: ScenarioSettings };
 
 /** Short stable key of the settings: table and chart carry it so tests (and people) can tell when both caught up. */
@@ -66,32 +48,42 @@ function keyOf(s: ScenarioSettings): string {
 export function ScenarioEditor(props: {
   teamId: string;
   userId: string;
-  role: "owner" | "editor" | "viewer";
-  initialScenario: ScenarioDto;
-  initialBaseline: BaselineDto;
+  role: Role;
+  initialScenario: Scenario;
+  initialBaseline: BaselineWithClasses;
   initialView: SweepView;
 }) {
   const { teamId, role } = props;
   const router = useRouter();
   const readOnly = role === "viewer";
-  const sUrl = `/api/scenarios/${props.initialScenario.id}`;
-  const { data: sData, mutate: mutateScenario } = useSWR<{ scenario: ScenarioDto }>(sUrl, fetcher, { fallbackData: { scenario: props.initialScenario }, revalidateOnFocus: false });
+  const sUrl = swrKeys.scenario(props.initialScenario.id);
+  const { data: sData, mutate: mutateScenario } = useSWR<{ scenario: Scenario }>(sUrl, fetchJson, {
+    fallbackData: { scenario: props.initialScenario },
+    revalidateOnFocus: false,
+  });
   const scenario = sData!.scenario;
-  const bUrl = `/api/baselines/${scenario.baselineId}?histograms=1`;
-  const { data: bData } = useSWR<{ baseline: BaselineDto }>(bUrl, fetcher, { fallbackData: { baseline: props.initialBaseline }, revalidateOnFocus: false });
+  const { data: bData } = useSWR<{ baseline: BaselineWithClasses }>(swrKeys.baselineWithHistograms(scenario.baselineId), fetchJson, {
+    fallbackData: { baseline: props.initialBaseline },
+    revalidateOnFocus: false,
+  });
   const baseline = bData!.baseline;
-  const classes: WireClass[] = useMemo(() => baseline.classes.map(({ id: _i, histogramBins: _h, ...c }) => c as WireClass), [baseline]);
+  const classes: WireClass[] = useMemo(() => baseline.classes.map(({ id: _i, position: _p, histogramBins: _h, ...c }): WireClass => c), [baseline]);
 
   const [draft, setDraft] = useState<Draft>({ name: scenario.name, notes: scenario.notes, settings: scenario.settings });
   const [baseVersion, setBaseVersion] = useState(scenario.version);
   const saved: Draft = { name: scenario.name, notes: scenario.notes, settings: scenario.settings };
   const dirty = JSON.stringify(draft) !== JSON.stringify(saved) || baseVersion !== scenario.version;
-  // Follow the server when nothing is edited locally (e.g. after a restore or a reload).
-  useEffect(() => {
-    setDraft((d) => (baseVersion === scenario.version && JSON.stringify(d) !== JSON.stringify(saved) ? d : { name: scenario.name, notes: scenario.notes, settings: scenario.settings }));
+  // Follow the server when nothing is edited locally (e.g. after a restore or a reload); adjusted while rendering.
+  const [seenVersion, setSeenVersion] = useState(scenario.version);
+  if (seenVersion !== scenario.version) {
+    setSeenVersion(scenario.version);
+    setDraft((d) =>
+      baseVersion === scenario.version && JSON.stringify(d) !== JSON.stringify(saved)
+        ? d
+        : { name: scenario.name, notes: scenario.notes, settings: scenario.settings },
+    );
     setBaseVersion(scenario.version);
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [scenario.version]);
+  }
 
   const [view, setViewState] = useState<SweepView>(props.initialView);
   const setView = useCallback((v: SweepView) => {
@@ -126,17 +118,24 @@ export function ScenarioEditor(props: {
     setMessage(null);
     setFieldErrors({});
     try {
-      const r = await api<{ scenario: ScenarioDto }>("PATCH", sUrl, { version: baseVersion, name: draft.name, notes: draft.notes, settings: draft.settings });
+      const r = await apiSend<{ scenario: Scenario }>("PATCH", sUrl, {
+        version: baseVersion,
+        name: draft.name,
+        notes: draft.notes,
+        settings: draft.settings,
+      });
       setBaseVersion(r.scenario.version);
       await mutateScenario({ scenario: r.scenario }, { revalidate: false });
       setDraft({ name: r.scenario.name, notes: r.scenario.notes, settings: r.scenario.settings });
       setMessage({ tone: "good", text: `Saved as version ${r.scenario.version}.` });
     } catch (e) {
-      if (e instanceof ApiFailure && e.code === "stale_version") setConflict({ currentVersion: Number(e.body.currentVersion) });
-      else if (e instanceof ApiFailure) {
+      const stale = staleVersionOf(e);
+      if (stale !== null) setConflict({ currentVersion: stale });
+      else if (e instanceof ApiRequestError && e.isNetworkError) setMessage({ tone: "bad", text: "Could not reach the server; your changes are still here." });
+      else if (e instanceof ApiRequestError) {
         setFieldErrors(e.fields);
-        setMessage({ tone: "bad", text: e.message + (Object.keys(e.fields).length ? " " + Object.values(e.fields).flat().join(" ") : "") });
-      } else setMessage({ tone: "bad", text: "Could not reach the server; your changes are still here." });
+        setMessage({ tone: "bad", text: e.message + (e.hasFields ? " " + Object.values(e.fields).flat().join(" ") : "") });
+      } else setMessage({ tone: "bad", text: errorMessage(e) });
     } finally {
       setBusy(false);
     }
@@ -155,32 +154,38 @@ export function ScenarioEditor(props: {
   async function saveAsCopy() {
     setBusy(true);
     try {
-      const list = await api<{ scenarios: { name: string }[] }>("GET", `/api/teams/${teamId}/scenarios?baselineId=${scenario.baselineId}`);
+      const list = await apiSend<{ scenarios: ScenarioSummary[] }>("GET", `/api/teams/${teamId}/scenarios?baselineId=${scenario.baselineId}`);
       const names = new Set(list.scenarios.map((s) => s.name.toLowerCase()));
       let name = `${draft.name} (my copy)`;
       for (let i = 2; names.has(name.toLowerCase()); i++) name = `${draft.name} (my copy ${i})`;
-      const r = await api<{ scenario: ScenarioDto }>("POST", `/api/teams/${teamId}/scenarios`, { baselineId: scenario.baselineId, name, notes: draft.notes, settings: draft.settings });
+      const r = await apiSend<{ scenario: Scenario }>("POST", `/api/teams/${teamId}/scenarios`, {
+        baselineId: scenario.baselineId,
+        name,
+        notes: draft.notes,
+        settings: draft.settings,
+      });
       setConflict(null);
       router.push(`/teams/${teamId}/scenarios/${r.scenario.id}`);
     } catch (e) {
-      setMessage({ tone: "bad", text: e instanceof Error ? e.message : "Could not save a copy." });
+      setMessage({ tone: "bad", text: errorMessage(e, "Could not save a copy.") });
     } finally {
       setBusy(false);
     }
   }
 
-  async function restore(r: RevisionRow) {
+  async function restore(r: ScenarioRevision) {
     if (dirty && !window.confirm("Discard your unsaved changes and restore this revision?")) return;
     setBusy(true);
     try {
-      const res = await api<{ scenario: ScenarioDto }>("POST", `${sUrl}/restore`, { revisionId: r.id, version: scenario.version });
+      const res = await apiSend<{ scenario: Scenario }>("POST", `${sUrl}/restore`, { revisionId: r.id, version: scenario.version });
       await mutateScenario({ scenario: res.scenario }, { revalidate: false });
       setDraft({ name: res.scenario.name, notes: res.scenario.notes, settings: res.scenario.settings });
       setBaseVersion(res.scenario.version);
       setMessage({ tone: "good", text: `Restored version ${r.version} as version ${res.scenario.version}.` });
     } catch (e) {
-      if (e instanceof ApiFailure && e.code === "stale_version") setConflict({ currentVersion: Number(e.body.currentVersion) });
-      else setMessage({ tone: "bad", text: e instanceof Error ? e.message : "Restore failed." });
+      const stale = staleVersionOf(e);
+      if (stale !== null) setConflict({ currentVersion: stale });
+      else setMessage({ tone: "bad", text: errorMessage(e, "Restore failed.") });
     } finally {
       setBusy(false);
     }
@@ -189,10 +194,10 @@ export function ScenarioEditor(props: {
   async function remove() {
     setBusy(true);
     try {
-      await api("DELETE", sUrl);
+      await apiSend("DELETE", sUrl);
       router.push(`/teams/${teamId}/scenarios`);
     } catch (e) {
-      setMessage({ tone: "bad", text: e instanceof Error ? e.message : "Delete failed." });
+      setMessage({ tone: "bad", text: errorMessage(e, "Delete failed.") });
       setBusy(false);
     }
   }
@@ -229,7 +234,13 @@ export function ScenarioEditor(props: {
           ) : (
             <label className="mt-1 block">
               <span className="sr-only">Scenario name</span>
-              <input className="w-full min-w-[18rem] rounded border border-transparent bg-transparent px-1 text-xl font-semibold text-ink hover:border-rule focus:border-copper focus:outline-none" value={draft.name} name="scenario-name" onChange={(e) => setDraft((d) => ({ ...d, name: e.target.value }))} aria-invalid={fieldErrors.name ? true : undefined} />
+              <input
+                className="w-full min-w-[18rem] rounded border border-transparent bg-transparent px-1 text-xl font-semibold text-ink hover:border-rule focus:border-copper focus:outline-none"
+                value={draft.name}
+                name="scenario-name"
+                onChange={(e) => setDraft((d) => ({ ...d, name: e.target.value }))}
+                aria-invalid={fieldErrors.name ? true : undefined}
+              />
               {fieldErrors.name ? <span className="text-xs text-bad">{fieldErrors.name.join(" ")}</span> : null}
             </label>
           )}
@@ -275,17 +286,18 @@ export function ScenarioEditor(props: {
       <div className="grid gap-4 lg:grid-cols-[19rem_minmax(0,1fr)]">
         <aside className="space-y-4">
           <Card title="Scale factors and options">
-            {readOnly ? (
-              <ReadOnlySettings settings={s} />
-            ) : (
-              <SettingsPanel settings={s} onChange={setSettings} classes={classes} errors={fieldErrors} />
-            )}
+            {readOnly ? <ReadOnlySettings settings={s} /> : <SettingsPanel settings={s} onChange={setSettings} classes={classes} errors={fieldErrors} />}
           </Card>
           <Card title="Notes">
             {readOnly ? (
               <p className="whitespace-pre-wrap text-sm text-ink">{draft.notes || <span className="text-muted">No notes.</span>}</p>
             ) : (
-              <textarea aria-label="Notes" className={`${inputClass} min-h-24`} value={draft.notes} onChange={(e) => setDraft((d) => ({ ...d, notes: e.target.value }))} />
+              <textarea
+                aria-label="Notes"
+                className={`${inputClass} min-h-24`}
+                value={draft.notes}
+                onChange={(e) => setDraft((d) => ({ ...d, notes: e.target.value }))}
+              />
             )}
           </Card>
           <Card title="Technology (from the baseline)">
@@ -305,14 +317,23 @@ export function ScenarioEditor(props: {
         </aside>
 
         <div className="min-w-0 space-y-4">
-          <Card title={`Results — ${LEVEL_LABEL[s.level]}`} actions={
+          <Card
+            title={`Results — ${LEVEL_LABEL[s.level]}`}
+            actions={
               <span className="flex items-center gap-3 text-xs text-muted">
-                <a href={`/api/scenarios/${scenario.id}/results.csv`} download className="no-print font-medium text-copper-dark hover:underline" data-testid="results-csv" title={dirty ? "The CSV holds the last saved version, not your unsaved changes." : "Per-class results of this scenario as CSV"}>
+                <a
+                  href={`/api/scenarios/${scenario.id}/results.csv`}
+                  download
+                  className="no-print font-medium text-copper-dark hover:underline"
+                  data-testid="results-csv"
+                  title={dirty ? "The CSV holds the last saved version, not your unsaved changes." : "Per-class results of this scenario as CSV"}
+                >
                   Results CSV{dirty ? " (saved version)" : ""}
                 </a>
                 {evaluation ? <span>engine {evaluation.engineVersion}</span> : null}
               </span>
-            }>
+            }
+          >
             {evaluation ? (
               <>
                 <Totals e={evaluation} />
@@ -327,7 +348,11 @@ export function ScenarioEditor(props: {
             <ClassOverrides settings={s} onChange={setSettings} classes={classes} readOnly={readOnly} errors={fieldErrors} />
           </Card>
           <Card title="Sweep — metric against S">
-            {evaluation ? <SweepPanel classes={classes} technology={baseline.technology} settings={s} view={view} onView={setView} settingsKey={settingsKey} /> : <p className="text-sm text-muted">Fix the settings to see the sweep.</p>}
+            {evaluation ? (
+              <SweepPanel classes={classes} technology={baseline.technology} settings={s} view={view} onView={setView} settingsKey={settingsKey} />
+            ) : (
+              <p className="text-sm text-muted">Fix the settings to see the sweep.</p>
+            )}
           </Card>
           {deferredEval ? <RatioCharts e={deferredEval} /> : null}
           {deferredEval ? <Distributions e={deferredEval} budgetS={baseline.technology.delayBudgetS} /> : null}
@@ -360,7 +385,8 @@ function Totals({ e }: { e: Evaluation }) {
             <dd className="tabular text-sm font-semibold text-ink">
               {show(i.s)} {i.unit}{" "}
               <span className={`text-xs font-normal ${r < 0.995 ? "text-good" : r > 1.005 ? "text-bad" : "text-muted"}`}>
-                (baseline {show(i.b)}{Number.isFinite(r) ? `, ${r.toFixed(2)}×` : ""})
+                (baseline {show(i.b)}
+                {Number.isFinite(r) ? `, ${r.toFixed(2)}×` : ""})
               </span>
             </dd>
           </div>

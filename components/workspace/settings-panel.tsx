@@ -20,7 +20,10 @@ const LEVEL_HINT: Record<ModelLevel, string> = {
   full: "Coupling plus size-effect resistivity; barrier as set below.",
 };
 
-const positive = (label: string, max = 20) => (v: number) => (v <= 0 ? `${label} must be greater than 0.` : v > max ? `${label} must be at most ${max}.` : undefined);
+const positive =
+  (label: string, max = 20) =>
+  (v: number) =>
+    v <= 0 ? `${label} must be greater than 0.` : v > max ? `${label} must be at most ${max}.` : undefined;
 const kCheck = (v: number) => (v < 1 ? "k must be at least 1 (vacuum); use an effective k for air gaps." : v > 30 ? "k must be at most 30." : undefined);
 const millerCheck = (v: number) => (v < 0 || v > 2 ? "Miller factor must be between 0 and 2." : undefined);
 
@@ -37,14 +40,47 @@ export function SettingsPanel({ settings, onChange, classes, errors }: Props) {
   const err = (k: string) => errors[`settings.${k}`];
   return (
     <div className="space-y-4">
-      <SliderField label="S — cross-section factor" hint="W, T, spacing and ILD ÷ S" min={0.5} max={4} step={0.01} value={settings.s} onChange={(v) => set("s", v)} check={positive("S")} errors={err("s")} name="s" />
+      <SliderField
+        label="S — cross-section factor"
+        hint="W, T, spacing and ILD ÷ S"
+        min={0.5}
+        max={4}
+        step={0.01}
+        value={settings.s}
+        onChange={(v) => set("s", v)}
+        check={positive("S")}
+        errors={err("s")}
+        name="s"
+      />
       <PitchDerive classes={classes} onS={(s) => set("s", s)} />
-      <SliderField label="S_L — length factor" hint="wire lengths ÷ S_L" min={0.5} max={4} step={0.01} value={settings.sL} onChange={(v) => set("sL", v)} check={positive("S_L")} errors={err("sL")} name="sL" />
+      <SliderField
+        label="S_L — length factor"
+        hint="wire lengths ÷ S_L"
+        min={0.5}
+        max={4}
+        step={0.01}
+        value={settings.sL}
+        onChange={(v) => set("sL", v)}
+        check={positive("S_L")}
+        errors={err("sL")}
+        name="sL"
+      />
       <div>
         <label className="mb-1 block text-xs font-medium text-ink" htmlFor="level">
           Model level
         </label>
-        <select id="level" className={inputClass} value={settings.level} onChange={(e) => onChange({ ...settings, level: e.target.value as ModelLevel, barrierScales: e.target.value === "full" ? settings.barrierScales : true })}>
+        <select
+          id="level"
+          className={inputClass}
+          value={settings.level}
+          onChange={(e) =>
+            onChange({
+              ...settings,
+              level: e.target.value as ModelLevel,
+              barrierScales: e.target.value === "full" ? settings.barrierScales : true,
+            })
+          }
+        >
           {MODEL_LEVELS.map((l) => (
             <option key={l} value={l}>
               {LEVEL_LABEL[l]}
@@ -53,7 +89,18 @@ export function SettingsPanel({ settings, onChange, classes, errors }: Props) {
         </select>
         <p className="mt-1 text-[11px] text-muted">{LEVEL_HINT[settings.level]}</p>
       </div>
-      <SliderField label="Miller factor" hint="0 = neighbours switch with the victim, 1 = quiet, 2 = opposite" min={0} max={2} step={0.05} value={settings.miller} onChange={(v) => set("miller", v)} check={millerCheck} errors={err("miller")} name="miller" />
+      <SliderField
+        label="Miller factor"
+        hint="0 = neighbours switch with the victim, 1 = quiet, 2 = opposite"
+        min={0}
+        max={2}
+        step={0.05}
+        value={settings.miller}
+        onChange={(v) => set("miller", v)}
+        check={millerCheck}
+        errors={err("miller")}
+        name="miller"
+      />
       <fieldset>
         <legend className="mb-1 text-xs font-medium text-ink">Barrier / liner</legend>
         <div className="flex gap-4 text-sm">
@@ -80,16 +127,50 @@ export function SettingsPanel({ settings, onChange, classes, errors }: Props) {
         </select>
       </div>
       <div className="grid grid-cols-3 gap-2">
-        <NumberField label="Driver R ×" value={settings.deviceRFactor} onChange={(v) => set("deviceRFactor", v)} check={positive("Device R factor", 10)} errors={err("deviceRFactor")} hint="0.8 = 20% stronger" name="deviceRFactor" />
-        <NumberField label="Load C ×" value={settings.deviceCFactor} onChange={(v) => set("deviceCFactor", v)} check={positive("Device C factor", 10)} errors={err("deviceCFactor")} name="deviceCFactor" />
-        <NumberField label="Supply" unit={U.V} value={settings.supplyV} onChange={(v) => set("supplyV", v)} check={positive("Supply voltage", 5)} errors={err("supplyV")} name="supplyV" />
+        <NumberField
+          label="Driver R ×"
+          value={settings.deviceRFactor}
+          onChange={(v) => set("deviceRFactor", v)}
+          check={positive("Device R factor", 10)}
+          errors={err("deviceRFactor")}
+          hint="0.8 = 20% stronger"
+          name="deviceRFactor"
+        />
+        <NumberField
+          label="Load C ×"
+          value={settings.deviceCFactor}
+          onChange={(v) => set("deviceCFactor", v)}
+          check={positive("Device C factor", 10)}
+          errors={err("deviceCFactor")}
+          name="deviceCFactor"
+        />
+        <NumberField
+          label="Supply"
+          unit={U.V}
+          value={settings.supplyV}
+          onChange={(v) => set("supplyV", v)}
+          check={positive("Supply voltage", 5)}
+          errors={err("supplyV")}
+          name="supplyV"
+        />
       </div>
     </div>
   );
 }
 
 /** Slider plus typed input on one value; the slider covers the usual range, the input accepts anything valid. */
-export function SliderField(p: { label: string; hint?: string; min: number; max: number; step: number; value: number; onChange: (v: number) => void; check?: (v: number) => string | undefined; errors?: string[]; name: string }) {
+export function SliderField(p: {
+  label: string;
+  hint?: string;
+  min: number;
+  max: number;
+  step: number;
+  value: number;
+  onChange: (v: number) => void;
+  check?: (v: number) => string | undefined;
+  errors?: string[];
+  name: string;
+}) {
   const id = useId();
   return (
     <div>
@@ -120,7 +201,19 @@ export function SliderField(p: { label: string; hint?: string; min: number; max:
 }
 
 /** Dielectric: keep per-class k, a catalogue preset (air gap = effective k) or a typed k. */
-export function DielectricField({ value, onChange, errors, label = "Dielectric k (all classes)", compact }: { value: number | null; onChange: (k: number | null) => void; errors?: string[]; label?: string; compact?: boolean }) {
+export function DielectricField({
+  value,
+  onChange,
+  errors,
+  label = "Dielectric k (all classes)",
+  compact,
+}: {
+  value: number | null;
+  onChange: (k: number | null) => void;
+  errors?: string[];
+  label?: string;
+  compact?: boolean;
+}) {
   const id = useId();
   const preset = value === null ? "" : (Object.values(DIELECTRICS).find((d) => d.k === value)?.id ?? "custom");
   return (
@@ -130,23 +223,23 @@ export function DielectricField({ value, onChange, errors, label = "Dielectric k
       </label>
       <div className="flex gap-2">
         <div className={compact ? "w-28 shrink-0" : "min-w-0 flex-1"}>
-        <select
-          id={id}
-          className={`${inputClass} ${compact ? "px-1 py-1 text-xs" : ""}`}
-          value={preset}
-          onChange={(e) => {
-            const d = DIELECTRICS[e.target.value];
-            onChange(e.target.value === "" ? null : d ? d.k : (value ?? 2.7));
-          }}
-        >
-          <option value="">{compact ? "—" : "Keep each class's k"}</option>
-          {Object.values(DIELECTRICS).map((d) => (
-            <option key={d.id} value={d.id}>
-              {compact ? `${d.id} (${d.k})` : `${d.name} (k ${d.k})`}
-            </option>
-          ))}
-          <option value="custom">{compact ? "other" : "Other k…"}</option>
-        </select>
+          <select
+            id={id}
+            className={`${inputClass} ${compact ? "px-1 py-1 text-xs" : ""}`}
+            value={preset}
+            onChange={(e) => {
+              const d = DIELECTRICS[e.target.value];
+              onChange(e.target.value === "" ? null : d ? d.k : (value ?? 2.7));
+            }}
+          >
+            <option value="">{compact ? "—" : "Keep each class's k"}</option>
+            {Object.values(DIELECTRICS).map((d) => (
+              <option key={d.id} value={d.id}>
+                {compact ? `${d.id} (${d.k})` : `${d.name} (k ${d.k})`}
+              </option>
+            ))}
+            <option value="custom">{compact ? "other" : "Other k…"}</option>
+          </select>
         </div>
         {value !== null ? <NumberField label={`${label} value`} compact value={value} onChange={onChange} check={kCheck} className="w-16" name="k" /> : null}
       </div>
@@ -177,7 +270,12 @@ function PitchDerive({ classes, onS }: { classes: WireClass[]; onS: (s: number) 
         </label>
         <label className="w-24">
           <span className="mb-1 block">Target pitch (nm)</span>
-          <input className={`${inputClass} px-1 py-1 text-right text-xs`} value={text} onChange={(e) => setText(e.target.value)} aria-invalid={msg ? true : undefined} />
+          <input
+            className={`${inputClass} px-1 py-1 text-right text-xs`}
+            value={text}
+            onChange={(e) => setText(e.target.value)}
+            aria-invalid={msg ? true : undefined}
+          />
         </label>
         <button
           type="button"

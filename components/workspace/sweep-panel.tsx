@@ -28,7 +28,6 @@ export interface SweepView {
   length: SweepLength;
 }
 
-
 const LENGTH_LABEL: Record<SweepLength, string> = {
   follow: "follows S (S_L = S, local-style)",
   fixed: "fixed (S_L = 1, global-style)",
@@ -40,7 +39,21 @@ const METRIC_WORD: Record<SweepMetric, string> = { delay: "Delay", rc: "RC", r: 
 type ClassCurves = { className: string; curves: { level: ModelLevel; points: SweepPoint[] }[]; at1: Partial<Record<ModelLevel, number>> };
 
 /** The sweep: metric against S per selected class, one curve per model level, computed in a Web Worker. */
-export function SweepPanel({ classes, technology, settings, view, onView, settingsKey }: { classes: WireClass[]; technology: Technology; settings: ScenarioSettings; view: SweepView; onView: (v: SweepView) => void; settingsKey: string }) {
+export function SweepPanel({
+  classes,
+  technology,
+  settings,
+  view,
+  onView,
+  settingsKey,
+}: {
+  classes: WireClass[];
+  technology: Technology;
+  settings: ScenarioSettings;
+  view: SweepView;
+  onView: (v: SweepView) => void;
+  settingsKey: string;
+}) {
   const worker = useRef<EngineWorker | null>(null);
   const [curves, setCurves] = useState<{ key: string; curves: SweepCurve[]; reference: SweepCurve[] } | null>(null);
   const [error, setError] = useState<string | null>(null);
@@ -55,7 +68,20 @@ export function SweepPanel({ classes, technology, settings, view, onView, settin
     worker.current ??= new EngineWorker();
     let live = true;
     worker.current
-      .sweepWithReference({ classes, technology, settings, variable: "s", metric: view.metric, from: view.from, to: view.to, points: 36, spacing: "log", classNames: selected, lengthMode: view.length, referenceX: 1 })
+      .sweepWithReference({
+        classes,
+        technology,
+        settings,
+        variable: "s",
+        metric: view.metric,
+        from: view.from,
+        to: view.to,
+        points: 36,
+        spacing: "log",
+        classNames: selected,
+        lengthMode: view.length,
+        referenceX: 1,
+      })
       .then((r) => {
         if (!live) return;
         setError(null);
@@ -89,7 +115,12 @@ export function SweepPanel({ classes, technology, settings, view, onView, settin
     for (const n of selected) {
       const d = byClass.get(n);
       if (!d) continue;
-      out.push(readSweep({ className: n, curves: Object.fromEntries(d.curves.map((c) => [c.level, c.points])), at1: d.at1 }, { scenarioS: sOf(n), metricLabel: METRIC_WORD[view.metric] }));
+      out.push(
+        readSweep(
+          { className: n, curves: Object.fromEntries(d.curves.map((c) => [c.level, c.points])), at1: d.at1 },
+          { scenarioS: sOf(n), metricLabel: METRIC_WORD[view.metric] },
+        ),
+      );
     }
     return out;
     // eslint-disable-next-line react-hooks/exhaustive-deps
@@ -97,7 +128,12 @@ export function SweepPanel({ classes, technology, settings, view, onView, settin
   const relative = view.scale === "relative";
   const chartData = (d: ClassCurves) =>
     relative
-      ? { className: d.className, curves: d.curves.filter((c) => (d.at1[c.level] ?? 0) > 0).map((c) => ({ level: c.level, points: c.points.map((p) => ({ x: p.x, y: p.y / d.at1[c.level]! })) })) }
+      ? {
+          className: d.className,
+          curves: d.curves
+            .filter((c) => (d.at1[c.level] ?? 0) > 0)
+            .map((c) => ({ level: c.level, points: c.points.map((p) => ({ x: p.x, y: p.y / d.at1[c.level]! })) })),
+        }
       : d;
   // Dots on the curves only where they are this scenario's own (same S_L rule); otherwise just a line at its S.
   const dotsFor = (n: string) => {
@@ -113,7 +149,12 @@ export function SweepPanel({ classes, technology, settings, view, onView, settin
       <div className="no-print mb-3 flex flex-wrap items-end gap-3 text-xs">
         <label>
           <span className="mb-1 block font-medium">Metric</span>
-          <select className={`${inputClass} py-1 text-xs`} value={view.metric} onChange={(e) => onView({ ...view, metric: e.target.value as SweepMetric })} name="metric">
+          <select
+            className={`${inputClass} py-1 text-xs`}
+            value={view.metric}
+            onChange={(e) => onView({ ...view, metric: e.target.value as SweepMetric })}
+            name="metric"
+          >
             {(Object.keys(SWEEP_METRIC) as SweepMetric[]).map((m) => (
               <option key={m} value={m}>
                 {SWEEP_METRIC[m].label} ({SWEEP_METRIC[m].unit})
@@ -123,14 +164,24 @@ export function SweepPanel({ classes, technology, settings, view, onView, settin
         </label>
         <label>
           <span className="mb-1 block font-medium">Scale</span>
-          <select className={`${inputClass} py-1 text-xs`} value={view.scale} onChange={(e) => onView({ ...view, scale: e.target.value as SweepScale })} name="scale">
+          <select
+            className={`${inputClass} py-1 text-xs`}
+            value={view.scale}
+            onChange={(e) => onView({ ...view, scale: e.target.value as SweepScale })}
+            name="scale"
+          >
             <option value="relative">relative to S = 1</option>
             <option value="absolute">absolute ({SWEEP_METRIC[view.metric].unit})</option>
           </select>
         </label>
         <label>
           <span className="mb-1 block font-medium">Wire length</span>
-          <select className={`${inputClass} py-1 text-xs`} value={view.length} onChange={(e) => onView({ ...view, length: e.target.value as SweepLength })} name="length">
+          <select
+            className={`${inputClass} py-1 text-xs`}
+            value={view.length}
+            onChange={(e) => onView({ ...view, length: e.target.value as SweepLength })}
+            name="length"
+          >
             {SWEEP_LENGTHS.map((l) => (
               <option key={l} value={l}>
                 {LENGTH_LABEL[l]}
@@ -147,7 +198,14 @@ export function SweepPanel({ classes, technology, settings, view, onView, settin
               <input
                 type="checkbox"
                 checked={selected.includes(c.name)}
-                onChange={(e) => onView({ ...view, classes: e.target.checked ? classes.map((x) => x.name).filter((n) => n === c.name || selected.includes(n)) : selected.filter((n) => n !== c.name) })}
+                onChange={(e) =>
+                  onView({
+                    ...view,
+                    classes: e.target.checked
+                      ? classes.map((x) => x.name).filter((n) => n === c.name || selected.includes(n))
+                      : selected.filter((n) => n !== c.name),
+                  })
+                }
               />
               {c.name}
             </label>
@@ -161,7 +219,17 @@ export function SweepPanel({ classes, technology, settings, view, onView, settin
           {selected.map((n) => {
             const d = byClass.get(n);
             return d ? (
-              <SweepChart key={n} data={chartData(d)} width={chartW} height={220} metric={view.metric} relative={relative} xLabel={xLabel} markerX={sOf(n)} markerDots={dotsFor(n)} />
+              <SweepChart
+                key={n}
+                data={chartData(d)}
+                width={chartW}
+                height={220}
+                metric={view.metric}
+                relative={relative}
+                xLabel={xLabel}
+                markerX={sOf(n)}
+                markerDots={dotsFor(n)}
+              />
             ) : (
               <div key={n} style={{ height: 244 }} className="animate-pulse rounded bg-rule/40" />
             );
@@ -170,14 +238,14 @@ export function SweepPanel({ classes, technology, settings, view, onView, settin
         <div className="mt-2 flex flex-wrap items-center justify-between gap-2">
           <LevelLegend />
           <p className="text-[11px] text-muted">
-            {relative ? "Each curve ÷ its own value at S = 1 (this scenario's options, no shrink). " : ""}Log axes. Dashed line: this scenario&apos;s S. The gap between two curves is what that effect adds; copper is the full model. Ideal scaling is the bare line (no driver or load): flat when the length follows S, growing as S² when it is fixed.
+            {relative ? "Each curve ÷ its own value at S = 1 (this scenario's options, no shrink). " : ""}Log axes. Dashed line: this scenario&apos;s S. The gap
+            between two curves is what that effect adds; copper is the full model. Ideal scaling is the bare line (no driver or load): flat when the length
+            follows S, growing as S² when it is fixed.
           </p>
         </div>
         {readings.length > 0 ? (
           <div className="mt-3 rounded border border-rule bg-ground/60 px-3 py-2" data-testid="sweep-reading">
-            <h3 className="mb-1 text-xs font-semibold text-ink">
-              Reading the full model (copper), wire length {LENGTH_LABEL[view.length]}
-            </h3>
+            <h3 className="mb-1 text-xs font-semibold text-ink">Reading the full model (copper), wire length {LENGTH_LABEL[view.length]}</h3>
             <ul className="space-y-0.5 text-xs text-ink">
               {readings.map((r) => (
                 <li key={r.className} data-class={r.className}>
@@ -194,7 +262,11 @@ export function SweepPanel({ classes, technology, settings, view, onView, settin
 
 function RangeInput({ label, value, onChange }: { label: string; value: number; onChange: (v: number) => void }) {
   const [text, setText] = useState(String(value));
-  useEffect(() => setText(String(value)), [value]);
+  const [shown, setShown] = useState(value);
+  if (!Object.is(shown, value)) {
+    setShown(value);
+    setText(String(value));
+  }
   const bad = !(Number(text) > 0);
   return (
     <label className="w-16">

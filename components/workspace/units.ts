@@ -29,7 +29,10 @@ const BARE = /^\s*[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?\s*$/;
 export function formatValue(valueSI: number | null | undefined, u: DisplayUnit, significant = 10): string {
   if (valueSI === null || valueSI === undefined || !Number.isFinite(valueSI)) return "";
   const d = new Decimal(valueSI).toSignificantDigits(15).div(u.unitSI).toSignificantDigits(significant);
-  return d.toFixed().replace(/(\.\d*?)0+$/, "$1").replace(/\.$/, "");
+  return d
+    .toFixed()
+    .replace(/(\.\d*?)0+$/, "$1")
+    .replace(/\.$/, "");
 }
 
 export type ParseResult = { ok: true; value: number } | { ok: false; message: string };
@@ -45,7 +48,14 @@ export function parseValue(text: string, u: DisplayUnit): ParseResult {
     const v = BARE.test(t) ? parseQuantity(u.suffix ? `${t} ${u.suffix}` : t, u.base) : parseQuantity(t, u.base);
     return { ok: true, value: v };
   } catch {
-    const ex: Partial<Record<BaseUnit, string>> = { m: '"20" or "0.02 µm"', ohm: '"500" or "1.2 kΩ"', F: '"1.5" or "0.0015 pF"', s: '"100" or "0.1 ns"', V: '"0.75" or "750 mV"', Hz: '"2" or "2000 MHz"' };
+    const ex: Partial<Record<BaseUnit, string>> = {
+      m: '"20" or "0.02 µm"',
+      ohm: '"500" or "1.2 kΩ"',
+      F: '"1.5" or "0.0015 pF"',
+      s: '"100" or "0.1 ns"',
+      V: '"0.75" or "750 mV"',
+      Hz: '"2" or "2000 MHz"',
+    };
     return { ok: false, message: u.base ? `Not a number with a known unit (e.g. ${ex[u.base] ?? "20"}).` : "Not a number." };
   }
 }
@@ -57,7 +67,11 @@ export function fmt(valueSI: number | null | undefined, u: DisplayUnit, signific
   const d = new Decimal(valueSI).div(u.unitSI);
   const abs = d.abs();
   if (abs.gte(1e5) || abs.lt(1e-3)) return d.toSignificantDigits(3).toExponential().replace("e+", "e");
-  return d.toSignificantDigits(significant).toFixed().replace(/(\.\d*?)0+$/, "$1").replace(/\.$/, "");
+  return d
+    .toSignificantDigits(significant)
+    .toFixed()
+    .replace(/(\.\d*?)0+$/, "$1")
+    .replace(/\.$/, "");
 }
 
 /** Ratio as "0.72×". */

@@ -39,7 +39,9 @@ export async function markOutboxSent(q: Q, id: number, messageId: string | null)
 }
 
 export async function markOutboxFailed(q: Q, id: number, error: string): Promise<void> {
-  await q("outbox").where({ id }).update({ status: "failed", error: error.slice(0, 1000) });
+  await q("outbox")
+    .where({ id })
+    .update({ status: "failed", error: error.slice(0, 1000) });
 }
 
 export async function insertCapturedMail(
@@ -60,13 +62,26 @@ export async function insertCapturedMail(
 
 /** Latest outbox rows (all, or only those of `teamIds`) with what the fake SMTP server captured. */
 export async function listOutbox(q: Q, opts: { teamIds?: string[]; limit?: number } = {}): Promise<OutboxEntry[]> {
-  let query = q("outbox").orderBy("id", "desc").limit(opts.limit ?? 100);
+  let query = q("outbox")
+    .orderBy("id", "desc")
+    .limit(opts.limit ?? 100);
   if (opts.teamIds) query = query.whereIn("team_id", opts.teamIds);
   const rows = await query.select();
   const ids = rows.map((r: { id: number }) => r.id);
   const captured = ids.length ? await q("captured_mail").whereIn("outbox_id", ids).orderBy("id").select("id", "outbox_id", "raw", "received_at") : [];
   return rows.map(
-    (r: { id: number; team_id: string | null; kind: string; to_addresses: string; subject: string; text_body: string; status: OutboxEntry["status"]; error: string | null; created_at: number; sent_at: number | null }) => ({
+    (r: {
+      id: number;
+      team_id: string | null;
+      kind: string;
+      to_addresses: string;
+      subject: string;
+      text_body: string;
+      status: OutboxEntry["status"];
+      error: string | null;
+      created_at: number;
+      sent_at: number | null;
+    }) => ({
       id: r.id,
       teamId: r.team_id,
       kind: r.kind,

@@ -1,7 +1,8 @@
 import "server-only";
 import type { Knex } from "knex";
-import { newId } from "@/lib/ids";
 import type { Role } from "@/lib/access";
+
+// Reads of teams and memberships and the DTOs they produce. Writes: db/writes/teams.ts.
 
 type Q = Knex | Knex.Transaction;
 
@@ -35,22 +36,12 @@ export async function listTeamsOfUser(q: Q, userId: string): Promise<TeamWithRol
   const rows = await q("memberships as m")
     .join("teams as t", "t.id", "m.team_id")
     .where("m.user_id", userId)
-    .orderBy([{ column: "m.created_at", order: "asc" }, { column: "t.name", order: "asc" }])
+    .orderBy([
+      { column: "m.created_at", order: "asc" },
+      { column: "t.name", order: "asc" },
+    ])
     .select("t.id", "t.name", "t.is_demo", "t.created_at", "m.role");
   return rows.map((r: TeamRow & { role: Role }) => ({ ...toTeam(r), role: r.role }));
-}
-
-/** Create a team with its creator as owner (pass a transaction). */
-export async function insertTeamWithOwner(q: Q, t: { name: string; ownerId: string; isDemo?: boolean; id?: string; now?: number }): Promise<Team> {
-  const now = t.now ?? Date.now();
-  const row = { id: t.id ?? newId(), name: t.name, is_demo: t.isDemo ? 1 : 0, created_by: t.ownerId, created_at: now };
-  await q("teams").insert(row);
-  await q("memberships").insert({ team_id: row.id, user_id: t.ownerId, role: "owner", created_at: now });
-  return toTeam(row);
-}
-
-export async function renameTeam(q: Q, teamId: string, name: string): Promise<void> {
-  await q("teams").where({ id: teamId }).update({ name });
 }
 
 export async function listMembers(q: Q, teamId: string): Promise<Member[]> {
@@ -80,22 +71,4 @@ export async function getMember(q: Q, teamId: string, userId: string): Promise<M
 export async function countOwners(q: Q, teamId: string): Promise<number> {
   const row = (await q("memberships").where({ team_id: teamId, role: "owner" }).count({ n: "*" }).first()) as { n: number } | undefined;
   return Number(row?.n ?? 0);
-}
-
-export async function setMemberRole(q: Q, teamId: string, userId: string, role: Role): Promise<void> {
-  await q("memberships").where({ team_id: teamId, user_id: userId }).update({ role });
-}
-
-export async function deleteMember(q: Q, teamId: string, userId: string): Promise<void> {
-  await q("memberships").where({ team_id: teamId, user_id: userId }).delete();
-}
-
-export async function insertMembership(q: Q, m: { teamId: string; userId: string; role: Role; now?: number }): Promise<void> {
-  await q("memberships").insert({ team_id: m.teamId, user_id: m.userId, role: m.role, created_at: m.now ?? Date.now() });
-}
-
-/** Demo teams the user owns (the outbox page is open to them in production). */
-export async function listOwnedDemoTeamIds(q: Q, userId: string): Promise<string[]> {
-  const rows = await q("memberships as m").join("teams as t", "t.id", "m.team_id").where({ "m.user_id": userId, "m.role": "owner", "t.is_demo": 1 }).select("t.id");
-  return rows.map((r: { id: string }) => r.id);
 }

@@ -32,7 +32,7 @@ function printDetails(s: Awaited<ReturnType<typeof seed>>) {
   const url = `http://localhost:${port}`;
   const lines = [
     "",
-    "Plateau demo — invented team \"" + s.teamName + "\" (all demo data is invented)",
+    'Plateau demo — invented team "' + s.teamName + '" (all demo data is invented)',
     `  database: ${s.file}`,
     `  open:     ${url}/sign-in`,
     "  sign in as (DEMO-ONLY passwords, printed on purpose — never reuse them):",
@@ -56,7 +56,10 @@ function run(): void {
         process.exit(build.status ?? 1);
       }
       printDetails(s);
-      const server = spawn(process.execPath, [nextBin, "start", "-p", port], { stdio: "inherit", env: { ...process.env, NODE_ENV: "production" } });
+      const server = spawn(process.execPath, [nextBin, "start", "-p", port], {
+        stdio: "inherit",
+        env: { ...process.env, NODE_ENV: "production" },
+      });
       for (const sig of ["SIGINT", "SIGTERM", "SIGHUP"] as const) {
         process.on(sig, () => {
           if (server.exitCode === null) server.kill(sig);

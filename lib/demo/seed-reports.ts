@@ -1,6 +1,6 @@
 import type { Knex } from "knex";
-import { insertReport, loadReportInputs } from "@/db/queries/reports";
-import { freezeReport } from "@/lib/reports/freeze";
+import { findDemoReportId } from "@/db/queries/demo";
+import { composeReport } from "@/lib/reports/service";
 
 export const DEMO_REPORT_TITLE = "Skua tile: three wiring options for the next node";
 const DEMO_AUDIENCE_NOTE =
@@ -15,17 +15,19 @@ export async function seedDemoReports(
   db: Knex,
   p: { teamId: string; ownerId: string; baselineId: string; scenarioIds: string[] },
 ): Promise<{ reportId: string }> {
-  const existing = await db("reports").where({ team_id: p.teamId, is_demo: 1 }).orderBy("created_at").first("id");
-  if (existing) return { reportId: existing.id as string };
-  const inputs = await loadReportInputs(db, { teamId: p.teamId, baselineId: p.baselineId, scenarioIds: p.scenarioIds.slice(0, 4) });
-  const frozen = freezeReport({ ...inputs, metrics: ["delay", "rc", "capacitance", "repeaters", "energy", "overBudget"] });
-  const { id } = await insertReport(db, {
+  const existing = await findDemoReportId(db, p.teamId);
+  if (existing) return { reportId: existing };
+  // The same path as the compose route: load and check the inputs, freeze, store with its audit row.
+  const { id } = await composeReport(db, {
     teamId: p.teamId,
     userId: p.ownerId,
-    baselineId: p.baselineId,
-    title: DEMO_REPORT_TITLE,
-    audienceNote: DEMO_AUDIENCE_NOTE,
-    frozen,
+    input: {
+      baselineId: p.baselineId,
+      scenarioIds: p.scenarioIds.slice(0, 4),
+      title: DEMO_REPORT_TITLE,
+      audienceNote: DEMO_AUDIENCE_NOTE,
+      metrics: ["delay", "rc", "capacitance", "repeaters", "energy", "overBudget"],
+    },
     isDemo: true,
   });
   return { reportId: id };

@@ -1,6 +1,9 @@
 import type { Knex } from "knex";
-import { getUserByEmail, insertUser } from "@/db/queries/users";
-import { insertMembership, insertTeamWithOwner } from "@/db/queries/teams";
+import { getMembershipRole } from "@/db/queries/access";
+import { findDemoTeamId } from "@/db/queries/demo";
+import { getUserByEmail } from "@/db/queries/users";
+import { addMember, createTeam } from "@/db/writes/teams";
+import { signUpUser } from "@/db/writes/users";
 import { hashPassword } from "@/lib/password";
 import type { Role } from "@/lib/access";
 import { seedDemoWorkspace } from "./seed-workspace";
@@ -35,27 +38,26 @@ export async function seedDemo(db: Knex): Promise<DemoSeedResult> {
   const hashes = new Map<string, string>();
   for (const u of DEMO_USERS) if (!(await getUserByEmail(db, u.email))) hashes.set(u.email, await hashPassword(u.password));
 
-  const core = await db.transaction(async (trx) => {
+  // Each step is one write-module transaction; a run cut short is completed by the next (every step looks first).
+  const core = await (async () => {
     const users: DemoSeedResult["users"] = [];
     for (const u of DEMO_USERS) {
-      const found = await getUserByEmail(trx, u.email);
+      const found = await getUserByEmail(db, u.email);
       const hash = hashes.get(u.email);
-      const rec = found ?? (hash ? await insertUser(trx, { email: u.email, name: u.name, passwordHash: hash }) : undefined);
+      const rec = found ?? (hash ? await signUpUser(db, { email: u.email, name: u.name, passwordHash: hash, detail: { demo: true } }) : undefined);
       if (!rec) throw new Error(`demo user ${u.email} vanished during seeding; run the demo again`);
       users.push({ role: u.role, email: u.email, password: u.password, userId: rec.id, created: !found });
     }
     const owner = users[0]!;
-    let team = (await trx("teams").where({ name: DEMO_TEAM_NAME, is_demo: 1 }).orderBy("created_at").first("id")) as { id: string } | undefined;
-    if (!team) {
-      team = await insertTeamWithOwner(trx, { name: DEMO_TEAM_NAME, ownerId: owner.userId, isDemo: true });
-      await trx("audit_log").insert({ team_id: team.id, user_id: owner.userId, action: "team.create", entity_type: "team", entity_id: team.id, detail: JSON.stringify({ name: DEMO_TEAM_NAME, demo: true }), at: Date.now() });
-    }
+    const teamId =
+      (await findDemoTeamId(db, DEMO_TEAM_NAME)) ??
+      (await createTeam(db, { name: DEMO_TEAM_NAME, ownerId: owner.userId, isDemo: true, detail: { demo: true } })).id;
     for (const u of users) {
-      const member = await trx("memberships").where({ team_id: team.id, user_id: u.userId }).first("role");
-      if (!member) await insertMembership(trx, { teamId: team.id, userId: u.userId, role: u.role });
+      const role = await getMembershipRole(db, teamId, u.userId);
+      if (!role) await addMember(db, { teamId, userId: u.userId, role: u.role, actorId: owner.userId, detail: { demo: true } });
     }
-    return { teamId: team.id, users };
-  });
+    return { teamId, users };
+  })();
 
   const ownerId = core.users.find((u) => u.role === "owner")!.userId;
   const editorId = core.users.find((u) => u.role === "editor")!.userId;

@@ -2,11 +2,13 @@ import Papa from "papaparse";
 import { ImportFatalError } from "./types";
 
 /**
- * Streaming CSV reader over raw bytes: UTF-8 decoding (fatal on invalid sequences), NUL-byte
- * (binary) detection, BOM removal, delimiter and line-ending detection from the header line,
- * then papaparse's incremental parser, one chunk at a time. Nothing but the current chunk and
- * the partial last line is held in memory; the caller consumes rows synchronously, and the next
- * chunk is only read after that (back-pressure all the way to the socket).
+ * THE CSV reader of Plateau (web uploads, the browser preview, the command line, the demo seeder and
+ * the tests): streaming over raw bytes — UTF-8 decoding (fatal on invalid sequences), NUL-byte
+ * (binary) detection, BOM removal, delimiter and line-ending detection from the header line, then
+ * papaparse's incremental parser, one chunk at a time. Nothing but the current chunk and the
+ * partial last line is held in memory; the caller consumes rows synchronously, and the next chunk
+ * is only read after that (back-pressure all the way to the socket). readCsvSync feeds text or
+ * bytes already in memory through the same state machine.
  */
 
 export type Delimiter = "," | ";";
@@ -106,6 +108,24 @@ export const tooLargeIssue = (maxBytes: number) =>
  * Throws ImportFatalError for an empty, binary, non-UTF-8 or oversized file.
  */
 export async function readCsv(source: AsyncIterable<Uint8Array>, consumer: CsvConsumer, opts: CsvReadOptions): Promise<CsvReadResult> {
+  const reader = csvReader(consumer, opts);
+  for await (const chunk of source) reader.push(chunk);
+  return reader.end();
+}
+
+/**
+ * readCsv over bytes or text already in memory (the command line, the demo seeder, tests): the same reader, fed
+ * synchronously in one chunk (text is UTF-8-encoded first, so a BOM, NUL bytes and line ends are treated alike).
+ */
+export function readCsvSync(input: string | Uint8Array, consumer: CsvConsumer, opts: CsvReadOptions): CsvReadResult {
+  const reader = csvReader(consumer, opts);
+  const bytes = typeof input === "string" ? new TextEncoder().encode(input) : input;
+  if (bytes.byteLength > 0) reader.push(bytes);
+  return reader.end();
+}
+
+/** The reader's state machine: push chunks in order, then end(). Shared by readCsv and readCsvSync. */
+function csvReader(consumer: CsvConsumer, opts: CsvReadOptions): { push(chunk: Uint8Array): void; end(): CsvReadResult } {
   const decoder = (opts.utf8 ?? textUtf8Decoder)();
   let bytes = 0;
   let pending = ""; // text before the header is known
@@ -117,8 +137,7 @@ export async function readCsv(source: AsyncIterable<Uint8Array>, consumer: CsvCo
   let rows = 0;
   let headerSeen = false;
 
-  const fatal = (message: string, lineNo: number | null = null) =>
-    new ImportFatalError({ line: lineNo, column: null, value: null, message });
+  const fatal = (message: string, lineNo: number | null = null) => new ImportFatalError({ line: lineNo, column: null, value: null, message });
 
   const consume = (records: string[][], errors: { row?: number; message: string }[], hasQuotes: boolean) => {
     const badRows = new Map<number, string>();
@@ -140,7 +159,10 @@ export async function readCsv(source: AsyncIterable<Uint8Array>, consumer: CsvCo
       }
       const bad = badRows.get(i);
       if (bad !== undefined) {
-        consumer.malformed(startLine, bad === "Quoted field unterminated" ? "a quoted field is not closed" : "a quote inside a field is not doubled (write \"\" for a quote character)");
+        consumer.malformed(
+          startLine,
+          bad === "Quoted field unterminated" ? "a quoted field is not closed" : 'a quote inside a field is not doubled (write "" for a quote character)',
+        );
         continue;
       }
       if (rec.length === 1 && rec[0]!.trim() === "") continue; // blank line
@@ -242,29 +264,35 @@ export async function readCsv(source: AsyncIterable<Uint8Array>, consumer: CsvCo
     }
   };
 
-  for await (const chunk of source) {
-    bytes += chunk.byteLength;
-    if (bytes > opts.maxBytes) throw tooLargeIssue(opts.maxBytes);
-    if (chunk.indexOf(0) !== -1) {
-      throw fatal("The file contains NUL bytes: it looks like a binary file (a spreadsheet workbook or an archive?), not CSV text. Save it as CSV (UTF-8) and upload that.");
-    }
-    let text: string;
-    try {
-      text = decoder.decode(chunk);
-    } catch {
-      throw fatal(`The file is not valid UTF-8 text (bad byte sequence in the first ${bytes} bytes). Save it as CSV (UTF-8).`);
-    }
-    feed(text, false);
-    opts.onProgress?.(bytes);
-  }
-  let tail: string;
-  try {
-    tail = decoder.end();
-  } catch {
-    throw fatal("The file is not valid UTF-8 text (it ends inside a multi-byte character). Save it as CSV (UTF-8).");
-  }
-  if (bytes === 0) throw fatal("The file is empty.");
-  feed(tail, true);
-  if (!headerSeen) throw fatal("The file is empty.");
-  return { bytes, rows, lines: line - 1, delimiter };
+  return {
+    push(chunk: Uint8Array): void {
+      bytes += chunk.byteLength;
+      if (bytes > opts.maxBytes) throw tooLargeIssue(opts.maxBytes);
+      if (chunk.indexOf(0) !== -1) {
+        throw fatal(
+          "The file contains NUL bytes: it looks like a binary file (a spreadsheet workbook or an archive?), not CSV text. Save it as CSV (UTF-8) and upload that.",
+        );
+      }
+      let text: string;
+      try {
+        text = decoder.decode(chunk);
+      } catch {
+        throw fatal(`The file is not valid UTF-8 text (bad byte sequence in the first ${bytes} bytes). Save it as CSV (UTF-8).`);
+      }
+      feed(text, false);
+      opts.onProgress?.(bytes);
+    },
+    end(): CsvReadResult {
+      let tail: string;
+      try {
+        tail = decoder.end();
+      } catch {
+        throw fatal("The file is not valid UTF-8 text (it ends inside a multi-byte character). Save it as CSV (UTF-8).");
+      }
+      if (bytes === 0) throw fatal("The file is empty.");
+      feed(tail, true);
+      if (!headerSeen) throw fatal("The file is empty.");
+      return { bytes, rows, lines: line - 1, delimiter };
+    },
+  };
 }

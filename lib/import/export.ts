@@ -3,10 +3,8 @@ import type { Knex } from "knex";
 import { classHistogram, classIdsAndNames } from "@/db/queries/import";
 import type { HistogramArrays } from "@/db/histogram-blob";
 import type { StoredWireClass } from "@/db/queries/wire-classes";
-import type { ClassComparison, Evaluation } from "@/lib/scaling";
-import { WIRE_CLASS_COLUMNS } from "@/scaling/csv";
+import { formatScaled, WIRE_CLASS_COLUMNS, type ClassComparison, type Evaluation } from "@/lib/scaling";
 import { csvLine } from "@/lib/csv-safe";
-import { formatScaled } from "./numbers";
 
 /** Classes CSV in the import format (same columns and units), so an export re-imports unchanged. */
 export function classesCsv(classes: StoredWireClass[]): string {

@@ -5,6 +5,7 @@
  * At the end: repeated lengths of classes whose rows did not ascend are found by sorting an index
  * per such class, and each class's bins are handed out in ascending length order for storage.
  */
+import type { LengthBin } from "@/lib/scaling";
 import type { HistogramSink } from "./histograms";
 
 const INITIAL_CAPACITY = 1024;
@@ -25,7 +26,7 @@ export function radixOrder(keys: Float64Array, n: number): Uint32Array {
   const count = new Uint32Array(65536);
   for (let pass = 0; pass < 4; pass++) {
     // passes over the low 32-bit word first, then the high word (sign, exponent, top of the mantissa)
-    const word = (pass < 2) === LITTLE_ENDIAN ? 0 : 1;
+    const word = pass < 2 === LITTLE_ENDIAN ? 0 : 1;
     const shift = (pass & 1) * 16;
     count.fill(0);
     for (let i = 0; i < n; i++) count[(words[2 * i + word]! >>> shift) & 0xffff]! += 1;
@@ -135,6 +136,14 @@ export class HistogramAccumulator implements HistogramSink {
       counts[k] = c.counts[o[k]!]!;
     }
     return { lengthsM, counts };
+  }
+
+  /** The class's bins as engine LengthBins, in ascending length order. */
+  lengthBins(classIndex: number): LengthBin[] {
+    const { lengthsM, counts } = this.sorted(classIndex);
+    const out: LengthBin[] = new Array(lengthsM.length);
+    for (let k = 0; k < lengthsM.length; k++) out[k] = { lengthM: lengthsM[k]!, count: counts[k]! };
+    return out;
   }
 
   /** Drop the arrays (the caller is done). */

@@ -1,16 +1,9 @@
-import { histogramCountSchema, histogramLengthSchema } from "@/lib/validation/import";
-import { readCsv, type CsvReadOptions, type Delimiter } from "./csv-stream";
-import { resolveHeader, unneutralise, type ColumnSpec } from "./header";
-import { MAX_LISTED_ERRORS } from "./limits";
-import { formatScaled, parseScaled } from "./numbers";
+import { formatScaled, HISTOGRAM_FORMAT, validateHistogramRow, type LengthBin } from "@/lib/scaling";
+import { readCsv, readCsvSync, type CsvConsumer, type CsvReadOptions, type CsvReadResult, type Delimiter } from "./csv-stream";
+import { resolveHeader, unneutralise } from "./header";
+import { HistogramAccumulator } from "./histogram-accumulator";
+import { MAX_IMPORT_BYTES, MAX_LISTED_ERRORS } from "./limits";
 import { ImportFatalError, IssueList, type ImportIssue } from "./types";
-
-/** Columns of a length-histogram CSV: one row per (class, length bin). */
-export const HISTOGRAM_COLUMNS: readonly (ColumnSpec & { unit: string; description: string })[] = [
-  { name: "class", required: true, unit: "", description: "Name of a wire class of the baseline (exactly as in the class table)." },
-  { name: "length_um", required: true, unit: "µm", description: "Wire length of the bin, > 0." },
-  { name: "count", required: true, unit: "nets", description: "Number of nets in the bin, a whole number ≥ 0." },
-];
 
 export interface ClassTotal {
   name: string;
@@ -77,21 +70,66 @@ export function fastScaledAt(text: string, start: number, end: number, exp10: nu
   return -k <= 22 ? m * POW10[-k]! : NaN;
 }
 
+export type HistogramParseOptions<S extends HistogramSink> = CsvReadOptions & { sink: S; maxErrors?: number };
+
 /**
- * Stream-parse and validate a histogram CSV against the baseline's class names. Valid rows go to
- * the sink; nothing touches the database. Duplicated (class, length) pairs are errors: a bin is one
- * row. Checked on the fly while each class's lengths ascend (the usual export order); otherwise at
- * the end by the sink (`findRepeats`) for the classes that did not.
- * Cells are checked by a hand-written fast path for plain numbers that are valid; anything else
- * (signs, exponents, spaces, bad values) takes the general path with the zod schemas, so every
- * message is the schemas' own.
+ * Stream-parse and validate a histogram CSV against the baseline's class names (web uploads and the
+ * browser preview). Valid rows go to the sink; nothing touches the database. Duplicated (class,
+ * length) pairs are errors: a bin is one row. Checked on the fly while each class's lengths ascend
+ * (the usual export order); otherwise at the end by the sink (`findRepeats`) for the classes that did not.
+ * Throws ImportFatalError for a file that cannot be read at all (empty, binary, not UTF-8, too large, bad header).
  */
 export async function parseHistogramCsv<S extends HistogramSink>(
   source: AsyncIterable<Uint8Array>,
   classNames: readonly string[],
-  opts: CsvReadOptions & { sink: S; maxErrors?: number },
+  opts: HistogramParseOptions<S>,
 ): Promise<HistogramParse<S>> {
-  const issues = new IssueList(opts.maxErrors ?? MAX_LISTED_ERRORS);
+  const p = histogramPipeline(classNames, opts.sink, opts.maxErrors ?? MAX_LISTED_ERRORS);
+  return p.finish(await readCsv(source, p.consumer, opts));
+}
+
+/**
+ * parseHistogramCsv over text or bytes in memory, synchronously (the command line, the demo seeder, the engine's
+ * tests): the same reader and rules.
+ */
+export function parseHistogramCsvSync<S extends HistogramSink>(
+  input: string | Uint8Array,
+  classNames: readonly string[],
+  opts: Partial<CsvReadOptions> & { sink: S; maxErrors?: number },
+): HistogramParse<S> {
+  const p = histogramPipeline(classNames, opts.sink, opts.maxErrors ?? MAX_LISTED_ERRORS);
+  return p.finish(readCsvSync(input, p.consumer, { ...opts, maxBytes: opts.maxBytes ?? MAX_IMPORT_BYTES }));
+}
+
+/**
+ * parseHistogramCsvSync into bins per class name, each in ascending length order (empty until `ok`): the command
+ * line and the demo seeder.
+ */
+export function parseHistogramBins(
+  input: string | Uint8Array,
+  classNames: readonly string[],
+  opts: Partial<CsvReadOptions> & { maxErrors?: number } = {},
+): HistogramParse<HistogramAccumulator> & { bins: Record<string, LengthBin[]> } {
+  const acc = new HistogramAccumulator(classNames.length);
+  const r = parseHistogramCsvSync(input, classNames, { ...opts, sink: acc });
+  const bins: Record<string, LengthBin[]> = {};
+  if (r.ok) for (const ci of acc.classIndices()) bins[classNames[ci]!] = acc.lengthBins(ci);
+  return { ...r, bins };
+}
+
+/**
+ * The one histogram pipeline, as a reader consumer: header by the format's rules (lib/scaling/formats.ts), rows by
+ * validateHistogramRow (exact SI values; every message the format's own), class names against the baseline's.
+ * The usual row — the same class as the row before, plain valid numbers — is taken by a hand-written fast path
+ * (fastScaled, and `plainRecord` reading the cells in place) that gives exactly the general path's values;
+ * anything else (signs, exponents, spaces, bad values, a new class) takes the general path.
+ */
+function histogramPipeline<S extends HistogramSink>(
+  classNames: readonly string[],
+  sink: S,
+  maxErrors: number,
+): { consumer: CsvConsumer; finish(res: CsvReadResult): HistogramParse<S> } {
+  const issues = new IssueList(maxErrors);
   const classIndex = new Map(classNames.map((n, i) => [n, i]));
   const lowerIndex = new Map(classNames.map((n) => [n.toLowerCase(), n]));
   // per-class totals in typed arrays (touched once per row)
@@ -102,7 +140,6 @@ export async function parseHistogramCsv<S extends HistogramSink>(
   const lastLength = new Float64Array(classNames.length).fill(-1);
   const lastLine = new Uint32Array(classNames.length);
   const unsorted = new Set<number>();
-  const sink = opts.sink;
   let colCls = 0;
   let colLen = 1;
   let colCnt = 2;
@@ -110,38 +147,19 @@ export async function parseHistogramCsv<S extends HistogramSink>(
   // the class cell usually repeats row after row: remember the last known one
   let lastRawName: string | null = null;
   let lastCi = -1;
-
-  /** General path of a length cell: parseScaled + zod (every message). NaN when invalid (issue added). */
-  const slowLength = (text: string, line: number): number => {
-    const len = parseScaled(text, -6);
-    if (!len.ok) {
-      issues.add({ line, column: "length_um", value: text, message: len.reason });
-      return NaN;
-    }
-    const z = histogramLengthSchema.safeParse(len.value);
-    if (!z.success) {
-      issues.add({ line, column: "length_um", value: text, message: z.error.issues[0]!.message });
-      return NaN;
-    }
-    return z.data;
-  };
-  const slowCount = (text: string, line: number): number => {
-    const cnt = parseScaled(text, 0);
-    if (!cnt.ok) {
-      issues.add({ line, column: "count", value: text, message: cnt.reason });
-      return NaN;
-    }
-    const z = histogramCountSchema.safeParse(cnt.value);
-    if (!z.success) {
-      issues.add({ line, column: "count", value: text, message: z.error.issues[0]!.message });
-      return NaN;
-    }
-    return z.data;
-  };
-
   let delimiter: string = ",";
-  /** A valid row that is not a repeat: order, totals, sink. */
-  const take = (ci: number, lengthM: number, count: number, line: number) => {
+
+  /** A valid row: the repeat check, then order, totals, sink. */
+  const take = (ci: number, lengthM: number, count: number, line: number, lenText: string) => {
+    if (lengthM === lastLength[ci]) {
+      issues.add({
+        line,
+        column: "length_um",
+        value: lenText,
+        message: `repeats the bin of class "${classNames[ci]}" at this length from line ${lastLine[ci]} (one row per class and length)`,
+      });
+      return;
+    }
     if (lengthM < lastLength[ci]!) unsorted.add(ci);
     lastLength[ci] = lengthM;
     lastLine[ci] = line;
@@ -152,115 +170,123 @@ export async function parseHistogramCsv<S extends HistogramSink>(
     sink.push(ci, lengthM, count, line);
   };
 
-  const res = await readCsv(
-    source,
-    {
-      header(h) {
-        const idx = resolveHeader(h.fields, HISTOGRAM_COLUMNS, "length histograms");
-        colCls = idx.get("class")!;
-        colLen = idx.get("length_um")!;
-        colCnt = idx.get("count")!;
-        width = h.fields.length;
-        delimiter = h.delimiter;
-      },
-      malformed(line, message) {
-        issues.add({ line, column: null, value: null, message });
-      },
-      row(f, line) {
-        if (f.length !== width && !(f.length === width + 1 && f[width] === "")) {
-          issues.add({ line, column: null, value: null, message: `has ${f.length} fields, the header has ${width}` });
-          return;
-        }
-        const rawName = f[colCls]!;
-        let ci: number | undefined;
-        let ok = true;
-        if (rawName === lastRawName) ci = lastCi;
-        else {
-          const name = rawName.charCodeAt(0) === 39 ? unneutralise(rawName.trim()) : rawName.trim();
-          ci = classIndex.get(name);
-          if (name === "") {
-            issues.add({ line, column: "class", value: rawName, message: "is required" });
-            ok = false;
-          } else if (ci === undefined) {
-            const near = lowerIndex.get(name.toLowerCase());
-            const known = classNames.length ? classNames.slice(0, 12).join(", ") + (classNames.length > 12 ? ", …" : "") : "(the baseline has no classes yet: import the wire classes first)";
-            issues.add({
-              line,
-              column: "class",
-              value: rawName,
-              message: near ? `is not a class of this baseline (did you mean "${near}"? names are case-sensitive)` : `is not a class of this baseline; known classes: ${known}`,
-            });
-            ok = false;
-          } else {
-            lastRawName = rawName;
-            lastCi = ci;
-          }
-        }
-        const lenText = f[colLen]!;
-        const cntText = f[colCnt]!;
-        let lengthM = fastScaled(lenText, -6);
-        if (!(lengthM > 0)) lengthM = slowLength(lenText, line); // NaN, or 0 ("must be > 0")
-        let count = fastScaled(cntText, 0);
-        if (!Number.isInteger(count)) count = slowCount(cntText, line); // NaN, or a fraction ("must be a whole number")
-        if (!ok || ci === undefined || lengthM !== lengthM || count !== count) return;
-        const prev = lastLength[ci]!;
-        if (lengthM === prev) {
-          issues.add({ line, column: "length_um", value: lenText, message: `repeats the bin of class "${classNames[ci]}" at this length from line ${lastLine[ci]} (one row per class and length)` });
-          return;
-        }
-        take(ci, lengthM, count, line);
-      },
-      plainRecord(text, start, end, line) {
-        // The usual row, read in place: three cells, the same class as the row before, both numbers
-        // plain and valid, no repeat. Anything else returns false and goes through row() above.
-        if (width !== 3) return false;
-        const d1 = text.indexOf(delimiter, start);
-        if (d1 === -1 || d1 >= end) return false;
-        const d2 = text.indexOf(delimiter, d1 + 1);
-        if (d2 === -1 || d2 >= end) return false;
-        let e3 = end;
-        const d3 = text.indexOf(delimiter, d2 + 1);
-        if (d3 !== -1 && d3 < end) {
-          if (d3 !== end - 1) return false;
-          e3 = d3; // a trailing delimiter: a fourth, empty field
-        }
-        const cs = colCls === 0 ? start : colCls === 1 ? d1 + 1 : d2 + 1;
-        const ce = colCls === 0 ? d1 : colCls === 1 ? d2 : e3;
-        if (lastRawName === null || ce - cs !== lastRawName.length || !text.startsWith(lastRawName, cs)) return false;
-        const ci = lastCi;
-        const lengthM = colLen === 0 ? fastScaledAt(text, start, d1, -6) : colLen === 1 ? fastScaledAt(text, d1 + 1, d2, -6) : fastScaledAt(text, d2 + 1, e3, -6);
-        if (!(lengthM > 0) || lengthM === lastLength[ci]) return false;
-        const count = colCnt === 0 ? fastScaledAt(text, start, d1, 0) : colCnt === 1 ? fastScaledAt(text, d1 + 1, d2, 0) : fastScaledAt(text, d2 + 1, e3, 0);
-        if (!Number.isInteger(count)) return false;
-        take(ci, lengthM, count, line);
-        return true;
-      },
+  const consumer: CsvConsumer = {
+    header(h) {
+      const idx = resolveHeader(h.fields, HISTOGRAM_FORMAT);
+      colCls = idx.get("class")!;
+      colLen = idx.get("length_um")!;
+      colCnt = idx.get("count")!;
+      width = h.fields.length;
+      delimiter = h.delimiter;
     },
-    opts,
-  );
-  if (res.rows === 0 && issues.total === 0) {
-    throw new ImportFatalError({ line: 2, column: null, value: null, message: "The file has a header but no data rows." });
-  }
-  if (unsorted.size > 0 && sink.findRepeats) findUnsortedDuplicates(sink, unsorted, classNames, issues);
-  for (let i = 0; i < classNames.length; i++) {
-    if (nets[i]! > Number.MAX_SAFE_INTEGER) {
-      issues.add({ line: null, column: "count", value: null, message: `The counts of class "${classNames[i]}" add up to more than ${Number.MAX_SAFE_INTEGER.toLocaleString("en-US")} nets, more than a histogram can hold.` });
-    }
-  }
-  const ok = issues.ok;
-  issues.items.sort((a, b) => (a.line ?? 0) - (b.line ?? 0));
-  return {
-    ok,
-    errors: issues.items,
-    errorCount: issues.total,
-    rows: res.rows,
-    bytes: res.bytes,
-    delimiter: res.delimiter,
-    perClass: classNames
-      .map((name, i) => ({ name, bins: bins[i]!, nets: nets[i]!, minLengthM: minLength[i]!, maxLengthM: maxLength[i]! }))
-      .filter((t) => t.bins > 0),
-    sink: ok ? sink : null,
+    malformed(line, message) {
+      issues.add({ line, column: null, value: null, message });
+    },
+    row(f, line) {
+      if (f.length !== width && !(f.length === width + 1 && f[width] === "")) {
+        issues.add({ line, column: null, value: null, message: `has ${f.length} fields, the header has ${width}` });
+        return;
+      }
+      const rawName = f[colCls]!;
+      const lenText = f[colLen]!;
+      const cntText = f[colCnt]!;
+      // the class: the same cell as the row before, or looked up (and remembered when known)
+      let ci: number | undefined;
+      if (rawName === lastRawName) ci = lastCi;
+      else {
+        ci = classIndex.get(unneutralise(rawName.trim()));
+        if (ci !== undefined) {
+          lastRawName = rawName;
+          lastCi = ci;
+        }
+      }
+      if (ci !== undefined) {
+        // fast path: exactly parseCell's values for plain decimals (tests/lib/csv-import.test.ts)
+        const lengthM = fastScaled(lenText, -6);
+        const count = fastScaled(cntText, 0);
+        if (lengthM > 0 && Number.isInteger(count)) {
+          take(ci, lengthM, count, line, lenText);
+          return;
+        }
+      }
+      // general path: the format's row rules and messages
+      const r = validateHistogramRow({ class: unneutralise(rawName.trim()), length_um: lenText, count: cntText }, line);
+      if (ci === undefined && r.className !== "") {
+        const near = lowerIndex.get(r.className.toLowerCase());
+        const known = classNames.length
+          ? classNames.slice(0, 12).join(", ") + (classNames.length > 12 ? ", …" : "")
+          : "(the baseline has no classes yet: import the wire classes first)";
+        issues.add({
+          line,
+          column: "class",
+          value: rawName,
+          message: near
+            ? `is not a class of this baseline (did you mean "${near}"? names are case-sensitive)`
+            : `is not a class of this baseline; known classes: ${known}`,
+        });
+      }
+      for (const e of r.errors) issues.add(e);
+      if (ci === undefined || r.bin === null) return;
+      take(ci, r.bin.lengthM, r.bin.count, line, lenText);
+    },
+    plainRecord(text, start, end, line) {
+      // The usual row, read in place: three cells, the same class as the row before, both numbers
+      // plain and valid, no repeat. Anything else returns false and goes through row() above.
+      if (width !== 3) return false;
+      const d1 = text.indexOf(delimiter, start);
+      if (d1 === -1 || d1 >= end) return false;
+      const d2 = text.indexOf(delimiter, d1 + 1);
+      if (d2 === -1 || d2 >= end) return false;
+      let e3 = end;
+      const d3 = text.indexOf(delimiter, d2 + 1);
+      if (d3 !== -1 && d3 < end) {
+        if (d3 !== end - 1) return false;
+        e3 = d3; // a trailing delimiter: a fourth, empty field
+      }
+      const cs = colCls === 0 ? start : colCls === 1 ? d1 + 1 : d2 + 1;
+      const ce = colCls === 0 ? d1 : colCls === 1 ? d2 : e3;
+      if (lastRawName === null || ce - cs !== lastRawName.length || !text.startsWith(lastRawName, cs)) return false;
+      const ci = lastCi;
+      const lengthM = colLen === 0 ? fastScaledAt(text, start, d1, -6) : colLen === 1 ? fastScaledAt(text, d1 + 1, d2, -6) : fastScaledAt(text, d2 + 1, e3, -6);
+      if (!(lengthM > 0) || lengthM === lastLength[ci]) return false;
+      const count = colCnt === 0 ? fastScaledAt(text, start, d1, 0) : colCnt === 1 ? fastScaledAt(text, d1 + 1, d2, 0) : fastScaledAt(text, d2 + 1, e3, 0);
+      if (!Number.isInteger(count)) return false;
+      take(ci, lengthM, count, line, "");
+      return true;
+    },
   };
+
+  const finish = (res: CsvReadResult): HistogramParse<S> => {
+    if (res.rows === 0 && issues.total === 0) {
+      throw new ImportFatalError({ line: 2, column: null, value: null, message: "The file has a header but no data rows." });
+    }
+    if (unsorted.size > 0 && sink.findRepeats) findUnsortedDuplicates(sink, unsorted, classNames, issues);
+    for (let i = 0; i < classNames.length; i++) {
+      if (nets[i]! > Number.MAX_SAFE_INTEGER) {
+        issues.add({
+          line: null,
+          column: "count",
+          value: null,
+          message: `The counts of class "${classNames[i]}" add up to more than ${Number.MAX_SAFE_INTEGER.toLocaleString("en-US")} nets, more than a histogram can hold.`,
+        });
+      }
+    }
+    const ok = issues.ok;
+    issues.items.sort((a, b) => (a.line ?? 0) - (b.line ?? 0));
+    return {
+      ok,
+      errors: issues.items,
+      errorCount: issues.total,
+      rows: res.rows,
+      bytes: res.bytes,
+      delimiter: res.delimiter,
+      perClass: classNames
+        .map((name, i) => ({ name, bins: bins[i]!, nets: nets[i]!, minLengthM: minLength[i]!, maxLengthM: maxLength[i]! }))
+        .filter((t) => t.bins > 0),
+      sink: ok ? sink : null,
+    };
+  };
+  return { consumer, finish };
 }
 
 /** Repeats in classes whose lengths did not ascend, added in line order (as a pass over the file would). */

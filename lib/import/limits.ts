@@ -2,7 +2,3 @@
 export const MAX_IMPORT_BYTES = 64 * 1024 * 1024;
 /** Errors listed in an answer; the total is always counted. */
 export const MAX_LISTED_ERRORS = 200;
-/** Wire classes per baseline accepted by one import. */
-export const MAX_CLASSES = 10_000;
-/** Longest text cell (class name, metal, tier). */
-export const MAX_TEXT_CELL = 200;

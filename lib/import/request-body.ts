@@ -1,15 +1,25 @@
 import { ApiError } from "@/lib/api";
 import { tooLargeIssue } from "./csv-stream";
+import { UploadInterruptedError } from "./errors";
 import { MAX_IMPORT_BYTES } from "./limits";
 import { ImportFatalError } from "./types";
 
-/** Bytes of a web ReadableStream as an async iterable; cancels the stream when the consumer stops early. */
+/**
+ * Bytes of a web ReadableStream as an async iterable; cancels the stream when the consumer stops early.
+ * A failing read (the client went away mid-upload) is an UploadInterruptedError.
+ */
 export async function* streamBytes(stream: ReadableStream<Uint8Array>): AsyncGenerator<Uint8Array> {
   const reader = stream.getReader();
   let done = false;
   try {
     for (;;) {
-      const r = await reader.read();
+      let r: ReadableStreamReadResult<Uint8Array>;
+      try {
+        r = await reader.read();
+      } catch (e) {
+        done = true; // the stream is errored: nothing left to cancel
+        throw new UploadInterruptedError(e);
+      }
       if (r.done) {
         done = true;
         return;

@@ -1,31 +1,42 @@
 import "server-only";
 import type { Knex } from "knex";
 import { listClasses } from "@/db/queries/wire-classes";
-import { storeHistograms } from "@/db/queries/import";
+import { importHistograms } from "@/db/writes/baselines";
 import type { ImportMode } from "@/lib/validation/import";
+import { InvalidCsvError } from "./errors";
 import { HistogramAccumulator } from "./histogram-accumulator";
 import { parseHistogramCsv } from "./histograms";
 import { MAX_IMPORT_BYTES } from "./limits";
 import { nodeUtf8Decoder } from "./node-utf8";
 import { formatScaled } from "./numbers";
-import { invalidCsvResponse } from "./respond";
+
+/** What a histogram import answers (the route sends it as JSON): per-class totals, warnings, and the new version once stored. */
+export type HistogramImportResult = Awaited<ReturnType<typeof runHistogramImport>>;
 
 /**
  * The whole histogram import of one request: stream-parse and validate against the baseline's
  * classes, collecting bins per class in typed arrays (the database untouched, no connection held
  * while the client uploads: a request killed mid-upload stores nothing), then, unless it is a dry
- * run, store one row per class in one short transaction.
+ * run, store one row per class in one short transaction. An invalid file throws InvalidCsvError.
  */
 export async function runHistogramImport(
   db: Knex,
-  p: { baselineId: string; teamId: string; userId: string; mode: ImportMode; dryRun: boolean; source: AsyncIterable<Uint8Array>; maxBytes?: number },
-): Promise<Response> {
+  p: {
+    baselineId: string;
+    teamId: string;
+    userId: string;
+    mode: ImportMode;
+    dryRun: boolean;
+    source: AsyncIterable<Uint8Array>;
+    maxBytes?: number;
+  },
+) {
   const classes = await listClasses(db, p.baselineId);
   const names = classes.map((c) => c.name);
   const acc = new HistogramAccumulator(names.length);
   try {
     const parsed = await parseHistogramCsv(p.source, names, { maxBytes: p.maxBytes ?? MAX_IMPORT_BYTES, utf8: nodeUtf8Decoder, sink: acc });
-    if (!parsed.ok) return invalidCsvResponse({ errors: parsed.errors, errorCount: parsed.errorCount, rows: parsed.rows });
+    if (!parsed.ok) throw new InvalidCsvError(parsed.errors, parsed.errorCount, parsed.rows);
     const netCount = new Map(classes.map((c) => [c.name, c.netCount]));
     const perClass = parsed.perClass.map((t) => ({
       name: t.name,
@@ -37,11 +48,14 @@ export async function runHistogramImport(
     }));
     const warnings = perClass
       .filter((c) => c.classNetCount !== null && c.classNetCount !== c.nets)
-      .map((c) => `Class "${c.name}": the histogram holds ${c.nets.toLocaleString("en-US")} nets, the class table says ${c.classNetCount!.toLocaleString("en-US")}; distribution results use the histogram.`);
+      .map(
+        (c) =>
+          `Class "${c.name}": the histogram holds ${c.nets.toLocaleString("en-US")} nets, the class table says ${c.classNetCount!.toLocaleString("en-US")}; distribution results use the histogram.`,
+      );
     const summaryBody = { mode: p.mode, rows: parsed.rows, bytes: parsed.bytes, delimiter: parsed.delimiter, classes: perClass, warnings };
-    if (p.dryRun) return Response.json({ ok: true, dryRun: true, stored: false, ...summaryBody });
+    if (p.dryRun) return { ok: true as const, dryRun: true, stored: false as const, ...summaryBody };
     const summary = `Imported length histograms from CSV (${p.mode}): ${parsed.rows.toLocaleString("en-US")} bins in ${perClass.length} class${perClass.length === 1 ? "" : "es"}`;
-    const r = await storeHistograms(db, {
+    const r = await importHistograms(db, {
       baselineId: p.baselineId,
       teamId: p.teamId,
       userId: p.userId,
@@ -51,7 +65,7 @@ export async function runHistogramImport(
       summary,
       detail: { mode: p.mode, rows: parsed.rows, bytes: parsed.bytes, classes: perClass.map((c) => c.name) },
     });
-    return Response.json({ ok: true, dryRun: false, stored: true, version: r.version, ...summaryBody });
+    return { ok: true as const, dryRun: false, stored: true as const, version: r.version, ...summaryBody };
   } finally {
     acc.release();
   }

@@ -1,10 +1,7 @@
-/** One problem found in an uploaded CSV. `line` is the 1-based physical line (1 = header); null for file-level problems. */
-export interface ImportIssue {
-  line: number | null;
-  column: string | null;
-  value: string | null;
-  message: string;
-}
+import type { FormatIssue } from "@/lib/scaling";
+
+/** One problem found in an uploaded CSV (the formats' issue). `line` is the 1-based physical line (1 = header); null for file-level problems. */
+export type ImportIssue = FormatIssue;
 
 export type ImportMode = "replace" | "merge";
 

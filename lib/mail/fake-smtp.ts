@@ -18,7 +18,10 @@ export function headerValue(raw: string, name: string): string | null {
 function decodeWords(value: string): string {
   return value.replace(/=\?([^?]+)\?([BbQq])\?([^?]*)\?=\s*/g, (_m, _cs: string, enc: string, text: string) => {
     if (enc.toUpperCase() === "B") return Buffer.from(text, "base64").toString("utf8");
-    return Buffer.from(text.replace(/_/g, " ").replace(/=([0-9A-Fa-f]{2})/g, (_x, h: string) => String.fromCharCode(parseInt(h, 16))), "latin1").toString("utf8");
+    return Buffer.from(
+      text.replace(/_/g, " ").replace(/=([0-9A-Fa-f]{2})/g, (_x, h: string) => String.fromCharCode(parseInt(h, 16))),
+      "latin1",
+    ).toString("utf8");
   });
 }
 

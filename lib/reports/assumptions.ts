@@ -52,8 +52,15 @@ export function optionAssumptions(report: FrozenReport, o: FrozenOption): string
   } else if (s.level === "full" && s.s !== 1) {
     out.push("Barrier/liner keeps its thickness as the line shrinks (the model's default at this level).");
   }
-  if (s.k !== null) out.push(`Dielectric ${kWords(s.k)} on every class (baseline ${range(classes.map((c) => c.k), (v) => plain(v))}).`);
-  if (s.metal !== null) out.push(`Every class filled with ${metalWords(s.metal)} (baseline ${[...new Set(classes.map((c) => metalWords(c.metal)))].join(", ")}).`);
+  if (s.k !== null)
+    out.push(
+      `Dielectric ${kWords(s.k)} on every class (baseline ${range(
+        classes.map((c) => c.k),
+        (v) => plain(v),
+      )}).`,
+    );
+  if (s.metal !== null)
+    out.push(`Every class filled with ${metalWords(s.metal)} (baseline ${[...new Set(classes.map((c) => metalWords(c.metal)))].join(", ")}).`);
   if (s.miller !== 1) {
     out.push(`Miller coupling factor ${plain(s.miller)} for both neighbours (1 = quiet neighbours); the baseline column uses the same factor.`);
   }

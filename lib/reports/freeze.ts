@@ -1,13 +1,4 @@
-import {
-  ENGINE_VERSION,
-  MODEL_LEVELS,
-  evaluateScenario,
-  sweep,
-  type Evaluation,
-  type ScenarioSettings,
-  type Technology,
-  type WireClass,
-} from "@/lib/scaling";
+import { ENGINE_VERSION, MODEL_LEVELS, evaluateScenario, sweep, type Evaluation, type ScenarioSettings, type Technology, type WireClass } from "@/lib/scaling";
 import {
   DEFAULT_REPORT_METRICS,
   FROZEN_SCHEMA_VERSION,
@@ -93,7 +84,7 @@ export function freezeReport(input: FreezeInput, now = Date.now()): FrozenReport
     metrics,
     sweeps: freezeSweeps(input, classNames.slice(0, MAX_SWEEP_CLASSES), evaluations),
     binsTrimmed,
-  };
+  } satisfies FrozenReport;
   // Round-trip through JSON and the schema: what is stored is exactly what every later read will accept.
   return frozenReportSchema.parse(JSON.parse(JSON.stringify(doc, finiteOrNull)));
 }
@@ -122,21 +113,33 @@ function freezeSweeps(input: FreezeInput, classNames: string[], evaluations: Eva
   const from = 1;
   const to = Math.max(2, Math.ceil(maxS * 1.3 * 4) / 4);
   const classes = baseline.classes.map(({ histogram: _h, ...c }) => c);
-  const byClass = new Map<string, FrozenSweep>(
-    classNames.map((n) => [n, { className: n, metric: "delay", variable: "s", from, to, series: [], marks: [] }]),
-  );
+  const byClass = new Map<string, FrozenSweep>(classNames.map((n) => [n, { className: n, metric: "delay", variable: "s", from, to, series: [], marks: [] }]));
   scenarios.forEach((s, i) => {
     const key = OPTION_KEYS[i]!;
     const withReference = i === 0 && s.settings.level === "full";
     const curves = sweep({
-      classes, technology: baseline.technology, settings: s.settings, variable: "s", metric: "delay",
-      from, to, points: SWEEP_POINTS, levels: withReference ? ["full", "coupled"] : [s.settings.level], classNames,
+      classes,
+      technology: baseline.technology,
+      settings: s.settings,
+      variable: "s",
+      metric: "delay",
+      from,
+      to,
+      points: SWEEP_POINTS,
+      levels: withReference ? ["full", "coupled"] : [s.settings.level],
+      classNames,
     });
     for (const c of curves) {
       const target = byClass.get(c.className);
       if (!target) continue;
       if (c.level === s.settings.level) target.series.push({ key, label: `Option ${key}`, level: c.level, points: c.points });
-      else target.series.push({ key: "reference", label: `Option ${key} without size effects (bulk resistivity, barrier thins with S)`, level: c.level, points: c.points });
+      else
+        target.series.push({
+          key: "reference",
+          label: `Option ${key} without size effects (bulk resistivity, barrier thins with S)`,
+          level: c.level,
+          points: c.points,
+        });
     }
     for (const cc of evaluations[i]!.classes) {
       const target = byClass.get(cc.name);

@@ -14,7 +14,9 @@ const CAPACITANCE: Record<string, { model: string; sources: string[] }> = {
   ideal: { model: "Parallel plate, C′ = ε·W/H", sources: ["Common practice, no single source"] },
   fringe: {
     model: "Yuan–Trick single line over a plane",
-    sources: ['C. P. Yuan and T. N. Trick, "A simple formula for the estimation of the capacitance of two-dimensional interconnects in VLSI circuits", IEEE Electron Device Letters EDL-3(12), 1982'],
+    sources: [
+      'C. P. Yuan and T. N. Trick, "A simple formula for the estimation of the capacitance of two-dimensional interconnects in VLSI circuits", IEEE Electron Device Letters EDL-3(12), 1982',
+    ],
   },
   coupled: {
     model: "Sakurai–Tamaru line with neighbours (C1 + 2·C21), Miller factor on the coupling part",
@@ -26,7 +28,10 @@ const CAPACITANCE: Record<string, { model: string; sources: string[] }> = {
 };
 
 const RESISTIVITY = {
-  bulk: { model: "Bulk resistivity through the conducting cross-section (W − 2t_b)·(T − t_b)", sources: ['CRC Handbook of Chemistry and Physics, "Electrical resistivity of pure metals", 20 °C'] },
+  bulk: {
+    model: "Bulk resistivity through the conducting cross-section (W − 2t_b)·(T − t_b)",
+    sources: ['CRC Handbook of Chemistry and Physics, "Electrical resistivity of pure metals", 20 °C'],
+  },
   size: {
     model: "Size-effect resistivity: surface (Fuchs–Sondheimer) plus grain-boundary (Mayadas–Shatzkes) scattering, additive form",
     sources: [
@@ -39,10 +44,16 @@ const RESISTIVITY = {
 };
 
 const DELAY = {
-  ideal: { model: "Distributed RC line, 50% delay 0.377·RC, no driver or load", sources: ["H. B. Bakoglu, Circuits, Interconnections, and Packaging for VLSI, 1990"] },
+  ideal: {
+    model: "Distributed RC line, 50% delay 0.377·RC, no driver or load",
+    sources: ["H. B. Bakoglu, Circuits, Interconnections, and Packaging for VLSI, 1990"],
+  },
   other: {
     model: "Driver + distributed line + load, 50% delay 0.377·RC + 0.693·(Rd·C + Rd·CL + R·CL); Elmore delay alongside",
-    sources: ['T. Sakurai, "Approximation of wiring delay in MOSFET LSI", IEEE J. Solid-State Circuits SC-18(4), 1983', "W. C. Elmore, J. Appl. Phys. 19, 1948"],
+    sources: [
+      'T. Sakurai, "Approximation of wiring delay in MOSFET LSI", IEEE J. Solid-State Circuits SC-18(4), 1983',
+      "W. C. Elmore, J. Appl. Phys. 19, 1948",
+    ],
   },
 };
 
@@ -81,10 +92,11 @@ export function modelsUsed(report: FrozenReport): ModelUse[] {
 /** Material sources for the metals that appear in the report (baseline and options). */
 export function materialSources(report: FrozenReport): { metal: string; resistivity: string; meanFreePath: string }[] {
   const ids = new Set<string>();
-  for (const o of report.options) for (const c of o.evaluation.classes) {
-    ids.add(c.baseline.metal);
-    ids.add(c.scenario.metal);
-  }
+  for (const o of report.options)
+    for (const c of o.evaluation.classes) {
+      ids.add(c.baseline.metal);
+      ids.add(c.scenario.metal);
+    }
   return [...ids]
     .map((id) => METALS[id])
     .filter((m): m is NonNullable<typeof m> => Boolean(m))
@@ -105,12 +117,21 @@ export function validityFlags(report: FrozenReport): ReportFlag[] {
   const seen = new Set<string>();
   for (const o of report.options) {
     for (const c of o.evaluation.classes) {
-      for (const [side, r] of [["baseline", c.baseline], ["option", c.scenario]] as const) {
+      for (const [side, r] of [
+        ["baseline", c.baseline],
+        ["option", c.scenario],
+      ] as const) {
         for (const f of r.validity) {
           const id = side === "baseline" ? `b|${o.evaluation.level}|${c.name}|${f.model}|${f.quantity}` : `${o.key}|${c.name}|${f.model}|${f.quantity}`;
           if (seen.has(id)) continue;
           seen.add(id);
-          out.push({ option: side === "baseline" ? "Baseline" : `Option ${o.key}`, className: c.name, side, model: f.model, message: f.message });
+          out.push({
+            option: side === "baseline" ? "Baseline" : `Option ${o.key}`,
+            className: c.name,
+            side,
+            model: f.model,
+            message: f.message,
+          });
         }
       }
     }

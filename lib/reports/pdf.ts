@@ -29,7 +29,11 @@ export function renderPdf(url: string, footerTitle: string): Promise<Buffer> {
 }
 
 async function render(url: string, footerTitle: string): Promise<Buffer> {
-  const browser = await chromium.launch({ executablePath: process.env.PLATEAU_CHROMIUM ?? "/usr/bin/chromium", args: ARGS, timeout: 30_000 });
+  const browser = await chromium.launch({
+    executablePath: process.env.PLATEAU_CHROMIUM ?? "/usr/bin/chromium",
+    args: ARGS,
+    timeout: 30_000,
+  });
   try {
     const context = await browser.newContext({ viewport: { width: 1100, height: 1400 }, javaScriptEnabled: true });
     const page = await context.newPage();

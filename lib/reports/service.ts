@@ -1,42 +1,75 @@
 import "server-only";
-import { db, ready } from "@/db/client";
-import { getReport, insertReport, loadReportInputs, ReportInputError, type StoredReport } from "@/db/queries/reports";
-import { ApiError, badRequest, conflict, notFound } from "@/lib/api";
-import type { ComposeReport, FrozenReport } from "@/lib/validation/report";
-import { freezeReport, UnknownClassError } from "./freeze";
+import { publicBaseUrl } from "@/lib/public-url";
+import type { Knex } from "knex";
+import { ConflictError, InvalidInputError, NotFoundError, fieldError } from "@/db/errors";
+import { getReport, loadReportSources, type StoredReport } from "@/db/queries/reports";
+import { storeReport } from "@/db/writes/reports";
+import type { ScenarioSettings, Technology } from "@/lib/scaling";
+import { frozenReportSchema, settingsSnapshotSchema, technologySnapshotSchema, type ComposeReport, type FrozenReport } from "@/lib/validation/report";
+import { freezeReport, UnknownClassError, type FreezeInput } from "./freeze";
 
-function mapInputError(e: unknown): never {
-  if (e instanceof ReportInputError) {
-    const fields = e.field ? { [e.field]: [e.message] } : undefined;
-    if (e.status === 404) throw new ApiError(404, "not_found", e.message, fields);
-    if (e.status === 409) throw conflict(e.message, fields);
-    throw badRequest(e.message, fields);
-  }
-  if (e instanceof UnknownClassError) throw badRequest(e.message, { classNames: [e.message] });
-  if (e instanceof RangeError) {
+/**
+ * Reports between the routes (or the demo seeder) and the database: load and check the inputs, freeze,
+ * store through db/writes/reports.ts; read and check stored documents. Every function takes the Knex
+ * instance first. Errors are the domain errors of db/errors.ts (apiRoute answers them).
+ */
+
+/** Scenario settings as stored, with the workspace's defaults for fields an older row may lack. */
+export function settingsFromStored(raw: unknown, technology: Technology): ScenarioSettings {
+  const stored = (raw ?? {}) as Record<string, unknown>;
+  const merged = {
+    s: 1,
+    sL: 1,
+    level: "full",
+    barrierScales: false,
+    miller: 1,
+    deviceRFactor: 1,
+    deviceCFactor: 1,
+    supplyV: technology.supplyV,
+    k: null,
+    metal: null,
+    overrides: {},
+    ...Object.fromEntries(Object.entries(stored).filter(([, v]) => v !== undefined)),
+  };
+  return settingsSnapshotSchema.parse(merged) as ScenarioSettings;
+}
+
+/**
+ * What a report freezes: the team's baseline (technology, classes, histograms) and the chosen scenarios
+ * (db/queries/reports.ts `loadReportSources`), with technology and settings checked against the snapshot schemas.
+ */
+export async function loadReportInputs(
+  conn: Knex,
+  p: { teamId: string; baselineId: string; scenarioIds: string[] },
+): Promise<Pick<FreezeInput, "baseline" | "scenarios">> {
+  const src = await loadReportSources(conn, p);
+  const technology = technologySnapshotSchema.parse(src.baseline.technology) as Technology;
+  return {
+    baseline: { ...src.baseline, technology },
+    scenarios: src.scenarios.map((s) => ({ ...s, settings: settingsFromStored(s.settings, technology) })),
+  };
+}
+
+/** freezeReport with the user's mistakes as InvalidInputError (an unknown class, geometry the engine refuses). */
+function freeze(input: FreezeInput): FrozenReport {
+  try {
+    return freezeReport(input);
+  } catch (e) {
+    if (e instanceof UnknownClassError) throw new InvalidInputError(e.message, fieldError("classNames", e.message));
     // The engine refuses impossible geometry (e.g. a barrier that fills the scaled line): the user's inputs, not our fault.
-    throw badRequest(`The engine cannot evaluate these inputs: ${e.message}`);
+    if (e instanceof RangeError) throw new InvalidInputError(`The engine cannot evaluate these inputs: ${e.message}`);
+    throw e;
   }
-  throw e;
 }
 
 /** Load, evaluate and freeze, then store as a new report series (or the next version of `seriesId`). */
-export async function composeReport(p: {
-  teamId: string;
-  userId: string;
-  input: ComposeReport;
-  seriesId?: string;
-  isDemo?: boolean;
-}): Promise<{ id: string; seriesId: string; version: number }> {
-  await ready();
-  let frozen: FrozenReport;
-  try {
-    const loaded = await loadReportInputs(db, { teamId: p.teamId, baselineId: p.input.baselineId, scenarioIds: p.input.scenarioIds });
-    frozen = freezeReport({ ...loaded, classNames: p.input.classNames, metrics: p.input.metrics });
-  } catch (e) {
-    mapInputError(e);
-  }
-  return insertReport(db, {
+export async function composeReport(
+  conn: Knex,
+  p: { teamId: string; userId: string; input: ComposeReport; seriesId?: string; isDemo?: boolean },
+): Promise<{ id: string; seriesId: string; version: number }> {
+  const loaded = await loadReportInputs(conn, { teamId: p.teamId, baselineId: p.input.baselineId, scenarioIds: p.input.scenarioIds });
+  const frozen = freeze({ ...loaded, classNames: p.input.classNames, metrics: p.input.metrics });
+  return storeReport(conn, {
     teamId: p.teamId,
     userId: p.userId,
     seriesId: p.seriesId,
@@ -50,13 +83,13 @@ export async function composeReport(p: {
 
 /**
  * "Refresh from current scenarios": the same baseline, scenarios, classes and metrics, evaluated now, stored
- * as the next version of the series. The old version stays. A scenario deleted since → 409.
+ * as the next version of the series. The old version stays. A scenario deleted since → ConflictError (409).
  */
-export async function refreshReport(report: StoredReport, userId: string) {
+export async function refreshReport(conn: Knex, report: StoredReport, userId: string) {
   const scenarioIds = report.frozen.options.map((o) => o.scenarioId).filter((x): x is string => Boolean(x));
-  if (!report.baselineId || !report.frozen.baseline.id) throw conflict("The report's baseline was deleted; compose a new report instead.");
+  if (!report.baselineId || !report.frozen.baseline.id) throw new ConflictError("The report's baseline was deleted; compose a new report instead.");
   try {
-    return await composeReport({
+    return await composeReport(conn, {
       teamId: report.teamId,
       userId,
       seriesId: report.seriesId,
@@ -71,18 +104,31 @@ export async function refreshReport(report: StoredReport, userId: string) {
       },
     });
   } catch (e) {
-    if (e instanceof ApiError && e.status === 404) throw conflict(`${e.message.replace(/\.$/, "")}: it was deleted since this report was made; compose a new report instead.`);
-    if (e instanceof ApiError && e.status === 400 && e.fields?.classNames) {
-      throw conflict("A class of this report is no longer in the baseline; compose a new report instead.");
+    if (e instanceof NotFoundError)
+      throw new ConflictError(`${e.message.replace(/\.$/, "")}: it was deleted since this report was made; compose a new report instead.`);
+    if (e instanceof InvalidInputError && e.fields?.classNames) {
+      throw new ConflictError("A class of this report is no longer in the baseline; compose a new report instead.");
     }
     throw e;
   }
 }
 
-export async function loadReport(id: string): Promise<StoredReport> {
-  await ready();
-  const r = await getReport(db, id);
-  if (!r) throw notFound("Report");
+/**
+ * A stored report with its frozen document checked against the current schema (undefined when there is
+ * none). A document that no longer matches is a server fault, never shown half-parsed.
+ */
+export async function findReport(conn: Knex, id: string): Promise<StoredReport | undefined> {
+  const r = await getReport(conn, id);
+  if (!r) return undefined;
+  const checked = frozenReportSchema.safeParse(r.frozen);
+  if (!checked.success) throw new Error(`report ${id}: frozen document does not match the schema: ${checked.error.message.slice(0, 500)}`);
+  return { ...r, frozen: checked.data };
+}
+
+/** findReport, or NotFoundError("Report"). */
+export async function loadReport(conn: Knex, id: string): Promise<StoredReport> {
+  const r = await findReport(conn, id);
+  if (!r) throw new NotFoundError("Report");
   return r;
 }
 
@@ -107,13 +153,7 @@ export function publicReport(r: StoredReport): PublicReport {
   };
 }
 
-/** Base URL for links in e-mails and share-link answers: PLATEAU_PUBLIC_URL, else the request's origin. */
-export function publicBaseUrl(req: Request): string {
-  const env = process.env.PLATEAU_PUBLIC_URL?.trim();
-  if (env) return env.replace(/\/+$/, "");
-  return new URL(req.url).origin;
-}
-
+/** The share page of a link token, on the public base URL (lib/public-url.ts), as invites build theirs. */
 export function shareUrl(req: Request, token: string): string {
   return `${publicBaseUrl(req)}/r/${token}`;
 }

@@ -113,7 +113,8 @@ export function classVerdict(report: FrozenReport, className: string): ClassVerd
   if (ranking.length === 0) return null;
   ranking.sort((a, b) => a.delayS - b.delayS);
   const [win, ...rest] = ranking;
-  const dir = (c: number | null) => (c === null ? "" : Math.abs(c) < 0.005 ? "about the same as" : c < 0 ? `${pctText(c)} lower than` : `${pctText(c)} higher than`);
+  const dir = (c: number | null) =>
+    c === null ? "" : Math.abs(c) < 0.005 ? "about the same as" : c < 0 ? `${pctText(c)} lower than` : `${pctText(c)} higher than`;
   const others = rest.map((r) => `Option ${r.key}: ${dir(r.change)} the baseline`).join("; ");
   // "Intermediate wires (M3):" — or just "Intermediate wires:" when the class is named after its tier.
   const who = className.toLowerCase() === tier ? `${capitalize(tierWords(tier))} wires` : `${capitalize(tierWords(tier))} wires (${className})`;
@@ -149,14 +150,36 @@ export function summarizeReport(report: FrozenReport): ReportSummary {
       if (pick(worst) - pick(best) <= Math.abs(pick(best)) * 1e-3) return `${what}: all options about the same, ${signedPct(ch(best))} against the baseline.`;
       return `${what}: Option ${best.key} (${best.name}), ${signedPct(ch(best))} against the baseline.`;
     };
-    overall.push(line("Lowest worst-class delay", (h) => h.worstDelay.scenario, (h) => h.worstDelay.change));
-    overall.push(line("Lowest mean net delay", (h) => h.meanDelay.scenario, (h) => h.meanDelay.change));
-    overall.push(line("Lowest switching energy", (h) => h.energy.scenario, (h) => h.energy.change));
-    overall.push(line("Fewest repeaters", (h) => h.repeaters.scenario, (h) => h.repeaters.change));
+    overall.push(
+      line(
+        "Lowest worst-class delay",
+        (h) => h.worstDelay.scenario,
+        (h) => h.worstDelay.change,
+      ),
+    );
+    overall.push(
+      line(
+        "Lowest mean net delay",
+        (h) => h.meanDelay.scenario,
+        (h) => h.meanDelay.change,
+      ),
+    );
+    overall.push(
+      line(
+        "Lowest switching energy",
+        (h) => h.energy.scenario,
+        (h) => h.energy.change,
+      ),
+    );
+    overall.push(
+      line(
+        "Fewest repeaters",
+        (h) => h.repeaters.scenario,
+        (h) => h.repeaters.change,
+      ),
+    );
   }
   const first = report.options[0]!;
-  const baselineConsistent = report.options.every(
-    (o) => o.evaluation.level === first.evaluation.level && o.settings.miller === first.settings.miller,
-  );
+  const baselineConsistent = report.options.every((o) => o.evaluation.level === first.evaluation.level && o.settings.miller === first.settings.miller);
   return { headlines, verdicts, overall, baselineConsistent };
 }

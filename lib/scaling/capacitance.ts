@@ -22,7 +22,7 @@ export function parallelPlateFPerM(epsFPerM: number, widthM: number, heightM: nu
  * C′ = ε·[ (W − T/2)/H + 2π / ln(1 + 2H/T + sqrt((2H/T)·(2H/T + 2))) ].
  * The log term is the exact capacitance of a cylinder of diameter T over a plane; the first a plate of width W − T/2.
  * Needs W ≥ T/2 (the plate term is clamped at 0 below that, and a flag is raised by lineCapacitance).
- * @see C. P. Yuan and T. N. Trick, IEEE Electron Device Letters EDL-3(12), 1982 [form secondary/memory, MODELS.md]
+ * @see C. P. Yuan and T. N. Trick, IEEE Electron Device Letters EDL-3(12), 1982 [form secondary/memory, docs/models.md]
  * @returns F/m
  */
 export function yuanTrickFPerM(epsFPerM: number, widthM: number, thicknessM: number, heightM: number): number {
@@ -34,7 +34,7 @@ export function yuanTrickFPerM(epsFPerM: number, widthM: number, thicknessM: num
 /**
  * Sakurai–Tamaru single line over a plane: C1′/ε = 1.15·(W/H) + 2.80·(T/H)^0.222.
  * Fitted for 0.3 ≤ W/H ≤ 30 and 0.3 ≤ T/H ≤ 30, stated error about 6% [ranges from memory].
- * @see T. Sakurai and K. Tamaru, IEEE TED ED-30(2), 1983 [secondary, MODELS.md]
+ * @see T. Sakurai and K. Tamaru, IEEE TED ED-30(2), 1983 [secondary, docs/models.md]
  * @returns F/m
  */
 export function sakuraiTamaruC1FPerM(epsFPerM: number, widthM: number, thicknessM: number, heightM: number): number {
@@ -46,7 +46,7 @@ export function sakuraiTamaruC1FPerM(epsFPerM: number, widthM: number, thickness
  * C21′/ε = [0.03·(W/H) + 0.83·(T/H) − 0.07·(T/H)^0.222]·(S/H)^(−1.34).
  * This is how much the TOTAL capacitance grows per neighbour, not the Maxwell line-to-line capacitance.
  * Fitted for 0.3 ≤ W/H ≤ 10, 0.3 ≤ T/H ≤ 10, 0.5 ≤ S/H ≤ 10, about 10% [ranges from memory].
- * @see T. Sakurai and K. Tamaru, IEEE TED ED-30(2), 1983; T. Sakurai, IEEE TED 40(1), 1993 [secondary, MODELS.md]
+ * @see T. Sakurai and K. Tamaru, IEEE TED ED-30(2), 1983; T. Sakurai, IEEE TED 40(1), 1993 [secondary, docs/models.md]
  * @returns F/m
  */
 export function sakuraiTamaruC21FPerM(epsFPerM: number, widthM: number, thicknessM: number, heightM: number, spacingM: number): number {
@@ -59,7 +59,7 @@ export function sakuraiTamaruC21FPerM(epsFPerM: number, widthM: number, thicknes
  * C′_fringe/ε = (4/π)·[2g·ln(g + 1) − (g − 1)·ln(g² − 1)], g = 1/(1 − T/b). The full formula adds the plates
  * 4W/(b − T); we add ε·W/H + ε·W/H2 instead so that an off-centre line is covered (measured ≤ 2.5% against the
  * field solver for 1 ≤ H2/H ≤ 2). Valid for W/(b − T) ≳ 0.35.
- * @see S. B. Cohn, "Problems in strip transmission lines", IRE Trans. MTT-3, 1955 [secondary, MODELS.md]
+ * @see S. B. Cohn, "Problems in strip transmission lines", IRE Trans. MTT-3, 1955 [secondary, docs/models.md]
  * @returns F/m
  */
 export function cohnThickStripFringeFPerM(epsFPerM: number, thicknessM: number, separationM: number): number {
@@ -90,8 +90,13 @@ export function cohnThickStripFringeFPerM(epsFPerM: number, thicknessM: number, 
 export const SPLIT_FIT = {
   onePlane: { a: 1.2, b: 0.64 },
   twoPlane: {
-    a: 0.709, b: 0.674, growth: 0.646, thick: 0.11, norm: 2.55,
-    total: [1.042, 0.37, 3.625, 0.335] as const, decay: 1.95,
+    a: 0.709,
+    b: 0.674,
+    growth: 0.646,
+    thick: 0.11,
+    norm: 2.55,
+    total: [1.042, 0.37, 3.625, 0.335] as const,
+    decay: 1.95,
     /** @deprecated engine 1.0.0's two-plane coupling coefficients; no longer used. */
     couple: [0.8974, 1.0308, 4.2272, 0.1371, -0.0061] as const,
   },
@@ -103,7 +108,8 @@ export const SPLIT_FIT = {
 export const CAPACITANCE_ACCURACY: Readonly<Record<CapacitanceModel, string>> = {
   ideal: "parallel plate: a lower bound that ignores fringing and coupling; several times too low for W/H ≤ 1",
   fringe: "Yuan–Trick (one plane): within 11% of the field solver for W ≥ T/2; Cohn (two planes): within 2.5% (measured)",
-  coupled: "Sakurai–Tamaru total (one plane): within 6% (C1) / 11% (with neighbours) of the field solver in the fitted ranges; ground/coupling split fitted to the field solver: ground within 11%, Miller-weighted total within 15% (measured); two planes (H2/H ≤ 2, S/H ≤ 4): Cohn + fitted split, ground within 3.3%, total within 2.9% (Miller 2: 4.4%), coupling per neighbour within 21% (measured); with grounded neighbours the total never falls as they approach",
+  coupled:
+    "Sakurai–Tamaru total (one plane): within 6% (C1) / 11% (with neighbours) of the field solver in the fitted ranges; ground/coupling split fitted to the field solver: ground within 11%, Miller-weighted total within 15% (measured); two planes (H2/H ≤ 2, S/H ≤ 4): Cohn + fitted split, ground within 3.3%, total within 2.9% (Miller 2: 4.4%), coupling per neighbour within 21% (measured); with grounded neighbours the total never falls as they approach",
   field: "numeric 2D field solve (finite differences): < 1% on analytic cases",
 };
 
@@ -264,8 +270,12 @@ export function capacitanceParts(p: LineCapacitanceInput, validity: ValidityFlag
     const area = parallelPlateFPerM(eps, w, hb) + (ha !== null ? parallelPlateFPerM(eps, w, ha) : 0);
     const coupling = 2 * p.miller * r.couplingFPerM;
     return {
-      areaFPerM: area, fringeFPerM: r.groundFPerM - area, couplingFPerM: coupling,
-      totalFPerM: r.groundFPerM + coupling, couplingPerNeighbourFPerM: r.couplingFPerM, model: "field",
+      areaFPerM: area,
+      fringeFPerM: r.groundFPerM - area,
+      couplingFPerM: coupling,
+      totalFPerM: r.groundFPerM + coupling,
+      couplingPerNeighbourFPerM: r.couplingFPerM,
+      model: "field",
     };
   }
 
@@ -288,15 +298,31 @@ export function capacitanceParts(p: LineCapacitanceInput, validity: ValidityFlag
  * `validity` unless it is null. hb is the plane used as "below" (the caller swaps a lone plane above into it).
  */
 export function closedFormInto(
-  model: "ideal" | "fringe" | "coupled", eps: number, w: number, t: number, sp: number | null, hb: number, ha: number | null,
-  out: Split, validity: ValidityFlag[] | null,
+  model: "ideal" | "fringe" | "coupled",
+  eps: number,
+  w: number,
+  t: number,
+  sp: number | null,
+  hb: number,
+  ha: number | null,
+  out: Split,
+  validity: ValidityFlag[] | null,
 ): void {
   closedForm(model, eps, w, t, sp, hb, ha, out);
   if (validity !== null) closedFormFlags(model, w, t, sp, hb, ha, validity);
 }
 
 /** The closed forms alone (no checks, no flags) into `out`: the evaluation and sweep hot path. */
-export function closedForm(model: "ideal" | "fringe" | "coupled", eps: number, w: number, t: number, sp: number | null, hb: number, ha: number | null, out: Split): void {
+export function closedForm(
+  model: "ideal" | "fringe" | "coupled",
+  eps: number,
+  w: number,
+  t: number,
+  sp: number | null,
+  hb: number,
+  ha: number | null,
+  out: Split,
+): void {
   out.area = 0;
   out.ground = 0;
   out.couple = 0;
@@ -306,6 +332,14 @@ export function closedForm(model: "ideal" | "fringe" | "coupled", eps: number, w
 }
 
 /** The validity flags of closedForm's models for this geometry, pushed into `validity`. */
-export function closedFormFlags(model: "ideal" | "fringe" | "coupled", w: number, t: number, sp: number | null, hb: number, ha: number | null, validity: ValidityFlag[]): void {
+export function closedFormFlags(
+  model: "ideal" | "fringe" | "coupled",
+  w: number,
+  t: number,
+  sp: number | null,
+  hb: number,
+  ha: number | null,
+  validity: ValidityFlag[],
+): void {
   flagsFor(model, w, t, hb, ha, model === "coupled" ? sp : null, validity);
 }

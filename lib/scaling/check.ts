@@ -18,9 +18,7 @@ export function atLeast(name: string, v: number, min: number): void {
 }
 
 /** Pushes a flag when value is outside [min, max] (null = open side). */
-export function rangeFlag(
-  out: ValidityFlag[], model: string, quantity: string, value: number, min: number | null, max: number | null, what: string,
-): void {
+export function rangeFlag(out: ValidityFlag[], model: string, quantity: string, value: number, min: number | null, max: number | null, what: string): void {
   if ((min !== null && value < min) || (max !== null && value > max)) {
     const range = min !== null && max !== null ? `${min}–${max}` : min !== null ? `≥ ${min}` : `≤ ${max}`;
     out.push({ model, quantity, value, min, max, message: `${quantity} = ${round3(value)} is outside ${what} range ${range}` });

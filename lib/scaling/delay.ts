@@ -41,6 +41,11 @@ export function lineDelayUnchecked(r: number, c: number, rd: number, cl: number)
   };
 }
 
+/** lineDelayUnchecked's t50S alone, with no result object (the sweep's hot path); the same arithmetic, bit for bit. */
+export function t50Unchecked(r: number, c: number, rd: number, cl: number): number {
+  return SAKURAI_DISTRIBUTED_COEFF * r * c + LN2 * (rd * c + rd * cl + r * cl);
+}
+
 /** Lumped RC step response 50% point, t50 = ln2·RC (exact). */
 export function lumpedT50S(p: { rOhm: number; cF: number }): number {
   return LN2 * p.rOhm * p.cF;

@@ -35,8 +35,17 @@ export function classDistribution(p: DistributionInput): DistributionResult {
  * stats[0] receives the largest delay over the bins that hold nets (0 if none), for the scenario totals.
  */
 export function distributionCore(
-  bins: readonly LengthBin[], div: number, source: "histogram" | "mean", r: number, c: number, rd: number, cl: number,
-  r0: number, c0: number, delayBudgetS: number, stats?: Float64Array,
+  bins: readonly LengthBin[],
+  div: number,
+  source: "histogram" | "mean",
+  r: number,
+  c: number,
+  rd: number,
+  cl: number,
+  r0: number,
+  c0: number,
+  delayBudgetS: number,
+  stats?: Float64Array,
 ): DistributionResult {
   const a = REPEATER_A;
   const b = REPEATER_B;
@@ -142,14 +151,18 @@ export function rentWireLengths(p: { gates: number; rentK: number; rentP: number
 export function davisGamma(N: number, p: number): number {
   const num = 2 * N * (1 - N ** (p - 1));
   const den =
-    (-(N ** p) * (1 + 2 * p - 2 ** (2 * p - 1))) / (p * (2 * p - 1) * (p - 1) * (2 * p - 3)) -
-    1 / (6 * p) + (2 * Math.sqrt(N)) / (2 * p - 1) - N / (p - 1);
+    (-(N ** p) * (1 + 2 * p - 2 ** (2 * p - 1))) / (p * (2 * p - 1) * (p - 1) * (2 * p - 3)) - 1 / (6 * p) + (2 * Math.sqrt(N)) / (2 * p - 1) - N / (p - 1);
   return num / den;
 }
 
 // 8-point Gauss–Legendre on sub-intervals (log-spaced for the l^(2p−4) factor).
-const GL_X = [-0.9602898564975363, -0.7966664774136267, -0.5255324099163290, -0.1834346424956498, 0.1834346424956498, 0.5255324099163290, 0.7966664774136267, 0.9602898564975363];
-const GL_W = [0.1012285362903763, 0.2223810344533745, 0.3137066458778873, 0.3626837833783620, 0.3626837833783620, 0.3137066458778873, 0.2223810344533745, 0.1012285362903763];
+const GL_X = [
+  -0.9602898564975363, -0.7966664774136267, -0.525532409916329, -0.1834346424956498, 0.1834346424956498, 0.525532409916329, 0.7966664774136267,
+  0.9602898564975363,
+];
+const GL_W = [
+  0.1012285362903763, 0.2223810344533745, 0.3137066458778873, 0.362683783378362, 0.362683783378362, 0.3137066458778873, 0.2223810344533745, 0.1012285362903763,
+];
 
 function integrate(f: (x: number) => number, a: number, b: number): number {
   const parts = 8;

@@ -13,7 +13,7 @@ export function energyPerTransitionJ(p: { cF: number; loadF: number; supplyV: nu
   nonNegative("cF", p.cF);
   nonNegative("loadF", p.loadF);
   nonNegative("supplyV", p.supplyV);
-  return (p.cF + p.loadF) * p.supplyV * p.supplyV;
+  return energyUnchecked(p.cF, p.loadF, p.supplyV);
 }
 
 /** ½·activity·clockHz·netCount·energyJ, W (see the module convention). */
@@ -22,5 +22,15 @@ export function switchingPowerW(p: { energyJ: number; activity: number; clockHz:
   inRange("activity", p.activity, 0, 1);
   nonNegative("clockHz", p.clockHz);
   nonNegative("netCount", p.netCount);
-  return 0.5 * p.activity * p.clockHz * p.netCount * p.energyJ;
+  return powerUnchecked(p.netCount * p.energyJ, p.activity, p.clockHz);
+}
+
+/** energyPerTransitionJ without input checks: (c + cl)·V², J, for one net or summed over nets (c = Σ C, cl = Σ CL). */
+export function energyUnchecked(c: number, cl: number, supplyV: number): number {
+  return (c + cl) * (supplyV * supplyV);
+}
+
+/** Power of `totalEnergyJ` (energy per transition summed over the nets) at `activity` and `clockHz`: ½·activity·f·E, W. */
+export function powerUnchecked(totalEnergyJ: number, activity: number, clockHz: number): number {
+  return 0.5 * activity * clockHz * totalEnergyJ;
 }

@@ -2,32 +2,45 @@
  * Evaluation of wire classes under a scenario: geometry → capacitance → resistance → delay, repeaters,
  * energy and the length distribution, with validity flags and accuracy statements. SI units.
  */
-import { getMetal, type Metal } from "../../scaling/materials";
+import { getMetal, type Metal } from "./materials";
 import { CAPACITANCE_ACCURACY, closedForm, closedFormFlags, type Split } from "./capacitance";
-import { ENGINE_VERSION, EPSILON_0_F_PER_M, LN2, SAKURAI_DISTRIBUTED_COEFF } from "./constants";
-import { lineDelayUnchecked } from "./delay";
+import { ENGINE_VERSION, EPSILON_0_F_PER_M } from "./constants";
+import { lineDelayUnchecked, t50Unchecked } from "./delay";
 import { distributionCore } from "./distribution";
+import { energyUnchecked, powerUnchecked } from "./energy";
+import { coarsenHistogram } from "./histogram";
 import { REPEATER_ACCURACY, optimalRepeatersUnchecked } from "./repeaters";
 import { RESISTIVITY_ACCURACY, sizeEffectFactor, sizeEffectFlags } from "./resistance";
 import type {
-  CapacitanceModel, CapacitanceParts, ClassComparison, ClassResult, Evaluation, ModelLevel, ScenarioSettings, Technology, ValidityFlag, WireClass,
+  CapacitanceModel,
+  CapacitanceParts,
+  ClassComparison,
+  ClassResult,
+  Evaluation,
+  LengthBin,
+  ModelLevel,
+  ScenarioSettings,
+  Technology,
+  ValidityFlag,
+  WireClass,
 } from "./types";
 import { newScaledClass, scaleClassInto, type ScaledClass } from "./scale";
 import { checkSettings, checkTechnology, checkWireClass, dedupeFlags } from "./validity";
 
-/**
- * Invented default technology (not from any process): 0.75 V, 2 GHz, minimum repeater R0 = 6 kΩ and
- * C0 = 0.25 fF (R0·C0 = 1.5 ps), delay budget 100 ps.
- */
-export function defaultTechnology(): Technology {
-  return { supplyV: 0.75, clockHz: 2e9, repeaterR0Ohm: 6000, repeaterC0F: 0.25e-15, delayBudgetS: 100e-12 };
-}
-
 /** Settings of the baseline itself: S = S_L = 1, no overrides, factors 1, Miller 1, barrier scales except at `full`. */
 export function baselineSettings(level: ModelLevel, tech: Technology): ScenarioSettings {
   return {
-    s: 1, sL: 1, level, barrierScales: level !== "full", miller: 1, deviceRFactor: 1, deviceCFactor: 1,
-    supplyV: tech.supplyV, k: null, metal: null, overrides: {},
+    s: 1,
+    sL: 1,
+    level,
+    barrierScales: level !== "full",
+    miller: 1,
+    deviceRFactor: 1,
+    deviceCFactor: 1,
+    supplyV: tech.supplyV,
+    k: null,
+    metal: null,
+    overrides: {},
   };
 }
 
@@ -50,37 +63,66 @@ function accuracyFor(level: ModelLevel, twoPlanes: boolean): Record<string, stri
 
 // Shared, frozen accuracy records (one per level and plane count) keep the hot path free of allocations.
 const ACCURACY1: Record<ModelLevel, Readonly<Record<string, string>>> = {
-  ideal: Object.freeze(accuracyFor("ideal", false)), fringe: Object.freeze(accuracyFor("fringe", false)),
-  coupled: Object.freeze(accuracyFor("coupled", false)), full: Object.freeze(accuracyFor("full", false)),
+  ideal: Object.freeze(accuracyFor("ideal", false)),
+  fringe: Object.freeze(accuracyFor("fringe", false)),
+  coupled: Object.freeze(accuracyFor("coupled", false)),
+  full: Object.freeze(accuracyFor("full", false)),
 };
 const ACCURACY2: Record<ModelLevel, Readonly<Record<string, string>>> = {
-  ideal: Object.freeze(accuracyFor("ideal", true)), fringe: Object.freeze(accuracyFor("fringe", true)),
-  coupled: Object.freeze(accuracyFor("coupled", true)), full: Object.freeze(accuracyFor("full", true)),
+  ideal: Object.freeze(accuracyFor("ideal", true)),
+  fringe: Object.freeze(accuracyFor("fringe", true)),
+  coupled: Object.freeze(accuracyFor("coupled", true)),
+  full: Object.freeze(accuracyFor("full", true)),
 };
 
 /**
  * Evaluates one class at one scenario. Level `ideal`: parallel plate, bulk resistivity, barrier scaled with S,
  * delay 0.377·RC with no driver or load (energy without load). Other levels: driver × deviceRFactor, load ×
  * deviceCFactor, Sakurai delay, Elmore delay; `full` adds size-effect resistivity. Repeaters use R0 × deviceRFactor
- * and C0 × deviceCFactor. Throws RangeError on impossible input (including a barrier that fills the scaled line).
+ * and C0 × deviceCFactor. A histogram over MAX_EVALUATED_BINS bins is merged first (coarsenHistogram).
+ * Throws RangeError on impossible input (including a barrier that fills the scaled line).
  */
 export function evaluateClass(p: { wireClass: WireClass; technology: Technology; settings: ScenarioSettings }): ClassResult {
   checkTechnology(p.technology);
   checkSettings(p.settings);
   checkWireClass(p.wireClass);
-  return evaluateClassCore(p.wireClass, p.technology, p.settings, true);
+  return evaluateClassCore(p.wireClass, p.technology, p.settings, true, undefined, evaluatedBins(p.wireClass));
+}
+
+/** The bins a class is evaluated over: its histogram, merged when long (coarsenHistogram), or undefined without one. */
+function evaluatedBins(wc: WireClass): LengthBin[] | undefined {
+  const h = wc.histogram;
+  return h === undefined || h.length === 0 ? undefined : coarsenHistogram(h);
 }
 
 /** Scratch state of one class's electrical evaluation (reused: the engine is synchronous and never re-entered). */
 interface Electrical {
   /** Geometry and options after scaling (scaleClassInto, the one implementation of the scaling rules). */
   g: ScaledClass;
-  metal: Metal; rho: number; rPerM: number; cPerM: number; rd: number; cl: number; r0: number; c0: number;
+  metal: Metal;
+  rho: number;
+  rPerM: number;
+  cPerM: number;
+  rd: number;
+  cl: number;
+  r0: number;
+  c0: number;
   split: Split;
 }
 
 function newElectrical(): Electrical {
-  return { g: newScaledClass(), metal: getMetal("Cu"), rho: 0, rPerM: 0, cPerM: 0, rd: 0, cl: 0, r0: 0, c0: 0, split: { area: 0, ground: 0, couple: 0 } };
+  return {
+    g: newScaledClass(),
+    metal: getMetal("Cu"),
+    rho: 0,
+    rPerM: 0,
+    cPerM: 0,
+    rd: 0,
+    cl: 0,
+    r0: 0,
+    c0: 0,
+    split: { area: 0, ground: 0, couple: 0 },
+  };
 }
 
 /**
@@ -143,14 +185,22 @@ export function classMetricCore(wc: WireClass, tech: Technology, settings: Scena
   if (metric === "r") return R;
   if (metric === "c") return C;
   if (metric === "rc") return R * C;
-  return SAKURAI_DISTRIBUTED_COEFF * R * C + (settings.level === "ideal" ? 0 : LN2 * (e.rd * C + e.rd * e.cl + R * e.cl));
+  return t50Unchecked(R, C, e.rd, e.cl); // rd = cl = 0 at level ideal: 0.377·RC
 }
 
 /**
  * evaluateClass without the input checks; `withDistribution` false skips the histogram. `stats`, when given,
- * receives the distribution's worst delay in stats[0] (see distributionCore).
+ * receives the distribution's worst delay in stats[0] (see distributionCore). `bins`: the histogram to evaluate
+ * (evaluatedBins of the class; undefined = all nets at the mean length).
  */
-export function evaluateClassCore(wc: WireClass, tech: Technology, settings: ScenarioSettings, withDistribution: boolean, stats?: Float64Array): ClassResult {
+export function evaluateClassCore(
+  wc: WireClass,
+  tech: Technology,
+  settings: ScenarioSettings,
+  withDistribution: boolean,
+  stats: Float64Array | undefined,
+  bins: LengthBin[] | undefined,
+): ClassResult {
   const level = settings.level;
   const validity: ValidityFlag[] = [];
   const e = CLASS_SCRATCH;
@@ -159,8 +209,12 @@ export function evaluateClassCore(wc: WireClass, tech: Technology, settings: Sce
   const g = e.g;
   const sp = e.split;
   const cap: CapacitanceParts = {
-    areaFPerM: sp.area, fringeFPerM: sp.ground - sp.area, couplingFPerM: 2 * g.miller * sp.couple, totalFPerM: e.cPerM,
-    couplingPerNeighbourFPerM: sp.couple, model: CAP_MODEL[level],
+    areaFPerM: sp.area,
+    fringeFPerM: sp.ground - sp.area,
+    couplingFPerM: 2 * g.miller * sp.couple,
+    totalFPerM: e.cPerM,
+    couplingPerNeighbourFPerM: sp.couple,
+    model: CAP_MODEL[level],
   };
   const L = g.lengthM;
   const rPerM = e.rPerM;
@@ -172,17 +226,25 @@ export function evaluateClassCore(wc: WireClass, tech: Technology, settings: Sce
   const d = lineDelayUnchecked(R, C, rd, cl);
   const delayS = level === "ideal" ? d.intrinsicS : d.t50S;
   const repeaters = optimalRepeatersUnchecked(R, C, L, e.r0, e.c0, delayS);
-  const v2 = settings.supplyV * settings.supplyV;
-  const energyJ = (C + cl) * v2;
-  const hist = wc.histogram;
-  const hasHist = hist !== undefined && hist.length > 0;
+  const v = settings.supplyV;
+  const energyJ = energyUnchecked(C, cl, v);
+  const hasHist = bins !== undefined;
   const distribution = distributionCore(
-    !withDistribution ? [] : hasHist ? hist : [{ lengthM: wc.meanLengthM, count: wc.netCount }], g.sL,
-    hasHist ? "histogram" : "mean", rPerM, cPerM, rd, cl, e.r0, e.c0, tech.delayBudgetS, stats,
+    !withDistribution ? [] : hasHist ? bins : [{ lengthM: wc.meanLengthM, count: wc.netCount }],
+    g.sL,
+    hasHist ? "histogram" : "mean",
+    rPerM,
+    cPerM,
+    rd,
+    cl,
+    e.r0,
+    e.c0,
+    tech.delayBudgetS,
+    stats,
   );
-  // Energy over the distribution's nets: V²·(Σ wire C + nets·CL); equals netCount·energyJ at the mean length.
-  const totalEnergyJ = withDistribution ? v2 * (distribution.totalCapacitanceF + distribution.totalNets * cl) : wc.netCount * energyJ;
-  const powerW = 0.5 * wc.activity * tech.clockHz * totalEnergyJ;
+  // Energy over the distribution's nets: (Σ wire C + nets·CL)·V²; equals netCount·energyJ at the mean length.
+  const totalEnergyJ = withDistribution ? energyUnchecked(distribution.totalCapacitanceF, distribution.totalNets * cl, v) : wc.netCount * energyJ;
+  const powerW = powerUnchecked(totalEnergyJ, wc.activity, tech.clockHz);
   const twoPlanes = g.ildBelowM !== null && g.ildAboveM !== null;
   return {
     name: wc.name,
@@ -238,8 +300,9 @@ export function evaluateScenario(p: { classes: WireClass[]; technology: Technolo
   let ns = 0;
   for (let i = 0; i < p.classes.length; i++) {
     const wc = p.classes[i]!;
-    const b = evaluateClassCore(wc, p.technology, base, true, WORST_B);
-    const s = evaluateClassCore(wc, p.technology, p.settings, true, WORST_S);
+    const bins = evaluatedBins(wc);
+    const b = evaluateClassCore(wc, p.technology, base, true, WORST_B, bins);
+    const s = evaluateClassCore(wc, p.technology, p.settings, true, WORST_S, bins);
     classes[i] = {
       name: wc.name,
       baseline: b,

@@ -176,10 +176,7 @@ function requirePermittivity(k: number): void {
   if (!Number.isFinite(k) || k < 1) throw new RangeError(`k must be >= 1 (got ${k}, dimensionless)`);
 }
 
-const now: () => number =
-  typeof performance !== "undefined" && typeof performance.now === "function"
-    ? () => performance.now()
-    : () => Date.now();
+const now: () => number = typeof performance !== "undefined" && typeof performance.now === "function" ? () => performance.now() : () => Date.now();
 
 /**
  * Complete elliptic integral of the first kind,
@@ -246,9 +243,7 @@ function cellsIn(piece: SizePiece, x: number): number {
 }
 
 function positionAt(piece: SizePiece, cells: number): number {
-  return piece.slope === 0
-    ? piece.x0 + piece.h0 * cells
-    : piece.x0 + (piece.h0 * Math.expm1(piece.slope * cells)) / piece.slope;
+  return piece.slope === 0 ? piece.x0 + piece.h0 * cells : piece.x0 + (piece.h0 * Math.expm1(piece.slope * cells)) / piece.slope;
 }
 
 /**
@@ -256,14 +251,10 @@ function positionAt(piece: SizePiece, cells: number): number {
  * `corners` the subset where the field is singular; intervals listed in `uncapped` (by index of
  * their left key) have no size cap. Returns the coordinates and the index of each key.
  */
-function buildAxis(p: {
-  keys: number[];
-  corners: number[];
-  uncapped: Set<number>;
-  cornerSize: number;
-  grading: number;
-  n: number;
-}): { coords: number[]; keyIndex: number[] } {
+function buildAxis(p: { keys: number[]; corners: number[]; uncapped: Set<number>; cornerSize: number; grading: number; n: number }): {
+  coords: number[];
+  keyIndex: number[];
+} {
   const coords: number[] = [];
   const keyIndex: number[] = [];
   const distToCorner = (x: number): number => {
@@ -282,11 +273,7 @@ function buildAxis(p: {
     const g = p.grading;
     const size = (x: number): number => Math.min(cap, alphaL + g * (x - a), alphaR + g * (b - x));
     const breaks = [a, b];
-    const candidates = [
-      (alphaR - alphaL + g * (a + b)) / (2 * g),
-      a + (cap - alphaL) / g,
-      b - (cap - alphaR) / g,
-    ];
+    const candidates = [(alphaR - alphaL + g * (a + b)) / (2 * g), a + (cap - alphaL) / g, b - (cap - alphaR) / g];
     for (const c of candidates) if (Number.isFinite(c) && c > a && c < b) breaks.push(c);
     breaks.sort((u, v) => u - v);
     const pieces: SizePiece[] = [];
@@ -424,9 +411,7 @@ export function fieldSolve(input: FieldSolveInput): FieldSolveResult {
   const nx = xs.length;
   const ny = ys.length;
   if (nx * ny > MAX_NODES) {
-    throw new RangeError(
-      `resolution ${n} gives ${nx} × ${ny} grid nodes (max ${MAX_NODES}); lower the resolution or the spread of feature sizes`,
-    );
+    throw new RangeError(`resolution ${n} gives ${nx} × ${ny} grid nodes (max ${MAX_NODES}); lower the resolution or the spread of feature sizes`);
   }
   const iVictim = xAxis.keyIndex[1]!;
   const iNeighbourL = S === null ? -1 : xAxis.keyIndex[2]!;

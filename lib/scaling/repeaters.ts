@@ -86,5 +86,4 @@ function bestWholeStages(kStar: number, r: number, c: number, r0: number, c0: nu
   return tHi < tLo ? hi : lo;
 }
 
-export const REPEATER_ACCURACY =
-  "Bakoglu–Meindl optimum (a = ln2, b = 0.377), whole stages; ignores repeater self-loading and input slope";
+export const REPEATER_ACCURACY = "Bakoglu–Meindl optimum (a = ln2, b = 0.377), whole stages; ignores repeater self-loading and input slope";

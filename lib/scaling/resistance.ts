@@ -3,7 +3,7 @@
  * size-effect resistivity (Fuchs–Sondheimer surface + Mayadas–Shatzkes grain-boundary scattering,
  * combined additively as Steinhögl et al. do). SI units: m, m², Ω·m, Ω/m.
  */
-import { getMetal, type Metal } from "../../scaling/materials";
+import { getMetal, type Metal } from "./materials";
 import { nonNegative, positive } from "./check";
 import type { ValidityFlag } from "./types";
 
@@ -28,7 +28,7 @@ export function conductingAreaM2(p: { widthM: number; thicknessM: number; barrie
 /**
  * Mayadas–Shatzkes grain-boundary factor ρ/ρ0 = 1 / (3·[1/3 − α/2 + α² − α³·ln(1 + 1/α)]),
  * α = (λ/d)·R/(1 − R). For α ≥ 2 the bracket is summed as its series Σ_{n≥4} (−1)ⁿ/(n·α^(n−3)) to avoid cancellation.
- * @see A. F. Mayadas and M. Shatzkes, Phys. Rev. B 1, 1382 (1970) [secondary, MODELS.md]
+ * @see A. F. Mayadas and M. Shatzkes, Phys. Rev. B 1, 1382 (1970) [secondary, docs/models.md]
  */
 export function mayadasShatzkesRatio(alpha: number): number {
   if (alpha <= 0) return 1;
@@ -65,7 +65,7 @@ export function sizeEffectFactor(metal: Metal, widthM: number, heightM: number):
 
 /**
  * Effective resistivity (Ω·m) of a conductor of conducting width × height: bulk ρ0 from the materials catalogue
- * (CRC Handbook values, see scaling/materials.ts), times sizeEffectFactor when sizeEffects is true.
+ * (CRC Handbook values, see lib/scaling/materials.ts), times sizeEffectFactor when sizeEffects is true.
  * Valid for the thick-film approximation, min(w, h) ≳ λ/2 (threshold from memory; flagged in evaluations).
  */
 export function resistivityOhmM(p: { metal: string; widthM: number; heightM: number; sizeEffects: boolean }): number {
@@ -80,7 +80,11 @@ export function sizeEffectFlags(metal: Metal, widthM: number, heightM: number, o
   const kappa = Math.min(widthM, heightM) / metal.meanFreePathM;
   if (kappa < 0.5) {
     out.push({
-      model: "size-effect", quantity: "d/λ", value: kappa, min: 0.5, max: null,
+      model: "size-effect",
+      quantity: "d/λ",
+      value: kappa,
+      min: 0.5,
+      max: null,
       message: `smallest conducting dimension is ${kappa.toPrecision(3)}× the mean free path of ${metal.id}; the thick-film Fuchs–Sondheimer form is used below its range (d ≳ λ/2, from memory)`,
     });
   }

@@ -33,8 +33,18 @@ export function scaleClass(wc: WireClass, settings: ScenarioSettings): ScaledCla
 /** A blank ScaledClass (fields in scaleClass's order), to be filled by scaleClassInto. */
 export function newScaledClass(): ScaledClass {
   return {
-    s: 1, sL: 1, widthM: 0, thicknessM: 0, spacingM: 0, ildBelowM: null, ildAboveM: null, barrierM: 0, lengthM: 0,
-    metal: "", k: 1, miller: 1,
+    s: 1,
+    sL: 1,
+    widthM: 0,
+    thicknessM: 0,
+    spacingM: 0,
+    ildBelowM: null,
+    ildAboveM: null,
+    barrierM: 0,
+    lengthM: 0,
+    metal: "",
+    k: 1,
+    miller: 1,
   };
 }
 

@@ -41,8 +41,17 @@ function checkCount(n: number): void {
  * listed in `skipped`.
  */
 export function sweep(p: {
-  classes: WireClass[]; technology: Technology; settings: ScenarioSettings; variable: SweepVariable; metric: SweepMetric;
-  from: number; to: number; points: number; levels?: ModelLevel[]; spacing?: "linear" | "log"; classNames?: string[];
+  classes: WireClass[];
+  technology: Technology;
+  settings: ScenarioSettings;
+  variable: SweepVariable;
+  metric: SweepMetric;
+  from: number;
+  to: number;
+  points: number;
+  levels?: ModelLevel[];
+  spacing?: "linear" | "log";
+  classNames?: string[];
   /**
    * S sweeps only: what the length factor does while S moves. "scenario" (default) keeps the scenario's S_L (and
    * per-class S_L overrides); "follow" sets S_L = S (local-style wires that shrink with the cell); "fixed" sets
@@ -71,12 +80,18 @@ export function sweep(p: {
   const curves: SweepCurve[] = [];
   for (const level of levels) {
     const base: ScenarioSettings = {
-      ...p.settings, level, overrides,
+      ...p.settings,
+      level,
+      overrides,
       barrierScales: level === p.settings.level ? p.settings.barrierScales : level !== "full",
     };
     const perClass = classes.map((wc) => ({
-      className: wc.name, level, metric: p.metric, variable: p.variable,
-      points: [] as { x: number; y: number }[], skipped: [] as { x: number; reason: string }[],
+      className: wc.name,
+      level,
+      metric: p.metric,
+      variable: p.variable,
+      points: [] as { x: number; y: number }[],
+      skipped: [] as { x: number; reason: string }[],
     }));
     for (const x of xs) {
       const st = base;
@@ -96,7 +111,8 @@ export function sweep(p: {
         }
       }
     }
-    for (const c of perClass) curves.push(c.skipped.length > 0 ? c : { className: c.className, level, metric: c.metric, variable: c.variable, points: c.points });
+    for (const c of perClass)
+      curves.push(c.skipped.length > 0 ? c : { className: c.className, level, metric: c.metric, variable: c.variable, points: c.points });
   }
   return curves;
 }

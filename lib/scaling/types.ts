@@ -51,7 +51,7 @@ export interface WireClass {
   loadF: number;
   /** Switching activity, 0..1: transitions per clock cycle. */
   activity: number;
-  /** Optional length histogram; when present the distribution results use it. */
+  /** Optional length histogram; when present the distribution results use it (merged first when over MAX_EVALUATED_BINS bins). */
   histogram?: LengthBin[];
 }
 
@@ -152,7 +152,10 @@ export interface RepeaterResult {
 }
 
 export interface DistributionResult {
-  /** One entry per histogram bin (or Rent's-rule bin). */
+  /**
+   * One entry per evaluated bin: classDistribution's given bins; in a class result, the class's histogram (merged first
+   * when over MAX_EVALUATED_BINS bins, coarsenHistogram) or one bin of all nets at the mean length.
+   */
   bins: { lengthM: number; count: number; delayS: number; repeaters: number }[];
   totalNets: number;
   /** Share (0..1) of nets whose delay exceeds the technology's delay budget. */

@@ -24,11 +24,62 @@ export const toUm = (m: number): number => m / UM;
 /** Micrometres → metres, exactly rounded. */
 export const fromUm = (um: number): number => scaleExact(um, -6);
 
+const DECIMAL_RE = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
+
+/** A checked number cell: its SI value, or the reason it was refused (a phrase after the column name). */
+export type NumberCheck = { ok: true; value: number } | { ok: false; reason: string };
+
+/**
+ * Parse a plain decimal number written in a display unit and return it in SI, correctly rounded:
+ * the decimal exponent is shifted in the text ("0.3" µm → "0.3e-6" → 3e-7), so no binary
+ * multiplication error creeps in (0.3 * 1e-6 would give 2.9999999999999997e-7). The one SI
+ * conversion of the CSV formats (formats.ts).
+ * @param text the cell (surrounding spaces ignored)
+ * @param exp10 power of ten of the unit (-9 for nm, -6 for µm, -15 for fF, 0 for a plain number)
+ */
+export function parseScaled(text: string, exp10: number): NumberCheck {
+  const t = text.trim();
+  if (t === "") return { ok: false, reason: "is required" };
+  if (!DECIMAL_RE.test(t)) {
+    if (/^[+-]?\d+,\d+$/.test(t)) return { ok: false, reason: "is not a number: use a decimal point, not a comma" };
+    if (/^[+-]?(nan|inf(inity)?)$/i.test(t)) return { ok: false, reason: "must be a finite number" };
+    return { ok: false, reason: "is not a number" };
+  }
+  let value: number;
+  if (exp10 === 0) value = Number(t);
+  else {
+    const e = t.search(/[eE]/);
+    value = e === -1 ? Number(`${t}e${exp10}`) : Number(`${t.slice(0, e)}e${Number(t.slice(e + 1)) + exp10}`);
+  }
+  if (!Number.isFinite(value)) return { ok: false, reason: "must be a finite number" };
+  return { ok: true, value };
+}
+
+/** SI value → shortest decimal text in the display unit that parses back (parseScaled) to exactly the same number. */
+export function formatScaled(valueSI: number, exp10: number): string {
+  if (!Number.isFinite(valueSI)) return "";
+  if (exp10 === 0) return String(valueSI);
+  return new Decimal(String(valueSI)).times(new Decimal(10).pow(-exp10)).toString();
+}
+
 /** Base units the parser and formatter know. "ohm" also accepts "Ω" and "Ohm". */
-export type BaseUnit = "m" | "F" | "ohm" | "s" | "J" | "W" | "V" | "Hz" | "" ;
+export type BaseUnit = "m" | "F" | "ohm" | "s" | "J" | "W" | "V" | "Hz" | "";
 
 const PREFIX_EXP: Record<string, number> = {
-  a: -18, f: -15, p: -12, n: -9, u: -6, "µ": -6, "μ": -6, m: -3, "": 0, k: 3, K: 3, M: 6, G: 9, T: 12,
+  a: -18,
+  f: -15,
+  p: -12,
+  n: -9,
+  u: -6,
+  µ: -6,
+  μ: -6,
+  m: -3,
+  "": 0,
+  k: 3,
+  K: 3,
+  M: 6,
+  G: 9,
+  T: 12,
 };
 
 const UNIT_ALIASES: Record<Exclude<BaseUnit, "">, string[]> = {
@@ -90,7 +141,17 @@ function example(unit: Exclude<BaseUnit, "">): string {
 }
 
 const FORMAT_PREFIXES: [number, string][] = [
-  [-18, "a"], [-15, "f"], [-12, "p"], [-9, "n"], [-6, "µ"], [-3, "m"], [0, ""], [3, "k"], [6, "M"], [9, "G"], [12, "T"],
+  [-18, "a"],
+  [-15, "f"],
+  [-12, "p"],
+  [-9, "n"],
+  [-6, "µ"],
+  [-3, "m"],
+  [0, ""],
+  [3, "k"],
+  [6, "M"],
+  [9, "G"],
+  [12, "T"],
 ];
 
 /**

@@ -3,7 +3,7 @@
  * unit), and helpers for the validity flags every result carries. Model-specific flags are raised where the
  * model is computed (capacitance.ts, resistance.ts).
  */
-import { getMetal } from "../../scaling/materials";
+import { getMetal } from "./materials";
 import { atLeast, inRange, nonNegative, positive } from "./check";
 import type { ClassOverride, ScenarioSettings, Technology, ValidityFlag, WireClass } from "./types";
 import { TIERS } from "./types";

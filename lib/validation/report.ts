@@ -1,5 +1,28 @@
 import { z } from "zod";
-import { MODEL_LEVELS, TIERS, type ModelLevel, type Tier } from "@/lib/scaling/types";
+import {
+  MODEL_LEVELS,
+  TIERS,
+  type CapacitanceModel,
+  type CapacitanceParts,
+  type ClassComparison,
+  type ClassOverride,
+  type ClassRatio,
+  type ClassResult,
+  type DistributionResult,
+  type Evaluation,
+  type LengthBin,
+  type ModelLevel,
+  type RepeaterResult,
+  type ScenarioSettings,
+  type SweepMetric,
+  type SweepPoint,
+  type SweepVariable,
+  type Technology,
+  type Tier,
+  type ValidityFlag,
+  type WireClass,
+} from "@/lib/scaling/types";
+import { mirrorOf, type NullableFields, type Same } from "./mirror";
 
 /** Metrics a report can put in its tables (the compose form's "which metrics matter"). */
 export const REPORT_METRICS = ["delay", "rc", "resistance", "capacitance", "repeaters", "energy", "power", "overBudget"] as const;
@@ -7,7 +30,11 @@ export type ReportMetric = (typeof REPORT_METRICS)[number];
 export const DEFAULT_REPORT_METRICS: ReportMetric[] = ["delay", "rc", "capacitance", "repeaters", "energy"];
 export const reportMetricSchema = z.enum(REPORT_METRICS, { error: `Metric must be one of ${REPORT_METRICS.join(", ")}.` });
 
-const idSchema = (what: string) => z.string({ error: `${what} is required.` }).min(1, `${what} is required.`).max(64, `${what} is not valid.`);
+const idSchema = (what: string) =>
+  z
+    .string({ error: `${what} is required.` })
+    .min(1, `${what} is required.`)
+    .max(64, `${what} is not valid.`);
 
 export const reportTitleSchema = z
   .string({ error: "Title is required." })
@@ -63,9 +90,16 @@ export const EMAIL_MAX_RECIPIENTS = 20;
 export const emailReportSchema = z
   .object({
     to: z
-      .array(z.string().trim().toLowerCase().pipe(z.email({ error: (iss) => `"${String(iss.input)}" is not an e-mail address.` })), {
-        error: "List the addresses to send to.",
-      })
+      .array(
+        z
+          .string()
+          .trim()
+          .toLowerCase()
+          .pipe(z.email({ error: (iss) => `"${String(iss.input)}" is not an e-mail address.` })),
+        {
+          error: "List the addresses to send to.",
+        },
+      )
       .min(1, "Add at least one address.")
       .max(EMAIL_MAX_RECIPIENTS, `Send to at most ${EMAIL_MAX_RECIPIENTS} addresses at a time.`),
     message: z.string().trim().max(1000, "The message must be at most 1000 characters.").optional().default(""),
@@ -76,106 +110,109 @@ export type EmailReport = z.infer<typeof emailReportSchema>;
 
 // ---------------------------------------------------------------------------------------------
 // The frozen report document (reports.frozen). Validated before it is stored and on every read.
-// Engine result objects are loose (unknown extra keys are kept) so that additive engine changes
-// never make an old report unreadable; the fields the report renders are required.
+// Each part that stores an engine value mirrors its type from lib/scaling exactly (`mirrorOf`): the schema lists
+// every field of the engine type and parses to it, so an engine change breaks the build here rather than letting
+// a report be stored unchecked. Where a stored document legitimately differs from the engine type it is written
+// down: JSON has no NaN or Infinity, so `freezeReport` stores non-finite numbers as null (a ratio of 0/0), and the
+// share view leaves out source ids. Unknown keys are dropped on parse.
 
 const num = z.number();
-/** Ratios can be 0/0 or x/0 in odd inputs; JSON stores those as null. */
-const ratioNum = z.number().nullable();
 const level = z.enum(MODEL_LEVELS as [ModelLevel, ...ModelLevel[]]);
 const tier = z.enum(TIERS as [Tier, ...Tier[]]);
+const lengthBinSchema = mirrorOf<LengthBin>()(z.object({ lengthM: num, count: num }));
 
-export const technologySnapshotSchema = z.looseObject({
-  supplyV: num,
-  clockHz: num,
-  repeaterR0Ohm: num,
-  repeaterC0F: num,
-  delayBudgetS: num,
-});
+export const technologySnapshotSchema = mirrorOf<Technology>()(
+  z.object({
+    supplyV: num,
+    clockHz: num,
+    repeaterR0Ohm: num,
+    repeaterC0F: num,
+    delayBudgetS: num,
+  }),
+);
 
-export const classOverrideSnapshotSchema = z.looseObject({
-  s: num.optional(),
-  sL: num.optional(),
-  k: num.optional(),
-  metal: z.string().optional(),
-  barrierScales: z.boolean().optional(),
-  aspectRatio: num.optional(),
-  miller: num.optional(),
-  barrierM: num.optional(),
-});
+export const classOverrideSnapshotSchema = mirrorOf<ClassOverride>()(
+  z.object({
+    s: num.optional(),
+    sL: num.optional(),
+    k: num.optional(),
+    metal: z.string().optional(),
+    barrierScales: z.boolean().optional(),
+    aspectRatio: num.optional(),
+    miller: num.optional(),
+    barrierM: num.optional(),
+  }),
+);
 
-export const settingsSnapshotSchema = z.looseObject({
-  s: num,
-  sL: num,
-  level,
-  barrierScales: z.boolean(),
-  miller: num,
-  deviceRFactor: num,
-  deviceCFactor: num,
-  supplyV: num,
-  k: num.nullable(),
-  metal: z.string().nullable(),
-  overrides: z.record(z.string(), classOverrideSnapshotSchema),
-});
+export const settingsSnapshotSchema = mirrorOf<ScenarioSettings>()(
+  z.object({
+    s: num,
+    sL: num,
+    level,
+    barrierScales: z.boolean(),
+    miller: num,
+    deviceRFactor: num,
+    deviceCFactor: num,
+    supplyV: num,
+    k: num.nullable(),
+    metal: z.string().nullable(),
+    overrides: z.record(z.string(), classOverrideSnapshotSchema),
+  }),
+);
 
-export const wireClassSnapshotSchema = z.looseObject({
-  name: z.string(),
-  tier,
-  widthM: num,
-  thicknessM: num,
-  spacingM: num,
-  ildBelowM: num.nullable(),
-  ildAboveM: num.nullable(),
-  barrierM: num,
-  metal: z.string(),
-  k: num,
-  netCount: num,
-  meanLengthM: num,
-  driverOhm: num,
-  loadF: num,
-  activity: num,
-  histogram: z.array(z.object({ lengthM: num, count: num })).optional(),
-  /** Bins in the stored histogram (also when the bins themselves were too many to freeze). */
-  histogramBins: num.optional(),
-});
+/** A baseline class as frozen: the engine's WireClass plus the size of its stored histogram (kept when the bins were not). */
+export const wireClassSnapshotSchema = mirrorOf<WireClass & { histogramBins?: number }>()(
+  z.object({
+    name: z.string(),
+    tier,
+    widthM: num,
+    thicknessM: num,
+    spacingM: num,
+    ildBelowM: num.nullable(),
+    ildAboveM: num.nullable(),
+    barrierM: num,
+    metal: z.string(),
+    k: num,
+    netCount: num,
+    meanLengthM: num,
+    driverOhm: num,
+    loadF: num,
+    activity: num,
+    histogram: z.array(lengthBinSchema).optional(),
+    /** Bins in the stored histogram (also when the bins themselves were too many to freeze). */
+    histogramBins: num.optional(),
+  }),
+);
 
-const validityFlagSchema = z.looseObject({
-  model: z.string(),
-  quantity: z.string(),
-  value: num.nullable(),
-  min: num.nullable(),
-  max: num.nullable(),
-  message: z.string(),
-});
+/** `value` is null when the quantity was not finite. */
+const validityFlagSchema = mirrorOf<NullableFields<ValidityFlag, "value">>()(
+  z.object({
+    model: z.string(),
+    quantity: z.string(),
+    value: num.nullable(),
+    min: num.nullable(),
+    max: num.nullable(),
+    message: z.string(),
+  }),
+);
 
-const classResultSchema = z.looseObject({
-  name: z.string(),
-  tier,
-  widthM: num,
-  thicknessM: num,
-  spacingM: num,
-  ildBelowM: num.nullable(),
-  ildAboveM: num.nullable(),
-  barrierM: num,
-  pitchM: num,
-  lengthM: num,
-  metal: z.string(),
-  k: num,
-  resistivityOhmM: num,
-  rOhmPerM: num,
-  capacitance: z.looseObject({ areaFPerM: num, fringeFPerM: num, couplingFPerM: num, totalFPerM: num, model: z.string() }),
-  cFPerM: num,
-  rOhm: num,
-  cF: num,
-  rcS: num,
-  delayS: num,
-  elmoreS: num,
-  repeaters: z.looseObject({ count: num, size: num, delayS: num, criticalLengthM: num }),
-  energyJ: num,
-  totalEnergyJ: num.optional(),
-  powerW: num,
-  distribution: z.looseObject({
-    bins: z.array(z.looseObject({ lengthM: num, count: num, delayS: num, repeaters: num })),
+const capacitanceSchema = mirrorOf<CapacitanceParts>()(
+  z.object({
+    areaFPerM: num,
+    fringeFPerM: num,
+    couplingFPerM: num,
+    totalFPerM: num,
+    couplingPerNeighbourFPerM: num,
+    model: z.enum(["ideal", "fringe", "coupled", "field"] satisfies CapacitanceModel[]),
+  }),
+);
+const _capacitanceModels: Same<CapacitanceModel, z.output<typeof capacitanceSchema>["model"]> = true;
+
+const repeaterSchema = mirrorOf<RepeaterResult>()(z.object({ count: num, size: num, delayS: num, delayPerMS: num, criticalLengthM: num }));
+
+const distributionSchema = mirrorOf<DistributionResult>()(
+  z.object({
+    bins: z.array(mirrorOf<DistributionResult["bins"][number]>()(z.object({ lengthM: num, count: num, delayS: num, repeaters: num }))),
     totalNets: num,
     shareOverBudget: num,
     totalRepeaters: num,
@@ -183,47 +220,108 @@ const classResultSchema = z.looseObject({
     totalCapacitanceF: num,
     source: z.enum(["histogram", "mean"]),
   }),
-  validity: z.array(validityFlagSchema),
-  accuracy: z.record(z.string(), z.string()),
-});
+);
+const _distributionSources: Same<DistributionResult["source"], z.output<typeof distributionSchema>["source"]> = true;
 
-const totalsSchema = z.looseObject({ capacitanceF: num, energyJ: num, powerW: num, repeaters: num, worstDelayS: num, meanDelayS: num });
+/** One class at one scenario: the engine's ClassResult (validity values may be null, see validityFlagSchema). */
+const classResultSchema = mirrorOf<Omit<ClassResult, "validity"> & { validity: z.output<typeof validityFlagSchema>[] }>()(
+  z.object({
+    name: z.string(),
+    tier,
+    widthM: num,
+    thicknessM: num,
+    spacingM: num,
+    ildBelowM: num.nullable(),
+    ildAboveM: num.nullable(),
+    barrierM: num,
+    pitchM: num,
+    lengthM: num,
+    metal: z.string(),
+    k: num,
+    resistivityOhmM: num,
+    rOhmPerM: num,
+    capacitance: capacitanceSchema,
+    cFPerM: num,
+    rOhm: num,
+    cF: num,
+    rcS: num,
+    intrinsicDelayS: num,
+    delayS: num,
+    elmoreS: num,
+    repeaters: repeaterSchema,
+    driverOhm: num,
+    loadF: num,
+    energyJ: num,
+    totalEnergyJ: num,
+    powerW: num,
+    distribution: distributionSchema,
+    validity: z.array(validityFlagSchema),
+    accuracy: z.record(z.string(), z.string()),
+  }),
+);
 
-export const evaluationSnapshotSchema = z.looseObject({
-  engineVersion: z.string(),
-  level,
-  classes: z.array(
-    z.looseObject({
-      name: z.string(),
-      baseline: classResultSchema,
-      scenario: classResultSchema,
-      ratio: z.looseObject({
-        rOhmPerM: ratioNum,
-        cFPerM: ratioNum,
-        rOhm: ratioNum,
-        cF: ratioNum,
-        rcS: ratioNum,
-        delayS: ratioNum,
-        repeaters: ratioNum,
-        energyJ: ratioNum,
-      }),
-    }),
-  ),
-  totals: z.looseObject({ baseline: totalsSchema, scenario: totalsSchema }),
-});
+/** Ratios can be 0/0 or x/0 in odd inputs; JSON stores those as null. */
+const ratioNum = num.nullable();
+const classRatioSchema = mirrorOf<NullableFields<ClassRatio, keyof ClassRatio>>()(
+  z.object({
+    rOhmPerM: ratioNum,
+    cFPerM: ratioNum,
+    rOhm: ratioNum,
+    cF: ratioNum,
+    rcS: ratioNum,
+    delayS: ratioNum,
+    repeaters: ratioNum,
+    energyJ: ratioNum,
+  }),
+);
+
+type FrozenResult = z.output<typeof classResultSchema>;
+const classComparisonSchema = mirrorOf<
+  Omit<ClassComparison, "baseline" | "scenario" | "ratio"> & {
+    baseline: FrozenResult;
+    scenario: FrozenResult;
+    ratio: z.output<typeof classRatioSchema>;
+  }
+>()(
+  z.object({
+    name: z.string(),
+    baseline: classResultSchema,
+    scenario: classResultSchema,
+    ratio: classRatioSchema,
+  }),
+);
+
+type Totals = Evaluation["totals"]["baseline"];
+const totalsSchema = mirrorOf<Totals>()(z.object({ capacitanceF: num, energyJ: num, powerW: num, repeaters: num, worstDelayS: num, meanDelayS: num }));
+
+/** An option's Evaluation as frozen (ratios and validity values may be null, see above). */
+export const evaluationSnapshotSchema = mirrorOf<Omit<Evaluation, "classes"> & { classes: z.output<typeof classComparisonSchema>[] }>()(
+  z.object({
+    engineVersion: z.string(),
+    level,
+    classes: z.array(classComparisonSchema),
+    totals: mirrorOf<Evaluation["totals"]>()(z.object({ baseline: totalsSchema, scenario: totalsSchema })),
+  }),
+);
+
+const sweepPointSchema = mirrorOf<SweepPoint>()(z.object({ x: num, y: num }));
+const sweepMetricSchema = z.enum(["delay", "rc", "r", "c"] satisfies SweepMetric[]);
+const sweepVariableSchema = z.enum(["s", "sL", "k"] satisfies SweepVariable[]);
+const _sweepMetrics: Same<SweepMetric, z.output<typeof sweepMetricSchema>> = true;
+const _sweepVariables: Same<SweepVariable, z.output<typeof sweepVariableSchema>> = true;
 
 const sweepSeriesSchema = z.object({
   /** Option key ("A".."D") or "reference" for the first option without size effects. */
   key: z.string(),
   label: z.string(),
   level,
-  points: z.array(z.object({ x: num, y: num })),
+  points: z.array(sweepPointSchema),
 });
 
 export const frozenSweepSchema = z.object({
   className: z.string(),
-  metric: z.enum(["delay", "rc", "r", "c"]),
-  variable: z.enum(["s", "sL", "k"]),
+  metric: sweepMetricSchema,
+  variable: sweepVariableSchema,
   from: num,
   to: num,
   series: z.array(sweepSeriesSchema),

@@ -1,44 +1,71 @@
 import { z } from "zod";
-import { MODEL_LEVELS, type ModelLevel } from "@/lib/scaling";
+import { MODEL_LEVELS, type ClassOverride, type ModelLevel, type ScenarioSettings } from "@/lib/scaling";
+import { mirrorOf, type OptionalFields } from "./mirror";
 import { kSchema, metalIdSchema, quantity } from "./wire-class";
 
 const sSchema = (label: string) =>
-  quantity(label, "", { min: 0, minExclusive: true, minHint: `${label} must be greater than 0.`, max: 20, maxHint: `${label} must be at most 20.` });
-const millerSchema = quantity("Miller factor", "", { min: 0, minHint: "Miller factor must be between 0 and 2.", max: 2, maxHint: "Miller factor must be between 0 and 2." });
+  quantity(label, "", {
+    min: 0,
+    minExclusive: true,
+    minHint: `${label} must be greater than 0.`,
+    max: 20,
+    maxHint: `${label} must be at most 20.`,
+  });
+const millerSchema = quantity("Miller factor", "", {
+  min: 0,
+  minHint: "Miller factor must be between 0 and 2.",
+  max: 2,
+  maxHint: "Miller factor must be between 0 and 2.",
+});
 const factorSchema = (label: string) => quantity(label, "", { min: 0, minExclusive: true, max: 10, maxHint: `${label} must be at most 10.` });
 const aspectSchema = quantity("Aspect ratio", "", { min: 0, minExclusive: true, max: 10, maxHint: "Aspect ratio must be at most 10." });
 
-export const levelSchema = z.enum(MODEL_LEVELS as [ModelLevel, ...ModelLevel[]], { error: `Model level must be one of ${MODEL_LEVELS.join(", ")}.` });
+export const levelSchema = z.enum(MODEL_LEVELS as [ModelLevel, ...ModelLevel[]], {
+  error: `Model level must be one of ${MODEL_LEVELS.join(", ")}.`,
+});
 
-export const classOverrideSchema = z
-  .object({
-    s: sSchema("S").optional(),
-    sL: sSchema("S_L").optional(),
-    k: kSchema.optional(),
-    metal: metalIdSchema.optional(),
-    barrierScales: z.boolean().optional(),
-    aspectRatio: aspectSchema.optional(),
-    miller: millerSchema.optional(),
-    barrierM: quantity("Barrier", "m", { min: 0, max: 1e-6, maxHint: "Barrier must be at most 1 µm." }).optional(),
-  })
-  .strict();
+/** The engine's ClassOverride, field for field. */
+export const classOverrideSchema = mirrorOf<ClassOverride>()(
+  z
+    .object({
+      s: sSchema("S").optional(),
+      sL: sSchema("S_L").optional(),
+      k: kSchema.optional(),
+      metal: metalIdSchema.optional(),
+      barrierScales: z.boolean().optional(),
+      aspectRatio: aspectSchema.optional(),
+      miller: millerSchema.optional(),
+      barrierM: quantity("Barrier", "m", { min: 0, max: 1e-6, maxHint: "Barrier must be at most 1 µm." }).optional(),
+    })
+    .strict(),
+);
 
-/** ScenarioSettings (lib/scaling/types.ts). Missing fields take defaults; supplyV defaults to the baseline's technology (server side). */
-export const scenarioSettingsSchema = z
-  .object({
-    s: sSchema("S").default(1),
-    sL: sSchema("S_L").default(1),
-    level: levelSchema.default("full"),
-    barrierScales: z.boolean().default(false),
-    miller: millerSchema.default(1),
-    deviceRFactor: factorSchema("Device R factor").default(1),
-    deviceCFactor: factorSchema("Device C factor").default(1),
-    supplyV: quantity("Supply voltage", "V", { min: 0, minExclusive: true, max: 5, maxHint: "Supply voltage must be at most 5 V." }).optional(),
-    k: kSchema.nullable().default(null),
-    metal: metalIdSchema.nullable().default(null),
-    overrides: z.record(z.string().max(60), classOverrideSchema).default({}),
-  })
-  .strict();
+/**
+ * The engine's ScenarioSettings, field for field. Missing fields take defaults; supplyV may be left out and then
+ * defaults to the baseline's technology (server side, lib/workspace/settings.ts).
+ */
+export const scenarioSettingsSchema = mirrorOf<OptionalFields<ScenarioSettings, "supplyV">>()(
+  z
+    .object({
+      s: sSchema("S").default(1),
+      sL: sSchema("S_L").default(1),
+      level: levelSchema.default("full"),
+      barrierScales: z.boolean().default(false),
+      miller: millerSchema.default(1),
+      deviceRFactor: factorSchema("Device R factor").default(1),
+      deviceCFactor: factorSchema("Device C factor").default(1),
+      supplyV: quantity("Supply voltage", "V", {
+        min: 0,
+        minExclusive: true,
+        max: 5,
+        maxHint: "Supply voltage must be at most 5 V.",
+      }).optional(),
+      k: kSchema.nullable().default(null),
+      metal: metalIdSchema.nullable().default(null),
+      overrides: z.record(z.string().max(60), classOverrideSchema).default({}),
+    })
+    .strict(),
+);
 export type ScenarioSettingsInput = z.infer<typeof scenarioSettingsSchema>;
 
 const nameSchema = z.string({ error: "Name is required." }).trim().min(1, "Name is required.").max(100, "Name must be at most 100 characters.");

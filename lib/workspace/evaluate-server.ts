@@ -1,17 +1,17 @@
 import "server-only";
 import type { Knex } from "knex";
 import { evaluateScenario, type Evaluation, type ScenarioSettings, type Technology, type WireClass } from "@/lib/scaling";
-import { getBaseline } from "@/db/queries/baselines";
+import { getBaseline, type Baseline } from "@/db/queries/baselines";
 import { listClassesWithHistograms } from "@/db/queries/wire-classes";
 import { badRequest } from "@/lib/api";
 
-/** Engine inputs of a stored baseline: classes (with histograms) and technology. */
-export async function loadEngineInputs(db: Knex, baselineId: string): Promise<{ classes: WireClass[]; technology: Technology }> {
-  const b = await getBaseline(db, baselineId);
-  if (!b) throw new Error("baseline vanished");
+/** Engine inputs of a stored baseline: classes (with histograms) and technology, with the baseline row they came from. */
+export async function loadEngineInputs(db: Knex, baselineId: string): Promise<{ baseline: Baseline; classes: WireClass[]; technology: Technology }> {
+  const baseline = await getBaseline(db, baselineId);
+  if (!baseline) throw new Error("baseline vanished");
   const stored = await listClassesWithHistograms(db, baselineId);
   const classes: WireClass[] = stored.map(({ id: _i, position: _p, histogramBins: _h, ...c }) => c);
-  return { classes, technology: b.technology };
+  return { baseline, classes, technology: baseline.technology };
 }
 
 /** evaluateScenario, with the engine's RangeError (e.g. a fixed barrier that fills a scaled line) as a 400. */

@@ -26,7 +26,10 @@ describe("POST /api/auth/sign-up", () => {
     const me = await c.get("/api/me");
     expect(me.status).toBe(200);
     expect(me.json).toEqual({ user: r.json.user, teams: [] });
-    const row = db.prepare("select email, password_hash from users where id = ?").get(r.json.user.id) as { email: string; password_hash: string };
+    const row = db.prepare("select email, password_hash from users where id = ?").get(r.json.user.id) as {
+      email: string;
+      password_hash: string;
+    };
     expect(row.email).toBe(email.toLowerCase());
     expect(row.password_hash).toMatch(/^scrypt\$32768\$8\$1\$/);
     expect(row.password_hash).not.toContain(GOOD_PASSWORD);
@@ -87,7 +90,12 @@ describe("POST /api/auth/sign-up", () => {
 
   it("answers 413 to an oversized JSON body", async () => {
     const before = users();
-    const r = await new Client().post("/api/auth/sign-up", { email: uniqueEmail(), password: GOOD_PASSWORD, name: "N", pad: "x".repeat(40_000) });
+    const r = await new Client().post("/api/auth/sign-up", {
+      email: uniqueEmail(),
+      password: GOOD_PASSWORD,
+      name: "N",
+      pad: "x".repeat(40_000),
+    });
     expect(r.status).toBe(413);
     expect(r.json.error.code).toBe("payload_too_large");
     expect(r.json.error.message).toMatch(/larger than the limit of 16 KiB/);
@@ -96,7 +104,10 @@ describe("POST /api/auth/sign-up", () => {
 
   it("answers 400 to malformed JSON", async () => {
     const before = users();
-    const r = await new Client().req("POST", "/api/auth/sign-up", undefined, { headers: { "content-type": "application/json" }, raw: "{not json" });
+    const r = await new Client().req("POST", "/api/auth/sign-up", undefined, {
+      headers: { "content-type": "application/json" },
+      raw: "{not json",
+    });
     expect(r.status).toBe(400);
     expect(r.json.error.message).toBe("The body is not valid JSON.");
     expect(users()).toBe(before);
@@ -104,7 +115,12 @@ describe("POST /api/auth/sign-up", () => {
 
   it("answers 403 to a cross-site Origin", async () => {
     const before = users();
-    const r = await new Client().req("POST", "/api/auth/sign-up", { email: uniqueEmail(), password: GOOD_PASSWORD, name: "N" }, { headers: { origin: "https://evil.example" } });
+    const r = await new Client().req(
+      "POST",
+      "/api/auth/sign-up",
+      { email: uniqueEmail(), password: GOOD_PASSWORD, name: "N" },
+      { headers: { origin: "https://evil.example" } },
+    );
     expect(r.status).toBe(403);
     expect(r.json.error).toEqual({ code: "bad_origin", message: "Cross-site requests are not accepted." });
     expect(users()).toBe(before);
@@ -124,7 +140,12 @@ describe("POST /api/auth/sign-in", () => {
   it("gives the same answer for a wrong password and an unknown e-mail", async () => {
     const { email } = await signedUpClient();
     const wrong = await new Client().req("POST", "/api/auth/sign-in", { email, password: "wrong password 123" }, { headers: { "x-forwarded-for": freshIp() } });
-    const unknown = await new Client().req("POST", "/api/auth/sign-in", { email: uniqueEmail("nobody"), password: "wrong password 123" }, { headers: { "x-forwarded-for": freshIp() } });
+    const unknown = await new Client().req(
+      "POST",
+      "/api/auth/sign-in",
+      { email: uniqueEmail("nobody"), password: "wrong password 123" },
+      { headers: { "x-forwarded-for": freshIp() } },
+    );
     expect(wrong.status).toBe(401);
     expect(unknown.status).toBe(401);
     expect(wrong.json).toEqual({ error: { code: "invalid_credentials", message: "E-mail or password is wrong." } });
@@ -144,13 +165,23 @@ describe("POST /api/auth/sign-in", () => {
     const statuses: number[] = [];
     const ghostStatuses: number[] = [];
     for (let i = 0; i < 5; i++) {
-      statuses.push((await new Client().req("POST", "/api/auth/sign-in", { email, password: `wrong password ${i}` }, { headers: { "x-forwarded-for": freshIp() } })).status);
-      ghostStatuses.push((await new Client().req("POST", "/api/auth/sign-in", { email: ghost, password: `wrong password ${i}` }, { headers: { "x-forwarded-for": freshIp() } })).status);
+      statuses.push(
+        (await new Client().req("POST", "/api/auth/sign-in", { email, password: `wrong password ${i}` }, { headers: { "x-forwarded-for": freshIp() } })).status,
+      );
+      ghostStatuses.push(
+        (await new Client().req("POST", "/api/auth/sign-in", { email: ghost, password: `wrong password ${i}` }, { headers: { "x-forwarded-for": freshIp() } }))
+          .status,
+      );
     }
     expect(statuses).toEqual([401, 401, 401, 401, 429]);
     expect(ghostStatuses).toEqual(statuses);
     const right = await new Client().req("POST", "/api/auth/sign-in", { email, password: GOOD_PASSWORD }, { headers: { "x-forwarded-for": freshIp() } });
-    const ghostRight = await new Client().req("POST", "/api/auth/sign-in", { email: ghost, password: GOOD_PASSWORD }, { headers: { "x-forwarded-for": freshIp() } });
+    const ghostRight = await new Client().req(
+      "POST",
+      "/api/auth/sign-in",
+      { email: ghost, password: GOOD_PASSWORD },
+      { headers: { "x-forwarded-for": freshIp() } },
+    );
     expect(right.status).toBe(429);
     expect(right.json.error.code).toBe("too_many_attempts");
     expect(right.json.error.message).toMatch(/^Too many failed sign-in attempts\. Wait 1[45] minutes, then try again\.$/);
@@ -166,7 +197,14 @@ describe("POST /api/auth/sign-in", () => {
     const ip = freshIp();
     let last = 0;
     for (let i = 0; i < 20; i++) {
-      last = (await new Client().req("POST", "/api/auth/sign-in", { email: uniqueEmail("spray"), password: "wrong password 1" }, { headers: { "x-forwarded-for": `${ip}, 10.0.0.1` } })).status;
+      last = (
+        await new Client().req(
+          "POST",
+          "/api/auth/sign-in",
+          { email: uniqueEmail("spray"), password: "wrong password 1" },
+          { headers: { "x-forwarded-for": `${ip}, 10.0.0.1` } },
+        )
+      ).status;
     }
     expect(last).toBe(429);
     const { email } = await signedUpClient();

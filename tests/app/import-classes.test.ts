@@ -39,10 +39,21 @@ describe("POST /api/baselines/[id]/import (wire classes)", () => {
     expect(dbState()).toEqual(before);
     const r = await postCsv(editor, `/api/baselines/${o.baselineId}/import?mode=replace`, `${HEADER}\n${ROW_LOCAL}\n`);
     expect(r.status).toBe(200);
-    expect(r.json).toMatchObject({ ok: true, stored: true, mode: "replace", rows: 1, version: 2, removed: ["intermediate", "semi-global", "global"], updated: ["local"] });
+    expect(r.json).toMatchObject({
+      ok: true,
+      stored: true,
+      mode: "replace",
+      rows: 1,
+      version: 2,
+      removed: ["intermediate", "semi-global", "global"],
+      updated: ["local"],
+    });
     const classes = await editor.get(`/api/baselines/${o.baselineId}/classes`);
     expect(classes.json.classes.map((c: { name: string }) => c.name)).toEqual(["local"]);
-    const rev = sql<{ version: number; summary: string }>("select version, summary from baseline_revisions where baseline_id = ? order by version", o.baselineId);
+    const rev = sql<{ version: number; summary: string }>(
+      "select version, summary from baseline_revisions where baseline_id = ? order by version",
+      o.baselineId,
+    );
     expect(rev.map((x) => x.version)).toEqual([1, 2]);
     expect(rev[1]!.summary).toBe("Imported wire classes from CSV (replace): 1 class; removed intermediate, semi-global, global");
   });
@@ -87,19 +98,64 @@ describe("POST /api/baselines/[id]/import (wire classes)", () => {
   });
 
   const bad: [string, string | Uint8Array, { line: number | null; column: string | null; value?: string | null; message: RegExp | string }][] = [
-    ["an unknown column", `${HEADER},colour\n${ROW_LOCAL},red\n`, { line: 1, column: null, message: /^Unknown column "colour"\. Expected columns for wire classes: class, tier, width_nm, thickness_nm, spacing_nm, ild_below_nm \(optional\)/ }],
-    ["a missing required column", HEADER.replace(",activity", "") + "\n" + ROW_LOCAL.replace(/,0\.15$/, "") + "\n", { line: 1, column: null, message: /^Missing required column activity\. Expected columns/ }],
-    ["a class name twice", `${HEADER}\n${ROW_LOCAL}\n${ROW_LOCAL}\n`, { line: 3, column: "class", value: "local", message: "is already defined on line 2 (class names must be unique, ignoring case)" }],
+    [
+      "an unknown column",
+      `${HEADER},colour\n${ROW_LOCAL},red\n`,
+      {
+        line: 1,
+        column: null,
+        message: /^Unknown column "colour"\. Expected columns for wire classes: class, tier, width_nm, thickness_nm, spacing_nm, ild_below_nm \(optional\)/,
+      },
+    ],
+    [
+      "a missing required column",
+      HEADER.replace(",activity", "") + "\n" + ROW_LOCAL.replace(/,0\.15$/, "") + "\n",
+      { line: 1, column: null, message: /^Missing required column activity\. Expected columns/ },
+    ],
+    [
+      "a class name twice",
+      `${HEADER}\n${ROW_LOCAL}\n${ROW_LOCAL}\n`,
+      { line: 3, column: "class", value: "local", message: "is already defined on line 2 (class names must be unique, ignoring case)" },
+    ],
     ["a non-finite number", `${HEADER}\n${ROW_LOCAL.replace(",8000,", ",1e999,")}\n`, { line: 2, column: "driver_ohm", value: "1e999", message: /finite/ }],
     ["NaN", `${HEADER}\n${ROW_LOCAL.replace(",2.7,", ",NaN,")}\n`, { line: 2, column: "k", value: "NaN", message: /number/ }],
-    ["a negative width", `${HEADER}\n${ROW_LOCAL}\n${ROW_GLOBAL.replace("global,global,400", "global,global,-4")}\n`, { line: 3, column: "width_nm", value: "-4", message: "must be > 0" }],
-    ["a decimal comma", `${HEADER.replace(/,/g, ";")}\n${ROW_LOCAL.replace(/,/g, ";").replace("2.7", "2,7")}\n`, { line: 2, column: "k", value: "2,7", message: /decimal point/ }],
-    ["an unknown metal", `${HEADER}\n${ROW_LOCAL.replace(",Cu,", ",Mithril,")}\n`, { line: 2, column: "metal", value: "Mithril", message: /^must be one of Cu, Al, W, Co, Ru \(got "Mithril"\); see the metals catalogue .*\/help\/csv#metals$/ }],
-    ["an unknown tier", `${HEADER}\n${ROW_LOCAL.replace("local,local", "local,regional")}\n`, { line: 2, column: "tier", value: "regional", message: /^must be one of local, intermediate, semi-global, global$/ }],
+    [
+      "a negative width",
+      `${HEADER}\n${ROW_LOCAL}\n${ROW_GLOBAL.replace("global,global,400", "global,global,-4")}\n`,
+      { line: 3, column: "width_nm", value: "-4", message: "must be > 0" },
+    ],
+    [
+      "a decimal comma",
+      `${HEADER.replace(/,/g, ";")}\n${ROW_LOCAL.replace(/,/g, ";").replace("2.7", "2,7")}\n`,
+      { line: 2, column: "k", value: "2,7", message: /decimal point/ },
+    ],
+    [
+      "an unknown metal",
+      `${HEADER}\n${ROW_LOCAL.replace(",Cu,", ",Mithril,")}\n`,
+      {
+        line: 2,
+        column: "metal",
+        value: "Mithril",
+        message: /^must be one of Cu, Al, W, Co, Ru \(got "Mithril"\); see the metals catalogue .*\/help\/csv#metals$/,
+      },
+    ],
+    [
+      "an unknown tier",
+      `${HEADER}\n${ROW_LOCAL.replace("local,local", "local,regional")}\n`,
+      { line: 2, column: "tier", value: "regional", message: /^must be one of local, intermediate, semi-global, global$/ },
+    ],
     ["an empty file", "", { line: null, column: null, message: "The file is empty." }],
     ["a header without rows", `${HEADER}\r\n`, { line: 2, column: null, message: "The file has a header but no wire classes." }],
-    ["a binary file", new Uint8Array([0x50, 0x4b, 0x03, 0x04, 0, 0, 0x08, 0, 0x63, 0x6c]), { line: null, column: null, message: /NUL bytes: it looks like a binary file/ }],
-    ["invalid UTF-8", new Uint8Array([...enc.encode(`${HEADER}\n`), ...enc.encode(ROW_LOCAL).map((b) => (b === 0x43 ? 0xc3 : b)), 0x0a]), { line: null, column: null, message: /not valid UTF-8/ }],
+    [
+      "a binary file",
+      new Uint8Array([0x50, 0x4b, 0x03, 0x04, 0, 0, 0x08, 0, 0x63, 0x6c]),
+      { line: null, column: null, message: /NUL bytes: it looks like a binary file/ },
+    ],
+    [
+      "invalid UTF-8",
+      new Uint8Array([...enc.encode(`${HEADER}\n`), ...enc.encode(ROW_LOCAL).map((b) => (b === 0x43 ? 0xc3 : b)), 0x0a]),
+      { line: null, column: null, message: /not valid UTF-8/ },
+    ],
     ["a row with too many fields", `${HEADER}\n${ROW_LOCAL},1\n${ROW_GLOBAL}\n`, { line: 2, column: null, message: "has 16 fields, the header has 15" }],
   ];
 
@@ -131,7 +187,14 @@ describe("POST /api/baselines/[id]/import (wire classes)", () => {
       new Promise<{ status: number; body: string }>((resolve, reject) => {
         let answered = false;
         const req = http.request(
-          { host: url.hostname, port: url.port, path: url.pathname + url.search, method: "POST", agent: false, headers: { "content-type": "text/csv", cookie: o.client.cookie, origin: o.client.baseUrl, ...headers } },
+          {
+            host: url.hostname,
+            port: url.port,
+            path: url.pathname + url.search,
+            method: "POST",
+            agent: false,
+            headers: { "content-type": "text/csv", cookie: o.client.cookie, origin: o.client.baseUrl, ...headers },
+          },
           (res) => {
             answered = true;
             let body = "";
@@ -191,7 +254,11 @@ describe("GET /api/baselines/[id]/export.csv", () => {
   it("round-trips: export → import into a new baseline gives identical classes", async () => {
     const o = await ownerWithBaseline();
     // a name that would be a formula in a spreadsheet survives neutralising
-    const add = await postCsv(o.client, `/api/baselines/${o.baselineId}/import?mode=merge`, `${HEADER}\n"=HYPERLINK(""x"")",global,410.5,800.25,400,400,,5,Ru,1.9,12345,1500.125,300,5.5,0.05\n`);
+    const add = await postCsv(
+      o.client,
+      `/api/baselines/${o.baselineId}/import?mode=merge`,
+      `${HEADER}\n"=HYPERLINK(""x"")",global,410.5,800.25,400,400,,5,Ru,1.9,12345,1500.125,300,5.5,0.05\n`,
+    );
     expect(add.status).toBe(200);
     const exp = await o.client.get(`/api/baselines/${o.baselineId}/export.csv`);
     expect(exp.status).toBe(200);
@@ -202,7 +269,8 @@ describe("GET /api/baselines/[id]/export.csv", () => {
     expect(exp.text).toContain("local,local,24,48,24,30,30,2,Cu,2.7,1200000,4,8000,0.4,0.15\r\n");
     const r = await postCsv(o.client, `/api/teams/${o.teamId}/baselines/import?name=Copy`, exp.text);
     expect(r.status).toBe(201);
-    const cols = "position, name, tier, width_m, thickness_m, spacing_m, ild_below_m, ild_above_m, barrier_m, metal, k, net_count, mean_length_m, driver_ohm, load_f, activity";
+    const cols =
+      "position, name, tier, width_m, thickness_m, spacing_m, ild_below_m, ild_above_m, barrier_m, metal, k, net_count, mean_length_m, driver_ohm, load_f, activity";
     const a = sql(`select ${cols} from wire_classes where baseline_id = ? order by position`, o.baselineId);
     const b = sql(`select ${cols} from wire_classes where baseline_id = ? order by position`, r.json.baseline.id);
     expect(b).toEqual(a);

@@ -2,11 +2,12 @@ import { createHash } from "node:crypto";
 import fs from "node:fs";
 import Database from "better-sqlite3";
 import { inject } from "vitest";
-import { Client, signedUpClient, userWithTeam } from "../helpers/http";
+import { type Client, signedUpClient, userWithTeam } from "../helpers/http";
 
 export const TEMPLATE_CLASSES = fs.readFileSync("public/templates/wire-classes-template.csv", "utf8");
 export const TEMPLATE_HISTOGRAMS = fs.readFileSync("public/templates/length-histograms-template.csv", "utf8");
-export const HEADER = "class,tier,width_nm,thickness_nm,spacing_nm,ild_below_nm,ild_above_nm,barrier_nm,metal,k,net_count,mean_length_um,driver_ohm,load_ff,activity";
+export const HEADER =
+  "class,tier,width_nm,thickness_nm,spacing_nm,ild_below_nm,ild_above_nm,barrier_nm,metal,k,net_count,mean_length_um,driver_ohm,load_ff,activity";
 export const ROW_LOCAL = "local,local,24,48,24,30,30,2,Cu,2.7,1200000,4,8000,0.4,0.15";
 export const ROW_GLOBAL = "global,global,400,800,400,400,,5,Cu,3.0,4000,1500,300,5.0,0.1";
 

@@ -18,7 +18,12 @@ describe("POST /api/baselines/[id]/histograms", () => {
     const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace`, TEMPLATE_HISTOGRAMS);
     expect(r.status).toBe(200);
     expect(r.json).toMatchObject({ ok: true, stored: true, rows: 192, version: 2 });
-    expect(r.json.classes.map((c: { name: string; bins: number }) => [c.name, c.bins])).toEqual([["local", 48], ["intermediate", 48], ["semi-global", 48], ["global", 48]]);
+    expect(r.json.classes.map((c: { name: string; bins: number }) => [c.name, c.bins])).toEqual([
+      ["local", 48],
+      ["intermediate", 48],
+      ["semi-global", 48],
+      ["global", 48],
+    ]);
     const viewer = await memberClient(o.teamId, "viewer");
     const j = await viewer.get(`/api/baselines/${o.baselineId}/histograms`);
     expect(j.status).toBe(200);
@@ -52,9 +57,15 @@ describe("POST /api/baselines/[id]/histograms", () => {
     const copy = await postCsv(o.client, `/api/teams/${o.teamId}/baselines/import?name=Copy`, classes.text);
     const r = await postCsv(o.client, `/api/baselines/${copy.json.baseline.id}/histograms?mode=replace`, bins.text);
     expect(r.status).toBe(200);
-    const q = "select c.name, h.bin_count, h.net_count, h.lengths_m, h.counts from class_histograms h join wire_classes c on c.id = h.class_id where c.baseline_id = ? order by c.position";
+    const q =
+      "select c.name, h.bin_count, h.net_count, h.lengths_m, h.counts from class_histograms h join wire_classes c on c.id = h.class_id where c.baseline_id = ? order by c.position";
     const copied = sql<{ name: string; bin_count: number; net_count: number; lengths_m: Buffer; counts: Buffer }>(q, copy.json.baseline.id);
-    expect(copied.map((x) => [x.name, x.bin_count])).toEqual([["local", 48], ["intermediate", 48], ["semi-global", 48], ["global", 48]]);
+    expect(copied.map((x) => [x.name, x.bin_count])).toEqual([
+      ["local", 48],
+      ["intermediate", 48],
+      ["semi-global", 48],
+      ["global", 48],
+    ]);
     expect(copied).toEqual(sql(q, o.baselineId));
     // and the blobs decode to the template's bins
     expect(decodeHistogram(copied[0]!).lengthsM[0]).toBe(3.17e-7);
@@ -66,9 +77,18 @@ describe("POST /api/baselines/[id]/histograms", () => {
     const m = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=merge`, `${H}\nglobal,100,5\nglobal,200,6\n`);
     expect(m.status).toBe(200);
     expect(m.json.warnings[0]).toMatch(/^Class "global": the histogram holds 11 nets, the class table says 4,000/);
-    const count = () => Object.fromEntries(sql<{ name: string; n: number }>("select c.name, coalesce(h.bin_count, 0) as n from wire_classes c left join class_histograms h on h.class_id = c.id where c.baseline_id = ?", o.baselineId).map((x) => [x.name, x.n]));
+    const count = () =>
+      Object.fromEntries(
+        sql<{ name: string; n: number }>(
+          "select c.name, coalesce(h.bin_count, 0) as n from wire_classes c left join class_histograms h on h.class_id = c.id where c.baseline_id = ?",
+          o.baselineId,
+        ).map((x) => [x.name, x.n]),
+      );
     expect(count()).toEqual({ local: 48, intermediate: 48, "semi-global": 48, global: 2 });
-    const g = sql<{ bin_count: number; net_count: number; lengths_m: Buffer; counts: Buffer }>("select h.* from class_histograms h join wire_classes c on c.id = h.class_id where c.baseline_id = ? and c.name = 'global'", o.baselineId)[0]!;
+    const g = sql<{ bin_count: number; net_count: number; lengths_m: Buffer; counts: Buffer }>(
+      "select h.* from class_histograms h join wire_classes c on c.id = h.class_id where c.baseline_id = ? and c.name = 'global'",
+      o.baselineId,
+    )[0]!;
     const gh = decodeHistogram(g);
     expect([[...gh.lengthsM], [...gh.counts], g.net_count]).toEqual([[1e-4, 2e-4], [5, 6], 11]);
     const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace`, `${H}\nlocal,1,1\n`);
@@ -91,13 +111,39 @@ describe("POST /api/baselines/[id]/histograms", () => {
   });
 
   const bad: [string, string | Uint8Array, { line: number | null; column: string | null; value?: string; message: string | RegExp }][] = [
-    ["an unknown class", `${H}\nlocal,1,2\nM42,1,2\n`, { line: 3, column: "class", value: "M42", message: "is not a class of this baseline; known classes: local, intermediate, semi-global, global" }],
-    ["the same class and length twice", `${H}\nlocal,1,2\nglobal,3,1\nlocal,1.0,3\n`, { line: 4, column: "length_um", value: "1.0", message: 'repeats the bin of class "local" at this length from line 2 (one row per class and length)' }],
+    [
+      "an unknown class",
+      `${H}\nlocal,1,2\nM42,1,2\n`,
+      {
+        line: 3,
+        column: "class",
+        value: "M42",
+        message: "is not a class of this baseline; known classes: local, intermediate, semi-global, global",
+      },
+    ],
+    [
+      "the same class and length twice",
+      `${H}\nlocal,1,2\nglobal,3,1\nlocal,1.0,3\n`,
+      {
+        line: 4,
+        column: "length_um",
+        value: "1.0",
+        message: 'repeats the bin of class "local" at this length from line 2 (one row per class and length)',
+      },
+    ],
     ["a negative length", `${H}\nlocal,-4,2\n`, { line: 2, column: "length_um", value: "-4", message: "must be > 0" }],
     ["a non-finite count", `${H}\nlocal,1,Infinity\n`, { line: 2, column: "count", value: "Infinity", message: "must be a finite number" }],
     ["a fractional count", `${H}\nlocal,1,2.5\n`, { line: 2, column: "count", value: "2.5", message: "must be a whole number" }],
-    ["an unknown column", `class,length_um,count,weight\nlocal,1,2,3\n`, { line: 1, column: null, message: 'Unknown column "weight". Expected columns for length histograms: class, length_um, count.' }],
-    ["a missing column", `class,length_um\nlocal,1\n`, { line: 1, column: null, message: "Missing required column count. Expected columns for length histograms: class, length_um, count." }],
+    [
+      "an unknown column",
+      `class,length_um,count,weight\nlocal,1,2,3\n`,
+      { line: 1, column: null, message: 'Unknown column "weight". Expected columns for length histograms: class, length_um, count.' },
+    ],
+    [
+      "a missing column",
+      `class,length_um\nlocal,1\n`,
+      { line: 1, column: null, message: "Missing required column count. Expected columns for length histograms: class, length_um, count." },
+    ],
     ["an empty file", "", { line: null, column: null, message: "The file is empty." }],
     ["a binary file", new Uint8Array([0x1f, 0x8b, 0x08, 0x00, 0x00, 0x00]), { line: null, column: null, message: /NUL bytes/ }],
     ["invalid UTF-8", new Uint8Array([0x63, 0x6c, 0x61, 0x73, 0x73, 0xff, 0xfe, 0x0a]), { line: null, column: null, message: /not valid UTF-8/ }],
@@ -151,7 +197,14 @@ describe("POST /api/baselines/[id]/histograms", () => {
     const chunk = Buffer.from(line); // ~25 kB per write
     await new Promise<void>((resolve) => {
       const req = http.request(
-        { host: url.hostname, port: url.port, path: url.pathname + url.search, method: "POST", agent: false, headers: { "content-type": "text/csv", "transfer-encoding": "chunked", cookie: o.client.cookie, origin: o.client.baseUrl } },
+        {
+          host: url.hostname,
+          port: url.port,
+          path: url.pathname + url.search,
+          method: "POST",
+          agent: false,
+          headers: { "content-type": "text/csv", "transfer-encoding": "chunked", cookie: o.client.cookie, origin: o.client.baseUrl },
+        },
         () => resolve(),
       );
       req.on("error", () => resolve());

@@ -81,7 +81,10 @@ describe("POST /api/teams/[teamId]/invites", () => {
     const member = await o.client.post(`/api/teams/${o.teamId}/invites`, { email: editor.email, role: "viewer" });
     expect(member.status).toBe(409);
     expect(member.json.error.message).toBe(`${editor.email} is already a member of this team.`);
-    const wrongType = await o.client.req("POST", `/api/teams/${o.teamId}/invites`, undefined, { headers: { "content-type": "multipart/form-data; boundary=x" }, raw: "--x--" });
+    const wrongType = await o.client.req("POST", `/api/teams/${o.teamId}/invites`, undefined, {
+      headers: { "content-type": "multipart/form-data; boundary=x" },
+      raw: "--x--",
+    });
     expect(wrongType.status).toBe(415);
     const big = await o.client.post(`/api/teams/${o.teamId}/invites`, { email: uniqueEmail(), role: "viewer", pad: "z".repeat(10_000) });
     expect(big.status).toBe(413);
@@ -133,7 +136,10 @@ describe("POST /api/invites/accept", () => {
     const wrong = await signedUpClient();
     const r = await wrong.client.post("/api/invites/accept", { token });
     expect(r.status).toBe(403);
-    expect(r.json.error).toEqual({ code: "invite_email_mismatch", message: `This invite was sent to ${email}. Sign in with that address to accept it.` });
+    expect(r.json.error).toEqual({
+      code: "invite_email_mismatch",
+      message: `This invite was sent to ${email}. Sign in with that address to accept it.`,
+    });
     expect(memberships(o.teamId)).toBe(before);
     expect((db.prepare("select accepted_at from invites where team_id = ?").get(o.teamId) as { accepted_at: number | null }).accepted_at).toBeNull();
   });
@@ -157,7 +163,10 @@ describe("POST /api/invites/accept", () => {
     const u = await signUpAs(email);
     const r = await u.client.post("/api/invites/accept", { token });
     expect(r.status).toBe(410);
-    expect(r.json.error).toEqual({ code: "invite_expired", message: "This invite has expired (invites last 7 days). Ask the team's owner to send a new one." });
+    expect(r.json.error).toEqual({
+      code: "invite_expired",
+      message: "This invite has expired (invites last 7 days). Ask the team's owner to send a new one.",
+    });
     expect(memberships(o.teamId)).toBe(1);
   });
 

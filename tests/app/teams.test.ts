@@ -112,7 +112,13 @@ describe("members", () => {
     const r = await viewer.client.get(`/api/teams/${o.teamId}/members`);
     expect(r.status).toBe(200);
     expect(r.json.members.map((m: { role: string }) => m.role)).toEqual(["owner", "viewer"]);
-    expect(r.json.members[1]).toEqual({ userId: viewer.userId, email: viewer.email, name: "Vera Viewer", role: "viewer", joinedAt: expect.any(Number) });
+    expect(r.json.members[1]).toEqual({
+      userId: viewer.userId,
+      email: viewer.email,
+      name: "Vera Viewer",
+      role: "viewer",
+      joinedAt: expect.any(Number),
+    });
     expect(r.json.you).toEqual({ userId: viewer.userId, role: "viewer" });
     expect(JSON.stringify(r.json)).not.toMatch(/password|scrypt/);
     const outsider = await signedUpClient();
@@ -201,7 +207,9 @@ describe("members", () => {
     const o = await userWithTeam();
     const viewer = await addMember(o.client, o.teamId, "viewer");
     expect((await new Client().del(`/api/teams/${o.teamId}/members/${viewer.userId}`)).status).toBe(401);
-    const r = await o.client.req("DELETE", `/api/teams/${o.teamId}/members/${viewer.userId}`, undefined, { headers: { origin: "https://evil.example" } });
+    const r = await o.client.req("DELETE", `/api/teams/${o.teamId}/members/${viewer.userId}`, undefined, {
+      headers: { origin: "https://evil.example" },
+    });
     expect(r.status).toBe(403);
     expect(roleOf(o.teamId, viewer.userId)).toBe("viewer");
   });

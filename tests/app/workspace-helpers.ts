@@ -1,7 +1,7 @@
 import { createHash } from "node:crypto";
 import Database from "better-sqlite3";
 import { inject } from "vitest";
-import { Client, userWithTeam, signedUpClient } from "../helpers/http";
+import { type Client, userWithTeam, signedUpClient } from "../helpers/http";
 
 export const WORKSPACE_TABLES = ["baselines", "wire_classes", "class_histograms", "baseline_revisions", "scenarios", "scenario_revisions"] as const;
 
@@ -51,8 +51,40 @@ export async function teamWithRoles() {
 /** Two classes typed the way a person would: strings with units. */
 export function sampleClasses() {
   return [
-    { name: "M1", tier: "local", widthM: "20 nm", thicknessM: "40nm", spacingM: "0.02 µm", ildBelowM: "30 nm", ildAboveM: "30 nm", barrierM: "2 nm", metal: "Cu", k: 2.7, netCount: 100000, meanLengthM: "5 µm", driverOhm: "8 kohm", loadF: "0.4 fF", activity: 0.15 },
-    { name: "M2", tier: "intermediate", widthM: 4e-8, thicknessM: 8e-8, spacingM: 4e-8, ildBelowM: 5e-8, ildAboveM: null, barrierM: 2.5e-9, metal: "Cu", k: 2.7, netCount: 30000, meanLengthM: 2.5e-5, driverOhm: 3000, loadF: 1e-15, activity: 0.12 },
+    {
+      name: "M1",
+      tier: "local",
+      widthM: "20 nm",
+      thicknessM: "40nm",
+      spacingM: "0.02 µm",
+      ildBelowM: "30 nm",
+      ildAboveM: "30 nm",
+      barrierM: "2 nm",
+      metal: "Cu",
+      k: 2.7,
+      netCount: 100000,
+      meanLengthM: "5 µm",
+      driverOhm: "8 kohm",
+      loadF: "0.4 fF",
+      activity: 0.15,
+    },
+    {
+      name: "M2",
+      tier: "intermediate",
+      widthM: 4e-8,
+      thicknessM: 8e-8,
+      spacingM: 4e-8,
+      ildBelowM: 5e-8,
+      ildAboveM: null,
+      barrierM: 2.5e-9,
+      metal: "Cu",
+      k: 2.7,
+      netCount: 30000,
+      meanLengthM: 2.5e-5,
+      driverOhm: 3000,
+      loadF: 1e-15,
+      activity: 0.12,
+    },
   ];
 }
 

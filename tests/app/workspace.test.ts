@@ -12,7 +12,15 @@ describe("baselines: CRUD, versions and revisions", () => {
     const got = await owner.client.get(`/api/baselines/${b.id}`);
     expect(got.status).toBe(200);
     const m1 = got.json.baseline.classes[0];
-    expect(m1).toMatchObject({ name: "M1", widthM: 2e-8, thicknessM: 4e-8, spacingM: 2e-8, meanLengthM: 5e-6, driverOhm: 8000, loadF: 4e-16 });
+    expect(m1).toMatchObject({
+      name: "M1",
+      widthM: 2e-8,
+      thicknessM: 4e-8,
+      spacingM: 2e-8,
+      meanLengthM: 5e-6,
+      driverOhm: 8000,
+      loadF: 4e-16,
+    });
     expect(got.json.baseline.classes[1].ildAboveM).toBeNull();
     expect(got.json.baseline.technology).toEqual(TECH);
     const list = await owner.client.get(`/api/teams/${teamId}/baselines`);
@@ -23,7 +31,11 @@ describe("baselines: CRUD, versions and revisions", () => {
   it("PATCH with the loaded version bumps it and writes a revision; a stale version answers 409 with the current version", async () => {
     const { owner, editor, teamId } = await teamWithRoles();
     const b = await createBaseline(owner.client, teamId);
-    const r = await editor.client.patch(`/api/baselines/${b.id}`, { version: 1, description: "edited", technology: { ...TECH, supplyV: "700 mV" } });
+    const r = await editor.client.patch(`/api/baselines/${b.id}`, {
+      version: 1,
+      description: "edited",
+      technology: { ...TECH, supplyV: "700 mV" },
+    });
     expect(r.status).toBe(200);
     expect(r.json.baseline.version).toBe(2);
     expect(r.json.baseline.technology.supplyV).toBe(0.7);
@@ -45,8 +57,17 @@ describe("baselines: CRUD, versions and revisions", () => {
     const b = await createBaseline(owner.client, teamId);
     const [m1, m2] = b.classes;
     const db = rawDb();
-    const ins = db.prepare("insert into class_histograms (class_id, bin_count, net_count, lengths_m, counts) values (@class_id, @bin_count, @net_count, @lengths_m, @counts)");
-    for (const c of [m1!, m2!]) ins.run(histogramRow(c.id, [1, 2, 3, 4, 5].map((i) => i * 1e-6), [10, 20, 30, 40, 50]));
+    const ins = db.prepare(
+      "insert into class_histograms (class_id, bin_count, net_count, lengths_m, counts) values (@class_id, @bin_count, @net_count, @lengths_m, @counts)",
+    );
+    for (const c of [m1!, m2!])
+      ins.run(
+        histogramRow(
+          c.id,
+          [1, 2, 3, 4, 5].map((i) => i * 1e-6),
+          [10, 20, 30, 40, 50],
+        ),
+      );
     db.close();
     const classes = sampleClasses();
     const put = await owner.client.put(`/api/baselines/${b.id}/classes`, {
@@ -64,7 +85,10 @@ describe("baselines: CRUD, versions and revisions", () => {
     expect(got[1]).toMatchObject({ id: m1!.id, widthM: 2.2e-8, histogramBins: 5 });
     expect(got[0]).toMatchObject({ id: m2!.id, histogramBins: 5 });
     expect(got[2]!.histogramBins).toBe(0);
-    const drop = await owner.client.put(`/api/baselines/${b.id}/classes`, { version: 2, classes: [{ ...classes[0], id: m1!.id, name: "M1 renamed" }] });
+    const drop = await owner.client.put(`/api/baselines/${b.id}/classes`, {
+      version: 2,
+      classes: [{ ...classes[0], id: m1!.id, name: "M1 renamed" }],
+    });
     expect(drop.status).toBe(200);
     const db2 = rawDb();
     expect(db2.prepare("select * from class_histograms where class_id = ?").get(m2!.id)).toBeUndefined();
@@ -78,7 +102,9 @@ describe("baselines: CRUD, versions and revisions", () => {
     const { owner, editor, teamId } = await teamWithRoles();
     const b = await createBaseline(owner.client, teamId, "Original");
     const db = rawDb();
-    db.prepare("insert into class_histograms (class_id, bin_count, net_count, lengths_m, counts) values (@class_id, @bin_count, @net_count, @lengths_m, @counts)").run(histogramRow(b.classes[0]!.id, [1e-6], [7]));
+    db.prepare(
+      "insert into class_histograms (class_id, bin_count, net_count, lengths_m, counts) values (@class_id, @bin_count, @net_count, @lengths_m, @counts)",
+    ).run(histogramRow(b.classes[0]!.id, [1e-6], [7]));
     db.close();
     const d = await editor.client.post(`/api/baselines/${b.id}/duplicate`, {});
     expect(d.status).toBe(201);
@@ -148,7 +174,10 @@ describe("scenarios: create, save with versions, history, restore, evaluate", ()
     expect(c.status).toBe(201);
     const s = c.json.scenario;
     expect(s).toMatchObject({ version: 1, settings: { s: 1, sL: 1, level: "full", miller: 1, supplyV: 0.75, overrides: {} } });
-    const p = await editor.client.patch(`/api/scenarios/${s.id}`, { version: 1, settings: { ...s.settings, s: 1.4, overrides: { M2: { k: 1.9 } } } });
+    const p = await editor.client.patch(`/api/scenarios/${s.id}`, {
+      version: 1,
+      settings: { ...s.settings, s: 1.4, overrides: { M2: { k: 1.9 } } },
+    });
     expect(p.status).toBe(200);
     expect(p.json.scenario.version).toBe(2);
     const before = snapshot();
@@ -178,12 +207,26 @@ describe("scenarios: create, save with versions, history, restore, evaluate", ()
   it("evaluate returns the engine's evaluation of the stored baseline and settings (or unsaved ones), equal to evaluating locally", async () => {
     const { owner, viewer, teamId } = await teamWithRoles();
     const b = await createBaseline(owner.client, teamId);
-    const settings = { s: 1.43, sL: 1.1, level: "full", barrierScales: false, miller: 1.5, deviceRFactor: 0.9, deviceCFactor: 1, supplyV: 0.7, k: null, metal: null, overrides: { M1: { metal: "Ru", barrierM: 0 } } };
+    const settings = {
+      s: 1.43,
+      sL: 1.1,
+      level: "full",
+      barrierScales: false,
+      miller: 1.5,
+      deviceRFactor: 0.9,
+      deviceCFactor: 1,
+      supplyV: 0.7,
+      k: null,
+      metal: null,
+      overrides: { M1: { metal: "Ru", barrierM: 0 } },
+    };
     const c = await owner.client.post(`/api/teams/${teamId}/scenarios`, { baselineId: b.id, name: "E", settings });
     expect(c.status).toBe(201);
     const r = await viewer.client.post(`/api/scenarios/${c.json.scenario.id}/evaluate`);
     expect(r.status).toBe(200);
-    const classes = (await viewer.client.get(`/api/baselines/${b.id}`)).json.baseline.classes.map(({ id: _i, position: _p, histogramBins: _h, ...wc }: WireClass & { id: string; position: number; histogramBins: number }) => wc);
+    const classes = (await viewer.client.get(`/api/baselines/${b.id}`)).json.baseline.classes.map(
+      ({ id: _i, position: _p, histogramBins: _h, ...wc }: WireClass & { id: string; position: number; histogramBins: number }) => wc,
+    );
     const local = evaluateScenario({ classes, technology: TECH, settings: c.json.scenario.settings });
     expect(r.json.evaluation).toEqual(JSON.parse(JSON.stringify(local)));
     expect(r.json.evaluation.classes[0].scenario.metal).toBe("Ru");
@@ -220,31 +263,145 @@ describe("bad input: status, field message, nothing stored changes", () => {
     return [{ ...a, ...patch }, b];
   };
   const putClasses = (ctx: Ctx, classes: unknown[]) => ctx.owner.client.put(`/api/baselines/${ctx.b.id}/classes`, { version: 1, classes });
-  const patchSettings = (ctx: Ctx, patch: Record<string, unknown>) => ctx.owner.client.patch(`/api/scenarios/${ctx.s.id}`, { version: 1, settings: { ...ctx.s.settings, ...patch } });
+  const patchSettings = (ctx: Ctx, patch: Record<string, unknown>) =>
+    ctx.owner.client.patch(`/api/scenarios/${ctx.s.id}`, { version: 1, settings: { ...ctx.s.settings, ...patch } });
 
   const cases: Case[] = [
-    { what: "a non-numeric width", send: (c) => putClasses(c, withClass({ widthM: "wide" })), status: 400, field: "classes.0.widthM", message: /"wide" is not a number with a known unit/ },
-    { what: "a negative width", send: (c) => putClasses(c, withClass({ widthM: -2e-8 })), status: 400, field: "classes.0.widthM", message: /Width must be greater than 0/ },
-    { what: "a negative spacing typed with a unit", send: (c) => putClasses(c, withClass({ spacingM: "-20 nm" })), status: 400, field: "classes.0.spacingM", message: /Spacing must be greater than 0/ },
-    { what: "a negative net count", send: (c) => putClasses(c, withClass({ netCount: -5 })), status: 400, field: "classes.0.netCount", message: /Net count must not be negative/ },
-    { what: "an unknown unit", send: (c) => putClasses(c, withClass({ thicknessM: "40 furlongs" })), status: 400, field: "classes.0.thicknessM", message: /not a number with a known unit/ },
-    { what: "a width without a unit in metres that is far too large", send: (c) => putClasses(c, withClass({ widthM: 20 })), status: 400, field: "classes.0.widthM", message: /did you forget a unit/ },
-    { what: "k below 1", send: (c) => putClasses(c, withClass({ k: 0.8 })), status: 400, field: "classes.0.k", message: /k must be at least 1/ },
-    { what: "a class name used twice", send: (c) => putClasses(c, [sampleClasses()[0], { ...sampleClasses()[1], name: "m1" }]), status: 400, field: "classes.1.name", message: /used twice/ },
+    {
+      what: "a non-numeric width",
+      send: (c) => putClasses(c, withClass({ widthM: "wide" })),
+      status: 400,
+      field: "classes.0.widthM",
+      message: /"wide" is not a number with a known unit/,
+    },
+    {
+      what: "a negative width",
+      send: (c) => putClasses(c, withClass({ widthM: -2e-8 })),
+      status: 400,
+      field: "classes.0.widthM",
+      message: /Width must be greater than 0/,
+    },
+    {
+      what: "a negative spacing typed with a unit",
+      send: (c) => putClasses(c, withClass({ spacingM: "-20 nm" })),
+      status: 400,
+      field: "classes.0.spacingM",
+      message: /Spacing must be greater than 0/,
+    },
+    {
+      what: "a negative net count",
+      send: (c) => putClasses(c, withClass({ netCount: -5 })),
+      status: 400,
+      field: "classes.0.netCount",
+      message: /Net count must not be negative/,
+    },
+    {
+      what: "an unknown unit",
+      send: (c) => putClasses(c, withClass({ thicknessM: "40 furlongs" })),
+      status: 400,
+      field: "classes.0.thicknessM",
+      message: /not a number with a known unit/,
+    },
+    {
+      what: "a width without a unit in metres that is far too large",
+      send: (c) => putClasses(c, withClass({ widthM: 20 })),
+      status: 400,
+      field: "classes.0.widthM",
+      message: /did you forget a unit/,
+    },
+    {
+      what: "k below 1",
+      send: (c) => putClasses(c, withClass({ k: 0.8 })),
+      status: 400,
+      field: "classes.0.k",
+      message: /k must be at least 1/,
+    },
+    {
+      what: "a class name used twice",
+      send: (c) => putClasses(c, [sampleClasses()[0], { ...sampleClasses()[1], name: "m1" }]),
+      status: 400,
+      field: "classes.1.name",
+      message: /used twice/,
+    },
     { what: "S = 0", send: (c) => patchSettings(c, { s: 0 }), status: 400, field: "settings.s", message: /S must be greater than 0/ },
     { what: "S < 0", send: (c) => patchSettings(c, { s: -1 }), status: 400, field: "settings.s", message: /S must be greater than 0/ },
     { what: "S_L = 0", send: (c) => patchSettings(c, { sL: 0 }), status: 400, field: "settings.sL", message: /S_L must be greater than 0/ },
-    { what: "a per-class S ≤ 0", send: (c) => patchSettings(c, { overrides: { M1: { s: -0.5 } } }), status: 400, field: "settings.overrides.M1.s", message: /S must be greater than 0/ },
-    { what: "a scenario k below 1", send: (c) => patchSettings(c, { k: 0.9 }), status: 400, field: "settings.k", message: /k must be at least 1/ },
-    { what: "Miller factor above 2", send: (c) => patchSettings(c, { miller: 2.5 }), status: 400, field: "settings.miller", message: /between 0 and 2/ },
-    { what: "Miller factor below 0", send: (c) => patchSettings(c, { miller: -0.1 }), status: 400, field: "settings.miller", message: /between 0 and 2/ },
-    { what: "an override for a class the baseline lacks", send: (c) => patchSettings(c, { overrides: { M9: { k: 2 } } }), status: 400, field: "settings.overrides.M9", message: /No class named "M9"/ },
-    { what: "a scenario on another team's baseline", send: (c) => c.owner.client.post(`/api/teams/${c.teamId}/scenarios`, { baselineId: c.otherBaseline.id, name: "Sneaky" }), status: 404, message: /Baseline not found/ },
-    { what: "a stale version on save", send: (c) => c.owner.client.patch(`/api/scenarios/${c.s.id}`, { version: 7, name: "late" }), status: 409, message: /saved by someone else/ },
-    { what: "a stale version on the class table", send: (c) => c.owner.client.put(`/api/baselines/${c.b.id}/classes`, { version: 9, classes: sampleClasses() }), status: 409, message: /saved by someone else/ },
-    { what: "an oversize class payload", send: (c) => putClasses(c, Array.from({ length: 1500 }, (_, i) => ({ ...sampleClasses()[0], name: `C${i}`, padding: "x".repeat(100) }))), status: 413, message: /larger than the limit/ },
-    { what: "an oversize scenario payload", send: (c) => c.owner.client.patch(`/api/scenarios/${c.s.id}`, { version: 1, notes: "n".repeat(70 * 1024) }), status: 413, message: /larger than the limit/ },
-    { what: "a duplicate baseline name", send: (c) => c.owner.client.post(`/api/teams/${c.teamId}/baselines`, { name: (c.b as unknown as { name: string }).name ?? "x" }), status: 400, field: "name", message: /already exists/ },
+    {
+      what: "a per-class S ≤ 0",
+      send: (c) => patchSettings(c, { overrides: { M1: { s: -0.5 } } }),
+      status: 400,
+      field: "settings.overrides.M1.s",
+      message: /S must be greater than 0/,
+    },
+    {
+      what: "a scenario k below 1",
+      send: (c) => patchSettings(c, { k: 0.9 }),
+      status: 400,
+      field: "settings.k",
+      message: /k must be at least 1/,
+    },
+    {
+      what: "Miller factor above 2",
+      send: (c) => patchSettings(c, { miller: 2.5 }),
+      status: 400,
+      field: "settings.miller",
+      message: /between 0 and 2/,
+    },
+    {
+      what: "Miller factor below 0",
+      send: (c) => patchSettings(c, { miller: -0.1 }),
+      status: 400,
+      field: "settings.miller",
+      message: /between 0 and 2/,
+    },
+    {
+      what: "an override for a class the baseline lacks",
+      send: (c) => patchSettings(c, { overrides: { M9: { k: 2 } } }),
+      status: 400,
+      field: "settings.overrides.M9",
+      message: /No class named "M9"/,
+    },
+    {
+      what: "a scenario on another team's baseline",
+      send: (c) => c.owner.client.post(`/api/teams/${c.teamId}/scenarios`, { baselineId: c.otherBaseline.id, name: "Sneaky" }),
+      status: 404,
+      message: /Baseline not found/,
+    },
+    {
+      what: "a stale version on save",
+      send: (c) => c.owner.client.patch(`/api/scenarios/${c.s.id}`, { version: 7, name: "late" }),
+      status: 409,
+      message: /saved by someone else/,
+    },
+    {
+      what: "a stale version on the class table",
+      send: (c) => c.owner.client.put(`/api/baselines/${c.b.id}/classes`, { version: 9, classes: sampleClasses() }),
+      status: 409,
+      message: /saved by someone else/,
+    },
+    {
+      what: "an oversize class payload",
+      send: (c) =>
+        putClasses(
+          c,
+          Array.from({ length: 1500 }, (_, i) => ({ ...sampleClasses()[0], name: `C${i}`, padding: "x".repeat(100) })),
+        ),
+      status: 413,
+      message: /larger than the limit/,
+    },
+    {
+      what: "an oversize scenario payload",
+      send: (c) => c.owner.client.patch(`/api/scenarios/${c.s.id}`, { version: 1, notes: "n".repeat(70 * 1024) }),
+      status: 413,
+      message: /larger than the limit/,
+    },
+    {
+      what: "a duplicate baseline name",
+      send: (c) => c.owner.client.post(`/api/teams/${c.teamId}/baselines`, { name: (c.b as unknown as { name: string }).name ?? "x" }),
+      status: 400,
+      field: "name",
+      message: /already exists/,
+    },
   ];
   for (const k of cases) {
     it(`rejects ${k.what}`, async () => {
@@ -263,7 +420,13 @@ describe("audit log: creates and edits of baselines, classes and scenarios", () 
   const auditOf = (teamId: string) => {
     const db = rawDb();
     try {
-      return db.prepare("select action, entity_type, entity_id, user_id, detail from audit_log where team_id = ? order by id").all(teamId) as { action: string; entity_type: string; entity_id: string; user_id: string; detail: string }[];
+      return db.prepare("select action, entity_type, entity_id, user_id, detail from audit_log where team_id = ? order by id").all(teamId) as {
+        action: string;
+        entity_type: string;
+        entity_id: string;
+        user_id: string;
+        detail: string;
+      }[];
     } finally {
       db.close();
     }
@@ -299,7 +462,16 @@ describe("audit log: creates and edits of baselines, classes and scenarios", () 
       ["scenario.update", sc.id],
       ["scenario.delete", sc.id],
     ]);
-    expect(rows.map((r) => r.user_id)).toEqual([owner.userId, editor.userId, editor.userId, editor.userId, editor.userId, editor.userId, editor.userId, owner.userId]);
+    expect(rows.map((r) => r.user_id)).toEqual([
+      owner.userId,
+      editor.userId,
+      editor.userId,
+      editor.userId,
+      editor.userId,
+      editor.userId,
+      editor.userId,
+      owner.userId,
+    ]);
     expect(JSON.parse(rows[2]!.detail)).toEqual({ version: 3, classes: 1 });
     expect(JSON.parse(rows[3]!.detail)).toMatchObject({ duplicatedFrom: b.id });
     expect(JSON.parse(rows[5]!.detail)).toEqual({ version: 2, fields: ["settings"] });

@@ -54,8 +54,18 @@ async function bareParse(): Promise<{ ms: number; rows: number }> {
   return { ms: performance.now() - t0, rows: rows - 1 };
 }
 
-function libImport(): { parseMs: number; storeMs: number; totalMs: number; checkpointMs: number; rows: number; stored: number; peakRssMiB: number } {
-  const r = spawnSync("npx", ["tsx", "--conditions=react-server", "tests/bench/import-bench-child.ts", csv, path.join(dir, "lib.sqlite"), CLASSES.join(",")], { encoding: "utf8" });
+function libImport(): {
+  parseMs: number;
+  storeMs: number;
+  totalMs: number;
+  checkpointMs: number;
+  rows: number;
+  stored: number;
+  peakRssMiB: number;
+} {
+  const r = spawnSync("npx", ["tsx", "--conditions=react-server", "tests/bench/import-bench-child.ts", csv, path.join(dir, "lib.sqlite"), CLASSES.join(",")], {
+    encoding: "utf8",
+  });
   if (r.status !== 0) throw new Error(`child failed: ${r.stderr}`);
   return JSON.parse(r.stdout.trim().split("\n").pop()!);
 }
@@ -87,7 +97,13 @@ function hwmMiB(pid: number): number {
   return best;
 }
 
-async function endToEnd(): Promise<null | { uploadToStoredMs: number; serverPeakRssMiB: number; serverRssBeforeMiB: number; status: number; body: string }> {
+async function endToEnd(): Promise<null | {
+  uploadToStoredMs: number;
+  serverPeakRssMiB: number;
+  serverRssBeforeMiB: number;
+  status: number;
+  body: string;
+}> {
   const distDir = process.env.PLATEAU_DIST_DIR || ".next";
   if (!fs.existsSync(path.join(distDir, "BUILD_ID"))) return null;
   const port = await freePort();
@@ -112,9 +128,18 @@ async function endToEnd(): Promise<null | { uploadToStoredMs: number; serverPeak
       for (const c of r.headers.getSetCookie()) if (c.startsWith("plateau_session=")) cookie = c.split(";")[0]!;
       return r;
     };
-    await call("POST", "/api/auth/sign-up", JSON.stringify({ email: `bench-${Date.now()}@example.test`, password: "correct horse battery staple 42", name: "Bench" }), "application/json");
-    const team = (await (await call("POST", "/api/teams", JSON.stringify({ name: "Bench" }), "application/json")).json()) as { team: { id: string } };
-    const b = (await (await call("POST", `/api/teams/${team.team.id}/baselines/import?name=Bench`, fs.readFileSync("public/templates/wire-classes-template.csv"), "text/csv")).json()) as { baseline: { id: string } };
+    await call(
+      "POST",
+      "/api/auth/sign-up",
+      JSON.stringify({ email: `bench-${Date.now()}@example.test`, password: "correct horse battery staple 42", name: "Bench" }),
+      "application/json",
+    );
+    const team = (await (await call("POST", "/api/teams", JSON.stringify({ name: "Bench" }), "application/json")).json()) as {
+      team: { id: string };
+    };
+    const b = (await (
+      await call("POST", `/api/teams/${team.team.id}/baselines/import?name=Bench`, fs.readFileSync("public/templates/wire-classes-template.csv"), "text/csv")
+    ).json()) as { baseline: { id: string } };
     // warm-up: load the histogram route's code once (a one-row dry run), so the timing is the import's
     const warm = await call("POST", `/api/baselines/${b.baseline.id}/histograms?mode=replace&dryRun=1`, "class,length_um,count\nlocal,1,1\n", "text/csv");
     if (warm.status !== 200) throw new Error(`warm-up failed: ${warm.status} ${await warm.text()}`);
@@ -122,7 +147,13 @@ async function endToEnd(): Promise<null | { uploadToStoredMs: number; serverPeak
     const t0 = performance.now();
     const res = await new Promise<{ status: number; body: string }>((resolve, reject) => {
       const req = http.request(
-        { host: "127.0.0.1", port, method: "POST", path: `/api/baselines/${b.baseline.id}/histograms?mode=replace`, headers: { "content-type": "text/csv", "content-length": fs.statSync(csv).size, cookie, origin: base } },
+        {
+          host: "127.0.0.1",
+          port,
+          method: "POST",
+          path: `/api/baselines/${b.baseline.id}/histograms?mode=replace`,
+          headers: { "content-type": "text/csv", "content-length": fs.statSync(csv).size, cookie, origin: base },
+        },
         (r) => {
           let body = "";
           r.on("data", (d) => (body += d));
@@ -133,7 +164,13 @@ async function endToEnd(): Promise<null | { uploadToStoredMs: number; serverPeak
       fs.createReadStream(csv).pipe(req);
     });
     const ms = performance.now() - t0;
-    return { uploadToStoredMs: ms, serverPeakRssMiB: hwmMiB(server.pid!), serverRssBeforeMiB: before, status: res.status, body: res.body.slice(0, 300) };
+    return {
+      uploadToStoredMs: ms,
+      serverPeakRssMiB: hwmMiB(server.pid!),
+      serverRssBeforeMiB: before,
+      status: res.status,
+      body: res.body.slice(0, 300),
+    };
   } finally {
     server.kill("SIGTERM");
   }
@@ -144,16 +181,22 @@ console.log(`\nCSV import benchmark — ${ROWS.toLocaleString("en-US")} histogra
 const bare = await bareParse();
 console.log(`  bare papaparse parse            ${bare.ms.toFixed(0).padStart(7)} ms   (${bare.rows.toLocaleString("en-US")} rows)`);
 const lib = libImport();
-console.log(`  lib/import (child process)      ${lib.totalMs.toFixed(0).padStart(7)} ms   = parse+validate ${lib.parseMs.toFixed(0)} ms + store ${lib.storeMs.toFixed(0)} ms; ${lib.stored.toLocaleString("en-US")} bins stored in class_histograms`);
+console.log(
+  `  lib/import (child process)      ${lib.totalMs.toFixed(0).padStart(7)} ms   = parse+validate ${lib.parseMs.toFixed(0)} ms + store ${lib.storeMs.toFixed(0)} ms; ${lib.stored.toLocaleString("en-US")} bins stored in class_histograms`,
+);
 console.log(`      (then the deferred WAL checkpoint, after the answer: ${lib.checkpointMs.toFixed(0)} ms)`);
-console.log(`      ratio to bare parse         ${(lib.totalMs / bare.ms).toFixed(2).padStart(7)} ×   (aim ≤ 3×; parse+validate alone ${(lib.parseMs / bare.ms).toFixed(2)} ×)`);
+console.log(
+  `      ratio to bare parse         ${(lib.totalMs / bare.ms).toFixed(2).padStart(7)} ×   (aim ≤ 3×; parse+validate alone ${(lib.parseMs / bare.ms).toFixed(2)} ×)`,
+);
 console.log(`      child peak RSS (VmHWM)      ${lib.peakRssMiB.toFixed(0).padStart(7)} MiB (aim ≤ 400 MB)`);
 const e2e = await endToEnd();
 if (!e2e) console.log("  HTTP end to end                 skipped: no build in PLATEAU_DIST_DIR (or .next); run `next build` first");
 else {
   console.log(`  HTTP upload → validated → stored ${e2e.uploadToStoredMs.toFixed(0).padStart(6)} ms   (status ${e2e.status})`);
   console.log(`      ratio to bare parse         ${(e2e.uploadToStoredMs / bare.ms).toFixed(2).padStart(7)} ×`);
-  console.log(`      server peak RSS (VmHWM)     ${e2e.serverPeakRssMiB.toFixed(0).padStart(7)} MiB (before the upload ${e2e.serverRssBeforeMiB.toFixed(0)} MiB; aim ≤ 400 MB)`);
+  console.log(
+    `      server peak RSS (VmHWM)     ${e2e.serverPeakRssMiB.toFixed(0).padStart(7)} MiB (before the upload ${e2e.serverRssBeforeMiB.toFixed(0)} MiB; aim ≤ 400 MB)`,
+  );
   if (e2e.status !== 200) console.log(`      answer: ${e2e.body}`);
 }
 fs.rmSync(dir, { recursive: true, force: true });

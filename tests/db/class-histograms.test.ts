@@ -7,9 +7,10 @@ import type { Knex } from "knex";
 import { openDatabase } from "@/db/connect";
 import { migrateLatest } from "@/db/migrate";
 import { decodeHistogram } from "@/db/histogram-blob";
-import { duplicateBaseline } from "@/db/queries/baselines";
-import { classHistogram, histogramsByClass, ImportConflictError, storeHistograms } from "@/db/queries/import";
+import { ImportConflictError } from "@/db/errors";
+import { classHistogram, histogramsByClass } from "@/db/queries/import";
 import { listClasses, listClassesWithHistograms } from "@/db/queries/wire-classes";
+import { duplicateBaseline, importHistograms } from "@/db/writes/baselines";
 
 let dir: string;
 let db: Knex;
@@ -37,16 +38,36 @@ async function baseline(): Promise<{ id: string; classIds: string[] }> {
     const cid = randomUUID();
     classIds.push(cid);
     await db("wire_classes").insert({
-      id: cid, baseline_id: id, position, name, tier: "local", width_m: 2.4e-8, thickness_m: 4.8e-8, spacing_m: 2.4e-8, ild_below_m: 3e-8, ild_above_m: 3e-8,
-      barrier_m: 2e-9, metal: "Cu", k: 2.7, net_count: 10, mean_length_m: 4e-6, driver_ohm: 8000, load_f: 4e-16, activity: 0.15,
+      id: cid,
+      baseline_id: id,
+      position,
+      name,
+      tier: "local",
+      width_m: 2.4e-8,
+      thickness_m: 4.8e-8,
+      spacing_m: 2.4e-8,
+      ild_below_m: 3e-8,
+      ild_above_m: 3e-8,
+      barrier_m: 2e-9,
+      metal: "Cu",
+      k: 2.7,
+      net_count: 10,
+      mean_length_m: 4e-6,
+      driver_ohm: 8000,
+      load_f: 4e-16,
+      activity: 0.15,
     });
   }
   return { id, classIds };
 }
 
-const bins = (classIndex: number, lengths: number[], counts: number[]) => ({ classIndex, lengthsM: Float64Array.from(lengths), counts: Float64Array.from(counts) });
+const bins = (classIndex: number, lengths: number[], counts: number[]) => ({
+  classIndex,
+  lengthsM: Float64Array.from(lengths),
+  counts: Float64Array.from(counts),
+});
 const store = (baselineId: string, mode: "replace" | "merge", histograms: ReturnType<typeof bins>[]) =>
-  storeHistograms(db, { baselineId, teamId: "t", userId: "u", mode, classNames: NAMES, histograms, summary: "test", detail: {} });
+  importHistograms(db, { baselineId, teamId: "t", userId: "u", mode, classNames: NAMES, histograms, summary: "test", detail: {} });
 const binCounts = async (baselineId: string) => Object.fromEntries((await listClasses(db, baselineId)).map((c) => [c.name, c.histogramBins]));
 
 describe("class_histograms: storing and reading histograms", () => {
@@ -66,8 +87,16 @@ describe("class_histograms: storing and reading histograms", () => {
     // what the engine and the JSON API read
     const withH = await listClassesWithHistograms(db, b.id);
     expect(withH.map((c) => c.histogram?.length ?? 0)).toEqual([3, 2, 1]);
-    expect(withH[0]!.histogram).toEqual([{ lengthM: 1e-6, count: 5 }, { lengthM: 2e-6, count: 6 }, { lengthM: 3e-6, count: 7 }]);
-    expect((await histogramsByClass(db, b.id)).map((c) => [c.name, c.netCount, c.bins.length])).toEqual([["local", 18, 3], ["intermediate", 2, 2], ["global", 3, 1]]);
+    expect(withH[0]!.histogram).toEqual([
+      { lengthM: 1e-6, count: 5 },
+      { lengthM: 2e-6, count: 6 },
+      { lengthM: 3e-6, count: 7 },
+    ]);
+    expect((await histogramsByClass(db, b.id)).map((c) => [c.name, c.netCount, c.bins.length])).toEqual([
+      ["local", 18, 3],
+      ["intermediate", 2, 2],
+      ["global", 3, 1],
+    ]);
 
     await store(b.id, "replace", [bins(1, [7e-6], [4])]);
     expect(await binCounts(b.id)).toEqual({ local: 0, intermediate: 1, global: 0 });
@@ -77,9 +106,12 @@ describe("class_histograms: storing and reading histograms", () => {
   it("copies histograms with a duplicated baseline and deletes them with their class", async () => {
     const b = await baseline();
     await store(b.id, "replace", [bins(0, [1e-6, 2e-6], [1, 2])]);
-    const copy = await duplicateBaseline(db, { id: b.id, userId: "u", name: `${b.id} copy` });
+    const copy = await duplicateBaseline(db, { id: b.id, teamId: "t", userId: "u", name: `${b.id} copy` });
     const copied = await listClassesWithHistograms(db, copy);
-    expect(copied[0]!.histogram).toEqual([{ lengthM: 1e-6, count: 1 }, { lengthM: 2e-6, count: 2 }]);
+    expect(copied[0]!.histogram).toEqual([
+      { lengthM: 1e-6, count: 1 },
+      { lengthM: 2e-6, count: 2 },
+    ]);
     expect(copied[0]!.id).not.toBe(b.classIds[0]);
     await db("wire_classes").where({ id: b.classIds[0] }).delete();
     expect(await db("class_histograms").where({ class_id: b.classIds[0] }).first()).toBeUndefined();
@@ -99,7 +131,12 @@ describe("class_histograms: storing and reading histograms", () => {
   });
 
   it("large imports (concurrent too) defer the WAL checkpoint and restore the automatic one", async () => {
-    const big = (ci: number, n: number) => bins(ci, Array.from({ length: n }, (_, i) => (i + 1) * 1e-7), Array.from({ length: n }, (_, i) => i % 7));
+    const big = (ci: number, n: number) =>
+      bins(
+        ci,
+        Array.from({ length: n }, (_, i) => (i + 1) * 1e-7),
+        Array.from({ length: n }, (_, i) => i % 7),
+      );
     const [b1, b2] = [await baseline(), await baseline()];
     const [r1, r2] = await Promise.all([store(b1.id, "replace", [big(0, 50_000), big(1, 30_000)]), store(b2.id, "replace", [big(2, 70_000)])]);
     expect(r1.inserted).toBe(80_000);

@@ -44,11 +44,16 @@ describe("class_histograms codec", () => {
     expect(() => decodeHistogram({ ...row, net_count: 4 })).toThrow(/net_count 4 differs/);
     expect(() => decodeHistogram({ ...row, lengths_m: row.lengths_m.subarray(0, 15) })).toThrow(/15 bytes/);
     const swapped = histogramRow("c1", [1e-6, 2e-6], [1, 2]);
-    expect(() => decodeHistogram({ ...swapped, lengths_m: Buffer.concat([swapped.lengths_m.subarray(8), swapped.lengths_m.subarray(0, 8)]) })).toThrow(/does not ascend/);
+    expect(() => decodeHistogram({ ...swapped, lengths_m: Buffer.concat([swapped.lengths_m.subarray(8), swapped.lengths_m.subarray(0, 8)]) })).toThrow(
+      /does not ascend/,
+    );
   });
 
   it("sorts engine bins for writers whose source is not sorted", () => {
-    const h = sortedHistogram([{ lengthM: 3e-6, count: 1 }, { lengthM: 1e-6, count: 2 }]);
+    const h = sortedHistogram([
+      { lengthM: 3e-6, count: 1 },
+      { lengthM: 1e-6, count: 2 },
+    ]);
     expect([...h.lengthsM]).toEqual([1e-6, 3e-6]);
     expect([...h.counts]).toEqual([2, 1]);
   });

@@ -1,29 +1,37 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import fs from "node:fs";
-import os from "node:os";
-import path from "node:path";
 import type { Knex } from "knex";
-import { openDatabase } from "@/db/connect";
+import fs from "node:fs";
+import path from "node:path";
 import { migrateLatest } from "@/db/migrate";
+import { tempDb } from "../helpers/temp-db";
 
-let dir: string;
 let db: Knex;
-
+let close: () => Promise<void>;
 beforeAll(async () => {
-  dir = fs.mkdtempSync(path.join(os.tmpdir(), "plateau-db-"));
-  db = openDatabase(path.join(dir, "t.sqlite"));
-  await migrateLatest(db);
+  ({ db, close } = await tempDb("db"));
 });
-afterAll(async () => {
-  await db.destroy();
-  fs.rmSync(dir, { recursive: true, force: true });
-});
+afterAll(() => close());
 
 describe("migrations", () => {
   it("creates every table the product needs", async () => {
     const rows = await db.raw<{ name: string }[]>("select name from sqlite_master where type = 'table'");
     const names = rows.map((r) => r.name);
-    for (const t of ["users", "sessions", "teams", "memberships", "invites", "audit_log", "outbox", "baselines", "wire_classes", "class_histograms", "scenarios", "scenario_revisions", "reports", "share_links"]) {
+    for (const t of [
+      "users",
+      "sessions",
+      "teams",
+      "memberships",
+      "invites",
+      "audit_log",
+      "outbox",
+      "baselines",
+      "wire_classes",
+      "class_histograms",
+      "scenarios",
+      "scenario_revisions",
+      "reports",
+      "share_links",
+    ]) {
       expect(names).toContain(t);
     }
   });
@@ -57,7 +65,12 @@ describe("migrations", () => {
   });
 
   it("shares one migrations table with the knex CLI (file names match)", () => {
-    const files = fs.readdirSync(path.resolve("migrations")).filter((f) => f.endsWith(".ts")).sort();
-    return db("knex_migrations").pluck("name").then((names: string[]) => expect(names.sort()).toEqual(files));
+    const files = fs
+      .readdirSync(path.resolve("migrations"))
+      .filter((f) => f.endsWith(".ts"))
+      .sort();
+    return db("knex_migrations")
+      .pluck("name")
+      .then((names: string[]) => expect(names.sort()).toEqual(files));
   });
 });

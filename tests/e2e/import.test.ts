@@ -46,7 +46,8 @@ describe("CSV import in the browser", () => {
     await page.waitForURL(/\/teams\/[^/]+\/baselines\/[0-9a-f-]{36}$/, { timeout: 30_000 });
     const baselineUrl = page.url();
     await page.waitForFunction(
-      (names) => names.every((n) => document.body.innerText.includes(n) || [...document.querySelectorAll("input")].some((i) => (i as HTMLInputElement).value === n)),
+      (names) =>
+        names.every((n) => document.body.innerText.includes(n) || [...document.querySelectorAll("input")].some((i) => (i as HTMLInputElement).value === n)),
       ["local", "intermediate", "semi-global", "global"],
       { timeout: 30_000 },
     );
@@ -55,7 +56,8 @@ describe("CSV import in the browser", () => {
     // a 150,000-row histogram file, uploaded through a throttled connection so the upload progress shows
     const big = path.join(tmp, "skua-histograms-large.csv");
     let text = "class,length_um,count\n";
-    for (const c of ["local", "intermediate", "semi-global", "global"]) for (let i = 1; i <= 37_500; i++) text += `${c},${(i * 0.5).toFixed(1)},${(i % 50) + 1}\n`;
+    for (const c of ["local", "intermediate", "semi-global", "global"])
+      for (let i = 1; i <= 37_500; i++) text += `${c},${(i * 0.5).toFixed(1)},${(i % 50) + 1}\n`;
     fs.writeFileSync(big, text);
     await page.goto(`${baselineUrl}/import?kind=histograms`);
     await page.getByTestId("file-input").setInputFiles(big);
@@ -67,16 +69,43 @@ describe("CSV import in the browser", () => {
     await page.getByLabel(/^Merge/).check();
     const cdp = await ctx.newCDPSession(page);
     await cdp.send("Network.enable");
-    await cdp.send("Network.emulateNetworkConditions", { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: 600 * 1024 });
+    await cdp.send("Network.emulateNetworkConditions", {
+      offline: false,
+      latency: 0,
+      downloadThroughput: -1,
+      uploadThroughput: 600 * 1024,
+    });
     await importButton.click();
     const bar = page.getByRole("progressbar", { name: "Uploading" });
     await bar.waitFor({ timeout: 10_000 });
-    await page.waitForFunction(() => Number(document.querySelector("[role=progressbar]")?.getAttribute("aria-valuenow") ?? 0) > 0, undefined, { timeout: 20_000 });
+    await page.waitForFunction(() => Number(document.querySelector("[role=progressbar]")?.getAttribute("aria-valuenow") ?? 0) > 0, undefined, {
+      timeout: 20_000,
+    });
     await page.screenshot({ path: `${SHOTS}/03-histogram-upload-progress.png`, fullPage: true });
     await page.waitForURL(baselineUrl, { timeout: 60_000 });
     await cdp.send("Network.emulateNetworkConditions", { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
     const bins = await owner.client.get(`/api/baselines/${baselineUrl.split("/").pop()}/histograms`);
     expect(bins.json.classes.map((c: { bins: unknown[] }) => c.bins.length)).toEqual([37_500, 37_500, 37_500, 37_500]);
+    await page.close();
+  });
+
+  it("shows the server's answer when it refuses a valid upload (a taken baseline name), and stores nothing", async () => {
+    const name = "Taken name (import e2e)";
+    const made = await owner.client.post(`/api/teams/${owner.teamId}/baselines`, { name });
+    expect(made.status, made.text).toBe(201);
+    const count = async () => ((await owner.client.get(`/api/teams/${owner.teamId}/baselines`)).json.baselines as unknown[]).length;
+    const before = await count();
+    const page = await ctx.newPage();
+    await page.goto(`${baseUrl}/teams/${owner.teamId}/baselines/import`);
+    await page.getByTestId("file-input").setInputFiles("public/templates/wire-classes-template.csv");
+    await page.getByTestId("import-preview").waitFor();
+    await page.getByLabel("Name of the new baseline").fill(name);
+    await page.getByRole("button", { name: "Create baseline 4 rows" }).click();
+    await page.getByText(`A baseline named "${name}" already exists in this team.`).waitFor({ timeout: 30_000 });
+    expect(new URL(page.url()).pathname).toBe(`/teams/${owner.teamId}/baselines/import`);
+    // The form stays usable: another name goes through.
+    expect(await page.getByRole("button", { name: "Create baseline 4 rows" }).isEnabled()).toBe(true);
+    expect(await count()).toBe(before);
     await page.close();
   });
 

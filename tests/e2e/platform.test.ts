@@ -2,7 +2,15 @@ import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import Database from "better-sqlite3";
 import { chromium, type Browser, type Page } from "playwright-core";
 
-const ARGS = ["--headless", "--no-sandbox", "--disable-gpu", "--disable-background-networking", "--disable-component-update", "--disable-sync", "--no-first-run"];
+const ARGS = [
+  "--headless",
+  "--no-sandbox",
+  "--disable-gpu",
+  "--disable-background-networking",
+  "--disable-component-update",
+  "--disable-sync",
+  "--no-first-run",
+];
 const PASSWORD = "lamina copper trench 9";
 
 let browser: Browser;
@@ -25,8 +33,7 @@ function inviteLinkFor(to: string): string {
   const db = new Database(inject("dbPath"), { readonly: true });
   try {
     const row = db.prepare("select id, text_body, status from outbox where to_addresses = ? and kind = 'invite' order by id desc").get(to) as
-      | { id: number; text_body: string; status: string }
-      | undefined;
+      { id: number; text_body: string; status: string } | undefined;
     expect(row?.status).toBe("sent");
     const captured = db.prepare("select raw from captured_mail where outbox_id = ?").get(row!.id) as { raw: string } | undefined;
     expect(captured?.raw).toContain(`X-Plateau-Outbox: ${row!.id}`);
@@ -87,7 +94,8 @@ describe("platform in the browser", () => {
     await viewer.waitForURL(/\/invite\//);
     await viewer.getByRole("button", { name: "Join Lamina Labs" }).click();
     await viewer.waitForURL((u) => u.pathname === teamPath);
-    expect(await viewer.getByText("You are a viewer").isVisible()).toBe(true);
+    // The URL changes while the team page may still be loading (loading.tsx): wait for its text.
+    await viewer.getByText("You are a viewer").waitFor();
 
     // The viewer's settings page is read-only: no role selects, no invite form, no remove buttons.
     await viewer.goto(`${teamPath}/settings`);
@@ -101,7 +109,12 @@ describe("platform in the browser", () => {
     // The owner sees the new member with the viewer role and the invite as accepted.
     await owner.reload();
     await expect.poll(() => owner.getByRole("combobox", { name: "Role of Victor Viewer" }).inputValue()).toBe("viewer");
-    expect(await owner.getByRole("row", { name: new RegExp(viewerEmail) }).filter({ hasText: "accepted" }).count()).toBe(1);
+    expect(
+      await owner
+        .getByRole("row", { name: new RegExp(viewerEmail) })
+        .filter({ hasText: "accepted" })
+        .count(),
+    ).toBe(1);
 
     // Signing out from the account menu returns to /sign-in, and the team page then needs a session again.
     await viewer.getByRole("button", { name: "Account" }).click();

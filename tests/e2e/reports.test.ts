@@ -4,7 +4,15 @@ import { openDatabase } from "@/db/connect";
 import { seedDemoWorkspace } from "@/lib/demo/seed-workspace";
 import { userWithTeam } from "../helpers/http";
 
-const ARGS = ["--headless", "--no-sandbox", "--disable-gpu", "--disable-background-networking", "--disable-component-update", "--disable-sync", "--no-first-run"];
+const ARGS = [
+  "--headless",
+  "--no-sandbox",
+  "--disable-gpu",
+  "--disable-background-networking",
+  "--disable-component-update",
+  "--disable-sync",
+  "--no-first-run",
+];
 
 let browser: Browser;
 beforeAll(async () => {
@@ -67,6 +75,20 @@ describe("reports in the browser", () => {
     await expect.poll(() => anon.locator(".report-ratio svg rect").count()).toBeGreaterThan(3);
     expect(await anon.locator("svg.report-chart path").count()).toBeGreaterThan(3);
     await anonCtx.close();
+
+    // Send by e-mail (a second link), then revoke the first link: the list follows both without a reload,
+    // and the revoked link no longer opens the report.
+    await page.getByLabel(/^To \(up to 20 addresses/).fill("director@example.test");
+    await page.getByRole("button", { name: "Send summary and link" }).click();
+    await page.getByText("Sent to 1 address, with a new share link.").waitFor();
+    await expect.poll(() => page.getByText("active", { exact: true }).count()).toBe(2);
+    await page
+      .getByRole("button", { name: /^Revoke the link made/ })
+      .last()
+      .click(); // newest first: the last is the first link
+    await expect.poll(() => page.getByText("revoked", { exact: true }).count()).toBe(1);
+    expect(await page.getByText("active", { exact: true }).count()).toBe(1);
+    expect((await fetch(shareUrl, { redirect: "manual" })).status).toBe(404);
     await ctx.close();
   });
 });

@@ -5,7 +5,7 @@ import { chromium, type Browser, type BrowserContext, type Page } from "playwrig
 import Database from "better-sqlite3";
 import { openDatabase } from "@/db/connect";
 import { seedDemoWorkspace } from "@/lib/demo/seed-workspace";
-import { Client, signedUpClient, userWithTeam } from "../helpers/http";
+import { type Client, signedUpClient, userWithTeam } from "../helpers/http";
 
 const SHOTS = process.env.PLATEAU_SHOTS_DIR ?? "/tmp/plateau-workspace-shots";
 let browser: Browser;
@@ -32,11 +32,15 @@ async function contextFor(c: Client): Promise<BrowserContext> {
 
 async function waitForResults(page: Page) {
   await page.waitForSelector("[data-testid=results-table]");
-  await page.waitForFunction(() => {
-    const r = document.querySelector("[data-results-key]")?.getAttribute("data-results-key");
-    const s = document.querySelector("[data-sweep-key]")?.getAttribute("data-sweep-key");
-    return !!r && r === s && document.querySelectorAll(".sweep-chart path").length > 0;
-  }, undefined, { timeout: 30_000 });
+  await page.waitForFunction(
+    () => {
+      const r = document.querySelector("[data-results-key]")?.getAttribute("data-results-key");
+      const s = document.querySelector("[data-sweep-key]")?.getAttribute("data-sweep-key");
+      return !!r && r === s && document.querySelectorAll(".sweep-chart path").length > 0;
+    },
+    undefined,
+    { timeout: 30_000 },
+  );
 }
 
 beforeAll(async () => {
@@ -92,7 +96,9 @@ describe("scenario editor in the browser", () => {
     // The <script src> of the server's HTML (not the DOM after load, which also holds the lazily loaded chart chunks);
     // nomodule polyfills are not loaded by a current browser and are left out.
     const html = (await editor.client.get(`/teams/${teamId}/scenarios/${sid}`)).text;
-    const scripts = [...html.matchAll(/<script([^>]*?)src="([^"]+)"([^>]*)>/g)].filter((m) => !/nomodule/i.test(m[1]! + m[3]!)).map((m) => new URL(m[2]!.replace(/&amp;/g, "&"), baseUrl).href);
+    const scripts = [...html.matchAll(/<script([^>]*?)src="([^"]+)"([^>]*)>/g)]
+      .filter((m) => !/nomodule/i.test(m[1]! + m[3]!))
+      .map((m) => new URL(m[2]!.replace(/&amp;/g, "&"), baseUrl).href);
     expect(scripts.length).toBeGreaterThan(0);
     let gz = 0;
     for (const src of scripts) gz += zlib.gzipSync(Buffer.from(await (await fetch(src)).arrayBuffer())).length;
@@ -149,7 +155,11 @@ describe("scenario editor in the browser", () => {
 
     // Set S by typing, save, reload: kept.
     await page.fill("input[name=s]", "1.6");
-    await page.waitForFunction(() => document.querySelector("[data-results-key]")?.getAttribute("data-results-key") === document.querySelector("[data-sweep-key]")?.getAttribute("data-sweep-key"));
+    await page.waitForFunction(
+      () =>
+        document.querySelector("[data-results-key]")?.getAttribute("data-results-key") ===
+        document.querySelector("[data-sweep-key]")?.getAttribute("data-sweep-key"),
+    );
     await page.click("[data-testid=save]");
     await page.waitForSelector("text=Saved as version 2");
     await page.reload();
@@ -173,7 +183,9 @@ describe("scenario editor in the browser", () => {
     expect(reading).toMatch(/At this scenario's S = 1\.6/);
     await page.selectOption("select[name=length]", "fixed");
     await page.waitForFunction(() => new URL(location.href).searchParams.get("length") === "fixed");
-    await page.waitForFunction(() => /gets no better from shrinking/.test(document.querySelector('[data-testid=sweep-reading] li[data-class="local"]')?.textContent ?? ""));
+    await page.waitForFunction(() =>
+      /gets no better from shrinking/.test(document.querySelector('[data-testid=sweep-reading] li[data-class="local"]')?.textContent ?? ""),
+    );
     await page.selectOption("select[name=scale]", "absolute");
     await page.waitForFunction(() => new URL(location.href).searchParams.get("scale") === "absolute");
     await page.reload();
@@ -192,7 +204,10 @@ describe("scenario editor in the browser", () => {
       await card.scrollIntoViewIfNeeded();
       await card.screenshot({ path: `${SHOTS}/${file}` });
     };
-    await page.locator("section", { has: page.locator("h2", { hasText: "Results" }) }).first().screenshot({ path: `${SHOTS}/results.png` });
+    await page
+      .locator("section", { has: page.locator("h2", { hasText: "Results" }) })
+      .first()
+      .screenshot({ path: `${SHOTS}/results.png` });
     await shot("Sweep — metric against S", "sweep.png");
     await shot("Scenario / baseline per class", "ratios.png");
     await shot("Delay distribution against the budget", "distribution.png");
@@ -205,20 +220,88 @@ describe("scenario editor in the browser", () => {
     await ctx.close();
   });
 
+  it("a save over someone else's newer version names it and keeps the edit until Reload theirs; the history restores an old revision", async () => {
+    const sid = scenarioIds[2]!;
+    const ctx = await contextFor(editor.client);
+    const page = await ctx.newPage();
+    const errors: string[] = [];
+    page.on("pageerror", (e) => errors.push(String(e)));
+    await page.goto(`${baseUrl}/teams/${teamId}/scenarios/${sid}`);
+    await waitForResults(page);
+    const loaded = (await editor.client.get(`/api/scenarios/${sid}`)).json.scenario;
+
+    // Someone else saves while the page is open.
+    const theirs = await editor.client.patch(`/api/scenarios/${sid}`, { version: loaded.version, notes: "Their notes, saved first." });
+    expect(theirs.status, theirs.text).toBe(200);
+    const theirVersion = theirs.json.scenario.version as number;
+    expect(theirVersion).toBe(loaded.version + 1);
+
+    // The page saves on top of the version it loaded: 409, the notice names their version, nothing is overwritten.
+    await page.fill("input[name=s]", "1.9");
+    await expect.poll(() => page.locator("[data-testid=save-state]").innerText()).toBe("Unsaved changes");
+    await page.click("[data-testid=save]");
+    await page.getByText(`Someone saved this scenario while you were editing (now version ${theirVersion}).`).waitFor();
+    const kept = (await editor.client.get(`/api/scenarios/${sid}`)).json.scenario;
+    expect([kept.version, kept.notes, kept.settings.s]).toEqual([theirVersion, "Their notes, saved first.", loaded.settings.s]);
+    expect(await page.inputValue("input[name=s]")).toBe("1.9");
+
+    // Reload theirs: the editor follows the stored version, and its history gains their revision.
+    await page.getByRole("button", { name: "Reload theirs" }).click();
+    await page.getByText("Loaded the newer version; your unsaved changes were discarded.").waitFor();
+    expect(await page.getByLabel("Notes").inputValue()).toBe("Their notes, saved first.");
+    expect(await page.inputValue("input[name=s]")).not.toBe("1.9");
+    expect(await page.locator("[data-testid=save-state]").innerText()).toBe("All changes saved");
+    const history = page.getByTestId("history");
+    await history
+      .locator("li", { hasText: `v${theirVersion}` })
+      .getByText("current")
+      .waitFor();
+
+    // Restore the loaded revision: a new version with the old notes.
+    await history
+      .locator("li", { hasText: `v${loaded.version}` })
+      .getByRole("button", { name: "Restore" })
+      .click();
+    await page.getByText(`Restored version ${loaded.version} as version ${theirVersion + 1}.`).waitFor();
+    expect(await page.getByLabel("Notes").inputValue()).toBe(loaded.notes);
+    await history
+      .locator("li", { hasText: `v${theirVersion + 1}` })
+      .getByText("current")
+      .waitFor();
+    const restored = (await editor.client.get(`/api/scenarios/${sid}`)).json.scenario;
+    expect([restored.version, restored.notes]).toEqual([theirVersion + 1, loaded.notes]);
+    expect(errors).toEqual([]);
+    await ctx.close();
+  });
+
   it("a viewer sees the scenario and baseline read-only, with no edit controls", async () => {
     const ctx = await contextFor(viewer.client);
     const page = await ctx.newPage();
     await page.goto(`${baseUrl}/teams/${teamId}/scenarios/${scenarioIds[0]}`);
     await waitForResults(page);
     await expect(page.locator("[data-testid=readonly-settings]").count()).resolves.toBe(1);
-    for (const sel of ["[data-testid=save]", "[data-testid=s-slider]", "input[name=s]", "textarea", "input[name=scenario-name]", "button:has-text('Delete')", "button:has-text('Restore')"]) {
+    for (const sel of [
+      "[data-testid=save]",
+      "[data-testid=s-slider]",
+      "input[name=s]",
+      "textarea",
+      "input[name=scenario-name]",
+      "button:has-text('Delete')",
+      "button:has-text('Restore')",
+    ]) {
       await expect(page.locator(sel).count(), sel).resolves.toBe(0);
     }
     await expect(page.getByText("Read only — you are a viewer").count()).resolves.toBe(1);
     await page.screenshot({ path: `${SHOTS}/viewer-editor.png` });
     await page.goto(`${baseUrl}/teams/${teamId}/baselines/${baselineId}`);
     await page.waitForSelector("[data-testid=class-table]");
-    for (const sel of ["[data-testid=save-baseline]", "button:has-text('Add class')", "button:has-text('Duplicate baseline')", "[data-testid=class-table] input", "a[href*='/import']"]) {
+    for (const sel of [
+      "[data-testid=save-baseline]",
+      "button:has-text('Add class')",
+      "button:has-text('Duplicate baseline')",
+      "[data-testid=class-table] input",
+      "a[href*='/import']",
+    ]) {
       await expect(page.locator(sel).count(), sel).resolves.toBe(0);
     }
     // Viewers still get the exports.

@@ -4,9 +4,57 @@ import type { Client } from "./http";
 /** Three invented wire classes (SI strings with units, as the workspace API accepts them). */
 export function testClasses(names: [string, string, string] = ["M1 local", "M3 intermediate", "M8 global"]) {
   return [
-    { name: names[0], tier: "local", widthM: "24 nm", thicknessM: "48 nm", spacingM: "24 nm", ildBelowM: "40 nm", ildAboveM: "40 nm", barrierM: "2.5 nm", metal: "Cu", k: 2.7, netCount: 400000, meanLengthM: "6 µm", driverOhm: "4 kohm", loadF: "0.4 fF", activity: 0.15 },
-    { name: names[1], tier: "intermediate", widthM: "40 nm", thicknessM: "80 nm", spacingM: "40 nm", ildBelowM: "70 nm", ildAboveM: "70 nm", barrierM: "3 nm", metal: "Cu", k: 2.7, netCount: 60000, meanLengthM: "60 µm", driverOhm: "2 kohm", loadF: "1 fF", activity: 0.12 },
-    { name: names[2], tier: "global", widthM: "400 nm", thicknessM: "800 nm", spacingM: "400 nm", ildBelowM: "600 nm", ildAboveM: null, barrierM: "5 nm", metal: "Cu", k: 3.0, netCount: 2000, meanLengthM: "1.5 mm", driverOhm: "300 ohm", loadF: "5 fF", activity: 0.2 },
+    {
+      name: names[0],
+      tier: "local",
+      widthM: "24 nm",
+      thicknessM: "48 nm",
+      spacingM: "24 nm",
+      ildBelowM: "40 nm",
+      ildAboveM: "40 nm",
+      barrierM: "2.5 nm",
+      metal: "Cu",
+      k: 2.7,
+      netCount: 400000,
+      meanLengthM: "6 µm",
+      driverOhm: "4 kohm",
+      loadF: "0.4 fF",
+      activity: 0.15,
+    },
+    {
+      name: names[1],
+      tier: "intermediate",
+      widthM: "40 nm",
+      thicknessM: "80 nm",
+      spacingM: "40 nm",
+      ildBelowM: "70 nm",
+      ildAboveM: "70 nm",
+      barrierM: "3 nm",
+      metal: "Cu",
+      k: 2.7,
+      netCount: 60000,
+      meanLengthM: "60 µm",
+      driverOhm: "2 kohm",
+      loadF: "1 fF",
+      activity: 0.12,
+    },
+    {
+      name: names[2],
+      tier: "global",
+      widthM: "400 nm",
+      thicknessM: "800 nm",
+      spacingM: "400 nm",
+      ildBelowM: "600 nm",
+      ildAboveM: null,
+      barrierM: "5 nm",
+      metal: "Cu",
+      k: 3.0,
+      netCount: 2000,
+      meanLengthM: "1.5 mm",
+      driverOhm: "300 ohm",
+      loadF: "5 fF",
+      activity: 0.2,
+    },
   ];
 }
 
@@ -17,7 +65,11 @@ export async function makeWorkspace(
   opts: { baselineName?: string; classNames?: [string, string, string]; scenarioNames?: [string, string, string] } = {},
 ) {
   const classes = testClasses(opts.classNames);
-  const b = await c.post(`/api/teams/${teamId}/baselines`, { name: opts.baselineName ?? `Tile ${Math.random().toString(36).slice(2, 8)}`, description: "invented test data", classes });
+  const b = await c.post(`/api/teams/${teamId}/baselines`, {
+    name: opts.baselineName ?? `Tile ${Math.random().toString(36).slice(2, 8)}`,
+    description: "invented test data",
+    classes,
+  });
   expect(b.status, b.text).toBe(201);
   const baselineId = b.json.baseline.id as string;
   const [n1, n2, n3] = opts.scenarioNames ?? ["Plain shrink 0.7x", "Shrink + air gap", "Shrink + Ru local"];

@@ -31,7 +31,10 @@ export default async function setup(project: TestProject) {
   const distDir = process.env.PLATEAU_DIST_DIR || ".next";
   const built = fs.existsSync(path.join(distDir, "BUILD_ID"));
   if (!(process.env.PLATEAU_SKIP_BUILD === "1" && built)) {
-    const r = spawnSync("npx", ["next", "build"], { stdio: ["ignore", "inherit", "inherit"], env: { ...process.env, NODE_ENV: "production" } });
+    const r = spawnSync("npx", ["next", "build"], {
+      stdio: ["ignore", "inherit", "inherit"],
+      env: { ...process.env, NODE_ENV: "production" },
+    });
     if (r.status !== 0) throw new Error(`next build failed (exit ${r.status})`);
   }
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), "plateau-http-"));

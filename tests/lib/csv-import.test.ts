@@ -4,7 +4,7 @@ import { detectDelimiter } from "@/lib/import/csv-stream";
 import { fastScaled, parseHistogramCsv } from "@/lib/import/histograms";
 import { HistogramAccumulator } from "@/lib/import/histogram-accumulator";
 import { multipartField } from "@/lib/import/request-body";
-import { formatScaled, parseScaled } from "@/lib/import/numbers";
+import { formatScaled, parseScaled } from "@/lib/scaling";
 import { ImportFatalError, type ImportIssue } from "@/lib/import/types";
 import { parseWireClassStream } from "@/lib/import/wire-classes";
 
@@ -19,7 +19,20 @@ const HEADER = "class,tier,width_nm,thickness_nm,spacing_nm,ild_below_nm,ild_abo
 const ROW_LOCAL = "local,local,24,48,24,30,30,2,Cu,2.7,1200000,4,8000,0.4,0.15";
 const ROW_GLOBAL = "global,global,400,800,400,400,,5,Cu,3.0,4000,1500,300,5.0,0.1";
 const classes = (text: string, size = 7) => parseWireClassStream(chunks(text, size), { maxBytes: 1 << 20 });
-const hist = (text: string | Uint8Array, names = ["local", "global"], size = 7) => parseHistogramCsv(chunks(text, size), names, { maxBytes: 1 << 20, sink: new HistogramAccumulator(names.length) });
+const hist = (text: string | Uint8Array, names = ["local", "global"], size = 7) =>
+  parseHistogramCsv(chunks(text, size), names, { maxBytes: 1 << 20, sink: new HistogramAccumulator(names.length) });
+
+/** mulberry32, a small seeded PRNG in [0, 1) (common practice, no source): reproducible "random" input. */
+function mulberry32(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
 
 async function fatal(p: Promise<unknown>): Promise<ImportIssue & { status: number }> {
   try {
@@ -47,9 +60,10 @@ describe("parseScaled / formatScaled", () => {
     expect(parseScaled("1e400", 0)).toEqual({ ok: false, reason: "must be a finite number" });
     expect(parseScaled("", 0)).toEqual({ ok: false, reason: "is required" });
   });
-  it("round-trips random doubles exactly through the display unit", () => {
+  it("round-trips random doubles exactly through the display unit (seeded: the same 2,000 values every run)", () => {
+    const random = mulberry32(20261201);
     for (let i = 0; i < 2000; i++) {
-      const v = Math.random() * 10 ** (Math.floor(Math.random() * 10) - 12);
+      const v = random() * 10 ** (Math.floor(random() * 10) - 12);
       const back = parseScaled(formatScaled(v, -9), -9);
       expect(back.ok && back.value).toBe(v);
     }
@@ -111,7 +125,9 @@ describe("parseWireClassStream (wire-class CSV)", () => {
   it("rejects a repeated class name (ignoring case) on the second line", async () => {
     const r = await classes(`${HEADER}\n${ROW_LOCAL}\n${ROW_LOCAL.replace(/^local/, "LOCAL")}\n`);
     expect(r.ok).toBe(false);
-    expect(r.errors).toEqual([{ line: 3, column: "class", value: "LOCAL", message: "is already defined on line 2 (class names must be unique, ignoring case)" }]);
+    expect(r.errors).toEqual([
+      { line: 3, column: "class", value: "LOCAL", message: "is already defined on line 2 (class names must be unique, ignoring case)" },
+    ]);
   });
 
   it("names line, column, value and reason for a bad number", async () => {
@@ -168,14 +184,24 @@ describe("parseHistogramCsv (length histograms)", () => {
     const r = await hist(text, ["local", "intermediate", "semi-global", "global"], 4096);
     expect(r.ok).toBe(true);
     expect(r.rows).toBe(192);
-    expect(r.perClass.map((c) => [c.name, c.bins])).toEqual([["local", 48], ["intermediate", 48], ["semi-global", 48], ["global", 48]]);
+    expect(r.perClass.map((c) => [c.name, c.bins])).toEqual([
+      ["local", 48],
+      ["intermediate", 48],
+      ["semi-global", 48],
+      ["global", 48],
+    ]);
     expect(r.sink?.binCount(0)).toBe(48);
   });
 
   it("rejects an unknown class name, suggesting the known ones", async () => {
     const r = await hist("class,length_um,count\nlocal,1,2\nLocal,2,3\nM7,1,1\n");
     expect(r.errors).toEqual([
-      { line: 3, column: "class", value: "Local", message: 'is not a class of this baseline (did you mean "local"? names are case-sensitive)' },
+      {
+        line: 3,
+        column: "class",
+        value: "Local",
+        message: 'is not a class of this baseline (did you mean "local"? names are case-sensitive)',
+      },
       { line: 4, column: "class", value: "M7", message: "is not a class of this baseline; known classes: local, global" },
     ]);
     expect(r.sink).toBeNull();
@@ -183,9 +209,23 @@ describe("parseHistogramCsv (length histograms)", () => {
 
   it("rejects the same class and length twice, in order or not", async () => {
     const sorted = await hist("class,length_um,count\nlocal,1,2\nlocal,1,3\n");
-    expect(sorted.errors).toEqual([{ line: 3, column: "length_um", value: "1", message: 'repeats the bin of class "local" at this length from line 2 (one row per class and length)' }]);
+    expect(sorted.errors).toEqual([
+      {
+        line: 3,
+        column: "length_um",
+        value: "1",
+        message: 'repeats the bin of class "local" at this length from line 2 (one row per class and length)',
+      },
+    ]);
     const unsorted = await hist("class,length_um,count\nlocal,5,2\nlocal,1,3\nglobal,5,1\nlocal,5.0,9\n");
-    expect(unsorted.errors).toEqual([{ line: 5, column: "length_um", value: "5", message: 'repeats the bin of class "local" at this length from line 2 (one row per class and length)' }]);
+    expect(unsorted.errors).toEqual([
+      {
+        line: 5,
+        column: "length_um",
+        value: "5",
+        message: 'repeats the bin of class "local" at this length from line 2 (one row per class and length)',
+      },
+    ]);
   });
 
   it("rejects bad lengths and counts with line, column, value and reason", async () => {
@@ -204,7 +244,11 @@ describe("parseHistogramCsv (length histograms)", () => {
   it("caps the listed errors but counts them all", async () => {
     let text = "class,length_um,count\n";
     for (let i = 0; i < 500; i++) text += `local,${i + 1},x\n`;
-    const r = await parseHistogramCsv(chunks(text, 1000), ["local"], { maxBytes: 1 << 20, maxErrors: 200, sink: new HistogramAccumulator(1) });
+    const r = await parseHistogramCsv(chunks(text, 1000), ["local"], {
+      maxBytes: 1 << 20,
+      maxErrors: 200,
+      sink: new HistogramAccumulator(1),
+    });
     expect(r.errors.length).toBe(200);
     expect(r.errorCount).toBe(500);
   });
@@ -249,7 +293,8 @@ describe("histogram cells: fast path and general path agree", () => {
     }
     expect(fastScaled("0.3", -6)).toBe(3e-7);
     expect(fastScaled("123456789012345", 0)).toBe(123456789012345);
-    for (const t of ["", ".", "1.2.3", "-4", "+4", " 4", "4 ", "1e3", "1,5", "NaN", "Infinity", "1234567890123456", "0x10"]) expect(fastScaled(t, -6), t).toBeNaN();
+    for (const t of ["", ".", "1.2.3", "-4", "+4", " 4", "4 ", "1e3", "1,5", "NaN", "Infinity", "1234567890123456", "0x10"])
+      expect(fastScaled(t, -6), t).toBeNaN();
   });
 
   it("cells outside the fast path are read as before (spaces, signs, exponents), and sorted by length for storage", async () => {
@@ -260,7 +305,10 @@ describe("histogram cells: fast path and general path agree", () => {
     expect([...local.lengthsM]).toEqual([5e-7, 1e-6, 5e-6]);
     expect([...local.counts]).toEqual([7, 2, 3]);
     expect([...acc.sorted(1).lengthsM]).toEqual([2.5e-6]);
-    expect(r.perClass.map((c) => [c.name, c.bins, c.nets])).toEqual([["local", 3, 12], ["global", 1, 1]]);
+    expect(r.perClass.map((c) => [c.name, c.bins, c.nets])).toEqual([
+      ["local", 3, 12],
+      ["global", 1, 1],
+    ]);
   });
 
   it("names the first line of a length for every repeat, in order or not", async () => {
@@ -271,9 +319,24 @@ describe("histogram cells: fast path and general path agree", () => {
     ]);
     const mixed = await hist("class,length_um,count\nlocal,9,1\nlocal,2,1\nglobal,9,1\nlocal,9.0,1\nlocal,3,1\nlocal,9,1\nlocal,2,1\n");
     expect(mixed.errors).toEqual([
-      { line: 5, column: "length_um", value: "9", message: 'repeats the bin of class "local" at this length from line 2 (one row per class and length)' },
-      { line: 7, column: "length_um", value: "9", message: 'repeats the bin of class "local" at this length from line 2 (one row per class and length)' },
-      { line: 8, column: "length_um", value: "2", message: 'repeats the bin of class "local" at this length from line 3 (one row per class and length)' },
+      {
+        line: 5,
+        column: "length_um",
+        value: "9",
+        message: 'repeats the bin of class "local" at this length from line 2 (one row per class and length)',
+      },
+      {
+        line: 7,
+        column: "length_um",
+        value: "9",
+        message: 'repeats the bin of class "local" at this length from line 2 (one row per class and length)',
+      },
+      {
+        line: 8,
+        column: "length_um",
+        value: "2",
+        message: 'repeats the bin of class "local" at this length from line 3 (one row per class and length)',
+      },
     ]);
     expect(mixed.sink).toBeNull();
   });
@@ -287,12 +350,17 @@ describe("histogram cells: fast path and general path agree", () => {
     const classes = ["local", "local", "local", "global", "global", "M 3", "'M 3", "Local", "", "nope"];
     for (let i = 0; i < 3000; i++) {
       const r = rnd(40);
-      if (r === 0) body += "\n"; // blank line
-      else if (r === 1) body += `local,${i + 1},2,\n`; // trailing delimiter
-      else if (r === 2) body += `local,${i + 1}\n`; // too few fields
-      else if (r === 3) body += `global,${i},1,1,1\n`; // too many
+      if (r === 0)
+        body += "\n"; // blank line
+      else if (r === 1)
+        body += `local,${i + 1},2,\n`; // trailing delimiter
+      else if (r === 2)
+        body += `local,${i + 1}\n`; // too few fields
+      else if (r === 3)
+        body += `global,${i},1,1,1\n`; // too many
       else if (r === 4) body += "   \n";
-      else body += `${classes[rnd(classes.length)]},${rnd(3) ? String(rnd(500) + 1) : cells[rnd(cells.length)]},${rnd(3) ? String(rnd(1000)) : cells[rnd(cells.length)]}\n`;
+      else
+        body += `${classes[rnd(classes.length)]},${rnd(3) ? String(rnd(500) + 1) : cells[rnd(cells.length)]},${rnd(3) ? String(rnd(1000)) : cells[rnd(cells.length)]}\n`;
     }
     const variants: [string, string][] = [
       ["class,length_um,count", body],
@@ -303,12 +371,16 @@ describe("histogram cells: fast path and general path agree", () => {
       for (const size of [5, 4096, 65536]) {
         const run = async (tapped: boolean) => {
           const acc = new HistogramAccumulator(names.length);
-          const r = await parseHistogramCsv(chunks(`${head}\n${text}`.replace(/\n/g, text.includes("\r\n") ? "\r\n" : "\n").replace(/\r\r/g, "\r"), size), names, {
-            maxBytes: 1 << 24,
-            maxErrors: 100_000,
-            sink: acc,
-            ...(tapped ? { tap: { row: () => undefined } } : {}), // a row tap turns the fast lane off
-          });
+          const r = await parseHistogramCsv(
+            chunks(`${head}\n${text}`.replace(/\n/g, text.includes("\r\n") ? "\r\n" : "\n").replace(/\r\r/g, "\r"), size),
+            names,
+            {
+              maxBytes: 1 << 24,
+              maxErrors: 100_000,
+              sink: acc,
+              ...(tapped ? { tap: { row: () => undefined } } : {}), // a row tap turns the fast lane off
+            },
+          );
           return { ...r, sink: null, bins: names.map((_, i) => [...acc.sorted(i).lengthsM, ...acc.sorted(i).counts]) };
         };
         const fast = await run(false);
@@ -322,7 +394,14 @@ describe("histogram cells: fast path and general path agree", () => {
 
   it("rejects counts whose sum a stored histogram cannot hold exactly", async () => {
     const r = await hist("class,length_um,count\nlocal,1,9007199254740991\nlocal,2,1\nglobal,1,9007199254740991\n");
-    expect(r.errors).toEqual([{ line: null, column: "count", value: null, message: 'The counts of class "local" add up to more than 9,007,199,254,740,991 nets, more than a histogram can hold.' }]);
+    expect(r.errors).toEqual([
+      {
+        line: null,
+        column: "count",
+        value: null,
+        message: 'The counts of class "local" add up to more than 9,007,199,254,740,991 nets, more than a histogram can hold.',
+      },
+    ]);
     expect(r.sink).toBeNull();
   });
 
@@ -368,7 +447,10 @@ describe("readCsv limits on pathological input", () => {
     const t0 = performance.now();
     const text = `class,length_um,count\nlocal,1,2\n"local,2,3\n${"local,3,4\n".repeat(300_000)}`;
     const e = await fatal(parseHistogramCsv(chunks(text, 65536), ["local"], { maxBytes: 64 << 20, sink: new HistogramAccumulator(1) }));
-    expect(e).toMatchObject({ line: 3, message: "Line 3 starts a record longer than 1 MiB: a quote is probably not closed, or this is not a CSV file." });
+    expect(e).toMatchObject({
+      line: 3,
+      message: "Line 3 starts a record longer than 1 MiB: a quote is probably not closed, or this is not a CSV file.",
+    });
     expect(performance.now() - t0).toBeLessThan(5000);
   });
 });

@@ -1,24 +1,15 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import fs from "node:fs";
-import os from "node:os";
-import path from "node:path";
 import type { Knex } from "knex";
-import { openDatabase } from "@/db/connect";
-import { migrateLatest } from "@/db/migrate";
+import { tempDb } from "../helpers/temp-db";
 import { DEMO_TEAM_NAME, DEMO_USERS, seedDemo } from "@/lib/demo/seed";
 import { verifyPassword } from "@/lib/password";
 
-let dir: string;
 let db: Knex;
+let close: () => Promise<void>;
 beforeAll(async () => {
-  dir = fs.mkdtempSync(path.join(os.tmpdir(), "plateau-demo-"));
-  db = openDatabase(path.join(dir, "demo.sqlite"));
-  await migrateLatest(db);
+  ({ db, close } = await tempDb("demo"));
 });
-afterAll(async () => {
-  await db.destroy();
-  fs.rmSync(dir, { recursive: true, force: true });
-});
+afterAll(() => close());
 
 const TABLES = ["users", "teams", "memberships", "baselines", "wire_classes", "class_histograms", "scenarios", "reports", "audit_log"];
 async function counts(): Promise<Record<string, number>> {
@@ -34,7 +25,10 @@ describe("seedDemo", () => {
     const r = await seedDemo(db);
     const team = await db("teams").where({ id: r.teamId }).first();
     expect(team).toMatchObject({ name: DEMO_TEAM_NAME, is_demo: 1 });
-    const roles = await db("memberships as m").join("users as u", "u.id", "m.user_id").where("m.team_id", r.teamId).select("u.email", "m.role", "u.password_hash");
+    const roles = await db("memberships as m")
+      .join("users as u", "u.id", "m.user_id")
+      .where("m.team_id", r.teamId)
+      .select("u.email", "m.role", "u.password_hash");
     expect(roles.map((x: { email: string; role: string }) => [x.email, x.role]).sort()).toEqual(DEMO_USERS.map((u) => [u.email, u.role]).sort());
     for (const u of DEMO_USERS) {
       const row = roles.find((x: { email: string }) => x.email === u.email)!;

@@ -38,7 +38,7 @@ describe("nodeUtf8Decoder", () => {
       }
       if (t % 7 === 0) bytes.unshift(0xef, 0xbb, 0xbf); // a BOM
       const chunks: Uint8Array[] = [];
-      for (let i = 0; i < bytes.length; ) {
+      for (let i = 0; i < bytes.length;) {
         const n = 1 + rnd(6);
         chunks.push(Uint8Array.from(bytes.slice(i, i + n)));
         i += n;

@@ -10,7 +10,14 @@ describe("readSweep (the plain-words reading under the sweep)", () => {
   it("finds the minimum of a curve that improves then worsens, and where gains fall under 2% per 10% shrink", () => {
     // y = 1/S + S²/8 − 1/8 + … : lowest at S = 4^(1/3) ≈ 1.59 (dy/dS = −1/S² + S/4 = 0).
     const f = (s: number) => 1 / s + (s * s) / 8;
-    const r = readSweep({ className: "local", curves: { full: curve(f), ideal: curve(() => 1), coupled: curve((s) => f(s) / 1.1) }, at1: { full: f(1), ideal: 1 } }, { scenarioS: 1.43, metricLabel: "Delay" });
+    const r = readSweep(
+      {
+        className: "local",
+        curves: { full: curve(f), ideal: curve(() => 1), coupled: curve((s) => f(s) / 1.1) },
+        at1: { full: f(1), ideal: 1 },
+      },
+      { scenarioS: 1.43, metricLabel: "Delay" },
+    );
     expect(r.bestS!).toBeGreaterThan(1.5);
     expect(r.bestS!).toBeLessThan(1.7);
     expect(r.bestRel!).toBeCloseTo(f(r.bestS!) / f(1), 10);
@@ -36,7 +43,10 @@ describe("readSweep (the plain-words reading under the sweep)", () => {
     expect(r.text).toBe("Delay still improves at S = 4 (0.25× of S = 1).");
   });
   it("interpolates on log–log axes and refuses to extrapolate", () => {
-    const pts = [{ x: 1, y: 1 }, { x: 4, y: 16 }];
+    const pts = [
+      { x: 1, y: 1 },
+      { x: 4, y: 16 },
+    ];
     expect(interpolateLogLog(pts, 2)).toBeCloseTo(4, 12);
     expect(interpolateLogLog(pts, 5)).toBeUndefined();
   });

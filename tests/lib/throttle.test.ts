@@ -1,23 +1,15 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import fs from "node:fs";
-import os from "node:os";
-import path from "node:path";
 import type { Knex } from "knex";
-import { openDatabase } from "@/db/connect";
-import { migrateLatest } from "@/db/migrate";
+import { tempDb } from "../helpers/temp-db";
+import { getThrottleRows } from "@/db/queries/throttle";
 import { LOCK_MS, WINDOW_MS, clientAddress, lockedUntil, recordFailure, recordSuccess, throttleKeys } from "@/lib/throttle";
 
-let dir: string;
 let db: Knex;
+let close: () => Promise<void>;
 beforeAll(async () => {
-  dir = fs.mkdtempSync(path.join(os.tmpdir(), "plateau-throttle-"));
-  db = openDatabase(path.join(dir, "t.sqlite"));
-  await migrateLatest(db);
+  ({ db, close } = await tempDb("throttle"));
 });
-afterAll(async () => {
-  await db.destroy();
-  fs.rmSync(dir, { recursive: true, force: true });
-});
+afterAll(() => close());
 
 const T0 = 1_800_000_000_000;
 
@@ -52,9 +44,16 @@ describe("sign-in throttle", () => {
     const keys = throttleKeys("b@example.com", "203.0.113.5");
     for (let i = 0; i < 4; i++) await recordFailure(db, keys, T0 + i);
     await recordSuccess(db, keys);
-    const rows = await db("sign_in_throttle").whereIn("key", ["account:b@example.com", "client:203.0.113.5"]).select("key", "failures");
-    expect(rows).toEqual([{ key: "client:203.0.113.5", failures: 4 }]);
+    const rows = await getThrottleRows(db, ["account:b@example.com", "client:203.0.113.5"]);
+    expect(rows.map((r) => ({ key: r.key, failures: r.failures }))).toEqual([{ key: "client:203.0.113.5", failures: 4 }]);
     for (let i = 0; i < 4; i++) expect(await recordFailure(db, keys, T0 + 10 + i)).toBeNull();
+  });
+
+  it("counts failures that arrive at the same time without losing one (read and write in one transaction)", async () => {
+    const keys = throttleKeys("burst@example.com", "203.0.113.6");
+    const results = await Promise.all(Array.from({ length: 5 }, (_, i) => recordFailure(db, keys, T0 + i)));
+    expect(results.filter((r) => r !== null)).toHaveLength(1);
+    expect(await lockedUntil(db, keys, T0 + 10)).not.toBeNull();
   });
 
   it("clientAddress takes the first x-forwarded-for hop, then x-real-ip, else null", () => {

@@ -1,4 +1,7 @@
 import { execFileSync, spawnSync } from "node:child_process";
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { run } from "@/scaling/cli";
 import { lineCapacitance } from "@/lib/scaling/capacitance";
@@ -10,11 +13,20 @@ describe("run(argv)", () => {
     expect(run(["--help"]).stdout).toMatch(/capacitance/);
     expect(run([]).code).toBe(0);
   });
-  it("capacitance --json", () => {
+  it("plumbing: capacitance --json prints lineCapacitance's figures", () => {
     const r = run(["capacitance", "--width", "20nm", "--thickness", "40nm", "--height", "25 nm", "--spacing", "0.02um", "--k", "2.7", "--json"]);
     expect(r.code).toBe(0);
     const j = JSON.parse(r.stdout);
-    const ref = lineCapacitance({ widthM: 20e-9, thicknessM: 40e-9, spacingM: 20e-9, heightBelowM: 25e-9, heightAboveM: null, k: 2.7, miller: 1, model: "coupled" });
+    const ref = lineCapacitance({
+      widthM: 20e-9,
+      thicknessM: 40e-9,
+      spacingM: 20e-9,
+      heightBelowM: 25e-9,
+      heightAboveM: null,
+      k: 2.7,
+      miller: 1,
+      model: "coupled",
+    });
     expect(j.model).toBe("coupled");
     expect(j.totalFPerM).toBe(ref.totalFPerM);
     expect(j.couplingFPerM).toBe(ref.couplingPerNeighbourFPerM);
@@ -23,7 +35,10 @@ describe("run(argv)", () => {
   });
   it("capacitance defaults to fringe without spacing; field model works", () => {
     expect(JSON.parse(run(["capacitance", "--width", "2e-8", "--thickness", "4e-8", "--height", "2.5e-8", "--json"]).stdout).model).toBe("fringe");
-    expect(JSON.parse(run(["capacitance", "--width", "20nm", "--thickness", "40nm", "--height", "25nm", "--spacing", "20nm", "--model", "field", "--json"]).stdout).couplingFPerM).toBeGreaterThan(0);
+    expect(
+      JSON.parse(run(["capacitance", "--width", "20nm", "--thickness", "40nm", "--height", "25nm", "--spacing", "20nm", "--model", "field", "--json"]).stdout)
+        .couplingFPerM,
+    ).toBeGreaterThan(0);
   });
   it("delay --json", () => {
     const j = JSON.parse(run(["delay", "--r-total", "1kohm", "--c-total", "100fF", "--driver", "500", "--load", "10f", "--json"]).stdout);
@@ -36,7 +51,8 @@ describe("run(argv)", () => {
     const j = JSON.parse(r.stdout);
     expect(j.classes).toHaveLength(4);
     for (const c of j.classes) {
-      for (const side of [c.baseline, c.scenario]) for (const k of ["lengthM", "rOhmPerM", "cFPerM", "rOhm", "cF", "rcS", "delayS", "repeaters", "energyJ"]) expect(Number.isFinite(side[k])).toBe(true);
+      for (const side of [c.baseline, c.scenario])
+        for (const k of ["lengthM", "rOhmPerM", "cFPerM", "rOhm", "cF", "rcS", "delayS", "repeaters", "energyJ"]) expect(Number.isFinite(side[k])).toBe(true);
       expect(c.ratio.rOhm).toBeGreaterThan(1.96);
     }
   });
@@ -81,9 +97,43 @@ describe("run(argv)", () => {
   });
 });
 
+describe("a bad CSV: one line naming file, line, column, value and reason (the app's reader and messages)", () => {
+  it.each([
+    [
+      "a negative width",
+      (t: string) => t.replace("\nglobal,global,400,", "\nglobal,global,-4,"),
+      /^error: --baseline: \S+ line 5, column width_nm, value "-4": must be > 0\n$/,
+    ],
+    [
+      "an extra column",
+      (t: string) => t.replace("activity\n", "activity,colour\n"),
+      /^error: --baseline: \S+ line 1: Unknown column "colour"\. Expected columns for wire classes: class, tier, /,
+    ],
+    [
+      "two errors",
+      (t: string) => t.replace(",Cu,", ",Mithril,").replace(",2.7,", ",0.5,"),
+      /line 2, column metal, value "Mithril": must be one of Cu, Al, W, Co, Ru \(got "Mithril"\); see the metals catalogue .* \(and 1 more error\)\n$/,
+    ],
+  ])("%s", (_name, edit, message) => {
+    const dir = mkdtempSync(join(tmpdir(), "plateau-cli-"));
+    try {
+      const f = join(dir, "classes.csv");
+      writeFileSync(f, edit(readFileSync(BASE, "utf8")));
+      const r = run(["evaluate", "--baseline", f, "--s", "1.4"]);
+      expect(r.code).toBe(2);
+      expect(r.stdout).toBe("");
+      expect(r.stderr).toMatch(message);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+});
+
 describe("real process (npx tsx scaling/cli.ts)", () => {
   it("evaluate --json prints only JSON on stdout", () => {
-    const out = execFileSync("npx", ["tsx", "scaling/cli.ts", "evaluate", "--baseline", BASE, "--s", "1.4", "--json"], { encoding: "utf8" });
+    const out = execFileSync("npx", ["tsx", "scaling/cli.ts", "evaluate", "--baseline", BASE, "--s", "1.4", "--json"], {
+      encoding: "utf8",
+    });
     expect(JSON.parse(out).classes[0].class).toBe("local");
   });
   it("a bad argument exits non-zero with one line on stderr", () => {

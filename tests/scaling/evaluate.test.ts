@@ -1,21 +1,32 @@
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { baselineSettings, defaultTechnology, evaluateClass, evaluateScenario } from "@/lib/scaling/evaluate";
+import { DEFAULT_TECHNOLOGY } from "@/lib/scaling/technology";
+import { baselineSettings, evaluateClass, evaluateScenario } from "@/lib/scaling/evaluate";
+import { lineDelay } from "@/lib/scaling/delay";
+import { energyPerTransitionJ, switchingPowerW } from "@/lib/scaling/energy";
 import { sFromTargetPitch } from "@/lib/scaling/scale";
-import type { ScenarioSettings } from "@/lib/scaling/types";
-import { parseWireClassCsv } from "@/scaling/csv";
+import { MODEL_LEVELS, type ScenarioSettings } from "@/lib/scaling/types";
+import { parseWireClassCsv } from "@/lib/import/wire-classes";
 import { expectClose } from "./close";
 import { testClass } from "./fixtures";
 
-const tech = defaultTechnology();
-const at = (level: ScenarioSettings["level"], over: Partial<ScenarioSettings> = {}): ScenarioSettings => ({ ...baselineSettings(level, tech), ...over });
+const tech = DEFAULT_TECHNOLOGY;
+const at = (level: ScenarioSettings["level"], over: Partial<ScenarioSettings> = {}): ScenarioSettings => ({
+  ...baselineSettings(level, tech),
+  ...over,
+});
 
-// Scaling laws (MODELS.md, "Scaling laws to test against", common practice, no source): with cross-section ÷ S and
+// Scaling laws (docs/models.md, "Scaling laws to test against", common practice, no source): with cross-section ÷ S and
 // length ÷ S_L, parallel-plate C ∝ 1/S_L, bulk R ∝ S²/S_L, RC ∝ S²/S_L².
 describe("evaluateClass at level ideal: textbook scaling laws", () => {
   const wc = testClass();
   const b = evaluateClass({ wireClass: wc, technology: tech, settings: at("ideal") });
-  it.each([[1.4, 1], [2, 2], [1.7, 1.3], [3, 0.5]])("S = %d, S_L = %d", (s, sL) => {
+  it.each([
+    [1.4, 1],
+    [2, 2],
+    [1.7, 1.3],
+    [3, 0.5],
+  ])("S = %d, S_L = %d", (s, sL) => {
     const r = evaluateClass({ wireClass: wc, technology: tech, settings: at("ideal", { s, sL }) });
     expectClose(r.cF / b.cF, 1 / sL, 1e-12);
     expectClose(r.rOhm / b.rOhm, (s * s) / sL, 1e-12);
@@ -34,7 +45,7 @@ describe("evaluateClass at level ideal: textbook scaling laws", () => {
 
 describe("evaluateClass at realistic levels", () => {
   const wc = testClass();
-  it("a non-scaling barrier and size effects make R grow faster than S² (MODELS.md, barrier and size effects)", () => {
+  it("a non-scaling barrier and size effects make R grow faster than S² (docs/models.md, barrier and size effects)", () => {
     const b = evaluateClass({ wireClass: wc, technology: tech, settings: at("full") });
     const r = evaluateClass({ wireClass: wc, technology: tech, settings: at("full", { s: 1.5 }) });
     expect(r.rOhm / b.rOhm).toBeGreaterThan(2.25);
@@ -42,7 +53,8 @@ describe("evaluateClass at realistic levels", () => {
   });
   it("overrides: barrierM 0 and Ru metal, aspect ratio, per-class k and S", () => {
     const r = evaluateClass({
-      wireClass: wc, technology: tech,
+      wireClass: wc,
+      technology: tech,
       settings: at("full", { s: 1.4, overrides: { m2: { metal: "Ru", barrierM: 0, aspectRatio: 2.5, k: 1.9, s: 2 } } }),
     });
     expect(r.metal).toBe("Ru");
@@ -61,6 +73,17 @@ describe("evaluateClass at realistic levels", () => {
     expectClose(r.energyJ, (r.cF + r.loadF) * tech.supplyV ** 2, 1e-12);
     expectClose(r.powerW, 0.5 * wc.activity * tech.clockHz * wc.netCount * r.energyJ, 1e-9);
   });
+  it("plumbing: evaluateClass takes its delays from lineDelay and its energy from energyPerTransitionJ, bit for bit", () => {
+    for (const level of MODEL_LEVELS) {
+      const r = evaluateClass({ wireClass: wc, technology: tech, settings: at(level, { s: 1.3, supplyV: 0.7 }) });
+      const d = lineDelay({ rOhm: r.rOhm, cF: r.cF, driverOhm: r.driverOhm, loadF: r.loadF });
+      expect(r.delayS).toBe(level === "ideal" ? d.intrinsicS : d.t50S);
+      expect(r.elmoreS).toBe(d.elmoreS);
+      expect(r.intrinsicDelayS).toBe(d.intrinsicS);
+      expect(r.energyJ).toBe(energyPerTransitionJ({ cF: r.cF, loadF: r.loadF, supplyV: 0.7 }));
+      expectClose(r.powerW, switchingPowerW({ energyJ: r.energyJ, activity: wc.activity, clockHz: tech.clockHz, netCount: wc.netCount }), 1e-12);
+    }
+  });
   it("a barrier that fills the scaled line is a RangeError", () => {
     expect(() => evaluateClass({ wireClass: wc, technology: tech, settings: at("full", { s: 10 }) })).toThrow(RangeError);
   });
@@ -74,9 +97,12 @@ describe("evaluateClass at realistic levels", () => {
 });
 
 describe("evaluateScenario on the Skua demo", () => {
-  const { classes } = parseWireClassCsv(readFileSync("scaling/examples/skua-baseline.csv", "utf8"));
-  const scenarios = JSON.parse(readFileSync("scaling/examples/skua-scenarios.json", "utf8")) as { name: string; settings: ScenarioSettings }[];
-  const techJ = JSON.parse(readFileSync("scaling/examples/skua-technology.json", "utf8"));
+  const { classes } = parseWireClassCsv(readFileSync("scaling/examples/skua-baseline.csv"));
+  const scenarios = JSON.parse(readFileSync("scaling/examples/skua-scenarios.json", "utf8")) as {
+    name: string;
+    settings: ScenarioSettings;
+  }[];
+  const techJ = DEFAULT_TECHNOLOGY;
   it("all three demo scenarios evaluate with finite results and ratios", () => {
     expect(scenarios).toHaveLength(3);
     for (const sc of scenarios) {

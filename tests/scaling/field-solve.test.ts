@@ -33,17 +33,14 @@ function stripline(p: { widthM: number; thicknessM: number; separationM: number;
 
 /**
  * S. B. Cohn, "Problems in strip transmission lines", IRE Trans. MTT-3, 1955 (as quoted in
- * MODELS.md [secondary]): thick strip centred between planes b apart,
+ * docs/models.md [secondary]): thick strip centred between planes b apart,
  * C′/ε = 4W/(b − T) + (4/π)·[2g·ln(g + 1) − (g − 1)·ln(g² − 1)], g = 1/(1 − T/b),
  * i.e. parallel plates plus the exact fringing of four independent semi-infinite corners;
  * stated valid for W/(b − T) ≳ 0.35.
  */
 function cohnThickStripPerEps(p: { widthM: number; thicknessM: number; separationM: number }): number {
   const g = 1 / (1 - p.thicknessM / p.separationM);
-  return (
-    (4 * p.widthM) / (p.separationM - p.thicknessM) +
-    (4 / Math.PI) * (2 * g * Math.log(g + 1) - (g - 1) * Math.log(g * g - 1))
-  );
+  return (4 * p.widthM) / (p.separationM - p.thicknessM) + (4 / Math.PI) * (2 * g * Math.log(g + 1) - (g - 1) * Math.log(g * g - 1));
 }
 
 /**
@@ -204,9 +201,7 @@ describe("fieldSolve(input) against exact references", () => {
     // Parallel-plate limit C′ = ε·W/H + fringe(W); for a thick line the fringe grows only
     // logarithmically (outer-face charge), so the slope between W and 2W tends to ε/H from above.
     const h = 100 * NM;
-    const c = [8, 16, 32].map(
-      (wh) => fieldSolve({ widthM: wh * h, thicknessM: h, spacingM: null, heightBelowM: h, heightAboveM: null, k: 1 }).totalFPerM,
-    );
+    const c = [8, 16, 32].map((wh) => fieldSolve({ widthM: wh * h, thicknessM: h, spacingM: null, heightBelowM: h, heightAboveM: null, k: 1 }).totalFPerM);
     const slope1 = (c[1]! - c[0]!) / (8 * h) / (EPS0 / h);
     const slope2 = (c[2]! - c[1]!) / (16 * h) / (EPS0 / h);
     expect(slope1).toBeGreaterThan(1);

@@ -2,7 +2,8 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { REPEATER_A, REPEATER_B } from "@/lib/scaling/constants";
 import { lineDelay } from "@/lib/scaling/delay";
-import { baselineSettings, defaultTechnology, evaluateClass } from "@/lib/scaling/evaluate";
+import { DEFAULT_TECHNOLOGY } from "@/lib/scaling/technology";
+import { baselineSettings, evaluateClass } from "@/lib/scaling/evaluate";
 import { criticalLengthM, optimalRepeaters, repeatedDelayS } from "@/lib/scaling/repeaters";
 import { MODEL_LEVELS, type ModelLevel, type WireClass } from "@/lib/scaling/types";
 import { expectClose } from "./close";
@@ -18,7 +19,10 @@ describe("optimalRepeaters({ rOhm, cF, lengthM, r0Ohm, c0F })", () => {
     for (let k = 1; k <= 200; k++) {
       for (let h = 1; h <= 2000; h += 0.5) {
         const t = repeatedDelayS({ ...line, count: k, size: h });
-        if (t < best) { best = t; bestK = k; }
+        if (t < best) {
+          best = t;
+          bestK = k;
+        }
       }
     }
     expect(r.count).toBe(bestK);
@@ -50,7 +54,7 @@ describe("optimalRepeaters({ rOhm, cF, lengthM, r0Ohm, c0F })", () => {
 // The class result's repeaters: count = 1 is the class's own line (its driver as given, not a driver resized to h*);
 // stages are inserted only where they beat it, as in the length distribution (common practice, no source).
 describe("evaluateClass(...).repeaters: delayS < delayS of the class exactly when repeaters help", () => {
-  const tech = defaultTechnology();
+  const tech = DEFAULT_TECHNOLOGY;
   const rc0 = tech.repeaterR0Ohm * tech.repeaterC0F;
   const run = (wc: WireClass, level: ModelLevel = "full") => evaluateClass({ wireClass: wc, technology: tech, settings: baselineSettings(level, tech) });
   /** The class at the length where its line's R·C is x·R0·C0. */
@@ -97,11 +101,34 @@ describe("evaluateClass(...).repeaters: delayS < delayS of the class exactly whe
   });
   it("for random classes at every level: count 1 ⇔ repeaters.delayS = delayS, otherwise repeaters.delayS < delayS", () => {
     const nm = (lo: number, hi: number) => fc.double({ min: lo, max: hi, noNaN: true }).map((x) => x * 1e-9);
-    fc.assert(fc.property(nm(10, 2000), fc.double({ min: 0.5, max: 3, noNaN: true }), nm(10, 2000), fc.double({ min: 1e-7, max: 2e-2, noNaN: true }),
-      fc.double({ min: 0, max: 1e5, noNaN: true }), fc.double({ min: 0, max: 1e-13, noNaN: true }), fc.constantFrom(...MODEL_LEVELS), (w, ar, h, L, rd, cl, level) => {
-        const r = run(testClass({ widthM: w, thicknessM: ar * w, spacingM: w, ildBelowM: h, barrierM: 0.05 * w, meanLengthM: L, driverOhm: rd, loadF: cl }), level);
-        if (r.repeaters.count === 1) expect(r.repeaters.delayS).toBe(r.delayS);
-        else expect(r.repeaters.delayS).toBeLessThan(r.delayS);
-      }), { numRuns: Number(process.env.PROP_RUNS ?? 400) });
+    fc.assert(
+      fc.property(
+        nm(10, 2000),
+        fc.double({ min: 0.5, max: 3, noNaN: true }),
+        nm(10, 2000),
+        fc.double({ min: 1e-7, max: 2e-2, noNaN: true }),
+        fc.double({ min: 0, max: 1e5, noNaN: true }),
+        fc.double({ min: 0, max: 1e-13, noNaN: true }),
+        fc.constantFrom(...MODEL_LEVELS),
+        (w, ar, h, L, rd, cl, level) => {
+          const r = run(
+            testClass({
+              widthM: w,
+              thicknessM: ar * w,
+              spacingM: w,
+              ildBelowM: h,
+              barrierM: 0.05 * w,
+              meanLengthM: L,
+              driverOhm: rd,
+              loadF: cl,
+            }),
+            level,
+          );
+          if (r.repeaters.count === 1) expect(r.repeaters.delayS).toBe(r.delayS);
+          else expect(r.repeaters.delayS).toBeLessThan(r.delayS);
+        },
+      ),
+      { numRuns: Number(process.env.PROP_RUNS ?? 400) },
+    );
   });
 });

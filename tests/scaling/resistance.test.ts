@@ -1,12 +1,17 @@
 import { describe, expect, it } from "vitest";
 import { conductingAreaM2, mayadasShatzkesRatio, resistivityOhmM, sizeEffectFactor } from "@/lib/scaling/resistance";
-import { getMetal, METALS } from "@/scaling/materials";
+import { getMetal, METALS } from "@/lib/scaling/materials";
 import { expectClose } from "./close";
 
 describe("materials: bulk resistivity", () => {
   // CRC Handbook of Chemistry and Physics, "Electrical resistivity of pure metals", 20 °C, in µΩ·cm
-  // (Cu, Al secondary; W, Co, Ru from memory — see MODELS.md). Ru is quoted as 7.1–7.6.
-  it.each([["Cu", 1.678], ["Al", 2.65], ["W", 5.28], ["Co", 6.24]] as const)("%s = %d µΩ·cm", (id, muOhmCm) => {
+  // (Cu, Al secondary; W, Co, Ru from memory — see docs/models.md). Ru is quoted as 7.1–7.6.
+  it.each([
+    ["Cu", 1.678],
+    ["Al", 2.65],
+    ["W", 5.28],
+    ["Co", 6.24],
+  ] as const)("%s = %d µΩ·cm", (id, muOhmCm) => {
     expectClose(resistivityOhmM({ metal: id, widthM: 1e-3, heightM: 1e-3, sizeEffects: false }), muOhmCm * 1e-8, 1e-12);
   });
   it("Ru lies in 7.1–7.6 µΩ·cm", () => {

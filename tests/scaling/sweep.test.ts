@@ -1,10 +1,11 @@
 import { describe, expect, it } from "vitest";
-import { baselineSettings, defaultTechnology } from "@/lib/scaling/evaluate";
+import { baselineSettings } from "@/lib/scaling/evaluate";
+import { DEFAULT_TECHNOLOGY } from "@/lib/scaling/technology";
 import { linspace, logspace, sweep } from "@/lib/scaling/sweep";
 import { expectClose } from "./close";
 import { testClass } from "./fixtures";
 
-const tech = defaultTechnology();
+const tech = DEFAULT_TECHNOLOGY;
 
 describe("linspace / logspace", () => {
   it("hit both ends exactly", () => {
@@ -18,13 +19,34 @@ describe("linspace / logspace", () => {
 });
 
 describe("sweep({ variable: 's', ... })", () => {
-  const classes = [testClass(), testClass({ name: "g", tier: "global", widthM: 400e-9, thicknessM: 800e-9, spacingM: 400e-9, ildBelowM: 400e-9, meanLengthM: 1e-3, barrierM: 5e-9 })];
-  const curves = sweep({ classes, technology: tech, settings: baselineSettings("full", tech), variable: "s", metric: "rc", from: 1, to: 4, points: 31 });
+  const classes = [
+    testClass(),
+    testClass({
+      name: "g",
+      tier: "global",
+      widthM: 400e-9,
+      thicknessM: 800e-9,
+      spacingM: 400e-9,
+      ildBelowM: 400e-9,
+      meanLengthM: 1e-3,
+      barrierM: 5e-9,
+    }),
+  ];
+  const curves = sweep({
+    classes,
+    technology: tech,
+    settings: baselineSettings("full", tech),
+    variable: "s",
+    metric: "rc",
+    from: 1,
+    to: 4,
+    points: 31,
+  });
   it("one curve per class and level", () => {
     expect(curves).toHaveLength(8);
     expect(new Set(curves.map((c) => c.level))).toEqual(new Set(["ideal", "fringe", "coupled", "full"]));
   });
-  it("ideal RC of a global wire (S_L = 1) grows as S² (MODELS.md scaling laws)", () => {
+  it("ideal RC of a global wire (S_L = 1) grows as S² (docs/models.md scaling laws)", () => {
     const c = curves.find((x) => x.className === "g" && x.level === "ideal")!;
     for (const p of c.points) expectClose(p.y / c.points[0]!.y, p.x * p.x, 1e-9);
   });
@@ -35,12 +57,32 @@ describe("sweep({ variable: 's', ... })", () => {
     expect(full.points[last]!.y / full.points[0]!.y).toBeGreaterThan(ideal.points[ideal.points.length - 1]!.y / ideal.points[0]!.y);
   });
   it("skips impossible points instead of failing", () => {
-    const far = sweep({ classes: [testClass()], technology: tech, settings: baselineSettings("full", tech), variable: "s", metric: "delay", from: 1, to: 12, points: 12, levels: ["full"] });
+    const far = sweep({
+      classes: [testClass()],
+      technology: tech,
+      settings: baselineSettings("full", tech),
+      variable: "s",
+      metric: "delay",
+      from: 1,
+      to: 12,
+      points: 12,
+      levels: ["full"],
+    });
     expect(far[0]!.skipped!.length).toBeGreaterThan(0);
     expect(far[0]!.points.length + far[0]!.skipped!.length).toBe(12);
   });
   it("k sweep: ideal C is proportional to k", () => {
-    const k = sweep({ classes: [testClass()], technology: tech, settings: baselineSettings("ideal", tech), variable: "k", metric: "c", from: 1, to: 4, points: 4, levels: ["ideal"] });
+    const k = sweep({
+      classes: [testClass()],
+      technology: tech,
+      settings: baselineSettings("ideal", tech),
+      variable: "k",
+      metric: "c",
+      from: 1,
+      to: 4,
+      points: 4,
+      levels: ["ideal"],
+    });
     const p = k[0]!.points;
     expectClose(p[3]!.y / p[0]!.y, 4, 1e-12);
   });
@@ -52,9 +94,32 @@ describe("sweep({ variable: 's', ... })", () => {
 describe("sweep lengthMode (S_L follows S, or is fixed at 1)", () => {
   const settings = { ...baselineSettings("ideal", tech), sL: 1.7, overrides: { m2: { sL: 2.5 } } };
   const run = (lengthMode: "follow" | "fixed" | "scenario", metric: "rc" | "delay") =>
-    sweep({ classes: [testClass()], technology: tech, settings, variable: "s", metric, from: 0.5, to: 4, points: 15, spacing: "log", levels: ["ideal"], lengthMode })[0]!;
+    sweep({
+      classes: [testClass()],
+      technology: tech,
+      settings,
+      variable: "s",
+      metric,
+      from: 0.5,
+      to: 4,
+      points: 15,
+      spacing: "log",
+      levels: ["ideal"],
+      lengthMode,
+    })[0]!;
   const atOne = (lengthMode: "follow" | "fixed" | "scenario", metric: "rc" | "delay") =>
-    sweep({ classes: [testClass()], technology: tech, settings, variable: "s", metric, from: 1, to: 1, points: 1, levels: ["ideal"], lengthMode })[0]!.points[0]!.y;
+    sweep({
+      classes: [testClass()],
+      technology: tech,
+      settings,
+      variable: "s",
+      metric,
+      from: 1,
+      to: 1,
+      points: 1,
+      levels: ["ideal"],
+      lengthMode,
+    })[0]!.points[0]!.y;
 
   it("follow: ideal RC is constant in S and ideal delay relative to S = 1 stays 1", () => {
     const rc = run("follow", "rc");

@@ -1,17 +1,16 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { redirect } from "next/navigation";
-import { db } from "@/db/client";
-import { listTeamsOfUser } from "@/db/queries/teams";
 import { CreateTeamForm } from "@/components/teams/create-team-form";
 import { Badge, Card, EmptyState } from "@/components/ui/card";
+import { teamsOfUser } from "@/lib/access";
 import { requirePageUser } from "@/lib/team-context";
 
 export const metadata: Metadata = { title: "Your teams" };
 
 export default async function TeamsPage({ searchParams }: { searchParams: Promise<{ landing?: string }> }) {
   const user = await requirePageUser("/teams");
-  const teams = await listTeamsOfUser(db, user.id);
+  const teams = await teamsOfUser(user.id);
   const only = teams.length === 1 ? teams[0] : undefined;
   if (only && (await searchParams).landing === "1") redirect(`/teams/${only.id}`);
   return (

@@ -1,9 +1,10 @@
 import { db, ready } from "@/db/client";
+import { pingDatabase } from "@/db/queries/health";
 
 export const dynamic = "force-dynamic";
 
 export async function GET() {
   await ready();
-  await db.raw("select 1");
+  await pingDatabase(db);
   return Response.json({ ok: true });
 }

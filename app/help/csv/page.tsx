@@ -1,11 +1,9 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import type { ReactNode } from "react";
-import { HISTOGRAM_COLUMNS } from "@/lib/import/histograms";
 import { MAX_IMPORT_BYTES, MAX_LISTED_ERRORS } from "@/lib/import/limits";
+import { HISTOGRAM_COLUMNS, METALS, WIRE_CLASS_COLUMNS } from "@/lib/scaling";
 import { MAX_CLASSES } from "@/lib/validation/wire-class";
-import { METALS } from "@/scaling/materials";
-import { WIRE_CLASS_COLUMNS } from "@/scaling/csv";
 
 export const metadata: Metadata = { title: "CSV formats" };
 
@@ -96,35 +94,61 @@ export default function CsvHelpPage() {
       </p>
       <h1 className="mt-2 text-2xl font-semibold">CSV formats: wire classes and length histograms</h1>
       <p className="mt-2 max-w-prose text-sm text-muted">
-        Bring your design&apos;s wiring statistics from your own flows. Both files are plain CSV with the unit in each column name; values are
-        plain numbers in that unit, with a decimal point. Plateau stores everything in SI units and converts exactly (24 nm is stored as
-        2.4·10⁻⁸ m, not 2.4000000000000003·10⁻⁸).
+        Bring your design&apos;s wiring statistics from your own flows. Both files are plain CSV with the unit in each column name; values are plain numbers in
+        that unit, with a decimal point. Plateau stores everything in SI units and converts exactly (24 nm is stored as 2.4·10⁻⁸ m, not
+        2.4000000000000003·10⁻⁸).
       </p>
 
       <div className="mt-4 flex flex-wrap gap-3 text-sm">
-        <a className="rounded-md border border-rule-strong bg-panel px-3 py-1.5 font-medium hover:bg-ground" href="/templates/wire-classes-template.csv" download>
+        <a
+          className="rounded-md border border-rule-strong bg-panel px-3 py-1.5 font-medium hover:bg-ground"
+          href="/templates/wire-classes-template.csv"
+          download
+        >
           Download the wire-class template
         </a>
-        <a className="rounded-md border border-rule-strong bg-panel px-3 py-1.5 font-medium hover:bg-ground" href="/templates/length-histograms-template.csv" download>
+        <a
+          className="rounded-md border border-rule-strong bg-panel px-3 py-1.5 font-medium hover:bg-ground"
+          href="/templates/length-histograms-template.csv"
+          download
+        >
           Download the length-histogram template
         </a>
       </div>
       <p className="mt-2 text-xs text-muted">
-        The templates hold <strong>invented demo data</strong> (the fictional &quot;Skua&quot; tile of the made-up team Harrow Bay Silicon); no value
-        describes a real process, foundry or product.
+        The templates hold <strong>invented demo data</strong> (the fictional &quot;Skua&quot; tile of the made-up team Harrow Bay Silicon); no value describes
+        a real process, foundry or product.
       </p>
 
       <H2 id="general">Rules for both files</H2>
       <ul className="mt-2 list-disc space-y-1 pl-5 text-sm">
-        <li>UTF-8 text. A byte-order mark (BOM) is accepted; other encodings and binary files (for example a workbook saved as .xlsx) are rejected — save as &quot;CSV UTF-8&quot;.</li>
-        <li>The first line is the header. Column names are matched ignoring case and surrounding spaces, in any order. Unknown columns and missing required columns are rejected, with the list of expected columns.</li>
-        <li>Commas separate fields; a semicolon is used instead when the header clearly uses semicolons (as spreadsheets in some locales save). Numbers always use a decimal point: <code>2,7</code> is rejected with a hint.</li>
-        <li>Quoted fields (<code>&quot;a, b&quot;</code>, with <code>&quot;&quot;</code> for a quote), Windows (CRLF) or Unix line ends, blank lines and a trailing newline are fine.</li>
-        <li>Numbers must be finite: <code>NaN</code>, <code>Infinity</code> and overflowing values such as <code>1e999</code> are rejected. Exponents (<code>1.5e3</code>) are fine.</li>
+        <li>
+          UTF-8 text. A byte-order mark (BOM) is accepted; other encodings and binary files (for example a workbook saved as .xlsx) are rejected — save as
+          &quot;CSV UTF-8&quot;.
+        </li>
+        <li>
+          The first line is the header. Column names are matched ignoring case and surrounding spaces (a space inside may stand for the underscore), in any
+          order. Unknown columns, a column named twice and missing required columns are rejected, with the list of expected columns — everywhere the formats are
+          read: the upload, the preview in the browser and the command line (<code>npm run scaling -- evaluate --baseline classes.csv</code>) use one reader
+          with one set of rules, so a file gets the same verdict in each.
+        </li>
+        <li>
+          Commas separate fields; a semicolon is used instead when the header clearly uses semicolons (as spreadsheets in some locales save). Numbers always use
+          a decimal point: <code>2,7</code> is rejected with a hint.
+        </li>
+        <li>
+          Quoted fields (<code>&quot;a, b&quot;</code>, with <code>&quot;&quot;</code> for a quote), Windows (CRLF) or Unix line ends, blank lines and a
+          trailing newline are fine. Every row has as many fields as the header (one empty field after the last is tolerated); a row with more or fewer is an
+          error.
+        </li>
+        <li>
+          Numbers must be finite: <code>NaN</code>, <code>Infinity</code> and overflowing values such as <code>1e999</code> are rejected. Exponents (
+          <code>1.5e3</code>) are fine.
+        </li>
         <li>Nothing is stored unless the whole file is valid: one transaction per import, and a connection lost mid-upload stores nothing.</li>
         <li>
-          Errors name the line (the header is line 1), the column, the value and the reason, e.g. <code>line 3, width_nm: &quot;-4&quot; must be &gt; 0</code>. The first {MAX_LISTED_ERRORS} errors are listed with the total count;
-          the import page lets you download them as CSV.
+          Errors name the line (the header is line 1), the column, the value and the reason, e.g. <code>line 3, width_nm: &quot;-4&quot; must be &gt; 0</code>.
+          The first {MAX_LISTED_ERRORS} errors are listed with the total count; the import page lets you download them as CSV.
         </li>
         <li>Files up to {mib} MiB (about 2.5 million histogram rows). Larger uploads are refused (HTTP 413).</li>
       </ul>
@@ -142,8 +166,8 @@ export default function CsvHelpPage() {
       <h3 className="mt-4 text-sm font-semibold">Replace or merge</h3>
       <ul className="mt-1 list-disc space-y-1 pl-5 text-sm">
         <li>
-          <strong>Replace</strong>: the file becomes the class table, in the file&apos;s order. A class whose name (ignoring case) is already in the baseline is updated in place and keeps its
-          length histogram; classes not in the file are deleted with their histograms.
+          <strong>Replace</strong>: the file becomes the class table, in the file&apos;s order. A class whose name (ignoring case) is already in the baseline is
+          updated in place and keeps its length histogram; classes not in the file are deleted with their histograms.
         </li>
         <li>
           <strong>Merge</strong>: rows update the classes of the same name and new classes are appended; classes not in the file stay as they are.
@@ -153,14 +177,14 @@ export default function CsvHelpPage() {
 
       <H2 id="histograms">Length histograms</H2>
       <p className="mt-2 text-sm text-muted">
-        Many rows per class: one per length bin. When a class has a histogram, its distribution results (delay distribution, share of nets over the delay budget, total
-        repeaters) are computed over the bins instead of putting every net at the mean length. Files of a million rows are fine.
+        Many rows per class: one per length bin. When a class has a histogram, its distribution results (delay distribution, share of nets over the delay
+        budget, total repeaters) are computed over the bins instead of putting every net at the mean length. Files of a million rows are fine.
       </p>
       <div className="mt-3">
         <ColumnTable
           rows={HISTOGRAM_COLUMNS.map((c) => ({
             name: c.name,
-            unit: c.unit === "nets" ? "" : c.unit,
+            unit: c.unit,
             required: c.required,
             description: c.description,
             limits: c.name === "class" ? "an existing class of the baseline; names are case-sensitive" : c.name === "length_um" ? "> 0" : "whole number ≥ 0",
@@ -170,19 +194,21 @@ export default function CsvHelpPage() {
       </div>
       <ul className="mt-3 list-disc space-y-1 pl-5 text-sm">
         <li>
-          <strong>Duplicates</strong>: a class and length may appear only once — a second row for the same bin is an error naming both lines (Plateau does not add them up, since a
-          repeated bin is usually a copy-paste slip).
+          <strong>Duplicates</strong>: a class and length may appear only once — a second row for the same bin is an error naming both lines (Plateau does not
+          add them up, since a repeated bin is usually a copy-paste slip).
         </li>
         <li>Import the wire classes first: a row naming a class the baseline does not have is an error (with a hint when only the case differs).</li>
         <li>
-          <strong>Replace</strong> replaces every class&apos;s histogram (classes not in the file end up with none); <strong>merge</strong> replaces only the histograms of the classes
-          in the file. When a histogram&apos;s total differs from the class&apos;s <code>net_count</code>, the import answers a warning; the distribution uses the histogram.
+          <strong>Replace</strong> replaces every class&apos;s histogram (classes not in the file end up with none); <strong>merge</strong> replaces only the
+          histograms of the classes in the file. When a histogram&apos;s total differs from the class&apos;s <code>net_count</code>, the import answers a
+          warning; the distribution uses the histogram.
         </li>
       </ul>
 
       <H2 id="metals">Metals catalogue</H2>
       <p className="mt-2 text-sm text-muted">
-        The <code>metal</code> column takes one of these ids (or the metal&apos;s name). Values as used by the engine, with their sources (scaling/materials.ts).
+        The <code>metal</code> column takes one of these ids (or the metal&apos;s name). Values as used by the engine, with their sources
+        (lib/scaling/materials.ts).
       </p>
       <div className="mt-3 overflow-x-auto rounded-lg border border-rule bg-panel">
         <table className="num w-full text-sm">
@@ -211,15 +237,21 @@ export default function CsvHelpPage() {
 
       <H2 id="export">Export</H2>
       <ul className="mt-2 list-disc space-y-1 pl-5 text-sm">
-        <li>A baseline&apos;s classes and histograms export in exactly these formats, so an export re-imports unchanged. A scenario&apos;s per-class results export with the unit in each header (nm, µm, Ω/µm, fF/µm, ps, fJ, µW).</li>
         <li>
-          Text cells that a spreadsheet would run as a formula (starting with <code>=</code>, <code>+</code>, <code>-</code>, <code>@</code>, a tab or a carriage return) are written with a
-          leading apostrophe; the importer removes it again.
+          A baseline&apos;s classes and histograms export in exactly these formats, so an export re-imports unchanged. A scenario&apos;s per-class results
+          export with the unit in each header (nm, µm, Ω/µm, fF/µm, ps, fJ, µW).
+        </li>
+        <li>
+          Text cells that a spreadsheet would run as a formula (starting with <code>=</code>, <code>+</code>, <code>-</code>, <code>@</code>, a tab or a
+          carriage return) are written with a leading apostrophe; the importer removes it again.
         </li>
       </ul>
 
       <H2 id="api">API</H2>
-      <p className="mt-2 text-sm text-muted">Send the file as the body (<code>content-type: text/csv</code>) or as a multipart form with a <code>file</code> field. Editor or owner role; answers are JSON.</p>
+      <p className="mt-2 text-sm text-muted">
+        Send the file as the body (<code>content-type: text/csv</code>) or as a multipart form with a <code>file</code> field. Editor or owner role; answers are
+        JSON.
+      </p>
       <pre className="mt-2 overflow-x-auto rounded-md border border-rule bg-panel p-3 font-mono text-xs leading-relaxed">{`POST /api/baselines/{id}/import?mode=replace|merge[&dryRun=1]       wire classes
 POST /api/baselines/{id}/histograms?mode=replace|merge[&dryRun=1]   length histograms
 POST /api/teams/{teamId}/baselines/import?name=…[&dryRun=1]        new baseline from classes
@@ -230,7 +262,8 @@ GET  /api/scenarios/{id}/results.csv                                 per-class r
 curl -X POST -H 'content-type: text/csv' --data-binary @classes.csv \\
   -b 'plateau_session=…' 'https://…/api/baselines/{id}/import?mode=merge&dryRun=1'`}</pre>
       <p className="mt-2 text-sm text-muted">
-        An invalid file answers 400 <code>{`{ error: { code: "invalid_csv", message, errors: [{ line, column, value, message }], errorCount } }`}</code>; too large 413; a wrong content type 415.
+        An invalid file answers 400 <code>{`{ error: { code: "invalid_csv", message, errors: [{ line, column, value, message }], errorCount } }`}</code>; too
+        large 413; a wrong content type 415.
       </p>
     </main>
   );

@@ -29,9 +29,11 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
     body = <Notice tone="bad">This invite link is not valid. Check that you copied the whole link, or ask the team&apos;s owner for a new invite.</Notice>;
   } else {
     const status = inviteStatus(invite);
-    if (status === "accepted") body = <Notice tone="bad">This invite has already been used. Ask the team&apos;s owner for a new one if you still need access.</Notice>;
+    if (status === "accepted")
+      body = <Notice tone="bad">This invite has already been used. Ask the team&apos;s owner for a new one if you still need access.</Notice>;
     else if (status === "revoked") body = <Notice tone="bad">This invite was withdrawn by the team&apos;s owner. Ask them for a new one.</Notice>;
-    else if (status === "expired") body = <Notice tone="bad">This invite has expired (invites last 7 days). Ask the team&apos;s owner to send a new one.</Notice>;
+    else if (status === "expired")
+      body = <Notice tone="bad">This invite has expired (invites last 7 days). Ask the team&apos;s owner to send a new one.</Notice>;
     else {
       const intro = (
         <p className="text-sm text-ink">

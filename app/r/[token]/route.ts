@@ -14,7 +14,12 @@ h1{font-size:1.15rem;margin:0 0 .5rem}p{margin:.25rem 0;color:#5f6368}.mark{colo
 <body><main><p class="mark">Plateau</p><h1>${title}</h1><p>${text}</p></main></body></html>`;
   return new Response(html, {
     status,
-    headers: { "content-type": "text/html; charset=utf-8", "cache-control": "no-store", "referrer-policy": "no-referrer", "x-robots-tag": "noindex" },
+    headers: {
+      "content-type": "text/html; charset=utf-8",
+      "cache-control": "no-store",
+      "referrer-policy": "no-referrer",
+      "x-robots-tag": "noindex",
+    },
   });
 }
 
@@ -28,5 +33,8 @@ export async function GET(_req: Request, ctx: { params: Promise<{ token: string 
   if (r.status === "missing") {
     return page(404, "No report at this address", "This link is not valid: it may have been revoked, or mistyped. Ask the person who sent it for a new link.");
   }
-  return new Response(null, { status: 303, headers: { location: `/r/${encodeURIComponent(token)}/report`, "cache-control": "no-store", "referrer-policy": "no-referrer" } });
+  return new Response(null, {
+    status: 303,
+    headers: { location: `/r/${encodeURIComponent(token)}/report`, "cache-control": "no-store", "referrer-policy": "no-referrer" },
+  });
 }

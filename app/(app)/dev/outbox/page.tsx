@@ -19,9 +19,7 @@ export default async function OutboxPage() {
     <div className="space-y-4">
       <h1 className="text-xl font-semibold text-ink">Outbox</h1>
       <Notice>
-        {scope.teamIds
-          ? "Mail sent from the demo team you own. "
-          : "Every message the app sent (development only). "}
+        {scope.teamIds ? "Mail sent from the demo team you own. " : "Every message the app sent (development only). "}
         Unless PLATEAU_SMTP_URL is set, mail goes to Plateau&apos;s local catcher and never leaves this machine; the captured copy is shown under each message.
       </Notice>
       {rows.length === 0 ? (
@@ -54,7 +52,9 @@ export default async function OutboxPage() {
             <pre className="max-h-64 overflow-auto whitespace-pre-wrap rounded border border-rule bg-ground p-2 font-mono text-xs">{m.text}</pre>
             {m.captured.map((c) => (
               <details key={c.id} className="mt-2 text-sm">
-                <summary className="cursor-pointer text-muted">Captured by the local mail catcher ({fmt.format(new Date(c.receivedAt))} UTC): raw message</summary>
+                <summary className="cursor-pointer text-muted">
+                  Captured by the local mail catcher ({fmt.format(new Date(c.receivedAt))} UTC): raw message
+                </summary>
                 <pre className="mt-1 max-h-80 overflow-auto whitespace-pre-wrap rounded border border-rule bg-ground p-2 font-mono text-xs">{c.raw}</pre>
               </details>
             ))}

@@ -45,7 +45,8 @@ export default async function TeamHomePage({ params }: { params: Promise<{ teamI
         <div>
           <h1 className="text-xl font-semibold text-ink">{team.name}</h1>
           <p className="text-sm text-muted">
-            You are {role === "owner" ? "an owner" : role === "editor" ? "an editor" : "a viewer"} · {home.counts.members} member{home.counts.members === 1 ? "" : "s"}
+            You are {role === "owner" ? "an owner" : role === "editor" ? "an editor" : "a viewer"} · {home.counts.members} member
+            {home.counts.members === 1 ? "" : "s"}
           </p>
         </div>
         {team.isDemo ? <Badge tone="warn">Demo team: all data here is invented</Badge> : null}
@@ -64,10 +65,7 @@ export default async function TeamHomePage({ params }: { params: Promise<{ teamI
       <div className="grid gap-6 lg:grid-cols-3">
         <Section title="Baselines" count={home.counts.baselines} href={`${base}/baselines`} linkLabel="All baselines">
           {home.baselines.length === 0 ? (
-            <EmptyState
-              title="No baselines yet"
-              action={canEdit ? <ButtonLink href={`${base}/baselines`}>Create a baseline</ButtonLink> : undefined}
-            >
+            <EmptyState title="No baselines yet" action={canEdit ? <ButtonLink href={`${base}/baselines`}>Create a baseline</ButtonLink> : undefined}>
               {canEdit
                 ? "Import your design's wire classes from a CSV (a template with plausible invented values is provided), or start from an empty class table."
                 : "An editor or owner of this team can create the first baseline."}

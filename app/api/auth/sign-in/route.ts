@@ -2,7 +2,7 @@ import { db, ready } from "@/db/client";
 import { getUserByEmail } from "@/db/queries/users";
 import { ApiError, apiRoute, readJson } from "@/lib/api";
 import { startSession } from "@/lib/auth";
-import { newId } from "@/lib/ids";
+import { newId } from "@/db/ids";
 import { dummyHash, verifyPassword } from "@/lib/password";
 import { clientAddress, lockedUntil, recordFailure, recordSuccess, throttleKeys } from "@/lib/throttle";
 import { publicUser } from "@/lib/users";
@@ -14,7 +14,12 @@ function tooMany(until: number): Response {
   const seconds = Math.max(1, Math.ceil((until - Date.now()) / 1000));
   const minutes = Math.ceil(seconds / 60);
   return Response.json(
-    { error: { code: "too_many_attempts", message: `Too many failed sign-in attempts. Wait ${minutes} minute${minutes === 1 ? "" : "s"}, then try again.` } },
+    {
+      error: {
+        code: "too_many_attempts",
+        message: `Too many failed sign-in attempts. Wait ${minutes} minute${minutes === 1 ? "" : "s"}, then try again.`,
+      },
+    },
     { status: 429, headers: { "retry-after": String(seconds) } },
   );
 }

@@ -1,7 +1,7 @@
 import { db } from "@/db/client";
-import { getInviteByTokenHash, markInviteAccepted } from "@/db/queries/invites";
-import { getTeam, insertMembership } from "@/db/queries/teams";
-import { audit, getMembershipRole, requireApiUser } from "@/lib/access";
+import { getInviteByTokenHash } from "@/db/queries/invites";
+import { acceptInvite } from "@/db/writes/teams";
+import { getMembershipRole, requireApiUser } from "@/lib/access";
 import { ApiError, apiRoute, conflict, readJson } from "@/lib/api";
 import { hashInviteToken, inviteStatus } from "@/lib/invites";
 import { acceptInviteSchema } from "@/lib/validation/team";
@@ -21,11 +21,6 @@ export const POST = apiRoute(async (req) => {
     throw new ApiError(403, "invite_email_mismatch", `This invite was sent to ${invite.email}. Sign in with that address to accept it.`);
   }
   if (await getMembershipRole(invite.teamId, user.id)) throw conflict("You are already a member of this team.");
-  const team = await getTeam(db, invite.teamId);
-  await db.transaction(async (trx) => {
-    if (!(await markInviteAccepted(trx, invite.id, user.id))) throw conflict("This invite has already been used. Ask the team's owner for a new one if you still need access.");
-    await insertMembership(trx, { teamId: invite.teamId, userId: user.id, role: invite.role });
-    await audit({ teamId: invite.teamId, userId: user.id, action: "invite.accept", entityType: "invite", entityId: invite.id, detail: { role: invite.role } }, trx);
-  });
-  return Response.json({ team: { id: invite.teamId, name: team?.name ?? "", role: invite.role } });
+  const joined = await acceptInvite(db, { inviteId: invite.id, userId: user.id });
+  return Response.json({ team: { id: joined.teamId, name: joined.teamName, role: joined.role } });
 });

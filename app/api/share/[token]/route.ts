@@ -1,8 +1,7 @@
 import { db, ready } from "@/db/client";
-import { getReport } from "@/db/queries/reports";
 import { resolveShareToken } from "@/db/queries/share-links";
 import { ApiError, apiRoute, notFound } from "@/lib/api";
-import { publicReport } from "@/lib/reports/service";
+import { findReport, publicReport } from "@/lib/reports/service";
 import { summarizeReport } from "@/lib/reports/summary";
 
 export const dynamic = "force-dynamic";
@@ -13,7 +12,7 @@ export const GET = apiRoute<{ token: string }>(async (_req, { token }) => {
   const r = await resolveShareToken(db, token);
   if (r.status === "expired") throw new ApiError(410, "expired", "This share link has expired. Ask the sender for a new one.");
   if (r.status === "missing") throw notFound("Share link");
-  const report = await getReport(db, r.reportId);
+  const report = await findReport(db, r.reportId);
   if (!report) throw notFound("Share link");
   const view = publicReport(report);
   return Response.json(

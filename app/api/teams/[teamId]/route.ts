@@ -1,6 +1,7 @@
 import { db } from "@/db/client";
-import { getTeam, renameTeam } from "@/db/queries/teams";
-import { audit, requireTeamRole } from "@/lib/access";
+import { getTeam } from "@/db/queries/teams";
+import { renameTeam } from "@/db/writes/teams";
+import { requireTeamRole } from "@/lib/access";
 import { apiRoute, notFound, readJson } from "@/lib/api";
 import { teamSchema } from "@/lib/validation/team";
 
@@ -16,12 +17,6 @@ export const GET = apiRoute<P>(async (_req, { teamId }) => {
 export const PATCH = apiRoute<P>(async (req, { teamId }) => {
   const a = await requireTeamRole(teamId, "owner");
   const input = await readJson(req, teamSchema, 16 * 1024);
-  const team = await db.transaction(async (trx) => {
-    const before = await getTeam(trx, teamId);
-    if (!before) throw notFound("Team");
-    await renameTeam(trx, teamId, input.name);
-    await audit({ teamId, userId: a.user.id, action: "team.rename", entityType: "team", entityId: teamId, detail: { from: before.name, to: input.name } }, trx);
-    return { ...before, name: input.name };
-  });
+  const team = await renameTeam(db, { teamId, userId: a.user.id, name: input.name });
   return Response.json({ team: { id: team.id, name: team.name, isDemo: team.isDemo, role: a.role } });
 });

@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
+import { cache } from "react";
 import { db, ready } from "@/db/client";
 import { getReport } from "@/db/queries/reports";
 import { ReportBody } from "@/components/reports/report-body";
@@ -11,18 +12,27 @@ import { summarizeReport } from "@/lib/reports/summary";
 
 export const dynamic = "force-dynamic";
 
-/** The report if this request may print it: a valid print token, or a signed-in member of its team. */
-async function printableReport(reportId: string, t: string | undefined) {
+/**
+ * The report if this request may print it: a valid print token, or a signed-in member of its team.
+ * Once per request: metadata and page share it.
+ */
+const printableReport = cache(async (reportId: string, t: string | undefined) => {
   await ready();
   const report = await getReport(db, reportId);
   if (!report) return null;
   if (verifyPrintToken(reportId, t)) return report;
   const { user } = await validateRequest();
   return user && (await getMembershipRole(report.teamId, user.id)) ? report : null;
-}
+});
 
 // The title is the browser's default file name when the page is saved as PDF.
-export async function generateMetadata({ params, searchParams }: { params: Promise<{ reportId: string }>; searchParams: Promise<{ t?: string }> }): Promise<Metadata> {
+export async function generateMetadata({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ reportId: string }>;
+  searchParams: Promise<{ t?: string }>;
+}): Promise<Metadata> {
   const { t } = await searchParams;
   const report = await printableReport((await params).reportId, typeof t === "string" ? t : undefined);
   return { title: report ? `${report.title} (v${report.version})` : "Report (print)", robots: { index: false } };

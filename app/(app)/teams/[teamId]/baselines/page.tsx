@@ -19,7 +19,9 @@ export default async function BaselinesPage({ params }: { params: Promise<{ team
     <div className="space-y-5">
       <div>
         <h1 className="text-xl font-semibold text-ink">Baselines</h1>
-        <p className="text-sm text-muted">Today&apos;s wiring of a design: a named set of wire classes (geometry, material, statistics, driver and load) and the technology they share.</p>
+        <p className="text-sm text-muted">
+          Today&apos;s wiring of a design: a named set of wire classes (geometry, material, statistics, driver and load) and the technology they share.
+        </p>
       </div>
       {canEdit ? (
         <Card

@@ -15,15 +15,18 @@ export default async function ReportsPage({ params }: { params: Promise<{ teamId
   const { teamId } = await params;
   const ctx = await getTeamContext(teamId);
   await ready();
-  const [reports, choices] = await Promise.all([listReports(db, teamId), roleAtLeast(ctx.role, "editor") ? listComposeChoices(db, teamId) : Promise.resolve([])]);
+  const [reports, choices] = await Promise.all([
+    listReports(db, teamId),
+    roleAtLeast(ctx.role, "editor") ? listComposeChoices(db, teamId) : Promise.resolve([]),
+  ]);
   const canCompose = roleAtLeast(ctx.role, "editor");
   return (
     <div className="space-y-6">
       <div>
         <h1 className="text-xl font-semibold text-ink">Reports</h1>
         <p className="mt-1 max-w-3xl text-sm text-muted">
-          A report freezes a side-by-side comparison of a baseline and 2 to 4 of its scenarios, for readers who will not open the editor. Share it with a read-only link, send it by e-mail, print it or
-          download its PDF and CSV.
+          A report freezes a side-by-side comparison of a baseline and 2 to 4 of its scenarios, for readers who will not open the editor. Share it with a
+          read-only link, send it by e-mail, print it or download its PDF and CSV.
         </p>
       </div>
       <Card title={`${reports.length} report${reports.length === 1 ? "" : "s"}`}>

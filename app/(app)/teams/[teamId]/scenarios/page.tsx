@@ -22,7 +22,10 @@ export default async function ScenariosPage({ params, searchParams }: { params: 
     <div className="space-y-5">
       <div>
         <h1 className="text-xl font-semibold text-ink">Scenarios</h1>
-        <p className="text-sm text-muted">What-ifs on a baseline: scale factors S and S_L, dielectric, metal, barrier, Miller factor and device options. Open one to see results, the sweep and a field check.</p>
+        <p className="text-sm text-muted">
+          What-ifs on a baseline: scale factors S and S_L, dielectric, metal, barrier, Miller factor and device options. Open one to see results, the sweep and
+          a field check.
+        </p>
       </div>
       {canEdit && baselines.length > 0 ? (
         <Card title="New scenario">
@@ -30,8 +33,15 @@ export default async function ScenariosPage({ params, searchParams }: { params: 
         </Card>
       ) : null}
       {scenarios.length === 0 ? (
-        <EmptyState title="No scenarios yet" action={baselines.length === 0 && canEdit ? <ButtonLink href={`/teams/${teamId}/baselines`}>Create a baseline first</ButtonLink> : undefined}>
-          {baselines.length === 0 ? "A scenario is a what-if on a baseline; this team has no baseline yet." : canEdit ? "Name a scenario above and pick its baseline." : "Editors of this team have not created any scenarios yet."}
+        <EmptyState
+          title="No scenarios yet"
+          action={baselines.length === 0 && canEdit ? <ButtonLink href={`/teams/${teamId}/baselines`}>Create a baseline first</ButtonLink> : undefined}
+        >
+          {baselines.length === 0
+            ? "A scenario is a what-if on a baseline; this team has no baseline yet."
+            : canEdit
+              ? "Name a scenario above and pick its baseline."
+              : "Editors of this team have not created any scenarios yet."}
         </EmptyState>
       ) : (
         <div className="overflow-x-auto rounded-lg border border-rule bg-panel">

@@ -5,7 +5,6 @@ import { requireResourceRole } from "@/lib/access";
 import { apiRoute, parseOrThrow } from "@/lib/api";
 import { formatScaled } from "@/lib/import/numbers";
 import { csvUploadSource } from "@/lib/import/request-body";
-import { importErrorResponse } from "@/lib/import/respond";
 import { runHistogramImport } from "@/lib/import/run-histograms";
 import { importQuerySchema, searchParamsObject } from "@/lib/validation/import";
 
@@ -32,9 +31,13 @@ export const GET = apiRoute<{ id: string }>(async (_req, { id }) => {
 export const POST = apiRoute<{ id: string }>(async (req, { id }) => {
   const a = await requireResourceRole(() => baselineTeamId(db, id), "editor", "Baseline");
   const q = parseOrThrow(importQuerySchema, searchParamsObject(req.url), "Choose mode=replace or mode=merge explicitly.");
-  try {
-    return await runHistogramImport(db, { baselineId: id, teamId: a.teamId, userId: a.user.id, mode: q.mode, dryRun: q.dryRun, source: csvUploadSource(req) });
-  } catch (e) {
-    return importErrorResponse(e);
-  }
+  const result = await runHistogramImport(db, {
+    baselineId: id,
+    teamId: a.teamId,
+    userId: a.user.id,
+    mode: q.mode,
+    dryRun: q.dryRun,
+    source: csvUploadSource(req),
+  });
+  return Response.json(result);
 });

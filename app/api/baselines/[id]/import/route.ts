@@ -3,7 +3,6 @@ import { baselineTeamId } from "@/db/queries/baselines";
 import { requireResourceRole } from "@/lib/access";
 import { apiRoute, parseOrThrow } from "@/lib/api";
 import { csvUploadSource } from "@/lib/import/request-body";
-import { importErrorResponse } from "@/lib/import/respond";
 import { runWireClassImport } from "@/lib/import/run-classes";
 import { importQuerySchema, searchParamsObject } from "@/lib/validation/import";
 
@@ -17,9 +16,13 @@ export const dynamic = "force-dynamic";
 export const POST = apiRoute<{ id: string }>(async (req, { id }) => {
   const a = await requireResourceRole(() => baselineTeamId(db, id), "editor", "Baseline");
   const q = parseOrThrow(importQuerySchema, searchParamsObject(req.url), "Choose mode=replace or mode=merge explicitly.");
-  try {
-    return await runWireClassImport(db, { baselineId: id, teamId: a.teamId, userId: a.user.id, mode: q.mode, dryRun: q.dryRun, source: csvUploadSource(req) });
-  } catch (e) {
-    return importErrorResponse(e);
-  }
+  const result = await runWireClassImport(db, {
+    baselineId: id,
+    teamId: a.teamId,
+    userId: a.user.id,
+    mode: q.mode,
+    dryRun: q.dryRun,
+    source: csvUploadSource(req),
+  });
+  return Response.json(result);
 });

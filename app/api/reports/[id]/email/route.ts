@@ -1,6 +1,6 @@
 import { db } from "@/db/client";
 import { reportTeamId } from "@/db/queries/reports";
-import { createShareLink } from "@/db/queries/share-links";
+import { createShareLink } from "@/db/writes/share-links";
 import { CAUTION_TEXT } from "@/components/caution";
 import { requireResourceRole } from "@/lib/access";
 import { apiRoute, readJson } from "@/lib/api";
@@ -19,14 +19,24 @@ export const POST = apiRoute<{ id: string }>(async (req, { id }) => {
   const { user, teamId } = await requireResourceRole(() => reportTeamId(db, id), "editor", "Report");
   const input = await readJson(req, emailReportSchema, 16 * 1024);
   const to = [...new Set(input.to)];
-  const report = await loadReport(id);
+  const report = await loadReport(db, id);
   const { link, token } = await createShareLink(db, {
-    reportId: id, teamId, userId: user.id, expiresInDays: input.expiresInDays, reason: `e-mail to ${to.length} address${to.length === 1 ? "" : "es"}`,
+    reportId: id,
+    teamId,
+    userId: user.id,
+    expiresInDays: input.expiresInDays,
+    reason: `e-mail to ${to.length} address${to.length === 1 ? "" : "es"}`,
   });
   const url = shareUrl(req, token);
   const mail = reportEmail({
-    title: report.title, audienceNote: report.audienceNote, senderName: user.name, message: input.message,
-    frozen: report.frozen, link: url, expiresAt: link.expiresAt, caution: CAUTION_TEXT,
+    title: report.title,
+    audienceNote: report.audienceNote,
+    senderName: user.name,
+    message: input.message,
+    frozen: report.frozen,
+    link: url,
+    expiresAt: link.expiresAt,
+    caution: CAUTION_TEXT,
   });
   const results = [];
   for (const address of to) {

@@ -13,12 +13,17 @@ export const maxDuration = 60;
 /** A server-rendered PDF of the report: headless Chromium prints the report's print view. Viewer and up. */
 export const GET = apiRoute<{ id: string }>(async (req, { id }) => {
   await requireResourceRole(() => reportTeamId(db, id), "viewer", "Report");
-  const report = await loadReport(id);
+  const report = await loadReport(db, id);
   // Chromium fetches the print view from this same server; PLATEAU_INTERNAL_URL overrides the address behind a proxy.
   const origin = process.env.PLATEAU_INTERNAL_URL?.replace(/\/+$/, "") || new URL(req.url).origin;
   const url = `${origin}/print/reports/${encodeURIComponent(id)}?t=${encodeURIComponent(printToken(id))}`;
   const pdf = await renderPdf(url, `${report.title} · version ${report.version}`);
-  const name = `${report.title.replace(/[^\p{L}\p{N} _-]+/gu, "").trim().slice(0, 80) || "report"} v${report.version}.pdf`;
+  const name = `${
+    report.title
+      .replace(/[^\p{L}\p{N} _-]+/gu, "")
+      .trim()
+      .slice(0, 80) || "report"
+  } v${report.version}.pdf`;
   return new Response(new Uint8Array(pdf), {
     headers: { "content-type": "application/pdf", "content-disposition": attachment(name), "cache-control": "no-store" },
   });

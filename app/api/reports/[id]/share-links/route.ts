@@ -1,6 +1,7 @@
 import { db } from "@/db/client";
 import { reportTeamId } from "@/db/queries/reports";
-import { createShareLink, listShareLinks } from "@/db/queries/share-links";
+import { listShareLinks } from "@/db/queries/share-links";
+import { createShareLink } from "@/db/writes/share-links";
 import { requireResourceRole } from "@/lib/access";
 import { apiRoute, readJson } from "@/lib/api";
 import { shareUrl } from "@/lib/reports/service";

@@ -1,7 +1,6 @@
 import { db } from "@/db/client";
-import { getBaseline } from "@/db/queries/baselines";
-import { getScenario, scenarioTeamId } from "@/db/queries/scenarios";
-import { requireResourceRole } from "@/lib/access";
+import { getScenario } from "@/db/queries/scenarios";
+import { requireResource } from "@/lib/access";
 import { apiRoute, badRequest } from "@/lib/api";
 import { readInput } from "@/lib/workspace/input";
 import { SCENARIO_JSON_LIMIT, scenarioEvaluateSchema } from "@/lib/validation/scenario";
@@ -12,14 +11,16 @@ export const dynamic = "force-dynamic";
 
 /** The engine's Evaluation of the stored baseline under the stored settings (or unsaved `settings` from the body). */
 export const POST = apiRoute<{ id: string }>(async (req, { id }) => {
-  await requireResourceRole(() => scenarioTeamId(db, id), "viewer", "Scenario");
+  // The scenario row is read once: the access check takes its team from it.
+  const { resource: scenario } = await requireResource(() => getScenario(db, id), "viewer", "Scenario");
   const hasBody = (req.headers.get("content-length") ?? "0") !== "0" || req.headers.get("content-type");
   const input = hasBody ? await readInput(req, scenarioEvaluateSchema, SCENARIO_JSON_LIMIT) : {};
-  const scenario = (await getScenario(db, id))!;
-  const baseline = (await getBaseline(db, scenario.baselineId))!;
-  const { classes, technology } = await loadEngineInputs(db, baseline.id);
+  const { baseline, classes, technology } = await loadEngineInputs(db, scenario.baselineId);
   const settings = input.settings ? normalizeSettings(input.settings, technology) : scenario.settings;
-  const unknown = unknownOverrideFields(settings, classes.map((c) => c.name));
+  const unknown = unknownOverrideFields(
+    settings,
+    classes.map((c) => c.name),
+  );
   if (unknown) throw badRequest(`Per-class settings name classes that are not in the baseline: ${Object.values(unknown).flat().join(" ")}`, unknown);
   const evaluation = evaluateOrThrow({ classes, technology, settings });
   return Response.json({ evaluation, settings, baselineVersion: baseline.version, scenarioVersion: scenario.version });

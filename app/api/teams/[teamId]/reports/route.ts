@@ -1,4 +1,4 @@
-import { db, ready } from "@/db/client";
+import { db } from "@/db/client";
 import { listReports } from "@/db/queries/reports";
 import { requireTeamRole } from "@/lib/access";
 import { apiRoute, readJson } from "@/lib/api";
@@ -11,7 +11,6 @@ export const dynamic = "force-dynamic";
 /** The team's reports (latest version of each), newest first. Viewer and up. */
 export const GET = apiRoute<{ teamId: string }>(async (_req, { teamId }) => {
   await requireTeamRole(teamId, "viewer");
-  await ready();
   return Response.json({ reports: await listReports(db, teamId) });
 });
 
@@ -19,8 +18,8 @@ export const GET = apiRoute<{ teamId: string }>(async (_req, { teamId }) => {
 export const POST = apiRoute<{ teamId: string }>(async (req, { teamId }) => {
   const { user } = await requireTeamRole(teamId, "editor");
   const input = await readJson(req, composeReportSchema, 32 * 1024);
-  const created = await composeReport({ teamId, userId: user.id, input });
-  const report = await loadReport(created.id);
+  const created = await composeReport(db, { teamId, userId: user.id, input });
+  const report = await loadReport(db, created.id);
   return Response.json(
     {
       report: {

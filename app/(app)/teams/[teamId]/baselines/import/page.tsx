@@ -24,7 +24,13 @@ export default async function NewBaselineImportPage({ params }: { params: Promis
         </p>
       </div>
       {roleAtLeast(role, "editor") ? (
-        <CsvImport target={{ kind: "new-baseline", teamId }} classNames={[]} existingClassCount={0} doneHref={null} templateHref="/templates/wire-classes-template.csv" />
+        <CsvImport
+          target={{ kind: "new-baseline", teamId }}
+          classNames={[]}
+          existingClassCount={0}
+          doneHref={null}
+          templateHref="/templates/wire-classes-template.csv"
+        />
       ) : (
         <Notice tone="warn">Your role in this team is viewer: creating baselines needs an editor or owner.</Notice>
       )}

@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
+import { cache } from "react";
 import { db, ready } from "@/db/client";
 import { getReport, listReportVersions } from "@/db/queries/reports";
 import { listShareLinks } from "@/db/queries/share-links";
@@ -12,19 +13,23 @@ import { getTeamContext } from "@/lib/team-context";
 
 export const dynamic = "force-dynamic";
 
+// Metadata and page share one read (and one check of the frozen document) per request.
+const loadReport = cache(async (id: string) => {
+  await ready();
+  return getReport(db, id);
+});
+
 export async function generateMetadata({ params }: { params: Promise<{ teamId: string; reportId: string }> }): Promise<Metadata> {
   const { teamId, reportId } = await params;
   await getTeamContext(teamId);
-  await ready();
-  const r = await getReport(db, reportId);
+  const r = await loadReport(reportId);
   return { title: r && r.teamId === teamId ? r.title : "Report" };
 }
 
 export default async function ReportPage({ params }: { params: Promise<{ teamId: string; reportId: string }> }) {
   const { teamId, reportId } = await params;
   const ctx = await getTeamContext(teamId);
-  await ready();
-  const report = await getReport(db, reportId);
+  const report = await loadReport(reportId);
   if (!report || report.teamId !== teamId) notFound();
   const canEdit = roleAtLeast(ctx.role, "editor");
   const canDelete = ctx.role === "owner" || (canEdit && report.createdBy === ctx.user.id);

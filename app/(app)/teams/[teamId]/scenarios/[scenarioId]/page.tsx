@@ -1,28 +1,37 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
+import { cache } from "react";
 import { db } from "@/db/client";
 import { getBaseline } from "@/db/queries/baselines";
 import { getScenario } from "@/db/queries/scenarios";
 import { listClassesWithHistograms } from "@/db/queries/wire-classes";
 import { ScenarioEditor } from "@/components/workspace/scenario-editor";
 import { parseSweepChoices } from "@/lib/workspace/sweep-view";
-import type { SweepMetric } from "@/lib/scaling";
+import { coarsenHistogram, type SweepMetric } from "@/lib/scaling";
 import { getTeamContext } from "@/lib/team-context";
-import { coarsenHistogram } from "@/lib/workspace/histogram";
+
+// Metadata and page share one read per request.
+const loadScenario = cache((id: string) => getScenario(db, id));
 
 export async function generateMetadata({ params }: { params: Promise<{ teamId: string; scenarioId: string }> }): Promise<Metadata> {
   const { teamId, scenarioId } = await params;
   await getTeamContext(teamId);
-  const s = await getScenario(db, scenarioId);
+  const s = await loadScenario(scenarioId);
   return { title: s && s.teamId === teamId ? `${s.name} · Scenario` : "Scenario" };
 }
 
 const METRICS: SweepMetric[] = ["delay", "rc", "r", "c"];
 
-export default async function ScenarioPage({ params, searchParams }: { params: Promise<{ teamId: string; scenarioId: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+export default async function ScenarioPage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ teamId: string; scenarioId: string }>;
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const { teamId, scenarioId } = await params;
   const ctx = await getTeamContext(teamId);
-  const scenario = await getScenario(db, scenarioId);
+  const scenario = await loadScenario(scenarioId);
   if (!scenario || scenario.teamId !== teamId) notFound();
   const baseline = (await getBaseline(db, scenario.baselineId))!;
   const classes = (await listClassesWithHistograms(db, baseline.id)).map((c) => (c.histogram ? { ...c, histogram: coarsenHistogram(c.histogram) } : c));
@@ -36,7 +45,13 @@ export default async function ScenarioPage({ params, searchParams }: { params: P
   let from = num("from", 0.5);
   let to = num("to", 4);
   if (!(to > from)) [from, to] = [0.5, 4];
-  const view = { metric, from, to, classes: (one("classes") ?? "").split(",").filter(Boolean), ...parseSweepChoices(one("scale"), one("length")) };
+  const view = {
+    metric,
+    from,
+    to,
+    classes: (one("classes") ?? "").split(",").filter(Boolean),
+    ...parseSweepChoices(one("scale"), one("length")),
+  };
   return (
     <ScenarioEditor
       teamId={teamId}

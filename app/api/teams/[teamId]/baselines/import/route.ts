@@ -2,8 +2,8 @@ import { db } from "@/db/client";
 import { requireTeamRole } from "@/lib/access";
 import { apiRoute, parseOrThrow } from "@/lib/api";
 import { csvUploadSource } from "@/lib/import/request-body";
-import { importErrorResponse } from "@/lib/import/respond";
 import { runNewBaselineImport } from "@/lib/import/run-classes";
+import { DEFAULT_TECHNOLOGY } from "@/lib/scaling";
 import { newBaselineImportQuerySchema, searchParamsObject } from "@/lib/validation/import";
 
 export const dynamic = "force-dynamic";
@@ -12,9 +12,13 @@ export const dynamic = "force-dynamic";
 export const POST = apiRoute<{ teamId: string }>(async (req, { teamId }) => {
   const a = await requireTeamRole(teamId, "editor");
   const q = parseOrThrow(newBaselineImportQuerySchema, searchParamsObject(req.url));
-  try {
-    return await runNewBaselineImport(db, { teamId, userId: a.user.id, name: q.name, dryRun: q.dryRun, source: csvUploadSource(req) });
-  } catch (e) {
-    return importErrorResponse(e);
-  }
+  const result = await runNewBaselineImport(db, {
+    teamId,
+    userId: a.user.id,
+    name: q.name,
+    technology: DEFAULT_TECHNOLOGY,
+    dryRun: q.dryRun,
+    source: csvUploadSource(req),
+  });
+  return Response.json(result, { status: result.stored ? 201 : 200 });
 });

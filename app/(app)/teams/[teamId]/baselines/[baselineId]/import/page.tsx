@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
+import { cache } from "react";
 import { db } from "@/db/client";
 import { getBaseline } from "@/db/queries/baselines";
 import { listClasses } from "@/db/queries/wire-classes";
@@ -9,11 +10,20 @@ import { Notice } from "@/components/ui/card";
 import { roleAtLeast } from "@/lib/access";
 import { getTeamContext } from "@/lib/team-context";
 
-export async function generateMetadata({ params, searchParams }: { params: Promise<{ teamId: string; baselineId: string }>; searchParams: Promise<{ kind?: string }> }): Promise<Metadata> {
+// Metadata and page share one read per request.
+const loadBaseline = cache((id: string) => getBaseline(db, id));
+
+export async function generateMetadata({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ teamId: string; baselineId: string }>;
+  searchParams: Promise<{ kind?: string }>;
+}): Promise<Metadata> {
   const { teamId, baselineId } = await params;
   const what = (await searchParams).kind === "histograms" ? "Import length histograms" : "Import wire classes";
   await getTeamContext(teamId);
-  const b = await getBaseline(db, baselineId);
+  const b = await loadBaseline(baselineId);
   return { title: b && b.teamId === teamId ? `${what} · ${b.name}` : what };
 }
 
@@ -31,7 +41,7 @@ export default async function BaselineImportPage({
   const { teamId, baselineId } = await params;
   const { kind: kindParam } = await searchParams;
   const { role } = await getTeamContext(teamId);
-  const baseline = await getBaseline(db, baselineId);
+  const baseline = await loadBaseline(baselineId);
   if (!baseline || baseline.teamId !== teamId) notFound();
   const classes = await listClasses(db, baselineId);
   const kind = kindParam === "histograms" ? "histograms" : "classes";
@@ -61,15 +71,15 @@ export default async function BaselineImportPage({
       <p className="max-w-3xl text-sm text-muted">
         {kind === "histograms" ? (
           <>
-            Rows of <code className="font-mono text-xs text-ink">class, length_um, count</code>: one row per length bin, many per class. Each class
-            named must already be in this baseline ({classes.length ? classes.map((c) => c.name).join(", ") : "none yet"}). With histograms, delay
-            distributions, nets over the budget and repeater totals use the bins instead of the mean length.
+            Rows of <code className="font-mono text-xs text-ink">class, length_um, count</code>: one row per length bin, many per class. Each class named must
+            already be in this baseline ({classes.length ? classes.map((c) => c.name).join(", ") : "none yet"}). With histograms, delay distributions, nets over
+            the budget and repeater totals use the bins instead of the mean length.
           </>
         ) : (
           <>
             One row per wire class, with the unit in each column name (<code className="font-mono text-xs text-ink">width_nm</code>,{" "}
-            <code className="font-mono text-xs text-ink">mean_length_um</code>, …). After the file is checked you choose to replace the class
-            table or merge into it; this baseline has {classes.length} class{classes.length === 1 ? "" : "es"} now.
+            <code className="font-mono text-xs text-ink">mean_length_um</code>, …). After the file is checked you choose to replace the class table or merge
+            into it; this baseline has {classes.length} class{classes.length === 1 ? "" : "es"} now.
           </>
         )}
       </p>
@@ -96,7 +106,11 @@ export default async function BaselineImportPage({
         <a className="text-copper-dark underline" href={`/api/baselines/${baselineId}/histograms/export.csv`}>
           length histograms (CSV)
         </a>
-        . Formats: <Link className="text-copper-dark underline" href="/help/csv">CSV reference</Link>.
+        . Formats:{" "}
+        <Link className="text-copper-dark underline" href="/help/csv">
+          CSV reference
+        </Link>
+        .
       </p>
     </div>
   );

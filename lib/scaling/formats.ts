@@ -1,0 +1,330 @@
+/**
+ * Plateau's two CSV formats — wire classes and length histograms (ours; common practice, no source): their columns
+ * (unit, power of ten of the unit for the exact SI conversion, required, meaning), the header rules and the row
+ * validation, with one set of messages. Pure: no CSV parser and no I/O here; lib/import reads the files (web upload,
+ * browser preview, command line, demo seeder and tests all use that one reader) and hands header cells and rows to
+ * these functions.
+ */
+import { getMetal, METALS } from "./materials";
+import { TIERS, type LengthBin, type Tier, type WireClass } from "./types";
+import { parseScaled, type NumberCheck } from "./units";
+
+/** What accepted numbers of a column look like (checked on the SI value). */
+export interface NumberRule {
+  min: number;
+  /** true: the value must be > min; otherwise ≥ min. */
+  minExclusive?: boolean;
+  max?: number;
+  /** Message when the value is above max (default "must be ≤ max"). */
+  maxMessage?: string;
+  integer?: boolean;
+}
+
+export interface ColumnSpec {
+  /** Column name in the header (matched ignoring case, surrounding spaces, and spaces vs underscores). */
+  name: string;
+  /** Display unit the column's numbers are written in ("" for none). */
+  unit: string;
+  /** Power of ten of the unit: SI value = cell × 10^exp10, converted exactly (parseScaled); null for a text column. */
+  exp10: number | null;
+  /** Required columns must be in the header; optional ones may be left out or left empty. */
+  required: boolean;
+  description: string;
+  /** Accepted numbers (numeric columns only). */
+  rule?: NumberRule;
+}
+
+export interface CsvFormat {
+  /** Plural name used in messages: "Expected columns for wire classes: …". */
+  title: string;
+  columns: readonly ColumnSpec[];
+}
+
+/** One problem in a file: 1-based physical line (1 = header; null for the whole file), column, cell text and reason. */
+export interface FormatIssue {
+  line: number | null;
+  column: string | null;
+  value: string | null;
+  message: string;
+}
+
+const NM = -9;
+const UM = -6;
+
+/** Columns of the wire-class CSV, in the templates' order. Empty ild_below_nm / ild_above_nm = no plane on that side. */
+export const WIRE_CLASS_COLUMNS: readonly ColumnSpec[] = [
+  { name: "class", unit: "", exp10: null, required: true, description: "class name, unique in the file (ignoring case)" },
+  { name: "tier", unit: "", exp10: null, required: true, description: TIERS.join(" | ") },
+  { name: "width_nm", unit: "nm", exp10: NM, required: true, description: "line width", rule: { min: 0, minExclusive: true } },
+  { name: "thickness_nm", unit: "nm", exp10: NM, required: true, description: "line thickness", rule: { min: 0, minExclusive: true } },
+  {
+    name: "spacing_nm",
+    unit: "nm",
+    exp10: NM,
+    required: true,
+    description: "edge-to-edge spacing to each neighbour",
+    rule: { min: 0, minExclusive: true },
+  },
+  {
+    name: "ild_below_nm",
+    unit: "nm",
+    exp10: NM,
+    required: false,
+    description: "dielectric height to the plane below; empty = no plane",
+    rule: { min: 0, minExclusive: true },
+  },
+  {
+    name: "ild_above_nm",
+    unit: "nm",
+    exp10: NM,
+    required: false,
+    description: "dielectric height to the plane above; empty = no plane",
+    rule: { min: 0, minExclusive: true },
+  },
+  {
+    name: "barrier_nm",
+    unit: "nm",
+    exp10: NM,
+    required: true,
+    description: "barrier/liner thickness (sidewalls and bottom)",
+    rule: { min: 0 },
+  },
+  { name: "metal", unit: "", exp10: null, required: true, description: `metal id: ${Object.keys(METALS).join(", ")}` },
+  { name: "k", unit: "", exp10: 0, required: true, description: "relative permittivity, ≥ 1 (effective k for air gaps)", rule: { min: 1 } },
+  {
+    name: "net_count",
+    unit: "",
+    exp10: 0,
+    required: true,
+    description: "number of nets, whole number ≥ 0",
+    rule: { min: 0, integer: true },
+  },
+  { name: "mean_length_um", unit: "µm", exp10: UM, required: true, description: "mean net length", rule: { min: 0, minExclusive: true } },
+  { name: "driver_ohm", unit: "Ω", exp10: 0, required: true, description: "driver output resistance", rule: { min: 0 } },
+  { name: "load_ff", unit: "fF", exp10: -15, required: true, description: "load capacitance", rule: { min: 0 } },
+  { name: "activity", unit: "", exp10: 0, required: true, description: "transitions per clock cycle, 0 … 1", rule: { min: 0, max: 1 } },
+];
+
+/** Columns of the length-histogram CSV: one row per (class, length bin). */
+export const HISTOGRAM_COLUMNS: readonly ColumnSpec[] = [
+  {
+    name: "class",
+    unit: "",
+    exp10: null,
+    required: true,
+    description: "name of a wire class of the baseline (exactly as in the class table)",
+  },
+  { name: "length_um", unit: "µm", exp10: UM, required: true, description: "wire length of the bin", rule: { min: 0, minExclusive: true } },
+  {
+    name: "count",
+    unit: "",
+    exp10: 0,
+    required: true,
+    description: "number of nets in the bin, whole number ≥ 0",
+    rule: { min: 0, integer: true, max: Number.MAX_SAFE_INTEGER, maxMessage: "is too large" },
+  },
+];
+
+export const WIRE_CLASS_FORMAT: CsvFormat = { title: "wire classes", columns: WIRE_CLASS_COLUMNS };
+export const HISTOGRAM_FORMAT: CsvFormat = { title: "length histograms", columns: HISTOGRAM_COLUMNS };
+
+function column(columns: readonly ColumnSpec[], name: string): ColumnSpec {
+  const c = columns.find((x) => x.name === name);
+  if (!c) throw new Error(`no column ${name}`);
+  return c;
+}
+
+/** The histogram's numeric columns (for readers that check cells one by one). */
+export const HISTOGRAM_LENGTH_COLUMN = column(HISTOGRAM_COLUMNS, "length_um");
+export const HISTOGRAM_COUNT_COLUMN = column(HISTOGRAM_COLUMNS, "count");
+
+/** Normalised header cell: trimmed, lower case, inner spaces as underscores ("Length um" → "length_um"). */
+export function normaliseHeader(cell: string): string {
+  return cell.trim().toLowerCase().replace(/\s+/g, "_");
+}
+
+/**
+ * The header rules of both formats: columns by name in any order; an unknown, repeated or missing required column
+ * rejects the file with a message listing the expected columns. One empty cell after the last column (a trailing
+ * delimiter) is allowed.
+ * @param fields header cells as read (BOM removed)
+ * @returns the index of each column present in the file's rows, or the issue that rejects the file
+ */
+export function resolveHeader(fields: readonly string[], format: CsvFormat): { ok: true; index: Map<string, number> } | { ok: false; issue: FormatIssue } {
+  const columns = format.columns;
+  const expected = columns.map((c) => (c.required ? c.name : `${c.name} (optional)`)).join(", ");
+  const tail = `Expected columns for ${format.title}: ${expected}.`;
+  const known = new Set(columns.map((c) => c.name));
+  const index = new Map<string, number>();
+  const unknown: string[] = [];
+  for (let i = 0; i < fields.length; i++) {
+    const raw = fields[i]!;
+    const name = normaliseHeader(raw);
+    if (name === "" && i === fields.length - 1 && fields.length > 1) continue; // trailing delimiter
+    if (!known.has(name)) {
+      unknown.push(raw === "" ? `(empty, column ${i + 1})` : `"${raw}"`);
+      continue;
+    }
+    if (index.has(name)) return { ok: false, issue: { line: 1, column: name, value: raw, message: `Column "${name}" appears twice in the header. ${tail}` } };
+    index.set(name, i);
+  }
+  if (unknown.length > 0) {
+    const tabHint = fields.length === 1 && fields[0]!.includes("\t") ? " Columns must be separated by commas (or semicolons), not tabs." : "";
+    const list = unknown.join(", ");
+    return {
+      ok: false,
+      issue: { line: 1, column: null, value: list, message: `Unknown column${unknown.length > 1 ? "s" : ""} ${list}.${tabHint} ${tail}` },
+    };
+  }
+  const missing = columns.filter((c) => c.required && !index.has(c.name)).map((c) => c.name);
+  if (missing.length > 0) {
+    return {
+      ok: false,
+      issue: {
+        line: 1,
+        column: null,
+        value: null,
+        message: `Missing required column${missing.length > 1 ? "s" : ""} ${missing.join(", ")}. ${tail}`,
+      },
+    };
+  }
+  return { ok: true, index };
+}
+
+/**
+ * A numeric cell of `col`: exact SI value (parseScaled), then the column's rule. Reasons are phrases that follow the
+ * column name ("must be > 0", "is not a number: use a decimal point, not a comma").
+ */
+export function parseCell(col: ColumnSpec, text: string): NumberCheck {
+  const r = parseScaled(text, col.exp10 ?? 0);
+  const rule = col.rule;
+  if (!r.ok || !rule) return r;
+  const v = r.value;
+  if (rule.integer && !Number.isInteger(v)) return { ok: false, reason: "must be a whole number" };
+  if (rule.minExclusive ? !(v > rule.min) : !(v >= rule.min)) return { ok: false, reason: `must be ${rule.minExclusive ? ">" : "≥"} ${rule.min}` };
+  if (rule.max !== undefined && v > rule.max) return { ok: false, reason: rule.maxMessage ?? `must be ≤ ${rule.max}` };
+  return r;
+}
+
+const WC = new Map(WIRE_CLASS_COLUMNS.map((c) => [c.name, c]));
+
+/**
+ * Validates one wire-class record (keys = column names, values = cell text) and converts it to SI units exactly.
+ * Text cells are trimmed; tier and metal are matched ignoring case. Returns the class when the row is valid, and
+ * every problem found, each naming line, column, cell text and reason.
+ */
+export function validateWireClassRow(record: Readonly<Record<string, string>>, line: number): { wireClass: WireClass | null; errors: FormatIssue[] } {
+  const errors: FormatIssue[] = [];
+  const cell = (name: string) => record[name] ?? "";
+  const num = (name: string): number | null => {
+    const text = cell(name);
+    const col = WC.get(name)!;
+    if (!col.required && text.trim() === "") return null;
+    const r = parseCell(col, text);
+    if (r.ok) return r.value;
+    errors.push({ line, column: name, value: text, message: r.reason });
+    return null;
+  };
+  const name = cell("class").trim();
+  if (name === "") errors.push({ line, column: "class", value: cell("class"), message: "is required" });
+  const tierText = cell("tier").trim();
+  const tierLower = tierText.toLowerCase();
+  const tier = (TIERS as readonly string[]).includes(tierLower) ? (tierLower as Tier) : null;
+  if (!tier)
+    errors.push({
+      line,
+      column: "tier",
+      value: cell("tier"),
+      message: tierText === "" ? "is required" : `must be one of ${TIERS.join(", ")}`,
+    });
+  const width = num("width_nm");
+  const thickness = num("thickness_nm");
+  const spacing = num("spacing_nm");
+  const below = num("ild_below_nm");
+  const above = num("ild_above_nm");
+  if (cell("ild_below_nm").trim() === "" && cell("ild_above_nm").trim() === "") {
+    errors.push({
+      line,
+      column: "ild_below_nm",
+      value: "",
+      message: "is empty and so is ild_above_nm: a line needs at least one plane (below or above)",
+    });
+  }
+  const barrier = num("barrier_nm");
+  const metalText = cell("metal").trim();
+  let metal: string | null = null;
+  if (metalText === "") errors.push({ line, column: "metal", value: cell("metal"), message: "is required" });
+  else {
+    try {
+      metal = getMetal(metalText).id;
+    } catch {
+      errors.push({
+        line,
+        column: "metal",
+        value: metalText,
+        message: `must be one of ${Object.keys(METALS).join(", ")} (got "${metalText}")`,
+      });
+    }
+  }
+  const k = num("k");
+  const nets = num("net_count");
+  const mean = num("mean_length_um");
+  const driver = num("driver_ohm");
+  const load = num("load_ff");
+  const activity = num("activity");
+  if (width !== null && barrier !== null && thickness !== null && !(width - 2 * barrier > 0 && thickness - barrier > 0)) {
+    errors.push({ line, column: "barrier_nm", value: cell("barrier_nm"), message: "must be < width_nm/2 and < thickness_nm" });
+  }
+  if (
+    errors.length > 0 ||
+    tier === null ||
+    metal === null ||
+    width === null ||
+    thickness === null ||
+    spacing === null ||
+    barrier === null ||
+    k === null ||
+    nets === null ||
+    mean === null ||
+    driver === null ||
+    load === null ||
+    activity === null
+  ) {
+    return { wireClass: null, errors };
+  }
+  return {
+    wireClass: {
+      name,
+      tier,
+      widthM: width,
+      thicknessM: thickness,
+      spacingM: spacing,
+      ildBelowM: below,
+      ildAboveM: above,
+      barrierM: barrier,
+      metal,
+      k,
+      netCount: nets,
+      meanLengthM: mean,
+      driverOhm: driver,
+      loadF: load,
+      activity,
+    },
+    errors,
+  };
+}
+
+/** Validates one histogram row (class name as written, length and count cells): the bin in SI units, or every problem. */
+export function validateHistogramRow(
+  cells: { class: string; length_um: string; count: string },
+  line: number,
+): { className: string; bin: LengthBin | null; errors: FormatIssue[] } {
+  const errors: FormatIssue[] = [];
+  const className = cells.class.trim();
+  if (className === "") errors.push({ line, column: "class", value: cells.class, message: "is required" });
+  const len = parseCell(HISTOGRAM_LENGTH_COLUMN, cells.length_um);
+  if (!len.ok) errors.push({ line, column: "length_um", value: cells.length_um, message: len.reason });
+  const cnt = parseCell(HISTOGRAM_COUNT_COLUMN, cells.count);
+  if (!cnt.ok) errors.push({ line, column: "count", value: cells.count, message: cnt.reason });
+  return { className, bin: len.ok && cnt.ok && errors.length === 0 ? { lengthM: len.value, count: cnt.value } : null, errors };
+}
