@@ -7,6 +7,7 @@ import { Button, buttonClass } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { Notice } from "@/components/ui/card";
 import { TextField } from "@/components/ui/field";
+import { TableHead } from "@/components/ui/table";
 import { ApiRequestError, apiUpload, errorMessage, isAbortError } from "@/lib/api-client";
 import { csvLine } from "@/lib/csv-safe";
 import type { ImportIssue } from "@/lib/import/types";
@@ -77,14 +78,11 @@ function ErrorTable({ errors, total, fileName }: { errors: ImportIssue[]; total:
       </div>
       <div className="max-h-80 overflow-auto rounded border border-rule">
         <table className="num w-full text-sm">
-          <thead className="sticky top-0 bg-ground text-left text-xs text-muted">
-            <tr>
-              <th className="px-2 py-1.5 text-right font-medium">line</th>
-              <th className="px-2 py-1.5 font-medium">column</th>
-              <th className="px-2 py-1.5 font-medium">value</th>
-              <th className="px-2 py-1.5 font-medium">reason</th>
-            </tr>
-          </thead>
+          <TableHead
+            className="sticky top-0 bg-ground text-left text-xs text-muted"
+            cell="px-2 py-1.5"
+            columns={[{ label: "line", className: "text-right" }, "column", "value", "reason"]}
+          />
           <tbody>
             {errors.slice(0, MAX_SHOWN_ERRORS).map((e, i) => (
               <tr key={i} className="border-t border-rule">
@@ -159,24 +157,17 @@ function PreviewTables({ preview, kind }: { preview: Preview; kind: ImportKind }
             {kind === "histograms" ? "Per-class totals" : "Classes in the file"}
           </h3>
           <table className="num w-full max-w-2xl text-sm" data-testid="preview-totals">
-            <thead className="text-left text-xs text-muted">
-              <tr className="border-b border-rule">
-                <th className="py-1 pr-3 font-medium">class</th>
-                {kind === "histograms" ? (
-                  <>
-                    <th className="py-1 pr-3 text-right font-medium">bins</th>
-                    <th className="py-1 pr-3 text-right font-medium">nets</th>
-                    <th className="py-1 pr-3 text-right font-medium">shortest (µm)</th>
-                    <th className="py-1 text-right font-medium">longest (µm)</th>
-                  </>
-                ) : (
-                  <>
-                    <th className="py-1 pr-3 font-medium">tier</th>
-                    <th className="py-1 text-right font-medium">nets</th>
-                  </>
-                )}
-              </tr>
-            </thead>
+            <TableHead
+              className="text-left text-xs text-muted"
+              rowClassName="border-b border-rule"
+              cell="py-1 pr-3"
+              lastCell="py-1"
+              columns={
+                kind === "histograms"
+                  ? ["class", ...["bins", "nets", "shortest (µm)", "longest (µm)"].map((label) => ({ label, className: "text-right" }))]
+                  : ["class", "tier", { label: "nets", className: "text-right" }]
+              }
+            />
             <tbody>
               {preview.totals.map((t: ClassTotalRow) => (
                 <tr key={t.name} className="border-b border-rule/60">

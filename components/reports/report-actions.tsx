@@ -6,6 +6,8 @@ import useSWR from "swr";
 import { Button, buttonClass } from "@/components/ui/button";
 import { Badge, Notice } from "@/components/ui/card";
 import { FieldErrors, inputClass } from "@/components/ui/field";
+import { RevokeCell } from "@/components/ui/revoke-cell";
+import { TableHead } from "@/components/ui/table";
 import type { ReportVersion } from "@/db/queries/reports";
 import type { ShareLink } from "@/db/queries/share-links";
 import { ApiRequestError, apiSend, errorMessage, fetchJson } from "@/lib/api-client";
@@ -249,25 +251,12 @@ export function ReportActions({ teamId, reportId, canEdit, canDelete, versions, 
             {links.length > 0 ? (
               <table className="mt-2 w-full caption-bottom text-xs">
                 <caption className="pt-1 text-left text-[11px] text-faint">Times in UTC; hover for the full stamp.</caption>
-                <thead>
-                  <tr className="text-left text-muted">
-                    <th scope="col" className="py-1 pr-2 font-medium">
-                      Made
-                    </th>
-                    <th scope="col" className="py-1 pr-2 font-medium">
-                      Expires
-                    </th>
-                    <th scope="col" className="py-1 pr-2 font-medium">
-                      Last opened
-                    </th>
-                    <th scope="col" className="py-1 pr-2 font-medium">
-                      Status
-                    </th>
-                    <th scope="col" className="py-1 font-medium">
-                      <span className="sr-only">Action</span>
-                    </th>
-                  </tr>
-                </thead>
+                <TableHead
+                  rowClassName="text-left text-muted"
+                  cell="py-1 pr-2"
+                  lastCell="py-1"
+                  columns={["Made", "Expires", "Last opened", "Status", { label: "Action", srOnly: true }]}
+                />
                 <tbody>
                   {links.map((l) => (
                     <tr key={l.id} className="border-t border-rule/60 align-top">
@@ -282,13 +271,13 @@ export function ReportActions({ teamId, reportId, canEdit, canDelete, versions, 
                       <td className="py-1 pr-2">
                         <Badge tone={l.status === "active" ? "good" : l.status === "revoked" ? "bad" : "neutral"}>{l.status}</Badge>
                       </td>
-                      <td className="py-1 text-right">
-                        {l.status === "active" ? (
-                          <Button variant="ghost" onClick={() => revoke(l.id)} disabled={busy !== null} aria-label={`Revoke the link made ${fmt(l.createdAt)}`}>
-                            Revoke
-                          </Button>
-                        ) : null}
-                      </td>
+                      <RevokeCell
+                        className="py-1"
+                        live={l.status === "active"}
+                        onRevoke={() => revoke(l.id)}
+                        disabled={busy !== null}
+                        label={`Revoke the link made ${fmt(l.createdAt)}`}
+                      />
                     </tr>
                   ))}
                 </tbody>

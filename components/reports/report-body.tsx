@@ -1,5 +1,6 @@
 import type { ReactNode } from "react";
 import { Caution } from "@/components/caution";
+import { TableHead } from "@/components/ui/table";
 import { optionAssumptions, levelWords } from "@/lib/reports/assumptions";
 import { count, dateTime, eng, fixed, plain } from "@/lib/reports/format";
 import { materialSources, modelsUsed, validityFlags } from "@/lib/reports/models";
@@ -313,22 +314,12 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
 
       <Section id="models" title="Models, sources and accuracy">
         <table className="w-full border-collapse text-xs">
-          <thead>
-            <tr className="border-b border-rule-strong text-left text-muted">
-              <th scope="col" className="py-1 pr-2 font-medium">
-                Quantity
-              </th>
-              <th scope="col" className="w-[42%] py-1 pr-2 font-medium">
-                Model and published source
-              </th>
-              <th scope="col" className="py-1 pr-2 font-medium">
-                Stated accuracy
-              </th>
-              <th scope="col" className="py-1 font-medium">
-                Options
-              </th>
-            </tr>
-          </thead>
+          <TableHead
+            rowClassName="border-b border-rule-strong text-left text-muted"
+            cell="py-1 pr-2"
+            lastCell="py-1"
+            columns={["Quantity", { label: "Model and published source", className: "w-[42%]" }, "Stated accuracy", "Options"]}
+          />
           <tbody>
             {models.map((m) => (
               <tr key={`${m.quantity}${m.model}`} className="border-b border-rule/60 align-top">
@@ -397,33 +388,19 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
       <Section id="inputs" title="Baseline inputs">
         <div className="overflow-x-auto">
           <table className="num w-full border-collapse text-xs">
-            <thead>
-              <tr className="border-b border-rule-strong text-right text-muted">
-                <th scope="col" className="py-1 pr-2 text-left font-medium">
-                  Class
-                </th>
-                <th scope="col" className="py-1 pr-2 text-left font-medium">
-                  Tier
-                </th>
-                {["Width (nm)", "Thickness (nm)", "Spacing (nm)", "ILD below (nm)", "ILD above (nm)", "Barrier (nm)"].map((h) => (
-                  <th key={h} scope="col" className="px-1 py-1 font-medium">
-                    {h}
-                  </th>
-                ))}
-                <th scope="col" className="px-1 py-1 text-left font-medium">
-                  Metal
-                </th>
-                <th scope="col" className="px-1 py-1 font-medium">
-                  k
-                </th>
-                <th scope="col" className="px-1 py-1 font-medium">
-                  Nets
-                </th>
-                <th scope="col" className="px-1 py-1 font-medium">
-                  Mean length (µm)
-                </th>
-              </tr>
-            </thead>
+            <TableHead
+              rowClassName="border-b border-rule-strong text-right text-muted"
+              cell="px-1 py-1"
+              columns={[
+                { label: "Class", cell: "py-1 pr-2", className: "text-left" },
+                { label: "Tier", cell: "py-1 pr-2", className: "text-left" },
+                ...["Width (nm)", "Thickness (nm)", "Spacing (nm)", "ILD below (nm)", "ILD above (nm)", "Barrier (nm)"],
+                { label: "Metal", className: "text-left" },
+                "k",
+                "Nets",
+                "Mean length (µm)",
+              ]}
+            />
             <tbody>
               {f.baseline.classes.map((c) => (
                 <tr key={c.name} className="border-b border-rule/60 text-right tabular">

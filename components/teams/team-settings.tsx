@@ -1,10 +1,12 @@
 "use client";
 import { useRouter } from "next/navigation";
-import { useState, type FormEvent } from "react";
+import { useState, type FormEvent, type ReactNode } from "react";
 import useSWR, { SWRConfig } from "swr";
 import { Badge, Card, Notice } from "@/components/ui/card";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Button, buttonClass } from "@/components/ui/button";
+import { RevokeCell } from "@/components/ui/revoke-cell";
+import { TableHead } from "@/components/ui/table";
 import type { Member } from "@/db/queries/teams";
 import type { Role } from "@/lib/access";
 import type { publicInvite } from "@/lib/invites";
@@ -82,6 +84,22 @@ function RenameTeam({ teamId, teamName }: { teamId: string; teamName: string }) 
   );
 }
 
+/** The members' and the invites' tables: same header look, a hidden caption, an actions column last. */
+function TeamTable({ caption, columns, className = "", children }: { caption: string; columns: string[]; className?: string; children: ReactNode }) {
+  return (
+    <table className={`${className} w-full text-sm`.trim()}>
+      <caption className="sr-only">{caption}</caption>
+      <TableHead
+        rowClassName="border-b border-rule text-left text-xs uppercase tracking-wide text-muted"
+        cell="py-1.5 pr-3"
+        lastCell="py-1.5"
+        columns={[...columns, { label: "Actions", srOnly: true }]}
+      />
+      <tbody className="divide-y divide-rule">{children}</tbody>
+    </table>
+  );
+}
+
 function Members({ teamId, isOwner, userId }: { teamId: string; isOwner: boolean; userId: string }) {
   const router = useRouter();
   const key = swrKeys.teamMembers(teamId);
@@ -122,67 +140,45 @@ function Members({ teamId, isOwner, userId }: { teamId: string; isOwner: boolean
           <Notice tone="bad">{error}</Notice>
         </div>
       ) : null}
-      <table className="w-full text-sm">
-        <caption className="sr-only">Team members and their roles</caption>
-        <thead>
-          <tr className="border-b border-rule text-left text-xs uppercase tracking-wide text-muted">
-            <th scope="col" className="py-1.5 pr-3 font-medium">
-              Name
-            </th>
-            <th scope="col" className="py-1.5 pr-3 font-medium">
-              E-mail
-            </th>
-            <th scope="col" className="py-1.5 pr-3 font-medium">
-              Role
-            </th>
-            <th scope="col" className="py-1.5 pr-3 font-medium">
-              Joined
-            </th>
-            <th scope="col" className="py-1.5 font-medium">
-              <span className="sr-only">Actions</span>
-            </th>
+      <TeamTable caption="Team members and their roles" columns={["Name", "E-mail", "Role", "Joined"]}>
+        {members.map((m) => (
+          <tr key={m.userId}>
+            <td className="py-1.5 pr-3 font-medium text-ink">
+              {m.name}
+              {m.userId === userId ? <span className="ml-1 text-xs text-muted">(you)</span> : null}
+            </td>
+            <td className="py-1.5 pr-3 text-muted">{m.email}</td>
+            <td className="py-1.5 pr-3">
+              {isOwner ? (
+                <select
+                  aria-label={`Role of ${m.name}`}
+                  value={m.role}
+                  onChange={(e) => changeRole(m, e.target.value as Role)}
+                  className="rounded-md border border-rule-strong bg-panel px-2 py-1 text-sm"
+                >
+                  <option value="owner">owner</option>
+                  <option value="editor">editor</option>
+                  <option value="viewer">viewer</option>
+                </select>
+              ) : (
+                <Badge tone={m.role === "owner" ? "copper" : "neutral"}>{m.role}</Badge>
+              )}
+            </td>
+            <td className="py-1.5 pr-3 text-muted tabular">{dateFmt.format(new Date(m.joinedAt))}</td>
+            <td className="py-1.5 text-right">
+              {m.userId === userId ? (
+                <Button variant="ghost" onClick={() => remove(m)}>
+                  Leave team
+                </Button>
+              ) : isOwner ? (
+                <Button variant="danger" onClick={() => remove(m)} aria-label={`Remove ${m.name}`}>
+                  Remove
+                </Button>
+              ) : null}
+            </td>
           </tr>
-        </thead>
-        <tbody className="divide-y divide-rule">
-          {members.map((m) => (
-            <tr key={m.userId}>
-              <td className="py-1.5 pr-3 font-medium text-ink">
-                {m.name}
-                {m.userId === userId ? <span className="ml-1 text-xs text-muted">(you)</span> : null}
-              </td>
-              <td className="py-1.5 pr-3 text-muted">{m.email}</td>
-              <td className="py-1.5 pr-3">
-                {isOwner ? (
-                  <select
-                    aria-label={`Role of ${m.name}`}
-                    value={m.role}
-                    onChange={(e) => changeRole(m, e.target.value as Role)}
-                    className="rounded-md border border-rule-strong bg-panel px-2 py-1 text-sm"
-                  >
-                    <option value="owner">owner</option>
-                    <option value="editor">editor</option>
-                    <option value="viewer">viewer</option>
-                  </select>
-                ) : (
-                  <Badge tone={m.role === "owner" ? "copper" : "neutral"}>{m.role}</Badge>
-                )}
-              </td>
-              <td className="py-1.5 pr-3 text-muted tabular">{dateFmt.format(new Date(m.joinedAt))}</td>
-              <td className="py-1.5 text-right">
-                {m.userId === userId ? (
-                  <Button variant="ghost" onClick={() => remove(m)}>
-                    Leave team
-                  </Button>
-                ) : isOwner ? (
-                  <Button variant="danger" onClick={() => remove(m)} aria-label={`Remove ${m.name}`}>
-                    Remove
-                  </Button>
-                ) : null}
-              </td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
+        ))}
+      </TeamTable>
       <dl className="mt-4 grid gap-1 text-xs text-muted sm:grid-cols-3">
         {(Object.keys(ROLE_HELP) as Role[]).map((r) => (
           <div key={r}>
@@ -258,47 +254,19 @@ function Invites({ teamId }: { teamId: string }) {
         </div>
       ) : null}
       {invites.length ? (
-        <table className="mt-4 w-full text-sm">
-          <caption className="sr-only">Invites sent from this team</caption>
-          <thead>
-            <tr className="border-b border-rule text-left text-xs uppercase tracking-wide text-muted">
-              <th scope="col" className="py-1.5 pr-3 font-medium">
-                E-mail
-              </th>
-              <th scope="col" className="py-1.5 pr-3 font-medium">
-                Role
-              </th>
-              <th scope="col" className="py-1.5 pr-3 font-medium">
-                Status
-              </th>
-              <th scope="col" className="py-1.5 pr-3 font-medium">
-                Expires
-              </th>
-              <th scope="col" className="py-1.5 font-medium">
-                <span className="sr-only">Actions</span>
-              </th>
+        <TeamTable className="mt-4" caption="Invites sent from this team" columns={["E-mail", "Role", "Status", "Expires"]}>
+          {invites.map((i) => (
+            <tr key={i.id}>
+              <td className="py-1.5 pr-3">{i.email}</td>
+              <td className="py-1.5 pr-3">{i.role}</td>
+              <td className="py-1.5 pr-3">
+                <Badge tone={i.status === "pending" ? "copper" : i.status === "accepted" ? "good" : "neutral"}>{i.status}</Badge>
+              </td>
+              <td className="py-1.5 pr-3 text-muted tabular">{dateFmt.format(new Date(i.expiresAt))}</td>
+              <RevokeCell className="py-1.5" live={i.status === "pending"} onRevoke={() => revoke(i)} label={`Revoke invite to ${i.email}`} />
             </tr>
-          </thead>
-          <tbody className="divide-y divide-rule">
-            {invites.map((i) => (
-              <tr key={i.id}>
-                <td className="py-1.5 pr-3">{i.email}</td>
-                <td className="py-1.5 pr-3">{i.role}</td>
-                <td className="py-1.5 pr-3">
-                  <Badge tone={i.status === "pending" ? "copper" : i.status === "accepted" ? "good" : "neutral"}>{i.status}</Badge>
-                </td>
-                <td className="py-1.5 pr-3 text-muted tabular">{dateFmt.format(new Date(i.expiresAt))}</td>
-                <td className="py-1.5 text-right">
-                  {i.status === "pending" ? (
-                    <Button variant="ghost" onClick={() => revoke(i)} aria-label={`Revoke invite to ${i.email}`}>
-                      Revoke
-                    </Button>
-                  ) : null}
-                </td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
+          ))}
+        </TeamTable>
       ) : null}
     </Card>
   );

@@ -1,32 +1,10 @@
-import type {
-  FieldSolveInput,
-  FieldSolveResult,
-  ModelLevel,
-  ScenarioSettings,
-  SweepCurve,
-  SweepMetric,
-  SweepVariable,
-  Technology,
-  WireClass,
-} from "@/lib/scaling";
+import type { FieldSolveInput, FieldSolveResult, SweepCurve, sweep } from "@/lib/scaling";
 
-export interface SweepArgs {
-  classes: WireClass[];
-  technology: Technology;
-  settings: ScenarioSettings;
-  variable: SweepVariable;
-  metric: SweepMetric;
-  from: number;
-  to: number;
-  points: number;
-  levels?: ModelLevel[];
-  spacing?: "linear" | "log";
-  classNames?: string[];
-  /** S sweeps: S_L follows S, is fixed at 1, or is the scenario's (see lib/scaling/sweep.ts). */
-  lengthMode?: "scenario" | "follow" | "fixed";
+/** What the worker sweeps: the engine's `sweep` input, plus one x to compute every curve at. */
+export type SweepArgs = Parameters<typeof sweep>[0] & {
   /** Also compute every curve at this one x (e.g. S = 1, the reference of relative curves). */
   referenceX?: number;
-}
+};
 
 export type FieldArgs = Omit<FieldSolveInput, "onProgress">;
 

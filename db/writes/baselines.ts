@@ -97,7 +97,8 @@ async function writeRevision(trx: Knex.Transaction, baselineId: string, version:
   await trx("baseline_revisions").insert({ baseline_id: baselineId, version, user_id: userId, at: Date.now(), summary, snapshot });
 }
 
-function classRow(baselineId: string, position: number, c: NewWireClass) {
+/** A wire class as its `wire_classes` row (without the id); exported for tests that insert rows directly. */
+export function classRow(baselineId: string, position: number, c: NewWireClass) {
   return {
     baseline_id: baselineId,
     position,

@@ -4,8 +4,8 @@ import { listClasses } from "@/db/queries/wire-classes";
 import { createBaselineFromImport, importWireClasses } from "@/db/writes/baselines";
 import type { Technology } from "@/lib/scaling";
 import { MAX_CLASSES } from "@/lib/validation/wire-class";
-import type { ImportMode } from "@/lib/validation/import";
 import { InvalidCsvError } from "./errors";
+import type { BaselineImportRequest } from "./types";
 import { MAX_IMPORT_BYTES } from "./limits";
 import { parseWireClassStream, type ImportedClass } from "./wire-classes";
 
@@ -22,18 +22,7 @@ export type NewBaselineImportResult = Awaited<ReturnType<typeof runNewBaselineIm
  * Classes import into an existing baseline: validate (an invalid file throws InvalidCsvError and
  * nothing is stored), then, unless it is a dry run, one transaction (db/writes/baselines.ts).
  */
-export async function runWireClassImport(
-  db: Knex,
-  p: {
-    baselineId: string;
-    teamId: string;
-    userId: string;
-    mode: ImportMode;
-    dryRun: boolean;
-    source: AsyncIterable<Uint8Array>;
-    maxBytes?: number;
-  },
-) {
+export async function runWireClassImport(db: Knex, p: BaselineImportRequest) {
   const parsed = await parseWireClassStream(p.source, { maxBytes: p.maxBytes ?? MAX_IMPORT_BYTES });
   if (!parsed.ok) throw new InvalidCsvError(parsed.errors, parsed.errorCount, parsed.rows);
   const existing = await listClasses(db, p.baselineId);

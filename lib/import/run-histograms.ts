@@ -2,8 +2,8 @@ import "server-only";
 import type { Knex } from "knex";
 import { listClasses } from "@/db/queries/wire-classes";
 import { importHistograms } from "@/db/writes/baselines";
-import type { ImportMode } from "@/lib/validation/import";
 import { InvalidCsvError } from "./errors";
+import type { BaselineImportRequest } from "./types";
 import { HistogramAccumulator } from "./histogram-accumulator";
 import { parseHistogramCsv } from "./histograms";
 import { MAX_IMPORT_BYTES } from "./limits";
@@ -19,18 +19,7 @@ export type HistogramImportResult = Awaited<ReturnType<typeof runHistogramImport
  * while the client uploads: a request killed mid-upload stores nothing), then, unless it is a dry
  * run, store one row per class in one short transaction. An invalid file throws InvalidCsvError.
  */
-export async function runHistogramImport(
-  db: Knex,
-  p: {
-    baselineId: string;
-    teamId: string;
-    userId: string;
-    mode: ImportMode;
-    dryRun: boolean;
-    source: AsyncIterable<Uint8Array>;
-    maxBytes?: number;
-  },
-) {
+export async function runHistogramImport(db: Knex, p: BaselineImportRequest) {
   const classes = await listClasses(db, p.baselineId);
   const names = classes.map((c) => c.name);
   const acc = new HistogramAccumulator(names.length);

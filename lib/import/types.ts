@@ -29,3 +29,14 @@ export class IssueList {
     return this.total === 0;
   }
 }
+
+/** One CSV import into an existing baseline, as its route hands it to lib/import (run-classes.ts, run-histograms.ts). */
+export type BaselineImportRequest = {
+  baselineId: string;
+  teamId: string;
+  userId: string;
+  mode: ImportMode;
+  dryRun: boolean;
+  source: AsyncIterable<Uint8Array>;
+  maxBytes?: number;
+};

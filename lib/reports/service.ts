@@ -6,6 +6,7 @@ import { getReport, loadReportSources, type StoredReport } from "@/db/queries/re
 import { storeReport } from "@/db/writes/reports";
 import type { ScenarioSettings, Technology } from "@/lib/scaling";
 import { frozenReportSchema, settingsSnapshotSchema, technologySnapshotSchema, type ComposeReport, type FrozenReport } from "@/lib/validation/report";
+import { defaultScenarioSettings } from "@/lib/workspace/settings";
 import { freezeReport, UnknownClassError, type FreezeInput } from "./freeze";
 
 /**
@@ -17,20 +18,7 @@ import { freezeReport, UnknownClassError, type FreezeInput } from "./freeze";
 /** Scenario settings as stored, with the workspace's defaults for fields an older row may lack. */
 export function settingsFromStored(raw: unknown, technology: Technology): ScenarioSettings {
   const stored = (raw ?? {}) as Record<string, unknown>;
-  const merged = {
-    s: 1,
-    sL: 1,
-    level: "full",
-    barrierScales: false,
-    miller: 1,
-    deviceRFactor: 1,
-    deviceCFactor: 1,
-    supplyV: technology.supplyV,
-    k: null,
-    metal: null,
-    overrides: {},
-    ...Object.fromEntries(Object.entries(stored).filter(([, v]) => v !== undefined)),
-  };
+  const merged = { ...defaultScenarioSettings(technology), ...Object.fromEntries(Object.entries(stored).filter(([, v]) => v !== undefined)) };
   return settingsSnapshotSchema.parse(merged) as ScenarioSettings;
 }
 

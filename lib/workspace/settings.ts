@@ -1,21 +1,9 @@
 import type { ClassOverride, ScenarioSettings, Technology } from "@/lib/scaling";
-import type { ScenarioSettingsInput } from "@/lib/validation/scenario";
+import { scenarioSettingsSchema, type ScenarioSettingsInput } from "@/lib/validation/scenario";
 
-/** Settings of a new scenario: nothing scaled yet, full model, the baseline's supply. */
+/** Settings of a new scenario: the schema's defaults (nothing scaled yet, full model) and the baseline's supply. */
 export function defaultScenarioSettings(tech: Technology): ScenarioSettings {
-  return {
-    s: 1,
-    sL: 1,
-    level: "full",
-    barrierScales: false,
-    miller: 1,
-    deviceRFactor: 1,
-    deviceCFactor: 1,
-    supplyV: tech.supplyV,
-    k: null,
-    metal: null,
-    overrides: {},
-  };
+  return normalizeSettings(scenarioSettingsSchema.parse({}), tech);
 }
 
 /** Validated input → complete ScenarioSettings (supply defaults to the technology's); empty overrides are dropped. */

@@ -1,7 +1,19 @@
-import http from "node:http";
 import { describe, expect, it } from "vitest";
 import { Client, userWithTeam } from "../helpers/http";
-import { dbState, HEADER, memberClient, ownerWithBaseline, postCsv, ROW_GLOBAL, ROW_LOCAL, sql, TEMPLATE_CLASSES } from "./import-helpers";
+import {
+  type BadCsvCase,
+  dbState,
+  expectFirstIssue,
+  HEADER,
+  memberClient,
+  ownerWithBaseline,
+  postCsv,
+  rawCsvPost,
+  ROW_GLOBAL,
+  ROW_LOCAL,
+  sql,
+  TEMPLATE_CLASSES,
+} from "./import-helpers";
 
 const enc = new TextEncoder();
 
@@ -97,7 +109,7 @@ describe("POST /api/baselines/[id]/import (wire classes)", () => {
     expect(m.json.added).toEqual(["from-form"]);
   });
 
-  const bad: [string, string | Uint8Array, { line: number | null; column: string | null; value?: string | null; message: RegExp | string }][] = [
+  const bad: BadCsvCase[] = [
     [
       "an unknown column",
       `${HEADER},colour\n${ROW_LOCAL},red\n`,
@@ -166,12 +178,7 @@ describe("POST /api/baselines/[id]/import (wire classes)", () => {
     expect(r.status).toBe(400);
     expect(r.json.error.code).toBe("invalid_csv");
     expect(r.json.error.message).toMatch(/Nothing was stored\.$/);
-    const first = r.json.error.errors[0];
-    expect(first.line).toBe(expected.line);
-    expect(first.column).toBe(expected.column);
-    if (expected.value !== undefined) expect(first.value).toBe(expected.value);
-    if (typeof expected.message === "string") expect(first.message).toBe(expected.message);
-    else expect(first.message).toMatch(expected.message);
+    expectFirstIssue(r.json.error.errors[0], expected);
     expect(dbState()).toEqual(before);
   });
 
@@ -186,25 +193,15 @@ describe("POST /api/baselines/[id]/import (wire classes)", () => {
     const send = (headers: Record<string, string>, totalBytes: number) =>
       new Promise<{ status: number; body: string }>((resolve, reject) => {
         let answered = false;
-        const req = http.request(
-          {
-            host: url.hostname,
-            port: url.port,
-            path: url.pathname + url.search,
-            method: "POST",
-            agent: false,
-            headers: { "content-type": "text/csv", cookie: o.client.cookie, origin: o.client.baseUrl, ...headers },
-          },
-          (res) => {
-            answered = true;
-            let body = "";
-            res.on("data", (d) => (body += d));
-            res.on("end", () => {
-              resolve({ status: res.statusCode ?? 0, body });
-              req.destroy();
-            });
-          },
-        );
+        const req = rawCsvPost(o.client, url, headers, (res) => {
+          answered = true;
+          let body = "";
+          res.on("data", (d) => (body += d));
+          res.on("end", () => {
+            resolve({ status: res.statusCode ?? 0, body });
+            req.destroy();
+          });
+        });
         req.on("error", (e) => {
           if (!answered) reject(e);
         });

@@ -1,7 +1,8 @@
 import { createHash } from "node:crypto";
 import fs from "node:fs";
+import http from "node:http";
 import Database from "better-sqlite3";
-import { inject } from "vitest";
+import { expect, inject } from "vitest";
 import { type Client, signedUpClient, userWithTeam } from "../helpers/http";
 
 export const TEMPLATE_CLASSES = fs.readFileSync("public/templates/wire-classes-template.csv", "utf8");
@@ -69,4 +70,34 @@ export async function memberClient(teamId: string, role: "editor" | "viewer") {
   const m = await signedUpClient();
   addMember(teamId, m.userId, role);
   return m.client;
+}
+
+/** What a bad-file case expects of the first listed issue (`value` only when given; `message` exact or a pattern). */
+export type ExpectedIssue = { line: number | null; column: string | null; value?: string | null; message: RegExp | string };
+
+/** A bad-file case: its name, the body to upload and the first issue the answer must list. */
+export type BadCsvCase = [string, string | Uint8Array, ExpectedIssue];
+
+/** Checks the first issue of a 400 `invalid_csv` answer against the expected line, column, value and reason. */
+export function expectFirstIssue(first: { line: number | null; column: string | null; value: unknown; message: string }, expected: ExpectedIssue) {
+  expect(first.line).toBe(expected.line);
+  expect(first.column).toBe(expected.column);
+  if (expected.value !== undefined) expect(first.value).toBe(expected.value);
+  if (typeof expected.message === "string") expect(first.message).toBe(expected.message);
+  else expect(first.message).toMatch(expected.message);
+}
+
+/** A raw POST of CSV to `url` as `c` over node:http (not fetch), so a test controls how and when the body is written. */
+export function rawCsvPost(c: Client, url: URL, headers: Record<string, string>, onResponse?: (res: http.IncomingMessage) => void): http.ClientRequest {
+  return http.request(
+    {
+      host: url.hostname,
+      port: url.port,
+      path: url.pathname + url.search,
+      method: "POST",
+      agent: false,
+      headers: { "content-type": "text/csv", cookie: c.cookie, origin: c.baseUrl, ...headers },
+    },
+    onResponse,
+  );
 }

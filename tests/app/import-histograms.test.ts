@@ -1,10 +1,9 @@
 import fs from "node:fs";
-import http from "node:http";
 import os from "node:os";
 import { describe, expect, it } from "vitest";
 import { Client, userWithTeam } from "../helpers/http";
 import { decodeHistogram } from "@/db/histogram-blob";
-import { dbState, memberClient, ownerWithBaseline, postCsv, sql, TEMPLATE_HISTOGRAMS } from "./import-helpers";
+import { type BadCsvCase, dbState, expectFirstIssue, rawCsvPost, memberClient, ownerWithBaseline, postCsv, sql, TEMPLATE_HISTOGRAMS } from "./import-helpers";
 
 const H = "class,length_um,count";
 
@@ -110,7 +109,7 @@ describe("POST /api/baselines/[id]/histograms", () => {
     expect((await postCsv(editor, url, TEMPLATE_HISTOGRAMS)).status).toBe(200);
   });
 
-  const bad: [string, string | Uint8Array, { line: number | null; column: string | null; value?: string; message: string | RegExp }][] = [
+  const bad: BadCsvCase[] = [
     [
       "an unknown class",
       `${H}\nlocal,1,2\nM42,1,2\n`,
@@ -155,12 +154,7 @@ describe("POST /api/baselines/[id]/histograms", () => {
     const before = dbState();
     const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace`, body);
     expect(r.status).toBe(400);
-    const first = r.json.error.errors[0];
-    expect(first.line).toBe(exp.line);
-    expect(first.column).toBe(exp.column);
-    if (exp.value !== undefined) expect(first.value).toBe(exp.value);
-    if (typeof exp.message === "string") expect(first.message).toBe(exp.message);
-    else expect(first.message).toMatch(exp.message);
+    expectFirstIssue(r.json.error.errors[0], exp);
     expect(dbState()).toEqual(before);
   });
 
@@ -196,17 +190,7 @@ describe("POST /api/baselines/[id]/histograms", () => {
     for (let i = 1; i <= 2000; i++) line += `local,${i},${i}\n`;
     const chunk = Buffer.from(line); // ~25 kB per write
     await new Promise<void>((resolve) => {
-      const req = http.request(
-        {
-          host: url.hostname,
-          port: url.port,
-          path: url.pathname + url.search,
-          method: "POST",
-          agent: false,
-          headers: { "content-type": "text/csv", "transfer-encoding": "chunked", cookie: o.client.cookie, origin: o.client.baseUrl },
-        },
-        () => resolve(),
-      );
+      const req = rawCsvPost(o.client, url, { "transfer-encoding": "chunked" }, () => resolve());
       req.on("error", () => resolve());
       req.write(`${H}\n`);
       let n = 0;

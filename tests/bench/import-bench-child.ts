@@ -13,6 +13,7 @@ import { HistogramAccumulator } from "@/lib/import/histogram-accumulator";
 import { parseHistogramCsv } from "@/lib/import/histograms";
 import { MAX_IMPORT_BYTES } from "@/lib/import/limits";
 import { nodeUtf8Decoder } from "@/lib/import/node-utf8";
+import { wireClass } from "../helpers/temp-db";
 
 const [csvPath, dbPath, classList] = process.argv.slice(2) as [string, string, string];
 const names = classList.split(",");
@@ -27,23 +28,7 @@ const baselineId = await createBaseline(db, {
   baseline: {
     name: "Bench",
     technology: { ...DEFAULT_TECHNOLOGY },
-    classes: names.map((name) => ({
-      name,
-      tier: "local",
-      widthM: 2.4e-8,
-      thicknessM: 4.8e-8,
-      spacingM: 2.4e-8,
-      ildBelowM: 3e-8,
-      ildAboveM: 3e-8,
-      barrierM: 2e-9,
-      metal: "Cu",
-      k: 2.7,
-      netCount: 1000,
-      meanLengthM: 4e-6,
-      driverOhm: 8000,
-      loadF: 4e-16,
-      activity: 0.15,
-    })),
+    classes: names.map((name) => wireClass(name)),
   },
 });
 const t0 = performance.now();

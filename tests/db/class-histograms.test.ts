@@ -10,7 +10,8 @@ import { decodeHistogram } from "@/db/histogram-blob";
 import { ImportConflictError } from "@/db/errors";
 import { classHistogram, histogramsByClass } from "@/db/queries/import";
 import { listClasses, listClassesWithHistograms } from "@/db/queries/wire-classes";
-import { duplicateBaseline, importHistograms } from "@/db/writes/baselines";
+import { classRow, duplicateBaseline, importHistograms } from "@/db/writes/baselines";
+import { wireClass } from "../helpers/temp-db";
 
 let dir: string;
 let db: Knex;
@@ -37,26 +38,7 @@ async function baseline(): Promise<{ id: string; classIds: string[] }> {
   for (const [position, name] of NAMES.entries()) {
     const cid = randomUUID();
     classIds.push(cid);
-    await db("wire_classes").insert({
-      id: cid,
-      baseline_id: id,
-      position,
-      name,
-      tier: "local",
-      width_m: 2.4e-8,
-      thickness_m: 4.8e-8,
-      spacing_m: 2.4e-8,
-      ild_below_m: 3e-8,
-      ild_above_m: 3e-8,
-      barrier_m: 2e-9,
-      metal: "Cu",
-      k: 2.7,
-      net_count: 10,
-      mean_length_m: 4e-6,
-      driver_ohm: 8000,
-      load_f: 4e-16,
-      activity: 0.15,
-    });
+    await db("wire_classes").insert({ id: cid, ...classRow(id, position, wireClass(name, { netCount: 10 })) });
   }
   return { id, classIds };
 }

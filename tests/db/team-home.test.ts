@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Knex } from "knex";
-import { tempDb } from "../helpers/temp-db";
+import { classRow } from "@/db/writes/baselines";
+import { tempDb, wireClass } from "../helpers/temp-db";
 import { getTeamHome } from "@/db/queries/home";
 
 // getTeamHome answers the team home in one statement (counts + three "recent" lists as JSON); these rows are
@@ -38,26 +39,7 @@ beforeAll(async () => {
   // classes: baseline i of team t has i classes
   for (let i = 0; i < 10; i++) {
     for (let c = 0; c < i; c++) {
-      await db("wire_classes").insert({
-        id: `t-b${i}-c${c}`,
-        baseline_id: `t-b${i}`,
-        position: c,
-        name: `c${c}`,
-        tier: "local",
-        width_m: 2e-8,
-        thickness_m: 4e-8,
-        spacing_m: 2e-8,
-        ild_below_m: 3e-8,
-        ild_above_m: 3e-8,
-        barrier_m: 2e-9,
-        metal: "Cu",
-        k: 2.7,
-        net_count: 10,
-        mean_length_m: 4e-6,
-        driver_ohm: 8000,
-        load_f: 4e-16,
-        activity: 0.15,
-      });
+      await db("wire_classes").insert({ id: `t-b${i}-c${c}`, ...classRow(`t-b${i}`, c, wireClass(`c${c}`, { netCount: 10 })) });
     }
   }
   const scenario = (team: string, i: number, baselineId: string) => ({

@@ -2,7 +2,8 @@ import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
-import { chromium, type Browser, type BrowserContext } from "playwright-core";
+import type { Browser, BrowserContext } from "playwright-core";
+import { launchBrowser, signedInContext } from "../helpers/browser";
 import { userWithTeam, type Client } from "../helpers/http";
 
 const SHOTS = process.env.PLATEAU_SHOTS_DIR ?? "/tmp/plateau-import-shots";
@@ -16,13 +17,8 @@ beforeAll(async () => {
   baseUrl = inject("baseUrl");
   fs.mkdirSync(SHOTS, { recursive: true });
   owner = await userWithTeam("Harrow Bay Silicon (import e2e)");
-  browser = await chromium.launch({
-    executablePath: "/usr/bin/chromium",
-    args: ["--headless", "--no-sandbox", "--disable-gpu", "--disable-background-networking", "--disable-component-update", "--disable-sync", "--no-first-run"],
-  });
-  ctx = await browser.newContext({ viewport: { width: 1360, height: 1000 } });
-  const [name, value] = owner.client.cookie.split("=");
-  await ctx.addCookies([{ name: name!, value: value!, url: baseUrl }]);
+  browser = await launchBrowser();
+  ctx = await signedInContext(browser, owner.client, baseUrl, { width: 1360, height: 1000 });
 });
 
 afterAll(async () => {

@@ -1,21 +1,13 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import Database from "better-sqlite3";
-import { chromium, type Browser, type Page } from "playwright-core";
+import type { Browser, Page } from "playwright-core";
+import { launchBrowser } from "../helpers/browser";
 
-const ARGS = [
-  "--headless",
-  "--no-sandbox",
-  "--disable-gpu",
-  "--disable-background-networking",
-  "--disable-component-update",
-  "--disable-sync",
-  "--no-first-run",
-];
 const PASSWORD = "lamina copper trench 9";
 
 let browser: Browser;
 beforeAll(async () => {
-  browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH || "/usr/bin/chromium", args: ARGS });
+  browser = await launchBrowser();
 });
 afterAll(async () => {
   await browser?.close();

@@ -1,22 +1,13 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
-import { chromium, type Browser } from "playwright-core";
+import type { Browser } from "playwright-core";
+import { launchBrowser } from "../helpers/browser";
 import { openDatabase } from "@/db/connect";
 import { seedDemoWorkspace } from "@/lib/demo/seed-workspace";
 import { userWithTeam } from "../helpers/http";
 
-const ARGS = [
-  "--headless",
-  "--no-sandbox",
-  "--disable-gpu",
-  "--disable-background-networking",
-  "--disable-component-update",
-  "--disable-sync",
-  "--no-first-run",
-];
-
 let browser: Browser;
 beforeAll(async () => {
-  browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH || "/usr/bin/chromium", args: ARGS });
+  browser = await launchBrowser();
 });
 afterAll(async () => {
   await browser?.close();

@@ -1,7 +1,8 @@
 import fs from "node:fs";
 import zlib from "node:zlib";
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
-import { chromium, type Browser, type BrowserContext, type Page } from "playwright-core";
+import type { Browser, BrowserContext, Page } from "playwright-core";
+import { launchBrowser, signedInContext } from "../helpers/browser";
 import Database from "better-sqlite3";
 import { openDatabase } from "@/db/connect";
 import { seedDemoWorkspace } from "@/lib/demo/seed-workspace";
@@ -23,11 +24,8 @@ function addMember(dbPath: string, team: string, userId: string, role: string) {
   db.close();
 }
 
-async function contextFor(c: Client): Promise<BrowserContext> {
-  const ctx = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
-  const [name, value] = c.cookie.split("=");
-  await ctx.addCookies([{ name: name!, value: value!, url: baseUrl }]);
-  return ctx;
+function contextFor(c: Client): Promise<BrowserContext> {
+  return signedInContext(browser, c, baseUrl, { width: 1440, height: 1000 });
 }
 
 async function waitForResults(page: Page) {
@@ -60,10 +58,7 @@ beforeAll(async () => {
   } finally {
     await knex.destroy();
   }
-  browser = await chromium.launch({
-    executablePath: "/usr/bin/chromium",
-    args: ["--headless", "--no-sandbox", "--disable-gpu", "--disable-background-networking", "--disable-component-update", "--disable-sync", "--no-first-run"],
-  });
+  browser = await launchBrowser();
 });
 
 afterAll(async () => {

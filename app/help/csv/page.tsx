@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import type { ReactNode } from "react";
+import { PanelTable } from "@/components/ui/table";
 import { MAX_IMPORT_BYTES, MAX_LISTED_ERRORS } from "@/lib/import/limits";
 import { HISTOGRAM_COLUMNS, METALS, WIRE_CLASS_COLUMNS } from "@/lib/scaling";
 import { MAX_CLASSES } from "@/lib/validation/wire-class";
@@ -53,32 +54,24 @@ function H2({ id, children }: { id: string; children: ReactNode }) {
 
 function ColumnTable({ rows }: { rows: { name: string; unit: string; required: boolean; description: string; limits?: string; example?: string }[] }) {
   return (
-    <div className="overflow-x-auto rounded-lg border border-rule bg-panel">
-      <table className="w-full text-sm">
-        <thead className="bg-ground text-left text-xs text-muted">
-          <tr>
-            <th className="px-3 py-2 font-medium">column</th>
-            <th className="px-3 py-2 font-medium">unit</th>
-            <th className="px-3 py-2 font-medium">required</th>
-            <th className="px-3 py-2 font-medium">meaning</th>
-            <th className="px-3 py-2 font-medium">accepted values</th>
-            <th className="px-3 py-2 text-right font-medium">example</th>
+    <PanelTable
+      tableClassName="w-full text-sm"
+      headClassName="bg-ground text-left text-xs text-muted"
+      columns={["column", "unit", "required", "meaning", "accepted values", { label: "example", className: "text-right" }]}
+    >
+      <tbody>
+        {rows.map((c) => (
+          <tr key={c.name} className="border-t border-rule align-top">
+            <td className="px-3 py-1.5 font-mono text-xs">{c.name}</td>
+            <td className="px-3 py-1.5">{c.unit || "—"}</td>
+            <td className="px-3 py-1.5">{c.required ? "yes" : "no (may be empty)"}</td>
+            <td className="px-3 py-1.5">{c.description}</td>
+            <td className="px-3 py-1.5 text-muted">{c.limits ?? ""}</td>
+            <td className="px-3 py-1.5 text-right font-mono text-xs tabular">{c.example ?? ""}</td>
           </tr>
-        </thead>
-        <tbody>
-          {rows.map((c) => (
-            <tr key={c.name} className="border-t border-rule align-top">
-              <td className="px-3 py-1.5 font-mono text-xs">{c.name}</td>
-              <td className="px-3 py-1.5">{c.unit || "—"}</td>
-              <td className="px-3 py-1.5">{c.required ? "yes" : "no (may be empty)"}</td>
-              <td className="px-3 py-1.5">{c.description}</td>
-              <td className="px-3 py-1.5 text-muted">{c.limits ?? ""}</td>
-              <td className="px-3 py-1.5 text-right font-mono text-xs tabular">{c.example ?? ""}</td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
+        ))}
+      </tbody>
+    </PanelTable>
   );
 }
 
@@ -210,30 +203,30 @@ export default function CsvHelpPage() {
         The <code>metal</code> column takes one of these ids (or the metal&apos;s name). Values as used by the engine, with their sources
         (lib/scaling/materials.ts).
       </p>
-      <div className="mt-3 overflow-x-auto rounded-lg border border-rule bg-panel">
-        <table className="num w-full text-sm">
-          <thead className="bg-ground text-left text-xs text-muted">
-            <tr>
-              <th className="px-3 py-2 font-medium">id</th>
-              <th className="px-3 py-2 font-medium">metal</th>
-              <th className="px-3 py-2 text-right font-medium">bulk resistivity (µΩ·cm)</th>
-              <th className="px-3 py-2 text-right font-medium">mean free path (nm)</th>
-              <th className="px-3 py-2 font-medium">resistivity source</th>
+      <PanelTable
+        className="mt-3"
+        tableClassName="num w-full text-sm"
+        headClassName="bg-ground text-left text-xs text-muted"
+        columns={[
+          "id",
+          "metal",
+          { label: "bulk resistivity (µΩ·cm)", className: "text-right" },
+          { label: "mean free path (nm)", className: "text-right" },
+          "resistivity source",
+        ]}
+      >
+        <tbody>
+          {Object.values(METALS).map((m) => (
+            <tr key={m.id} className="border-t border-rule align-top">
+              <td className="px-3 py-1.5 font-mono text-xs">{m.id}</td>
+              <td className="px-3 py-1.5">{m.name}</td>
+              <td className="px-3 py-1.5 text-right tabular">{Number((m.resistivityOhmM * 1e8).toPrecision(4))}</td>
+              <td className="px-3 py-1.5 text-right tabular">{Number((m.meanFreePathM * 1e9).toPrecision(4))}</td>
+              <td className="px-3 py-1.5 text-xs text-muted">{m.sources.resistivity}</td>
             </tr>
-          </thead>
-          <tbody>
-            {Object.values(METALS).map((m) => (
-              <tr key={m.id} className="border-t border-rule align-top">
-                <td className="px-3 py-1.5 font-mono text-xs">{m.id}</td>
-                <td className="px-3 py-1.5">{m.name}</td>
-                <td className="px-3 py-1.5 text-right tabular">{Number((m.resistivityOhmM * 1e8).toPrecision(4))}</td>
-                <td className="px-3 py-1.5 text-right tabular">{Number((m.meanFreePathM * 1e9).toPrecision(4))}</td>
-                <td className="px-3 py-1.5 text-xs text-muted">{m.sources.resistivity}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
+          ))}
+        </tbody>
+      </PanelTable>
 
       <H2 id="export">Export</H2>
       <ul className="mt-2 list-disc space-y-1 pl-5 text-sm">

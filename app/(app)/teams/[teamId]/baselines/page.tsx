@@ -3,10 +3,13 @@ import Link from "next/link";
 import { db } from "@/db/client";
 import { listBaselines } from "@/db/queries/baselines";
 import { ButtonLink, buttonClass } from "@/components/ui/button";
-import { Badge, Card, EmptyState } from "@/components/ui/card";
+import { Card, EmptyState } from "@/components/ui/card";
+import { PanelTable } from "@/components/ui/table";
+import { LastChangeCell, NameCell, listRowClass } from "@/components/workspace/list-cells";
 import { NewBaselineForm } from "@/components/workspace/new-baseline-form";
 import { roleAtLeast } from "@/lib/access";
 import { getTeamContext } from "@/lib/team-context";
+import { PageHeader } from "@/components/ui/page-header";
 
 export const metadata: Metadata = { title: "Baselines" };
 
@@ -17,12 +20,9 @@ export default async function BaselinesPage({ params }: { params: Promise<{ team
   const canEdit = roleAtLeast(ctx.role, "editor");
   return (
     <div className="space-y-5">
-      <div>
-        <h1 className="text-xl font-semibold text-ink">Baselines</h1>
-        <p className="text-sm text-muted">
-          Today&apos;s wiring of a design: a named set of wire classes (geometry, material, statistics, driver and load) and the technology they share.
-        </p>
-      </div>
+      <PageHeader title="Baselines">
+        Today&apos;s wiring of a design: a named set of wire classes (geometry, material, statistics, driver and load) and the technology they share.
+      </PageHeader>
       {canEdit ? (
         <Card
           title="New baseline"
@@ -59,43 +59,33 @@ export default async function BaselinesPage({ params }: { params: Promise<{ team
             : "Editors of this team have not created a baseline yet."}
         </EmptyState>
       ) : (
-        <div className="overflow-x-auto rounded-lg border border-rule bg-panel">
-          <table className="num w-full text-sm">
-            <thead className="border-b border-rule text-left text-xs text-muted">
-              <tr>
-                <th className="px-3 py-2 font-medium">Baseline</th>
-                <th className="px-3 py-2 text-right font-medium">Classes</th>
-                <th className="px-3 py-2 text-right font-medium">Scenarios</th>
-                <th className="px-3 py-2 text-right font-medium">Version</th>
-                <th className="px-3 py-2 font-medium">Last change</th>
+        <PanelTable
+          tableClassName="num w-full text-sm"
+          headClassName="border-b border-rule text-left text-xs text-muted"
+          columns={[
+            "Baseline",
+            { label: "Classes", className: "text-right" },
+            { label: "Scenarios", className: "text-right" },
+            { label: "Version", className: "text-right" },
+            "Last change",
+          ]}
+        >
+          <tbody>
+            {baselines.map((b) => (
+              <tr key={b.id} className={listRowClass}>
+                <NameCell href={`/teams/${teamId}/baselines/${b.id}`} name={b.name} isDemo={b.isDemo} note={b.description} />
+                <td className="tabular px-3 py-2 text-right">{b.classCount}</td>
+                <td className="tabular px-3 py-2 text-right">
+                  <Link href={`/teams/${teamId}/scenarios?baselineId=${b.id}`} className="hover:underline">
+                    {b.scenarioCount}
+                  </Link>
+                </td>
+                <td className="tabular px-3 py-2 text-right">{b.version}</td>
+                <LastChangeCell at={b.updatedAt} by={b.updatedByName} />
               </tr>
-            </thead>
-            <tbody>
-              {baselines.map((b) => (
-                <tr key={b.id} className="border-b border-rule/60 last:border-0 hover:bg-ground/60">
-                  <td className="px-3 py-2">
-                    <Link href={`/teams/${teamId}/baselines/${b.id}`} className="font-medium text-copper-dark hover:underline">
-                      {b.name}
-                    </Link>{" "}
-                    {b.isDemo ? <Badge tone="warn">invented</Badge> : null}
-                    {b.description ? <p className="line-clamp-1 text-xs text-muted">{b.description}</p> : null}
-                  </td>
-                  <td className="tabular px-3 py-2 text-right">{b.classCount}</td>
-                  <td className="tabular px-3 py-2 text-right">
-                    <Link href={`/teams/${teamId}/scenarios?baselineId=${b.id}`} className="hover:underline">
-                      {b.scenarioCount}
-                    </Link>
-                  </td>
-                  <td className="tabular px-3 py-2 text-right">{b.version}</td>
-                  <td className="px-3 py-2 text-xs text-muted">
-                    {new Date(b.updatedAt).toLocaleDateString("en-GB", { day: "numeric", month: "short", year: "numeric" })}
-                    {b.updatedByName ? ` · ${b.updatedByName}` : ""}
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+            ))}
+          </tbody>
+        </PanelTable>
       )}
     </div>
   );

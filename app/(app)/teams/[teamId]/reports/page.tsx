@@ -7,6 +7,8 @@ import { Badge, Card, EmptyState } from "@/components/ui/card";
 import { roleAtLeast } from "@/lib/access";
 import { dateTime } from "@/lib/reports/format";
 import { getTeamContext } from "@/lib/team-context";
+import { PageHeader } from "@/components/ui/page-header";
+import { TableHead } from "@/components/ui/table";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Reports" };
@@ -22,41 +24,22 @@ export default async function ReportsPage({ params }: { params: Promise<{ teamId
   const canCompose = roleAtLeast(ctx.role, "editor");
   return (
     <div className="space-y-6">
-      <div>
-        <h1 className="text-xl font-semibold text-ink">Reports</h1>
-        <p className="mt-1 max-w-3xl text-sm text-muted">
-          A report freezes a side-by-side comparison of a baseline and 2 to 4 of its scenarios, for readers who will not open the editor. Share it with a
-          read-only link, send it by e-mail, print it or download its PDF and CSV.
-        </p>
-      </div>
+      <PageHeader title="Reports" className="mt-1 max-w-3xl">
+        A report freezes a side-by-side comparison of a baseline and 2 to 4 of its scenarios, for readers who will not open the editor. Share it with a
+        read-only link, send it by e-mail, print it or download its PDF and CSV.
+      </PageHeader>
       <Card title={`${reports.length} report${reports.length === 1 ? "" : "s"}`}>
         {reports.length === 0 ? (
           <EmptyState title="No reports yet">{canCompose ? "Compose the first one below." : "An editor of this team can compose one."}</EmptyState>
         ) : (
           <div className="overflow-x-auto">
             <table className="w-full border-collapse text-sm">
-              <thead>
-                <tr className="border-b border-rule-strong text-left text-xs text-muted">
-                  <th scope="col" className="py-1.5 pr-3 font-medium">
-                    Title
-                  </th>
-                  <th scope="col" className="py-1.5 pr-3 font-medium">
-                    Baseline
-                  </th>
-                  <th scope="col" className="py-1.5 pr-3 font-medium">
-                    Options
-                  </th>
-                  <th scope="col" className="py-1.5 pr-3 text-right font-medium">
-                    Version
-                  </th>
-                  <th scope="col" className="py-1.5 pr-3 font-medium">
-                    Frozen
-                  </th>
-                  <th scope="col" className="py-1.5 font-medium">
-                    By
-                  </th>
-                </tr>
-              </thead>
+              <TableHead
+                rowClassName="border-b border-rule-strong text-left text-xs text-muted"
+                cell="py-1.5 pr-3"
+                lastCell="py-1.5"
+                columns={["Title", "Baseline", "Options", { label: "Version", className: "text-right" }, "Frozen", "By"]}
+              />
               <tbody>
                 {reports.map((r) => (
                   <tr key={r.id} className="border-b border-rule/60 align-top">

@@ -1,14 +1,6 @@
 "use client";
-import { Notice } from "@/components/ui/card";
-import { Button } from "@/components/ui/button";
+import { ItemLoadError } from "@/components/workspace/route-states";
 
 export default function ScenariosError({ reset }: { error: Error; reset: () => void }) {
-  return (
-    <div className="space-y-3">
-      <Notice tone="bad">The scenario could not be loaded. The error was logged.</Notice>
-      <Button variant="secondary" onClick={reset}>
-        Try again
-      </Button>
-    </div>
-  );
+  return <ItemLoadError what="scenario" reset={reset} />;
 }

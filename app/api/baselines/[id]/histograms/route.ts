@@ -2,11 +2,10 @@ import { db } from "@/db/client";
 import { baselineTeamId } from "@/db/queries/baselines";
 import { histogramsByClass } from "@/db/queries/import";
 import { requireResourceRole } from "@/lib/access";
-import { apiRoute, parseOrThrow } from "@/lib/api";
+import { apiRoute } from "@/lib/api";
+import { baselineImportRoute } from "@/lib/baseline-import-route";
 import { formatScaled } from "@/lib/import/numbers";
-import { csvUploadSource } from "@/lib/import/request-body";
 import { runHistogramImport } from "@/lib/import/run-histograms";
-import { importQuerySchema, searchParamsObject } from "@/lib/validation/import";
 
 export const dynamic = "force-dynamic";
 
@@ -23,21 +22,5 @@ export const GET = apiRoute<{ id: string }>(async (_req, { id }) => {
   });
 });
 
-/**
- * Import length histograms (CSV `class, length_um, count`): body = the CSV (text/csv) or a
- * multipart form with a `file` field, at most 64 MiB. `?mode=replace|merge` (required),
- * `&dryRun=1` validates without storing. Editor or owner.
- */
-export const POST = apiRoute<{ id: string }>(async (req, { id }) => {
-  const a = await requireResourceRole(() => baselineTeamId(db, id), "editor", "Baseline");
-  const q = parseOrThrow(importQuerySchema, searchParamsObject(req.url), "Choose mode=replace or mode=merge explicitly.");
-  const result = await runHistogramImport(db, {
-    baselineId: id,
-    teamId: a.teamId,
-    userId: a.user.id,
-    mode: q.mode,
-    dryRun: q.dryRun,
-    source: csvUploadSource(req),
-  });
-  return Response.json(result);
-});
+/** Import length histograms (CSV `class, length_um, count`); mode, dry run, body and limits as in lib/baseline-import-route.ts. */
+export const POST = baselineImportRoute(runHistogramImport);

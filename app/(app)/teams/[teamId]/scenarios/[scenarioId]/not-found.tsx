@@ -1,17 +1,5 @@
-import Link from "next/link";
-import { EmptyState } from "@/components/ui/card";
+import { ItemNotFound } from "@/components/workspace/route-states";
 
 export default function ScenarioNotFound() {
-  return (
-    <EmptyState
-      title="Scenario not found"
-      action={
-        <Link href="/teams" className="text-copper hover:underline">
-          Back to your teams
-        </Link>
-      }
-    >
-      It may have been deleted, or it belongs to a team you are not a member of.
-    </EmptyState>
-  );
+  return <ItemNotFound what="Scenario" />;
 }
