@@ -8,6 +8,9 @@ const nextConfig: NextConfig = {
   distDir: process.env.PLATEAU_DIST_DIR || ".next",
   // Types are checked by `npm test` (tsc --noEmit) before the suite runs, once for the whole tree.
   typescript: { ignoreBuildErrors: true },
+  // A worktree whose node_modules is a symlink into another checkout builds with PLATEAU_TURBOPACK_ROOT set to a folder
+  // holding both (Turbopack resolves nothing outside its root).
+  ...(process.env.PLATEAU_TURBOPACK_ROOT ? { turbopack: { root: process.env.PLATEAU_TURBOPACK_ROOT } } : {}),
 };
 
 export default nextConfig;

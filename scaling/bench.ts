@@ -18,6 +18,7 @@ import {
   MODEL_LEVELS,
 } from "../lib/scaling/index";
 import { EPSILON_0_F_PER_M, LN2, SAKURAI_DISTRIBUTED_COEFF, REPEATER_A, REPEATER_B } from "../lib/scaling/constants";
+import { exactTau50 } from "../lib/scaling/delay-table";
 import { SPLIT_FIT } from "../lib/scaling/capacitance";
 import { mayadasShatzkesRatio } from "../lib/scaling/resistance";
 import { parseHistogramBins } from "../lib/import/histograms";
@@ -122,8 +123,150 @@ function bareCap(level: ModelLevel, eps: number, w: number, t: number, sp: numbe
   cap[3] = ground + 2 * miller * couple;
 }
 
+// Engine 2 defaults (the bench's technology sets none of them): 25 °C, γ = 0.5, minimum gain 0.1, 0.1 µm², no leakage.
+const TEMP_C = 25;
+const GAMMA = 0.5;
+const MIN_GAIN = 0.1;
+const REP_AREA = 0.1e-12;
+/** Bulk ρ0 and λ of a metal at TEMP_C: ρ0(T) = ρ0(20)·(1 + α(T − 20)), λ(T) = λ(20)·ρ0(20)/ρ0(T). */
+function rhoT(metal: Metal): number {
+  return metal.resistivityOhmM * (1 + metal.tempCoeffPerK * (TEMP_C - 20));
+}
+/** Exact stage t50 (table) of driver rd + line (R, C) + load cl. */
+function st50(R: number, C: number, rd: number, cl: number): number {
+  return R > 0 && C > 0 ? R * C * exactTau50(rd / R, cl / C) : LN2 * (rd + R) * (C + cl);
+}
+function chain(R: number, C: number, rd: number, cl: number, r0: number, c0: number, k: number, h: number): number {
+  const n = k + 1,
+    rs = R / n,
+    cs = C / n,
+    own = LN2 * GAMMA * r0 * c0;
+  const first = st50(rs, cs, rd, h * c0);
+  const last = st50(rs, cs, r0 / h, cl) + own;
+  return k === 1 ? first + last : first + (k - 1) * (st50(rs, cs, r0 / h, h * c0) + own) + last;
+}
+const us = new Float64Array(4096);
+const hus = new Float64Array(4096);
+/** The same repeater search as the engine (real driver and load, whole k, h ≥ 1, minimum gain): out = [k, h, delay, unrepeated]. */
+function bareNet(R: number, C: number, rd: number, cl: number, r0: number, c0: number, out: Float64Array): void {
+  const t0 = st50(R, C, rd, cl);
+  out[0] = 0;
+  out[1] = 0;
+  out[2] = t0;
+  out[3] = t0;
+  const thr = (1 - MIN_GAIN) * t0;
+  const rc0 = r0 * c0;
+  const own = LN2 * (1 + GAMMA) * rc0;
+  const f1 = 0.377 * R * C + LN2 * (rd * C + R * cl);
+  const kF = Math.sqrt(f1 / own) - 1;
+  const ab1 = 2 * LN2 * Math.sqrt(r0 * (C / 2 + cl) * c0 * (rd + R / 2));
+  const lbh = (k: number): number => {
+    const n = k + 1,
+      rs = R / n,
+      cs = C / n;
+    const A = LN2 * r0 * (k * cs + cl),
+      B = LN2 * c0 * (rd + k * rs);
+    const hs = Math.sqrt(A / B),
+      h = hs >= 1 ? hs : 1;
+    lbH = h;
+    return 0.377 * rs * cs * n + LN2 * (rd * cs + rs * cl + (k - 1 + k * GAMMA) * rc0) + A / h + B * h;
+  };
+  let lbH = 1;
+  const k0 = Math.max(1, Math.round(kF));
+  let bestU = Infinity,
+    kU = 0,
+    kEnd = 0;
+  if (lbh(k0) <= thr) {
+    bestU = chain(R, C, rd, cl, r0, c0, k0, lbH);
+    kU = k0;
+    us[k0] = bestU;
+    hus[k0] = lbH;
+  }
+  for (let k = 1; k < us.length; k++) {
+    const cap = bestU < thr ? bestU : thr;
+    const lin = LN2 * (k - 1 + k * GAMMA) * rc0;
+    if (lin > cap || (k > kF && f1 / (k + 1) + lin + ab1 > cap)) break;
+    kEnd = k;
+    if (k === k0 && kU === k0) continue;
+    if (!(lbh(k) <= cap)) continue;
+    const u = chain(R, C, rd, cl, r0, c0, k, lbH);
+    us[k] = u;
+    hus[k] = lbH;
+    if (u < bestU) {
+      bestU = u;
+      kU = k;
+    }
+  }
+  if (kEnd < k0 && kU === k0) kEnd = k0;
+  if (kU === 0) {
+    hus.fill(0, 0, kEnd + 1);
+    return;
+  }
+  let best = thr,
+    bk = 0,
+    bh = 0;
+  const near = bestU * (1 + 1e-3);
+  for (let pass = 0; pass <= kEnd; pass++) {
+    const k = pass === 0 ? kU : pass;
+    if (pass !== 0 && k === kU) continue;
+    if (hus[k] === 0 || !(us[k]! <= near) || !(us[k]! * (1 - 1e-3) <= best)) continue;
+    // two rounds of three-point parabolic interpolation in ln h (as the engine's refineSize)
+    let x = Math.log(hus[k]!),
+      t = us[k]!;
+    for (let round = 0; round < 2; round++) {
+      const d = round === 0 ? 0.05 : 0.005;
+      const xa = x - d < 0 ? 0 : x - d,
+        xb = xa + d,
+        xc = xa + 2 * d;
+      const fa = xa === x ? t : chain(R, C, rd, cl, r0, c0, k, Math.exp(xa));
+      const fb = xb === x ? t : chain(R, C, rd, cl, r0, c0, k, Math.exp(xb));
+      const fc = chain(R, C, rd, cl, r0, c0, k, Math.exp(xc));
+      let bx = x,
+        bt = t;
+      if (fa < bt) {
+        bt = fa;
+        bx = xa;
+      }
+      if (fb < bt) {
+        bt = fb;
+        bx = xb;
+      }
+      if (fc < bt) {
+        bt = fc;
+        bx = xc;
+      }
+      const curv = fa - 2 * fb + fc;
+      if (curv > 0) {
+        let xv = xb - (d * (fc - fa)) / (2 * curv);
+        if (xv < 0) xv = 0;
+        if (xv > xb + 4 * d) xv = xb + 4 * d;
+        if (xv < xb - 4 * d && xb - 4 * d > 0) xv = xb - 4 * d;
+        const fv = chain(R, C, rd, cl, r0, c0, k, Math.exp(xv));
+        if (fv < bt) {
+          bt = fv;
+          bx = xv;
+        }
+      }
+      x = bx;
+      t = bt;
+    }
+    if (t <= best && (bk === 0 || t < best)) {
+      best = t;
+      bk = k;
+      bh = Math.exp(x);
+    }
+  }
+  hus.fill(0, 0, kEnd + 1);
+  if (bk > 0) {
+    out[0] = bk;
+    out[1] = bh;
+    out[2] = best;
+  }
+}
+const netOut = new Float64Array(4);
+
 function sizeEffect(metal: Metal, wc2: number, hc: number): number {
-  const lam = metal.meanFreePathM;
+  const lam = (metal.meanFreePathM * metal.resistivityOhmM) / rhoT(metal);
   const R = metal.grainReflection;
   return mayadasShatzkesRatio((lam / Math.min(wc2, hc)) * (R / (1 - R))) + 0.375 * metal.steinhoglC * (1 - metal.specularity) * lam * (1 / wc2 + 1 / hc);
 }
@@ -146,13 +289,49 @@ function bareDelay(wc: WireClass, st: ScenarioSettings, level: ModelLevel): numb
   const hc = t - bar;
   if (!(wc2 > 0 && hc > 0)) throw new RangeError("barrier fills the line");
   const metal = getMetal(wc.metal);
-  const rho = level === "full" ? metal.resistivityOhmM * sizeEffect(metal, wc2, hc) : metal.resistivityOhmM;
+  const rho = level === "full" ? rhoT(metal) * sizeEffect(metal, wc2, hc) : rhoT(metal);
   const Rt = (rho / (wc2 * hc)) * L;
   const Ct = c * L;
-  if (level === "ideal") return SAKURAI_DISTRIBUTED_COEFF * Rt * Ct;
+  // the point's validity flags, as the engine's sweep now returns them (one array per point)
+  const flags: (typeof bareFlags)[number] = [];
+  pointFlags(level, w, t, sp, (hb ?? ha)!, hb !== null ? ha : null, flags);
+  if (level === "full") flagIf(flags, "size-effect", "d/λ", (Math.min(wc2, hc) * rhoT(metal)) / (metal.meanFreePathM * metal.resistivityOhmM), 0.5, null);
+  sweepFlags.push(flags);
+  if (level === "ideal") return st50(Rt, Ct, 0, 0);
   const rd = wc.driverOhm * st.deviceRFactor;
   const cl = wc.loadF * st.deviceCFactor;
-  return SAKURAI_DISTRIBUTED_COEFF * Rt * Ct + LN2 * (rd * Ct + rd * cl + Rt * cl);
+  return st50(Rt, Ct, rd, cl);
+}
+const sweepFlags: unknown[] = [];
+
+/** The closed forms' range flags at one geometry (levels fringe/coupled/full: the same checks as bareEval's). */
+function pointFlags(level: ModelLevel, w: number, t: number, sp: number, h: number, h2: number | null, flags: (typeof bareFlags)[number]): void {
+  if (level === "ideal") {
+    flagIf(flags, "parallel-plate", "W/H", w / h, 10, null);
+    return;
+  }
+  if (level === "fringe") {
+    flagIf(flags, "yuan-trick", "W/T", w / t, 0.5, null);
+    return;
+  }
+  if (h2 === null) {
+    flagIf(flags, "sakurai-tamaru-c1", "W/H", w / h, 0.3, 30);
+    flagIf(flags, "sakurai-tamaru-c1", "T/H", t / h, 0.3, 30);
+    flagIf(flags, "sakurai-tamaru-c21", "W/H", w / h, 0.3, 10);
+    flagIf(flags, "sakurai-tamaru-c21", "T/H", t / h, 0.3, 10);
+    flagIf(flags, "sakurai-tamaru-c21", "S/H", sp / h, 0.5, 10);
+    flagIf(flags, "ground-split", "T/H", t / h, 0.3, 4);
+    flagIf(flags, "ground-split", "S/H", sp / h, 0.5, 8);
+  } else {
+    const hMin = Math.min(h, h2);
+    const hr = Math.max(h, h2) / hMin;
+    flagIf(flags, "cohn-thick-strip", "W/(H+H2)", w / (h + h2), 0.35, null);
+    flagIf(flags, "cohn-thick-strip", "Hmax/Hmin", hr, 1, 2);
+    flagIf(flags, "two-plane-split", "W/Hmin", w / hMin, 0.3, 8);
+    flagIf(flags, "two-plane-split", "T/Hmin", t / hMin, 0.3, 3);
+    flagIf(flags, "two-plane-split", "S/Hmin", sp / hMin, 0.5, 4);
+    flagIf(flags, "two-plane-split", "Hmax/Hmin", hr, 1, 2);
+  }
 }
 
 // Per class evaluation: F_* slots of one row of `bareOut`, bins in `bareBins` (4 values per bin).
@@ -195,13 +374,16 @@ const F = {
   meanDelay: 35,
   totalC: 36,
   worst: 37,
+  repArea: 38,
+  repPower: 39,
+  repTotalArea: 40,
 } as const;
-const ROW = 38;
+const ROW = 41;
 const MAX_BINS = 64;
 const bareOut = new Float64Array(2 * classes.length * ROW);
-const bareBins = new Float64Array(2 * classes.length * MAX_BINS * 4);
+const bareBins = new Float64Array(2 * classes.length * MAX_BINS * 5);
 const bareRatios = new Float64Array(classes.length * 8);
-const bareTotals = new Float64Array(12);
+const bareTotals = new Float64Array(18);
 const bareFlags: { model: string; quantity: string; value: number; min: number | null; max: number | null; message: string }[][] = Array.from(
   { length: 2 * classes.length },
   () => [],
@@ -252,8 +434,8 @@ function bareEval(wc: WireClass, st: ScenarioSettings, row: number): void {
   const wc2 = w - 2 * bar;
   const hc = t - bar;
   if (!(wc2 > 0 && hc > 0)) throw new RangeError("barrier fills the line");
-  const rho = metal.resistivityOhmM * sizeEffect(metal, wc2, hc);
-  flagIf(flags, "size-effect", "d/λ", Math.min(wc2, hc) / metal.meanFreePathM, 0.5, null);
+  const rho = rhoT(metal) * sizeEffect(metal, wc2, hc);
+  flagIf(flags, "size-effect", "d/λ", (Math.min(wc2, hc) * rhoT(metal)) / (metal.meanFreePathM * metal.resistivityOhmM), 0.5, null);
   const r = rho / (wc2 * hc);
   const c = capScratch[3]!;
   const Rt = r * L;
@@ -261,22 +443,17 @@ function bareEval(wc: WireClass, st: ScenarioSettings, row: number): void {
   const rd = wc.driverOhm * st.deviceRFactor;
   const cl = wc.loadF * st.deviceCFactor;
   const intrinsic = SAKURAI_DISTRIBUTED_COEFF * Rt * Ct;
-  const delay = intrinsic + LN2 * (rd * Ct + rd * cl + Rt * cl);
+  const delay = st50(Rt, Ct, rd, cl);
   const r0 = technology.repeaterR0Ohm * st.deviceRFactor;
   const c0 = technology.repeaterC0F * st.deviceCFactor;
   const rc0 = r0 * c0;
-  const kStar = Math.sqrt((REPEATER_B * Rt * Ct) / (REPEATER_A * rc0));
-  const hOpt = Math.sqrt((r0 * Ct) / (Rt * c0));
-  let k = 1;
-  if (kStar > 1) {
-    k = Math.floor(kStar);
-    if (REPEATER_A * (k + 1) * rc0 + (REPEATER_B * Rt * Ct) / (k + 1) < REPEATER_A * k * rc0 + (REPEATER_B * Rt * Ct) / k) k++;
-  }
-  let repDelay = (REPEATER_A * r0 * Ct) / hOpt + REPEATER_A * Rt * hOpt * c0 + REPEATER_A * k * rc0 + (REPEATER_B * Rt * Ct) / k;
-  if (k === 1 || !(repDelay < delay)) {
-    k = 1;
-    repDelay = delay;
-  }
+  const hStar = Math.sqrt((r0 * Ct) / (Rt * c0));
+  bareNet(Rt, Ct, rd, cl, r0, c0, netOut);
+  const kIns = netOut[0]!;
+  const hOpt = kIns > 0 ? netOut[1]! : hStar;
+  const k = kIns + 1;
+  const repDelay = netOut[2]!;
+  const repSize = kIns * netOut[1]!;
   const v2 = st.supplyV * st.supplyV;
   bareOut[o + F.w] = w;
   bareOut[o + F.t] = t;
@@ -307,51 +484,47 @@ function bareEval(wc: WireClass, st: ScenarioSettings, row: number): void {
   bareOut[o + F.lcrit] = L * Math.sqrt((2 * REPEATER_A * rc0) / (REPEATER_B * Rt * Ct));
   bareOut[o + F.rd] = rd;
   bareOut[o + F.cl] = cl;
-  bareOut[o + F.energy] = (Ct + cl) * v2;
+  bareOut[o + F.energy] = (Ct + cl) * v2 + repSize * c0 * (1 + GAMMA) * v2;
+  bareOut[o + F.repArea] = repSize * REP_AREA;
   // distribution over the histogram
   const hist = wc.histogram!;
-  const hFixed = 2 * REPEATER_A * Math.sqrt(rc0 * r * c);
-  const bo = row * MAX_BINS * 4;
+  const bo = row * MAX_BINS * 5;
   let over = 0,
     reps = 0,
     sum = 0,
     n = 0,
     cs = 0,
-    worst = 0;
+    worst = 0,
+    sizeSum = 0;
   for (let i = 0; i < hist.length; i++) {
     const bin = hist[i]!;
     const count = bin.count;
     const l = bin.lengthM / st.sL;
     const R = r * l,
-      C = c * l,
-      rc = R * C;
-    let d = SAKURAI_DISTRIBUTED_COEFF * rc + LN2 * (rd * C + rd * cl + R * cl);
-    const ks = Math.sqrt((REPEATER_B * rc) / (REPEATER_A * rc0));
-    let ins = 0;
-    if (ks > 1) {
-      let kk = Math.floor(ks);
-      if (REPEATER_A * (kk + 1) * rc0 + (REPEATER_B * rc) / (kk + 1) < REPEATER_A * kk * rc0 + (REPEATER_B * rc) / kk) kk++;
-      const rep = hFixed * l + REPEATER_A * kk * rc0 + (REPEATER_B * rc) / kk;
-      if (kk >= 2 && rep < d) {
-        d = rep;
-        ins = kk - 1;
-      }
-    }
-    const j = bo + 4 * i;
+      C = c * l;
+    bareNet(R, C, rd, cl, r0, c0, netOut);
+    const ins = netOut[0]!,
+      d = netOut[2]!;
+    const j = bo + 5 * i;
     bareBins[j] = l;
     bareBins[j + 1] = count;
     bareBins[j + 2] = d;
     bareBins[j + 3] = ins;
+    bareBins[j + 4] = netOut[1]!;
     if (d > technology.delayBudgetS) over += count;
     if (count > 0 && d > worst) worst = d;
     reps += ins * count;
     sum += d * count;
     n += count;
     cs += C * count;
+    sizeSum += ins * netOut[1]! * count;
   }
-  const totalEnergy = v2 * (cs + n * cl);
+  const repEnergy = sizeSum * c0 * (1 + GAMMA) * v2;
+  const totalEnergy = v2 * (cs + n * cl) + repEnergy;
   bareOut[o + F.totalEnergy] = totalEnergy;
   bareOut[o + F.power] = 0.5 * wc.activity * technology.clockHz * totalEnergy;
+  bareOut[o + F.repPower] = 0.5 * wc.activity * technology.clockHz * repEnergy;
+  bareOut[o + F.repTotalArea] = sizeSum * REP_AREA;
   bareOut[o + F.nets] = n;
   bareOut[o + F.share] = n > 0 ? over / n : 0;
   bareOut[o + F.reps] = reps;
@@ -362,7 +535,7 @@ function bareEval(wc: WireClass, st: ScenarioSettings, row: number): void {
 
 const baseSt: ScenarioSettings = { ...baselineSettings("full", technology), miller: settings.miller };
 const RATIO_FIELDS = Int32Array.from([F.r, F.c, F.R, F.C, F.rc, F.delay, F.count, F.energy]);
-/** Adds one class result (row offset o) to the totals at t (0 = baseline, 6 = scenario). */
+/** Adds one class result (row offset o) to the totals at t (0 = baseline, 9 = scenario). */
 function addTotals(o: number, t: number): void {
   const T = bareTotals;
   T[t] = T[t]! + bareOut[o + F.totalC]!;
@@ -371,6 +544,8 @@ function addTotals(o: number, t: number): void {
   T[t + 3] = T[t + 3]! + bareOut[o + F.reps]!;
   T[t + 4] = Math.max(T[t + 4]!, bareOut[o + F.worst]!);
   T[t + 5] = T[t + 5]! + bareOut[o + F.meanDelay]! * bareOut[o + F.nets]!;
+  T[t + 6] = T[t + 6]! + bareOut[o + F.repTotalArea]!;
+  T[t + 7] = T[t + 7]! + bareOut[o + F.repPower]!;
 }
 const bareScenario = () => {
   bareTotals.fill(0);
@@ -384,13 +559,15 @@ const bareScenario = () => {
       s = (2 * i + 1) * ROW;
     for (let j = 0; j < 8; j++) bareRatios[8 * i + j] = bareOut[s + RATIO_FIELDS[j]!]! / bareOut[b + RATIO_FIELDS[j]!]!;
     addTotals(b, 0);
-    addTotals(s, 6);
+    addTotals(s, 9);
     nb += bareOut[b + F.nets]!;
     ns += bareOut[s + F.nets]!;
   }
   bareTotals[5] = nb > 0 ? bareTotals[5]! / nb : 0;
-  bareTotals[11] = ns > 0 ? bareTotals[11]! / ns : 0;
-  sink += bareTotals[8]!;
+  bareTotals[14] = ns > 0 ? bareTotals[14]! / ns : 0;
+  bareTotals[8] = bareTotals[2]! > 0 ? bareTotals[7]! / bareTotals[2]! : 0;
+  bareTotals[17] = bareTotals[11]! > 0 ? bareTotals[16]! / bareTotals[11]! : 0;
+  sink += bareTotals[11]!;
 };
 const engineScenario = () => {
   sink += evaluateScenario({ classes, technology, settings }).totals.scenario.powerW;
@@ -421,11 +598,19 @@ const engineScenario = () => {
         [res.capacitance.couplingPerNeighbourFPerM, bareOut[o + F.couple]!],
         [res.validity.length, bareFlags[row]!.length],
       ];
-      res.distribution.bins.forEach((bin, j) => pairs.push([bin.delayS, bareBins[row * MAX_BINS * 4 + 4 * j + 2]!]));
+      pairs.push([res.energyJ, bareOut[o + F.energy]!], [res.repeaterAreaM2, bareOut[o + F.repArea]!], [res.repeaterPowerW, bareOut[o + F.repPower]!]);
+      res.distribution.bins.forEach((bin, j) =>
+        pairs.push([bin.delayS, bareBins[row * MAX_BINS * 5 + 5 * j + 2]!], [bin.repeaters, bareBins[row * MAX_BINS * 5 + 5 * j + 3]!]),
+      );
       for (const [a, b] of pairs) worst = Math.max(worst, rel(a, b));
     }
   });
-  worst = Math.max(worst, rel(ev.totals.scenario.powerW, bareTotals[8]!), rel(ev.totals.baseline.worstDelayS, bareTotals[4]!));
+  worst = Math.max(
+    worst,
+    rel(ev.totals.scenario.powerW, bareTotals[11]!),
+    rel(ev.totals.baseline.worstDelayS, bareTotals[4]!),
+    rel(ev.totals.scenario.repeaterPowerShare, bareTotals[17]!),
+  );
   if (!(worst < 1e-12)) throw new Error(`bench: the bare loop does not reproduce the engine (worst relative difference ${worst})`);
 }
 
@@ -445,6 +630,7 @@ const bareSweep = () => {
         }
       }
   }
+  sweepFlags.length = 0;
   sink += sweepYs[n - 1]!;
 };
 const engineSweep = () => {

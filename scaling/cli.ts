@@ -1,7 +1,7 @@
 /**
  * Command line of Plateau's scaling engine:
  *   npm run scaling -- <command> [options]      or      npx tsx scaling/cli.ts <command> [options]
- * Commands: capacitance, delay, evaluate, sweep, materials. `--json` prints only JSON on standard output.
+ * Commands: capacitance, delay, evaluate, sweep, fit, materials. `--json` prints only JSON on standard output.
  * Values take SI-prefixed units ("20nm", "1.5fF", "2kohm") or bare SI numbers. Bad arguments exit with code 2
  * and one line naming the argument and the expected unit. CSV files are read with the app's one reader (lib/import)
  * and the formats' rules (lib/scaling/formats.ts), so a file the upload rejects is rejected here with the same message.
@@ -15,16 +15,23 @@ import {
   DEFAULT_TECHNOLOGY,
   DIELECTRICS,
   evaluateScenario,
+  fitSizeEffect,
   formatEngineering,
   lineCapacitance,
   lineDelay,
+  MEASURED_RESISTANCE_FORMAT,
   METALS,
   MODEL_LEVELS,
   parseQuantity,
+  resolveHeader,
   sweep,
+  validateMeasuredRow,
+  validateWireClassRow,
+  WIRE_CLASS_FORMAT,
   type BaseUnit,
   type CapacitanceModel,
   type ClassResult,
+  type MeasuredResistance,
   type ModelLevel,
   type ScenarioSettings,
   type SweepMetric,
@@ -32,6 +39,7 @@ import {
   type Technology,
   type WireClass,
 } from "../lib/scaling/index";
+import { readCsvSync } from "../lib/import/csv-stream";
 import { parseHistogramBins } from "../lib/import/histograms";
 import { ImportFatalError, type ImportIssue } from "../lib/import/types";
 import { parseWireClassCsv } from "../lib/import/wire-classes";
@@ -57,7 +65,21 @@ Commands:
                [--supply V] [--device-r F] [--device-c F]    a scenario against its baseline
   sweep        --baseline classes.csv --s-from 1 --s-to 4 --points N [--metric delay|rc|r|c]
                [--variable s|sL|k] [--levels ideal,fringe,coupled,full] [--class NAME] [--log]
+               [--length-rule scenario|follows-s|fixed]   S sweeps: S_L as the scenario's, = S, or 1
+  fit          --baseline classes.csv --measured measured.csv [--technology t.json]
+               fit size-effect p and R per metal to measured resistance (columns class,r_ohm_per_um,temperature_c);
+               prints { metals, points }; "metals" can be passed back as the technology JSON's "materials"
   materials    the materials catalogue with sources
+
+delay takes [--model exact|sakurai] (default exact: the tabulated exact solution; sakurai: the closed form).
+The technology JSON (--technology) lays its fields over the default technology: supplyV, clockHz, repeaterR0Ohm,
+repeaterC0F, delayBudgetS, and (engine 2) delayModel ("exact"|"sakurai"), temperatureC (default 25), minRepeaterGain
+(default 0.1), repeaterOutputCRatio (default 0.5), repeaterAreaM2 (default 1e-13), repeaterLeakageW (default 0),
+materials ({ "Cu": { "specularity": 0.2, ... } }). The baseline CSV may carry the optional columns vias_per_net,
+via_ohm, via_width_nm, via_height_nm.
+evaluate --json gives per class (baseline and scenario): repeaterCount (k inserted), repeaterSize (h), repeatedDelayS
+(= delayS when k = 0), stageCount (k + 1), repeaterAreaM2, repeaterEnergyJ (per net at the class's length),
+viaOhm, temperatureC, besides the line's R, C, delays, energy and power (repeaters included).
 
 Values: SI-prefixed units (20nm, 0.02um, 1.5fF, 2kohm, 10ps) or bare SI numbers (2e-8).
 Options: --json (only JSON on standard output), --help.
@@ -210,7 +232,10 @@ function capacitanceCmd(argv: string[]): CliResult {
   const out = {
     model: r.model,
     groundFPerM: r.areaFPerM + r.fringeFPerM,
+    /** @deprecated per neighbour here (Miller × both in evaluate): read couplingEachFPerM. */
     couplingFPerM: r.couplingPerNeighbourFPerM,
+    couplingEachFPerM: r.couplingEachFPerM,
+    couplingMillerFPerM: r.couplingMillerFPerM,
     totalFPerM: r.totalFPerM,
     areaFPerM: r.areaFPerM,
     fringeFPerM: r.fringeFPerM,
@@ -239,6 +264,7 @@ function delayCmd(argv: string[]): CliResult {
     "c-total": { type: "string" },
     driver: { type: "string" },
     load: { type: "string" },
+    model: { type: "string" },
   });
   if (v.help) return ok(HELP);
   const rOhm = need(v, "r-total", "ohm", RES);
@@ -249,10 +275,45 @@ function delayCmd(argv: string[]): CliResult {
   positiveOrThrow("c-total", cF, "a capacitance in farads", true);
   positiveOrThrow("driver", driverOhm, "a resistance in ohms", true);
   positiveOrThrow("load", loadF, "a capacitance in farads", true);
-  const d = lineDelay({ rOhm, cF, driverOhm, loadF });
+  const model = (v.model as string | undefined) ?? "exact";
+  if (model !== "exact" && model !== "sakurai") throw new UsageError(`--model: expected exact or sakurai, got "${model}"`);
+  const d = lineDelay({ rOhm, cF, driverOhm, loadF, model });
   if (v.json) return ok(json(d));
   return ok(
-    `t50 (Sakurai)     ${formatEngineering(d.t50S, "s")}\nElmore T_D        ${formatEngineering(d.elmoreS, "s")}\nline alone 0.377RC ${formatEngineering(d.intrinsicS, "s")}\n`,
+    `t50 (${model.padEnd(7)})   ${formatEngineering(d.t50S, "s")}\nt50 (Sakurai)     ${formatEngineering(d.sakuraiS, "s")}\nElmore T_D        ${formatEngineering(d.elmoreS, "s")}\nline alone 0.377RC ${formatEngineering(d.intrinsicS, "s")}\n`,
+  );
+}
+
+/**
+ * The optional via columns of a baseline file (the app's class schema does not carry them yet): the same file read
+ * again with the one reader (lib/import/csv-stream) and the format's row rules, attached to the classes by name.
+ * Rows were already validated by parseWireClassCsv (which rejects bad via cells naming the line).
+ */
+function attachVias(bytes: Uint8Array, classes: WireClass[]): void {
+  const byName = new Map(classes.map((c) => [c.name, c]));
+  let index = new Map<string, number>();
+  readCsvSync(
+    bytes,
+    {
+      header(h) {
+        const r = resolveHeader(h.fields, WIRE_CLASS_FORMAT);
+        if (r.ok) index = r.index;
+      },
+      malformed() {},
+      row(f, line) {
+        if (!["vias_per_net", "via_ohm", "via_width_nm", "via_height_nm"].some((n) => index.has(n))) return;
+        const record: Record<string, string> = {};
+        for (const [name, i] of index) record[name] = (f[i] ?? "").trim();
+        const wc = validateWireClassRow(record, line).wireClass;
+        const target = wc ? byName.get(wc.name) : undefined;
+        if (!wc || !target) return;
+        if (wc.viasPerNet !== undefined) target.viasPerNet = wc.viasPerNet;
+        if (wc.viaOhm !== undefined) target.viaOhm = wc.viaOhm;
+        if (wc.viaWidthM !== undefined) target.viaWidthM = wc.viaWidthM;
+        if (wc.viaHeightM !== undefined) target.viaHeightM = wc.viaHeightM;
+      },
+    },
+    { maxBytes: 64 * 1024 * 1024 },
   );
 }
 
@@ -260,6 +321,7 @@ function loadBaseline(v: Record<string, unknown>): { classes: WireClass[]; techn
   const path = v.baseline;
   if (typeof path !== "string") throw new UsageError("--baseline is required: a wire-class CSV file (format: /help/csv in the app)");
   const classes: WireClass[] = readCsvFile("baseline", path, (bytes) => parseWireClassCsv(bytes)).classes;
+  attachVias(readBytes(path, "baseline"), classes);
   const histograms = v.histograms;
   if (typeof histograms === "string") {
     const h = readCsvFile("histograms", histograms, (bytes) =>
@@ -356,6 +418,8 @@ function summary(r: ClassResult) {
       areaFPerM: r.capacitance.areaFPerM,
       fringeFPerM: r.capacitance.fringeFPerM,
       couplingFPerM: r.capacitance.couplingFPerM,
+      couplingMillerFPerM: r.capacitance.couplingMillerFPerM,
+      couplingEachFPerM: r.capacitance.couplingEachFPerM,
       model: r.capacitance.model,
     },
     rOhm: r.rOhm,
@@ -365,11 +429,20 @@ function summary(r: ClassResult) {
     elmoreS: r.elmoreS,
     intrinsicDelayS: r.intrinsicDelayS,
     repeaters: r.repeaters.count,
-    repeaterSize: r.repeaters.size,
-    repeatedDelayS: r.repeaters.delayS,
+    repeaterSize: r.repeaterSize,
+    repeatedDelayS: r.repeatedDelayS,
     criticalLengthM: r.repeaters.criticalLengthM,
+    repeaterCount: r.repeaterCount,
+    stageCount: r.stageCount,
+    repeaterAreaM2: r.repeaterAreaM2,
+    repeaterEnergyJ: r.repeaterEnergyJ,
+    viaOhm: r.viaOhm,
+    temperatureC: r.temperatureC,
+    delayModel: r.delayModel,
     energyJ: r.energyJ,
     powerW: r.powerW,
+    repeaterPowerW: r.repeaterPowerW,
+    totalRepeaterAreaM2: r.totalRepeaterAreaM2,
     distribution: {
       source: r.distribution.source,
       totalNets: r.distribution.totalNets,
@@ -396,7 +469,7 @@ function evaluateCmd(argv: string[]): CliResult {
   };
   if (v.json) return ok(json(out));
   const lines = [`Scenario S = ${settings.s}, S_L = ${settings.sL}, level ${settings.level} (engine ${ev.engineVersion}); scenario/baseline`];
-  const head = ["class", "length", "R", "C", "RC", "delay", "stages", "energy", "×R", "×C", "×RC", "×delay"];
+  const head = ["class", "length", "R", "C", "RC", "delay", "repeaters", "repeated", "energy", "×R", "×C", "×RC", "×delay"];
   const rows = ev.classes.map((c) => [
     c.name,
     formatEngineering(c.scenario.lengthM, "m", 3),
@@ -404,7 +477,8 @@ function evaluateCmd(argv: string[]): CliResult {
     formatEngineering(c.scenario.cF, "F", 3),
     formatEngineering(c.scenario.rcS, "s", 3),
     formatEngineering(c.scenario.delayS, "s", 3),
-    String(c.scenario.repeaters.count),
+    c.scenario.repeaterCount > 0 ? `${c.scenario.repeaterCount} × ${c.scenario.repeaterSize.toFixed(1)}` : "0",
+    formatEngineering(c.scenario.repeatedDelayS, "s", 3),
     formatEngineering(c.scenario.energyJ, "J", 3),
     c.ratio.rOhm.toFixed(3),
     c.ratio.cF.toFixed(3),
@@ -431,6 +505,7 @@ function sweepCmd(argv: string[]): CliResult {
     levels: { type: "string" },
     class: { type: "string" },
     log: { type: "boolean" },
+    "length-rule": { type: "string" },
   });
   if (v.help) return ok(HELP);
   const { classes, technology } = loadBaseline(v);
@@ -453,6 +528,10 @@ function sweepCmd(argv: string[]): CliResult {
     if (!(MODEL_LEVELS as readonly string[]).includes(l)) throw new UsageError(`--levels: expected a comma list of ideal, fringe, coupled, full, got "${l}"`);
   const classNames = typeof v.class === "string" ? [v.class] : undefined;
   if (classNames && !classes.some((c) => c.name === classNames[0])) throw new UsageError(`--class: no class "${classNames[0]}" in the baseline`);
+  const rule = (v["length-rule"] as string | undefined) ?? "scenario";
+  const lengthMode = ({ scenario: "scenario", "follows-s": "follow", fixed: "fixed" } as const)[rule as "scenario" | "follows-s" | "fixed"];
+  if (lengthMode === undefined) throw new UsageError(`--length-rule: expected scenario, follows-s or fixed, got "${rule}"`);
+  if (lengthMode !== "scenario" && variable !== "s") throw new UsageError(`--length-rule: only for S sweeps (--variable s), got --variable ${variable}`);
   const curves = sweep({
     classes,
     technology,
@@ -465,8 +544,9 @@ function sweepCmd(argv: string[]): CliResult {
     levels: levels as ModelLevel[],
     spacing: v.log ? "log" : "linear",
     classNames,
+    lengthMode,
   });
-  if (v.json) return ok(json({ metric, variable, curves }));
+  if (v.json) return ok(json({ metric, variable, lengthRule: rule, curves }));
   const lines: string[] = [`${metric} against ${variable} (${levels.join(", ")})`];
   const unit = { delay: "s", rc: "s", r: "Ω", c: "F" }[metric as SweepMetric];
   for (const c of curves) {
@@ -476,6 +556,69 @@ function sweepCmd(argv: string[]): CliResult {
       `${c.className.padEnd(14)} ${c.level.padEnd(8)} ${first ? `${first.x.toFixed(3)}: ${formatEngineering(first.y, unit, 3)}` : "-"}  →  ${last ? `${last.x.toFixed(3)}: ${formatEngineering(last.y, unit, 3)}` : "-"}${c.skipped ? `  (${c.skipped.length} points skipped)` : ""}`,
     );
   }
+  return ok(lines.join("\n") + "\n");
+}
+
+/** Reads the measured-resistance CSV (class, r_ohm_per_um, temperature_c) with the one reader and the format's rules. */
+function readMeasured(path: string): MeasuredResistance[] {
+  const bytes = readBytes(path, "measured");
+  const out: MeasuredResistance[] = [];
+  let index = new Map<string, number>();
+  let width = 0;
+  const problems: string[] = [];
+  try {
+    readCsvSync(
+      bytes,
+      {
+        header(h) {
+          const r = resolveHeader(h.fields, MEASURED_RESISTANCE_FORMAT);
+          if (!r.ok) throw new UsageError(issueText("measured", path, r.issue));
+          index = r.index;
+          width = h.fields.length;
+        },
+        malformed(line, message) {
+          problems.push(issueText("measured", path, { line, column: null, value: null, message }));
+        },
+        row(f, line) {
+          if (f.length !== width && !(f.length === width + 1 && f[width] === "")) {
+            problems.push(issueText("measured", path, { line, column: null, value: null, message: `has ${f.length} fields, the header has ${width}` }));
+            return;
+          }
+          const record: Record<string, string> = {};
+          for (const [name, i] of index) record[name] = f[i] ?? "";
+          const r = validateMeasuredRow(record, line);
+          for (const e of r.errors) problems.push(issueText("measured", path, e));
+          if (r.measured) out.push(r.measured);
+        },
+      },
+      { maxBytes: 64 * 1024 * 1024 },
+    );
+  } catch (e) {
+    if (e instanceof UsageError) throw e;
+    if (e instanceof ImportFatalError) throw new UsageError(issueText("measured", path, e.issue));
+    throw e;
+  }
+  if (problems.length > 0)
+    throw new UsageError(`${problems[0]}${problems.length > 1 ? ` (and ${problems.length - 1} more error${problems.length > 2 ? "s" : ""})` : ""}`);
+  if (out.length === 0) throw new UsageError(`--measured: ${path} has no measurements`);
+  return out;
+}
+
+function fitCmd(argv: string[]): CliResult {
+  const v = parse(argv, { baseline: { type: "string" }, measured: { type: "string" }, technology: { type: "string" } });
+  if (v.help) return ok(HELP);
+  const { classes, technology } = loadBaseline(v);
+  if (typeof v.measured !== "string") throw new UsageError("--measured is required: a CSV file with columns class,r_ohm_per_um,temperature_c");
+  const measured = readMeasured(v.measured);
+  const f = fitSizeEffect({ classes, measured, technology });
+  if (v.json) return ok(json(f));
+  const lines = ['Fitted metals (pass as the technology JSON\'s "materials"):'];
+  for (const [id, m] of Object.entries(f.metals)) lines.push(`  ${id}: ${JSON.stringify(m)}`);
+  lines.push("Points (measured → fitted, residual):");
+  for (const p of f.points)
+    lines.push(
+      `  ${p.class.padEnd(14)} ${formatEngineering(p.measuredOhmPerM * 1e-6, "Ω", 4)}/µm → ${formatEngineering(p.fittedOhmPerM * 1e-6, "Ω", 4)}/µm  ${(p.residual * 100).toFixed(3)}%`,
+    );
   return ok(lines.join("\n") + "\n");
 }
 
@@ -514,13 +657,15 @@ export function run(argv: string[]): CliResult {
         return sweepCmd(rest);
       case "materials":
         return materialsCmd(rest);
+      case "fit":
+        return fitCmd(rest);
       case undefined:
       case "--help":
       case "-h":
       case "help":
         return ok(HELP + "\n");
       default:
-        throw new UsageError(`unknown command "${command}": expected capacitance, delay, evaluate, sweep or materials`);
+        throw new UsageError(`unknown command "${command}": expected capacitance, delay, evaluate, sweep, fit or materials`);
     }
   } catch (e) {
     if (e instanceof UsageError || e instanceof RangeError) return { code: 2, stdout: "", stderr: `error: ${e.message}\n` };

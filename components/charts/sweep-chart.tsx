@@ -4,7 +4,7 @@ import { Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart } from "@visx/xyc
 import type { ModelLevel, SweepMetric, SweepPoint } from "@/lib/scaling";
 import { GridRowsAt, RefLine } from "./ref-line";
 import { CHART, LEVEL_STYLE, chartTheme, logTicks, scaleTicks, tick } from "./chart-theme";
-import { LevelLegend, SWEEP_METRIC } from "./sweep-meta";
+import { LevelLegend, OUTSIDE_RANGE_STYLE, SWEEP_METRIC } from "./sweep-meta";
 
 export { LevelLegend, SWEEP_METRIC } from "./sweep-meta";
 
@@ -32,7 +32,10 @@ export interface SweepChartProps {
   legend?: boolean;
 }
 
-type Datum = { x: number; y: number; level: ModelLevel };
+/** `out`: a model is outside its validity range at this point (the engine's flags on the sweep point). */
+type Datum = { x: number; y: number; level: ModelLevel; out?: boolean };
+/** Series keys of the outside-range bands: left out of the tooltip. */
+const OUT_KEY = "outside:";
 const xAcc = (d: Datum) => d.x;
 const yAcc = (d: Datum) => d.y;
 
@@ -56,10 +59,13 @@ export function SweepChart({
     () =>
       data.curves.map((c) => ({
         level: c.level,
-        points: c.points.filter((p) => Number.isFinite(p.y) && p.y > 0).map((p) => ({ x: p.x, y: p.y * m.scale, level: c.level })),
+        points: c.points
+          .filter((p) => Number.isFinite(p.y) && p.y > 0)
+          .map((p): Datum => ({ x: p.x, y: p.y * m.scale, level: c.level, out: (p.flags?.length ?? 0) > 0 })),
       })),
     [data, m.scale],
   );
+  const outside = useMemo(() => series.flatMap((s) => outsideRuns(s.points).map((points, i) => ({ key: `${OUT_KEY}${s.level}:${i}`, points }))), [series]);
   const { xDomain, yDomain } = useMemo(() => {
     const xs = series.flatMap((s) => s.points.map((p) => p.x));
     const ys = series.flatMap((s) => s.points.map((p) => p.y));
@@ -99,6 +105,20 @@ export function SweepChart({
         <Axis orientation="bottom" label={xLabel} tickValues={xTicks} tickFormat={(v) => tick(Number(v))} labelOffset={12} />
         <Axis orientation="left" label={yLabel} tickValues={yTicks} numTicks={4} tickFormat={(v) => tick(Number(v))} labelOffset={34} />
         {marker !== undefined ? <RefLine x={marker} color={CHART.muted} dash="3 3" label={`S = ${tick(marker)}`} labelAt="top" /> : null}
+        {outside.map((o) => (
+          <LineSeries
+            key={o.key}
+            dataKey={o.key}
+            data={o.points}
+            xAccessor={xAcc}
+            yAccessor={yAcc}
+            colorAccessor={() => OUTSIDE_RANGE_STYLE.color}
+            strokeDasharray={OUTSIDE_RANGE_STYLE.dash}
+            strokeWidth={OUTSIDE_RANGE_STYLE.width}
+            strokeOpacity={OUTSIDE_RANGE_STYLE.opacity}
+            data-outside-range=""
+          />
+        ))}
         {series.map((s) => (
           <LineSeries
             key={s.level}
@@ -126,6 +146,9 @@ export function SweepChart({
           showVerticalCrosshair
           showSeriesGlyphs
           verticalCrosshairStyle={{ stroke: CHART.rule, strokeDasharray: "3 3" }}
+          renderGlyph={({ key, x, y, color, size }) =>
+            key.startsWith(OUT_KEY) ? null : <circle cx={x} cy={y} r={size} fill={color} stroke="#fff" strokeWidth={1.5} paintOrder="fill" />
+          }
           renderTooltip={({ tooltipData }) => {
             const near = tooltipData?.nearestDatum?.datum;
             if (!near) return null;
@@ -135,11 +158,14 @@ export function SweepChart({
                   {data.className} at S = {tick(near.x)}
                 </div>
                 {Object.entries(tooltipData?.datumByKey ?? {})
-                  .filter(([k]) => k !== "Current scenario")
+                  .filter(([k]) => k !== "Current scenario" && !k.startsWith(OUT_KEY))
                   .map(([k, v]) => (
                     <div key={k} className="flex justify-between gap-3">
                       <span style={{ color: LEVEL_STYLE[(v.datum as Datum).level].color }}>{k}</span>
-                      <span className="tabular">{relative ? `${tick((v.datum as Datum).y)}×` : `${tick((v.datum as Datum).y)} ${m.unit}`}</span>
+                      <span className="tabular">
+                        {relative ? `${tick((v.datum as Datum).y)}×` : `${tick((v.datum as Datum).y)} ${m.unit}`}
+                        {(v.datum as Datum).out ? " (outside model range)" : ""}
+                      </span>
                     </div>
                   ))}
               </div>
@@ -147,9 +173,29 @@ export function SweepChart({
           }}
         />
       </XYChart>
-      {legend ? <LevelLegend /> : null}
+      {legend ? <LevelLegend outsideRange={outside.length > 0} /> : null}
     </figure>
   );
+}
+
+/**
+ * The stretches of a curve where a model is outside its range: each run of flagged points, widened by the
+ * in-range neighbour on either side so the band reaches the boundary between two sample points.
+ */
+function outsideRuns(points: Datum[]): Datum[][] {
+  const runs: Datum[][] = [];
+  let i = 0;
+  while (i < points.length) {
+    if (!points[i]!.out) {
+      i++;
+      continue;
+    }
+    let j = i;
+    while (j + 1 < points.length && points[j + 1]!.out) j++;
+    runs.push(points.slice(Math.max(0, i - 1), Math.min(points.length, j + 2)));
+    i = j + 1;
+  }
+  return runs;
 }
 
 function nearest(points: Datum[], x: number): Datum | undefined {

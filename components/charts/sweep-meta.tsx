@@ -1,5 +1,5 @@
 import type { ModelLevel, SweepMetric } from "@/lib/scaling";
-import { LEVEL_STYLE } from "./palette";
+import { CHART, LEVEL_STYLE } from "./palette";
 
 /** Display unit of each sweep metric (y values arrive in SI). No visx here: pages use it before the charts load. */
 export const SWEEP_METRIC: Record<SweepMetric, { label: string; unit: string; scale: number }> = {
@@ -9,8 +9,17 @@ export const SWEEP_METRIC: Record<SweepMetric, { label: string; unit: string; sc
   c: { label: "Capacitance", unit: "fF", scale: 1e15 },
 };
 
-/** Legend of the model levels (line sample + name). */
-export function LevelLegend({ levels = ["ideal", "fringe", "coupled", "full"] as ModelLevel[] }: { levels?: ModelLevel[] }) {
+/** How a stretch of a curve outside a model's validity range is drawn (a dashed band under the curve). */
+export const OUTSIDE_RANGE_STYLE = { color: CHART.warn, dash: "4 3", width: 5, opacity: 0.35, label: "outside model range" } as const;
+
+/** Legend of the model levels (line sample + name); `outsideRange` adds the entry for stretches outside a model's range. */
+export function LevelLegend({
+  levels = ["ideal", "fringe", "coupled", "full"] as ModelLevel[],
+  outsideRange = false,
+}: {
+  levels?: ModelLevel[];
+  outsideRange?: boolean;
+}) {
   return (
     <ul className="flex flex-wrap gap-x-4 gap-y-1 text-xs text-muted" aria-label="Model levels">
       {levels.map((l) => (
@@ -21,6 +30,23 @@ export function LevelLegend({ levels = ["ideal", "fringe", "coupled", "full"] as
           {LEVEL_STYLE[l].label}
         </li>
       ))}
+      {outsideRange ? (
+        <li className="flex items-center gap-1.5" data-testid="legend-outside-range">
+          <svg width="26" height="10" aria-hidden="true">
+            <line
+              x1="1"
+              y1="5"
+              x2="25"
+              y2="5"
+              stroke={OUTSIDE_RANGE_STYLE.color}
+              strokeOpacity={OUTSIDE_RANGE_STYLE.opacity}
+              strokeWidth={OUTSIDE_RANGE_STYLE.width}
+              strokeDasharray={OUTSIDE_RANGE_STYLE.dash}
+            />
+          </svg>
+          {OUTSIDE_RANGE_STYLE.label}
+        </li>
+      ) : null}
     </ul>
   );
 }

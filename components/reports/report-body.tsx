@@ -23,21 +23,45 @@ interface MetricRow {
   format: (v: number) => string;
   /** "context": geometry, no better/worse tone; "points": a share, its change in percentage points. */
   kind?: "context" | "points";
+  /** Depends on the operating temperature: the label names it (when the frozen result carries it). */
+  atTemperature?: boolean;
 }
+
+/** A result field added by engine 2 (absent in reports frozen by engine 1.x): NaN shows as n/a. */
+const since2 = (v: number | undefined): number => v ?? Number.NaN;
 
 /** Table rows per chosen metric: label, unit (in the header cell), value and format. Lower is better for all. */
 const METRIC_ROWS: Record<ReportMetric, MetricRow[]> = {
   delay: [{ label: "Delay at mean length", unit: "ps", value: (r) => r.delayS, format: (v) => fixed(v, PS) }],
   rc: [{ label: "Wire RC", unit: "ps", value: (r) => r.rcS, format: (v) => fixed(v, PS) }],
   resistance: [
-    { label: "Resistance per length", unit: "Ω/µm", value: (r) => r.rOhmPerM, format: (v) => fixed(v, 1e6) },
-    { label: "Wire resistance", unit: "Ω", value: (r) => r.rOhm, format: (v) => fixed(v, 1) },
+    { label: "Resistance per length", unit: "Ω/µm", value: (r) => r.rOhmPerM, format: (v) => fixed(v, 1e6), atTemperature: true },
+    { label: "Wire resistance", unit: "Ω", value: (r) => r.rOhm, format: (v) => fixed(v, 1), atTemperature: true },
   ],
   capacitance: [
     { label: "Capacitance per length", unit: "fF/µm", value: (r) => r.cFPerM, format: (v) => fixed(v, 1e-9) },
     { label: "Wire capacitance", unit: "fF", value: (r) => r.cF, format: (v) => fixed(v, FF) },
   ],
-  repeaters: [{ label: "Repeater stages per net", unit: "", value: (r) => r.repeaters.count, format: (v) => count(v) }],
+  repeaters: [
+    { label: "Repeater stages per net", unit: "", value: (r) => r.repeaters.count, format: (v) => count(v) },
+    { label: "Inserted repeaters per net", unit: "", value: (r) => since2(r.repeaterCount), format: (v) => count(v) },
+    {
+      label: "Repeater size",
+      unit: "× minimum",
+      // no size (and no change) where no repeater is inserted
+      value: (r) => (r.repeaterCount !== undefined && r.repeaterCount > 0 ? since2(r.repeaterSize) : Number.NaN),
+      format: (v) => (Number.isFinite(v) ? plain(v, 3) : "—"),
+      kind: "context",
+    },
+    { label: "Repeater area per net", unit: "µm²", value: (r) => since2(r.repeaterAreaM2), format: (v) => fixed(v, 1e-12) },
+    {
+      label: "Repeaters' share of power",
+      unit: "%",
+      value: (r) => (r.repeaterPowerW === undefined ? Number.NaN : r.powerW > 0 ? (100 * r.repeaterPowerW) / r.powerW : 0),
+      format: (v) => plain(v, 3),
+      kind: "points",
+    },
+  ],
   energy: [{ label: "Energy per transition", unit: "fJ", value: (r) => r.energyJ, format: (v) => fixed(v, FF) }],
   power: [{ label: "Switching power, all nets", unit: "µW", value: (r) => r.powerW, format: (v) => fixed(v, 1e-6) }],
   overBudget: [
@@ -61,6 +85,7 @@ function Delta({ c, className = "" }: { c: number | null; className?: string }) 
 }
 
 function CellDelta({ m, base, value }: { m: MetricRow; base: number; value: number }) {
+  if (!Number.isFinite(base) || !Number.isFinite(value)) return <span className="tabular whitespace-nowrap text-muted">n/a</span>;
   if (m.kind === "points") {
     const d = value - base;
     const text = Math.abs(d) < 0.005 ? "±0 pt" : `${d < 0 ? "−" : "+"}${plain(Math.abs(d), 2)} pt`;
@@ -241,6 +266,7 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
                       <th scope="row" className="py-1 pr-3 pl-3 text-left text-xs font-normal text-muted">
                         {m.label}
                         {m.unit ? ` (${m.unit})` : ""}
+                        {m.atTemperature && base.temperatureC !== undefined ? ` at ${plain(base.temperatureC, 4)} °C` : ""}
                       </th>
                       <td className="num px-2 py-1 text-right tabular">{m.format(m.value(base))}</td>
                       {f.options.map((o) => {

@@ -54,6 +54,8 @@ export function SweepFigure({ sweep, optionNames }: { sweep: FrozenSweep; option
   const sy = (yPs: number) => H - M.b - (yPs / yTop) * (H - M.t - M.b);
   const path = (pts: { x: number; y: number }[]) => pts.map((p, i) => `${i === 0 ? "M" : "L"}${sx(p.x).toFixed(1)},${sy(p.y / PS).toFixed(1)}`).join("");
   const title = `Delay of class ${sweep.className} against the cross-section factor S`;
+  // Stretches where a model is outside its validity range (engine 2 stores the flags on every point; older reports have none).
+  const outside = sweep.series.flatMap((s) => outsideRuns(s.points).map((pts, i) => ({ key: `${s.key}-${i}`, pts })));
   return (
     <figure className="report-figure break-inside-avoid">
       <svg viewBox={`0 0 ${W} ${H}`} role="img" className="report-chart h-auto w-full" aria-label={title} preserveAspectRatio="xMidYMid meet">
@@ -82,6 +84,18 @@ export function SweepFigure({ sweep, optionNames }: { sweep: FrozenSweep; option
         <text transform={`translate(13 ${(M.t + H - M.b) / 2}) rotate(-90)`} textAnchor="middle" fontSize={11} fill="#1d1f22">
           Delay at mean length (ps)
         </text>
+        {outside.map((o) => (
+          <path
+            key={`out-${o.key}`}
+            d={path(o.pts)}
+            fill="none"
+            stroke={OUTSIDE.color}
+            strokeOpacity={OUTSIDE.opacity}
+            strokeWidth={OUTSIDE.width}
+            strokeDasharray={OUTSIDE.dash}
+            data-outside-range=""
+          />
+        ))}
         {sweep.series.map((s) => {
           const st = SERIES_STYLE[s.key] ?? SERIES_STYLE.reference!;
           return (
@@ -120,8 +134,41 @@ export function SweepFigure({ sweep, optionNames }: { sweep: FrozenSweep; option
             </span>
           );
         })}
+        {outside.length > 0 ? (
+          <span className="inline-flex items-center gap-1.5">
+            <svg width="26" height="10" aria-hidden="true">
+              <line
+                x1="1"
+                x2="25"
+                y1="5"
+                y2="5"
+                stroke={OUTSIDE.color}
+                strokeOpacity={OUTSIDE.opacity}
+                strokeWidth={OUTSIDE.width}
+                strokeDasharray={OUTSIDE.dash}
+              />
+            </svg>
+            outside model range
+          </span>
+        ) : null}
         <span>Markers: each option at its own S.</span>
       </figcaption>
     </figure>
   );
+}
+
+/** Dashed amber band under a curve where a model is outside its range (as on the workspace's sweep chart). */
+const OUTSIDE = { color: "#8a6410", dash: "4 3", width: 5, opacity: 0.35 };
+
+/** Runs of flagged points, each widened by its in-range neighbours so the band reaches the boundary. */
+function outsideRuns<P extends { flags?: unknown[] }>(points: P[]): P[][] {
+  const runs: P[][] = [];
+  for (let i = 0; i < points.length; i++) {
+    if (!points[i]!.flags?.length) continue;
+    let j = i;
+    while (j + 1 < points.length && points[j + 1]!.flags?.length) j++;
+    runs.push(points.slice(Math.max(0, i - 1), Math.min(points.length, j + 2)));
+    i = j;
+  }
+  return runs;
 }

@@ -6,7 +6,19 @@ import useSWR from "swr";
 import type { BaselineRevision, BaselineWithClasses } from "@/db/queries/baselines";
 import type { StoredWireClass } from "@/db/queries/wire-classes";
 import type { Role } from "@/lib/access";
-import { METALS, TIERS, type Technology, type Tier, type WireClass } from "@/lib/scaling";
+import Decimal from "decimal.js";
+import {
+  DEFAULT_MIN_REPEATER_GAIN,
+  DEFAULT_OUTPUT_C_RATIO,
+  DEFAULT_REPEATER_AREA_M2,
+  DEFAULT_TEMPERATURE_C,
+  METALS,
+  TIERS,
+  type DelayModel,
+  type Technology,
+  type Tier,
+  type WireClass,
+} from "@/lib/scaling";
 import { ApiRequestError, apiSend, errorMessage, fetchJson, staleVersionOf } from "@/lib/api-client";
 import { swrKeys } from "@/lib/swr-keys";
 import { Button, ButtonLink } from "@/components/ui/button";
@@ -17,9 +29,25 @@ import { U, formatValue, parseValue, type DisplayUnit } from "./units";
 import { ConfirmDelete } from "@/components/ui/confirm-delete";
 
 type NumKey =
-  "widthM" | "thicknessM" | "spacingM" | "ildBelowM" | "ildAboveM" | "barrierM" | "k" | "netCount" | "meanLengthM" | "driverOhm" | "loadF" | "activity";
+  | "widthM"
+  | "thicknessM"
+  | "spacingM"
+  | "ildBelowM"
+  | "ildAboveM"
+  | "barrierM"
+  | "k"
+  | "netCount"
+  | "meanLengthM"
+  | "driverOhm"
+  | "loadF"
+  | "activity"
+  | "viasPerNet"
+  | "viaOhm"
+  | "viaWidthM"
+  | "viaHeightM";
 // Input widths per column (Tailwind classes) keep the editable table within a 1280 px layout.
-const NUM_COLS: { key: NumKey; label: string; unit: DisplayUnit; optional?: boolean; int?: boolean; width: string }[] = [
+// `omit`: optional engine field left out when empty (vias: empty = none / the default geometry); `optional`: empty = null.
+const NUM_COLS: { key: NumKey; label: string; unit: DisplayUnit; optional?: boolean; omit?: boolean; int?: boolean; width: string; title?: string }[] = [
   { key: "widthM", label: "Width", unit: U.nm, width: "w-14" },
   { key: "thicknessM", label: "Thickness", unit: U.nm, width: "w-14" },
   { key: "spacingM", label: "Spacing", unit: U.nm, width: "w-14" },
@@ -32,6 +60,10 @@ const NUM_COLS: { key: NumKey; label: string; unit: DisplayUnit; optional?: bool
   { key: "driverOhm", label: "Driver", unit: U.ohm, width: "w-14" },
   { key: "loadF", label: "Load", unit: U.fF, width: "w-12" },
   { key: "activity", label: "Activity", unit: U.none, width: "w-12" },
+  { key: "viasPerNet", label: "Vias", unit: U.none, omit: true, int: true, width: "w-10", title: "Vias in series with each net (empty = none)" },
+  { key: "viaOhm", label: "Via R", unit: U.ohm, omit: true, width: "w-12", title: "Measured resistance of one via (empty = from the via's size)" },
+  { key: "viaWidthM", label: "Via width", unit: U.nm, omit: true, width: "w-12", title: "Square via width (empty = the line's width)" },
+  { key: "viaHeightM", label: "Via height", unit: U.nm, omit: true, width: "w-12", title: "Via height (empty = the ILD below)" },
 ];
 
 interface Row {
@@ -44,10 +76,15 @@ interface Row {
   histogramBins: number;
 }
 
+/** A technology as text independent of key order (edited fields are added at the end; the server returns its own order). */
+const techKey = (t: Technology) => JSON.stringify(Object.entries(t).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)));
+
+const hasVias = (c: WireClass) => c.viasPerNet !== undefined || c.viaOhm !== undefined || c.viaWidthM !== undefined || c.viaHeightM !== undefined;
+
 let rowSeq = 0;
 function toRow(c: StoredWireClass | (WireClass & { id?: string; histogramBins?: number })): Row {
   const cells = {} as Record<NumKey, string>;
-  for (const col of NUM_COLS) cells[col.key] = formatValue(c[col.key] as number | null, col.unit);
+  for (const col of NUM_COLS) cells[col.key] = formatValue(c[col.key] as number | null | undefined, col.unit);
   return { key: `r${++rowSeq}`, id: c.id, name: c.name, tier: c.tier, metal: c.metal, cells, histogramBins: c.histogramBins ?? 0 };
 }
 
@@ -63,6 +100,7 @@ function parseRow(r: Row): { value?: Record<string, unknown>; errors: Record<str
       out[col.key] = null;
       continue;
     }
+    if (col.omit && t === "") continue;
     const p = parseValue(t, col.unit);
     if (!p.ok) {
       errors[col.key] = p.message;
@@ -72,7 +110,7 @@ function parseRow(r: Row): { value?: Record<string, unknown>; errors: Record<str
     else if (col.int && !Number.isInteger(p.value)) errors[col.key] = `${col.label} must be a whole number.`;
     else if (col.key === "k" && p.value < 1) errors[col.key] = "k must be at least 1 (vacuum).";
     else if (col.key === "activity" && p.value > 1) errors[col.key] = "Activity must be between 0 and 1.";
-    else if (["widthM", "thicknessM", "spacingM", "meanLengthM", "ildBelowM", "ildAboveM"].includes(col.key) && p.value === 0)
+    else if (["widthM", "thicknessM", "spacingM", "meanLengthM", "ildBelowM", "ildAboveM", "viaWidthM", "viaHeightM"].includes(col.key) && p.value === 0)
       errors[col.key] = `${col.label} must be greater than 0.`;
     out[col.key] = p.value;
   }
@@ -101,6 +139,9 @@ export function BaselineEditor({
   const canDelete = role === "owner" || (role === "editor" && b.createdBy === userId);
 
   const [rows, setRows] = useState<Row[]>(() => b.classes.map(toRow));
+  // The optional via columns show when a class has vias, or on request (they widen the table).
+  const [showVias, setShowVias] = useState(() => b.classes.some(hasVias));
+  const shownCols = showVias ? NUM_COLS : NUM_COLS.filter((c) => !c.omit);
   const [meta, setMeta] = useState({ name: b.name, description: b.description, technology: b.technology });
   const [version, setVersion] = useState(b.version);
   const [serverErrors, setServerErrors] = useState<Record<string, string[]>>({});
@@ -124,7 +165,7 @@ export function BaselineEditor({
   const clientInvalid = parsed.some((p) => !p.value) || dupNames.size > 0;
   const originalRows = useMemo(() => JSON.stringify(b.classes.map(toRow).map(({ key: _k, ...r }) => r)), [b]);
   const classesDirty = JSON.stringify(rows.map(({ key: _k, ...r }) => r)) !== originalRows;
-  const metaDirty = meta.name !== b.name || meta.description !== b.description || JSON.stringify(meta.technology) !== JSON.stringify(b.technology);
+  const metaDirty = meta.name !== b.name || meta.description !== b.description || techKey(meta.technology) !== techKey(b.technology);
 
   const update = (i: number, patch: Partial<Row>) => setRows((rs) => rs.map((r, j) => (j === i ? { ...r, ...patch } : r)));
   const setCell = (i: number, key: NumKey, text: string) => setRows((rs) => rs.map((r, j) => (j === i ? { ...r, cells: { ...r.cells, [key]: text } } : r)));
@@ -238,7 +279,12 @@ export function BaselineEditor({
     return out;
   };
   const tech = meta.technology;
-  const setTech = (k: keyof Technology, v: number) => setMeta((m) => ({ ...m, technology: { ...m.technology, [k]: v } }));
+  const setTech = (k: keyof Technology, v: number | DelayModel) => setMeta((m) => ({ ...m, technology: { ...m.technology, [k]: v } }));
+  // Engine 2 settings: absent = the engine's default, shown as such; a field is stored once it is edited.
+  const gainPct = toDisplay(tech.minRepeaterGain ?? DEFAULT_MIN_REPEATER_GAIN, 0.01);
+  const areaUm2 = toDisplay(tech.repeaterAreaM2 ?? DEFAULT_REPEATER_AREA_M2, 1e-12);
+  const leakNW = toDisplay(tech.repeaterLeakageW ?? 0, 1e-9);
+  const techErr = (k: keyof Technology) => serverErrors[`technology.${k}`];
 
   return (
     <div className="space-y-4">
@@ -368,6 +414,91 @@ export function BaselineEditor({
             </>
           )}
         </div>
+        <h3 className="mb-2 mt-4 text-xs font-semibold uppercase tracking-wide text-muted">Operating point and repeaters</h3>
+        <div className="grid grid-cols-2 gap-3 sm:grid-cols-3 lg:grid-cols-6" data-testid="technology-engine2">
+          {readOnly ? (
+            <>
+              <Fact label="Temperature" value={`${formatValue(tech.temperatureC ?? DEFAULT_TEMPERATURE_C, U.none)} °C`} />
+              <Fact label="Delay model" value={DELAY_MODEL_LABEL[tech.delayModel ?? "exact"]} />
+              <Fact label="Minimum repeater gain" value={`${formatValue(gainPct, U.none)} %`} />
+              <Fact label="Repeater output-C ratio γ" value={formatValue(tech.repeaterOutputCRatio ?? DEFAULT_OUTPUT_C_RATIO, U.none)} />
+              <Fact label="Minimum repeater area" value={`${formatValue(areaUm2, U.none)} µm²`} />
+              <Fact label="Leakage per repeater" value={`${formatValue(leakNW, U.none)} nW`} />
+            </>
+          ) : (
+            <>
+              <NumberField
+                label="Operating temperature"
+                unit={DEG_C}
+                name="temperatureC"
+                value={tech.temperatureC ?? DEFAULT_TEMPERATURE_C}
+                onChange={(v) => setTech("temperatureC", v)}
+                check={(v) => (v <= -273.15 || v > 400 ? "Temperature must be above −273.15 °C and at most 400 °C." : undefined)}
+                hint="Of the wiring; sets the metals' resistivity (default 25 °C)."
+                errors={techErr("temperatureC")}
+              />
+              <div>
+                <label htmlFor="delay-model" className="mb-1 block text-xs font-medium text-ink">
+                  Delay model
+                </label>
+                <select
+                  id="delay-model"
+                  name="delayModel"
+                  aria-describedby="delay-model-hint"
+                  className={inputClass}
+                  value={tech.delayModel ?? "exact"}
+                  onChange={(e) => setTech("delayModel", e.target.value as DelayModel)}
+                >
+                  <option value="exact">{DELAY_MODEL_LABEL.exact}</option>
+                  <option value="sakurai">{DELAY_MODEL_LABEL.sakurai}</option>
+                </select>
+                <p id="delay-model-hint" className="mt-0.5 text-[11px] text-muted">
+                  Exact distributed line, or Sakurai&apos;s closed form (0–3% lower).
+                </p>
+                {techErr("delayModel") ? <p className="text-[11px] text-bad">{techErr("delayModel")!.join(" ")}</p> : null}
+              </div>
+              <NumberField
+                label="Minimum repeater gain"
+                unit={PERCENT}
+                name="minRepeaterGain"
+                value={gainPct}
+                onChange={(v) => setTech("minRepeaterGain", toSI(v, 0.01))}
+                check={(v) => (v < 0 || v >= 100 ? "Gain must be from 0 to less than 100 %." : undefined)}
+                hint="Repeaters only where they cut a net's delay by this much (default 10 %)."
+                errors={techErr("minRepeaterGain")}
+              />
+              <NumberField
+                label="Repeater output-C ratio γ"
+                name="repeaterOutputCRatio"
+                value={tech.repeaterOutputCRatio ?? DEFAULT_OUTPUT_C_RATIO}
+                onChange={(v) => setTech("repeaterOutputCRatio", v)}
+                check={(v) => (v < 0 || v > 10 ? "γ must be between 0 and 10." : undefined)}
+                hint="Output (diffusion) capacitance ÷ input capacitance (default 0.5)."
+                errors={techErr("repeaterOutputCRatio")}
+              />
+              <NumberField
+                label="Minimum repeater area"
+                unit={UM2}
+                name="repeaterAreaM2"
+                value={areaUm2}
+                onChange={(v) => setTech("repeaterAreaM2", toSI(v, 1e-12))}
+                check={(v) => (v < 0 || v > 1e6 ? "Area must be between 0 and 10⁶ µm²." : undefined)}
+                hint="Layout area of a minimum-size repeater; size h takes h times it (default 0.1 µm²)."
+                errors={techErr("repeaterAreaM2")}
+              />
+              <NumberField
+                label="Leakage per repeater"
+                unit={NW}
+                name="repeaterLeakageW"
+                value={leakNW}
+                onChange={(v) => setTech("repeaterLeakageW", toSI(v, 1e-9))}
+                check={(v) => (v < 0 || v > 1e9 ? "Leakage must be between 0 and 1 W." : undefined)}
+                hint="Of a minimum-size repeater, added to power (default 0 nW)."
+                errors={techErr("repeaterLeakageW")}
+              />
+            </>
+          )}
+        </div>
       </Card>
 
       <Card
@@ -408,7 +539,14 @@ export function BaselineEditor({
           {readOnly
             ? "Values in the unit under each column heading."
             : "Type values in the unit under each column heading, or with any SI prefix (“0.02 µm” in a nm column)."}{" "}
-          Empty ILD = no plane on that side.
+          Empty ILD = no plane on that side.{" "}
+          {showVias
+            ? "Vias are optional: empty = no vias; empty via R = computed from the via's width and height (empty = the line's width and the ILD below). "
+            : ""}
+          <label className="no-print ml-1 inline-flex items-center gap-1 text-ink">
+            <input type="checkbox" checked={showVias} onChange={(e) => setShowVias(e.target.checked)} data-testid="show-vias" />
+            Via columns
+          </label>
         </p>
         {/* Scrolls sideways only on narrow screens; the class name stays pinned on the left. */}
         <div className="relative overflow-x-auto" role="region" aria-label="Wire class table" tabIndex={-1}>
@@ -424,8 +562,8 @@ export function BaselineEditor({
                 <th scope="col" className="px-1 py-1 text-left font-medium">
                   Metal
                 </th>
-                {NUM_COLS.map((c) => (
-                  <th key={c.key} scope="col" className="px-1 py-1 text-right font-medium leading-tight">
+                {shownCols.map((c) => (
+                  <th key={c.key} scope="col" className="px-1 py-1 text-right font-medium leading-tight" title={c.title}>
                     {c.label}
                     <span className="block text-[10px] font-normal text-faint">{c.unit.label || "\u00a0"}</span>
                   </th>
@@ -451,7 +589,7 @@ export function BaselineEditor({
                       </th>
                       <td className="px-1 py-1">{r.tier}</td>
                       <td className="px-1 py-1">{r.metal}</td>
-                      {NUM_COLS.map((c) => (
+                      {shownCols.map((c) => (
                         <td key={c.key} className="tabular px-1 py-1 text-right">
                           {r.cells[c.key] || "—"}
                         </td>
@@ -496,7 +634,7 @@ export function BaselineEditor({
                         </div>
                         {cellErr(i, "metal").length ? <p className="text-[11px] text-bad">{cellErr(i, "metal").join(" ")}</p> : null}
                       </td>
-                      {NUM_COLS.map((c) => (
+                      {shownCols.map((c) => (
                         <td key={c.key} className="px-1 py-0.5">
                           <Cell
                             label={`${c.label} of ${r.name}${c.unit.label ? ` (${c.unit.label})` : ""}`}
@@ -504,7 +642,7 @@ export function BaselineEditor({
                             onChange={(v) => setCell(i, c.key, v)}
                             errors={cellErr(i, c.key)}
                             numeric
-                            placeholder={c.optional ? "none" : ""}
+                            placeholder={c.optional ? "none" : c.omit ? "—" : ""}
                             width={c.width}
                           />
                         </td>
@@ -596,6 +734,15 @@ function CsvLinks({ teamId, baselineId, canImport }: { teamId: string; baselineI
 
 /** The class-name column stays in view when the table scrolls sideways on narrow screens. */
 const STICKY = "sticky left-0 z-[1] bg-panel shadow-[1px_0_0_var(--color-rule)]";
+
+const DELAY_MODEL_LABEL: Record<DelayModel, string> = { exact: "Exact (distributed line)", sakurai: "Sakurai's closed form" };
+// Display units whose numbers the editor converts itself (exactly, with decimal.js): the field works in these units.
+const DEG_C: DisplayUnit = { label: "°C", unitSI: 1, base: "", suffix: "" };
+const PERCENT: DisplayUnit = { label: "%", unitSI: 1, base: "", suffix: "" };
+const UM2: DisplayUnit = { label: "µm²", unitSI: 1, base: "", suffix: "" };
+const NW: DisplayUnit = { label: "nW", unitSI: 1, base: "", suffix: "" };
+const toDisplay = (si: number, unitSI: number) => new Decimal(si).div(unitSI).toNumber();
+const toSI = (shown: number, unitSI: number) => new Decimal(shown).times(unitSI).toNumber();
 
 function Fact({ label, value }: { label: string; value: string }) {
   return (

@@ -12,7 +12,8 @@ type Col = {
   key: string;
   label: string;
   unit: string;
-  get: (r: ClassResult) => number;
+  /** null = not applicable (shown as —). */
+  get: (r: ClassResult) => number | null;
   ratio?: (c: ClassComparison) => number;
   concern?: "capacitance" | "resistivity" | "delay" | "repeaters";
   title?: string;
@@ -70,10 +71,31 @@ const COLS: Col[] = [
     key: "n",
     label: "Repeaters",
     unit: "",
-    get: (r) => r.repeaters.count - 1,
+    get: (r) => r.repeaterCount,
     ratio: (c) => c.ratio.repeaters,
     concern: "repeaters",
-    title: "Inserted repeaters on a line of the typical length (0 = driver only)",
+    title: "Inserted repeaters on a net of the typical length: real driver → repeaters → real load (0 = driver only)",
+  },
+  {
+    key: "h",
+    label: "Rep. size",
+    unit: "× min",
+    get: (r) => (r.repeaterCount > 0 ? r.repeaterSize : null),
+    title: "Size of each inserted repeater, in minimum-size repeaters (— when none is inserted)",
+  },
+  {
+    key: "ra",
+    label: "Rep. area",
+    unit: "µm²",
+    get: (r) => Number(fmtRaw(r.repeaterAreaM2, 1e-12)),
+    title: "Area of one such net's inserted repeaters (count × size × minimum repeater area)",
+  },
+  {
+    key: "rp",
+    label: "Rep. power",
+    unit: "% of class",
+    get: (r) => (r.powerW > 0 ? (100 * r.repeaterPowerW) / r.powerW : null),
+    title: "Share of the class's power spent in its repeaters (their capacitance switching, plus leakage)",
   },
   {
     key: "rd",
@@ -88,7 +110,7 @@ const COLS: Col[] = [
     unit: "fJ",
     get: (r) => Number(fmtRaw(r.energyJ, FJ.unitSI)),
     ratio: (c) => c.ratio.energyJ,
-    title: "C·V² per transition, line + load",
+    title: "C·V² per transition, line + load + repeaters",
   },
 ];
 
@@ -96,7 +118,7 @@ function fmtRaw(v: number, unitSI: number): number {
   return v / unitSI;
 }
 
-function show(v: number): string {
+function show(v: number | null): string {
   return fmt(v, U.none);
 }
 
@@ -109,6 +131,8 @@ function tone(r: number): string {
 
 /** Baseline vs scenario per class, ratio row highlighted, validity flags and model accuracy beside the figures. */
 export function ResultsTable({ evaluation, dataKey }: { evaluation: Evaluation; dataKey?: string }) {
+  // One operating temperature per evaluation (the baseline's technology): resistance is at it.
+  const temperatureC = evaluation.classes[0]?.scenario.temperatureC;
   return (
     <div className="overflow-x-auto" data-results-key={dataKey}>
       <table className="num w-full border-collapse text-xs" data-testid="results-table">
@@ -123,6 +147,11 @@ export function ResultsTable({ evaluation, dataKey }: { evaluation: Evaluation; 
               <th key={c.key} scope="col" className="px-1.5 text-right font-medium" title={c.title}>
                 {c.label}
                 {c.unit ? <span className="block text-[10px] font-normal text-faint">{c.unit}</span> : <span className="block text-[10px]">&nbsp;</span>}
+                {c.key === "r" && temperatureC !== undefined ? (
+                  <span className="block whitespace-nowrap text-[10px] font-normal text-faint" data-testid="r-temperature">
+                    at {fmt(temperatureC, U.none)} °C
+                  </span>
+                ) : null}
               </th>
             ))}
           </tr>

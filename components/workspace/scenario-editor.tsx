@@ -7,7 +7,7 @@ import useSWR from "swr";
 import type { BaselineWithClasses } from "@/db/queries/baselines";
 import type { Role } from "@/lib/access";
 import type { Scenario, ScenarioRevision, ScenarioSummary } from "@/db/queries/scenarios";
-import { evaluateScenario, type Evaluation, type ScenarioSettings, type WireClass } from "@/lib/scaling";
+import { DEFAULT_TEMPERATURE_C, evaluateScenario, type Evaluation, type ScenarioSettings, type WireClass } from "@/lib/scaling";
 import { apiSend, errorMessage, fetchJson, staleVersionOf, ApiRequestError } from "@/lib/api-client";
 import { swrKeys } from "@/lib/swr-keys";
 import { Caution } from "@/components/caution";
@@ -312,6 +312,10 @@ export function ScenarioEditor(props: {
               <dd className="tabular text-right">{fmt(baseline.technology.repeaterC0F, U.fF)} fF</dd>
               <dt className="text-muted">Delay budget</dt>
               <dd className="tabular text-right">{fmt(baseline.technology.delayBudgetS, U.ps)} ps</dd>
+              <dt className="text-muted">Temperature</dt>
+              <dd className="tabular text-right">{fmt(baseline.technology.temperatureC ?? DEFAULT_TEMPERATURE_C, U.none)} °C</dd>
+              <dt className="text-muted">Delay model</dt>
+              <dd className="text-right">{(baseline.technology.delayModel ?? "exact") === "exact" ? "exact" : "Sakurai"}</dd>
             </dl>
           </Card>
         </aside>

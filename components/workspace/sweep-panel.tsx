@@ -126,13 +126,15 @@ export function SweepPanel({
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [byClass, view.metric, settings]);
   const relative = view.scale === "relative";
+  // any drawn point where a model is outside its validity range (engine 2 flags every sweep point)
+  const anyOutside = selected.some((n) => byClass.get(n)?.curves.some((c) => c.points.some((p) => (p.flags?.length ?? 0) > 0)));
   const chartData = (d: ClassCurves) =>
     relative
       ? {
           className: d.className,
           curves: d.curves
             .filter((c) => (d.at1[c.level] ?? 0) > 0)
-            .map((c) => ({ level: c.level, points: c.points.map((p) => ({ x: p.x, y: p.y / d.at1[c.level]! })) })),
+            .map((c) => ({ level: c.level, points: c.points.map((p) => ({ ...p, y: p.y / d.at1[c.level]! })) })),
         }
       : d;
   // Dots on the curves only where they are this scenario's own (same S_L rule); otherwise just a line at its S.
@@ -236,11 +238,11 @@ export function SweepPanel({
           })}
         </div>
         <div className="mt-2 flex flex-wrap items-center justify-between gap-2">
-          <LevelLegend />
+          <LevelLegend outsideRange={anyOutside} />
           <p className="text-[11px] text-muted">
-            {relative ? "Each curve ÷ its own value at S = 1 (this scenario's options, no shrink). " : ""}Log axes. Dashed line: this scenario&apos;s S. The gap
-            between two curves is what that effect adds; copper is the full model. Ideal scaling is the bare line (no driver or load): flat when the length
-            follows S, growing as S² when it is fixed.
+            {relative ? "Each curve ÷ its own value at S = 1 (this scenario's options, no shrink). " : ""}Log axes. Dashed line: this scenario&apos;s S; a
+            dashed amber band marks where a model is outside its validity range. The gap between two curves is what that effect adds; copper is the full model.
+            Ideal scaling is the bare line (no driver or load): flat when the length follows S, growing as S² when it is fixed.
           </p>
         </div>
         {readings.length > 0 ? (

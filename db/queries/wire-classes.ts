@@ -33,6 +33,11 @@ interface ClassRow {
   driver_ohm: number;
   load_f: number;
   activity: number;
+  /** Engine 2 vias (migration 4); null = not given. */
+  vias_per_net?: number | null;
+  via_ohm?: number | null;
+  via_width_m?: number | null;
+  via_height_m?: number | null;
   bins?: number;
 }
 
@@ -55,6 +60,11 @@ function toWireClass(r: ClassRow): StoredWireClass {
     driverOhm: r.driver_ohm,
     loadF: r.load_f,
     activity: r.activity,
+    // optional via fields only when stored, so classes without vias are exactly what they were
+    ...(r.vias_per_net != null && { viasPerNet: r.vias_per_net }),
+    ...(r.via_ohm != null && { viaOhm: r.via_ohm }),
+    ...(r.via_width_m != null && { viaWidthM: r.via_width_m }),
+    ...(r.via_height_m != null && { viaHeightM: r.via_height_m }),
     histogramBins: Number(r.bins ?? 0),
   };
 }

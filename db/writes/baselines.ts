@@ -117,6 +117,10 @@ export function classRow(baselineId: string, position: number, c: NewWireClass) 
     driver_ohm: c.driverOhm,
     load_f: c.loadF,
     activity: c.activity,
+    vias_per_net: c.viasPerNet ?? null,
+    via_ohm: c.viaOhm ?? null,
+    via_width_m: c.viaWidthM ?? null,
+    via_height_m: c.viaHeightM ?? null,
   };
 }
 
@@ -177,8 +181,16 @@ function describeTechnologyChange(before: Technology, after: Technology): string
     repeaterR0Ohm: "repeater R0",
     repeaterC0F: "repeater C0",
     delayBudgetS: "delay budget",
+    delayModel: "delay model",
+    temperatureC: "temperature",
+    minRepeaterGain: "minimum repeater gain",
+    repeaterOutputCRatio: "repeater output-capacitance ratio",
+    repeaterAreaM2: "repeater area",
+    repeaterLeakageW: "repeater leakage",
+    materials: "materials",
   };
-  return (Object.keys(labels) as (keyof Technology)[]).filter((k) => before[k] !== after[k]).map((k) => labels[k]);
+  // JSON comparison: `materials` is an object; a field left out and one set to its absent value compare equal
+  return (Object.keys(labels) as (keyof Technology)[]).filter((k) => JSON.stringify(before[k]) !== JSON.stringify(after[k])).map((k) => labels[k]);
 }
 
 // ---------------------------------------------------------------------------------------------

@@ -27,6 +27,10 @@ export function classesCsv(classes: StoredWireClass[]): string {
       driver_ohm: formatScaled(c.driverOhm, 0),
       load_ff: formatScaled(c.loadF, -15),
       activity: formatScaled(c.activity, 0),
+      vias_per_net: c.viasPerNet === undefined ? null : formatScaled(c.viasPerNet, 0),
+      via_ohm: c.viaOhm === undefined ? null : formatScaled(c.viaOhm, 0),
+      via_width_nm: c.viaWidthM === undefined ? null : formatScaled(c.viaWidthM, -9),
+      via_height_nm: c.viaHeightM === undefined ? null : formatScaled(c.viaHeightM, -9),
     };
     out += csvLine(cols.map((k) => v[k] ?? null));
   }
@@ -110,6 +114,13 @@ const RESULT_COLUMNS: [string, (c: ClassComparison) => string | number | null][]
   ["total_repeaters", (c) => c.scenario.distribution.totalRepeaters],
   ["baseline_total_repeaters", (c) => c.baseline.distribution.totalRepeaters],
   ["validity_flags", (c) => c.scenario.validity.map((v) => v.message).join(" | ")],
+  // engine 2 (appended: earlier columns keep their positions)
+  ["repeater_count", (c) => c.scenario.repeaterCount],
+  ["repeater_size", (c) => c.scenario.repeaterSize],
+  ["repeater_area_um2", (c) => formatScaled(c.scenario.repeaterAreaM2, -12)],
+  ["repeater_energy_fj", (c) => formatScaled(c.scenario.repeaterEnergyJ, -15)],
+  ["via_ohm", (c) => formatScaled(c.scenario.viaOhm, 0)],
+  ["temperature_c", (c) => c.scenario.temperatureC],
 ];
 
 export const RESULT_HEADERS = RESULT_COLUMNS.map(([h]) => h);

@@ -21,6 +21,10 @@ const FIELD_COLUMN: Record<string, string> = {
   driverOhm: "driver_ohm",
   loadF: "load_ff",
   activity: "activity",
+  viasPerNet: "vias_per_net",
+  viaOhm: "via_ohm",
+  viaWidthM: "via_width_nm",
+  viaHeightM: "via_height_nm",
 };
 
 /** Text columns: trimmed, and the export's formula neutralising undone. */

@@ -27,5 +27,8 @@ export const REPEATER_B = SAKURAI_DISTRIBUTED_COEFF;
  * Version of the engine's models and result shapes; frozen into reports.
  * 1.1.0: two-plane ground/coupling split refitted so that the total can only rise as neighbours approach;
  * repeaters.count = 1 reports the class's own delay, and stages are inserted only where they beat it.
+ * 2.0.0: exact (tabulated) stage delay by default; repeated nets keep their real driver and load (k inserted
+ * repeaters with input, output and diffusion capacitance, minimum gain); repeaters cost energy, power, area and
+ * leakage; operating temperature; per-metal overrides; vias; validity flags on sweep points.
  */
-export const ENGINE_VERSION = "1.1.0";
+export const ENGINE_VERSION = "2.0.0";

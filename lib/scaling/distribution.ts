@@ -2,9 +2,9 @@
  * Wire-length distributions: per-class aggregation over a length histogram (delay per bin, share over a
  * delay budget, repeaters, capacitance) and the Davis–De–Meindl stochastic distribution from Rent's rule.
  */
-import { LN2, REPEATER_A, REPEATER_B, SAKURAI_DISTRIBUTED_COEFF } from "./constants";
 import { positive, inRange } from "./check";
-import type { DistributionResult, LengthBin } from "./types";
+import { DEFAULT_MIN_REPEATER_GAIN, DEFAULT_OUTPUT_C_RATIO, repeatedNetInto } from "./repeaters";
+import type { DelayModel, DistributionResult, LengthBin } from "./types";
 
 /** Electrical parameters of a class after scaling, for aggregation (SI). */
 export interface DistributionInput {
@@ -14,21 +14,45 @@ export interface DistributionInput {
   source: "histogram" | "mean";
   rOhmPerM: number;
   cFPerM: number;
+  /** Driver resistance, including the net's vias (lumped at the driver end). */
   driverOhm: number;
   loadF: number;
   r0Ohm: number;
   c0F: number;
   delayBudgetS: number;
+  /** Stage-delay model (default "exact"). */
+  model?: DelayModel;
+  /** Repeater output capacitance ratio γ (default 0.5). */
+  outputCRatio?: number;
+  /** Minimum gain for inserting repeaters (default 0.10). */
+  minGain?: number;
 }
 
 /**
- * Per-bin delay of driver + line + load (Sakurai form), or of a Bakoglu–Meindl repeated line where
- * inserted repeaters (k ≥ 2 whole stages) make it faster (whole stages; inserted repeaters = stages − 1); totals weighted by net count.
+ * Per-bin delay of the net (driver → line → load, with repeaters where they cut the delay by at least minGain:
+ * repeatedNet in repeaters.ts, the same model as the class result); totals weighted by net count.
  * shareOverBudget counts nets with delay strictly above the budget.
  */
 export function classDistribution(p: DistributionInput): DistributionResult {
-  return distributionCore(p.bins, p.lengthDivisor ?? 1, p.source, p.rOhmPerM, p.cFPerM, p.driverOhm, p.loadF, p.r0Ohm, p.c0F, p.delayBudgetS);
+  return distributionCore(
+    p.bins,
+    p.lengthDivisor ?? 1,
+    p.source,
+    p.rOhmPerM,
+    p.cFPerM,
+    p.driverOhm,
+    p.loadF,
+    p.r0Ohm,
+    p.c0F,
+    p.delayBudgetS,
+    undefined,
+    (p.model ?? "exact") === "exact",
+    p.outputCRatio ?? DEFAULT_OUTPUT_C_RATIO,
+    p.minGain ?? DEFAULT_MIN_REPEATER_GAIN,
+  );
 }
+
+const NET = new Float64Array(4);
 
 /**
  * classDistribution with positional arguments (the evaluation hot path: no input object). When `stats` is given,
@@ -45,19 +69,18 @@ export function distributionCore(
   r0: number,
   c0: number,
   delayBudgetS: number,
-  stats?: Float64Array,
+  stats: Float64Array | undefined,
+  exact: boolean,
+  gamma: number,
+  minGain: number,
 ): DistributionResult {
-  const a = REPEATER_A;
-  const b = REPEATER_B;
-  const rc0 = r0 * c0;
-  const aRc0 = a * rc0;
-  const rdCl = rd * cl;
-  const hFixed = 2 * a * Math.sqrt(r0 * c0 * r * c); // a·R0·C/h* + a·R·h*·C0 = 2a·sqrt(R0·C0·r·c)·L
   const n = bins.length;
   const out: DistributionResult["bins"] = new Array(n);
+  const net = NET;
   let total = 0;
   let over = 0;
   let reps = 0;
+  let sizeSum = 0;
   let sumDelay = 0;
   let sumC = 0;
   let worst = 0;
@@ -67,27 +90,16 @@ export function distributionCore(
     const L = bin.lengthM / div;
     const R = r * L;
     const C = c * L;
-    const rcT = R * C;
-    let delay = SAKURAI_DISTRIBUTED_COEFF * rcT + LN2 * (rd * C + rdCl + R * cl);
-    let inserted = 0;
-    const bRc = b * rcT;
-    const kStar = Math.sqrt(bRc / aRc0); // k* = sqrt(b·R·C/(a·R0·C0))
-    if (kStar > 1) {
-      let k = Math.floor(kStar);
-      if (a * (k + 1) * rc0 + bRc / (k + 1) < a * k * rc0 + bRc / k) k += 1;
-      if (k >= 2) {
-        const rep = hFixed * L + a * k * rc0 + bRc / k;
-        if (rep < delay) {
-          delay = rep;
-          inserted = k - 1;
-        }
-      }
-    }
-    out[i] = { lengthM: L, count, delayS: delay, repeaters: inserted };
+    repeatedNetInto(R, C, rd, cl, r0, c0, gamma, minGain, exact, net);
+    const inserted = net[0]!;
+    const size = net[1]!;
+    const delay = net[2]!;
+    out[i] = { lengthM: L, count, delayS: delay, repeaters: inserted, repeaterSize: size };
     total += count;
     if (delay > delayBudgetS) over += count;
     if (count > 0 && delay > worst) worst = delay;
     reps += inserted * count;
+    sizeSum += inserted * size * count;
     sumDelay += delay * count;
     sumC += C * count;
   }
@@ -99,6 +111,7 @@ export function distributionCore(
     totalRepeaters: reps,
     meanDelayS: total > 0 ? sumDelay / total : 0,
     totalCapacitanceF: sumC,
+    totalRepeaterSize: sizeSum,
     source,
   };
 }

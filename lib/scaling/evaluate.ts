@@ -4,20 +4,39 @@
  */
 import { getMetal, type Metal } from "./materials";
 import { CAPACITANCE_ACCURACY, closedForm, closedFormFlags, type Split } from "./capacitance";
-import { ENGINE_VERSION, EPSILON_0_F_PER_M } from "./constants";
-import { lineDelayUnchecked, t50Unchecked } from "./delay";
+import { ENGINE_VERSION, EPSILON_0_F_PER_M, REPEATER_A, REPEATER_B } from "./constants";
+import { stageT50 } from "./delay";
+import { lineDelayUnchecked } from "./delay";
 import { distributionCore } from "./distribution";
 import { energyUnchecked, powerUnchecked } from "./energy";
 import { coarsenHistogram } from "./histogram";
-import { REPEATER_ACCURACY, optimalRepeatersUnchecked } from "./repeaters";
-import { RESISTIVITY_ACCURACY, sizeEffectFactor, sizeEffectFlags } from "./resistance";
+import {
+  DEFAULT_MIN_REPEATER_GAIN as DEFAULT_GAIN_IMPORTED,
+  DEFAULT_OUTPUT_C_RATIO as DEFAULT_GAMMA_IMPORTED,
+  REPEATED_NET_ACCURACY,
+  repeatedNetInto,
+} from "./repeaters";
+import {
+  BARRIER_RESISTIVITY_OHM_M,
+  DEFAULT_TEMPERATURE_C as DEFAULT_TEMPERATURE_IMPORTED,
+  metalAtInto,
+  newMetal,
+  RESISTIVITY_ACCURACY,
+  sizeEffectFactor,
+  sizeEffectFlags,
+  temperatureFlags,
+  viaOhmUnchecked,
+} from "./resistance";
 import type {
   CapacitanceModel,
   CapacitanceParts,
   ClassComparison,
   ClassResult,
+  DelayModel,
   Evaluation,
+  EvaluationTotals,
   LengthBin,
+  MetalOverride,
   ModelLevel,
   ScenarioSettings,
   Technology,
@@ -26,6 +45,11 @@ import type {
 } from "./types";
 import { newScaledClass, scaleClassInto, type ScaledClass } from "./scale";
 import { checkSettings, checkTechnology, checkWireClass, dedupeFlags } from "./validity";
+
+// Module-local copies of imported constants (imported bindings are getters under some loaders, e.g. tsx).
+const DEFAULT_MIN_REPEATER_GAIN = DEFAULT_GAIN_IMPORTED;
+const DEFAULT_OUTPUT_C_RATIO = DEFAULT_GAMMA_IMPORTED;
+const DEFAULT_TEMPERATURE_C = DEFAULT_TEMPERATURE_IMPORTED;
 
 /** Settings of the baseline itself: S = S_L = 1, no overrides, factors 1, Miller 1, barrier scales except at `full`. */
 export function baselineSettings(level: ModelLevel, tech: Technology): ScenarioSettings {
@@ -47,40 +71,44 @@ export function baselineSettings(level: ModelLevel, tech: Technology): ScenarioS
 const CAP_MODEL: Record<ModelLevel, CapacitanceModel> = { ideal: "ideal", fringe: "fringe", coupled: "coupled", full: "coupled" };
 
 const DELAY_ACCURACY = {
-  ideal: "0.377·RC of the open-ended distributed line (exact 0.3787·RC, −0.5%); no driver or load",
-  other: "Sakurai form 0.377·RC + 0.693·(Rd·C + Rd·CL + R·CL): 0.5–3.2% low against ngspice on a 200-section RC ladder (measured)",
+  exact: {
+    ideal: "exact 50% delay of the open-ended distributed line, 0.3787·RC (tabulated exact solution, within 0.05%); no driver or load",
+    other: "exact 50% delay of driver + distributed line + load (tabulated exact two-port solution, within 0.05% of it; within 0.5% of ngspice ladders)",
+  },
+  sakurai: {
+    ideal: "Sakurai 0.377·RC of the open-ended distributed line (exact 0.3787·RC, −0.5%); no driver or load",
+    other: "Sakurai form 0.377·RC + 0.693·(Rd·C + Rd·CL + R·CL): 0.02–3.3% low against the exact solution (measured)",
+  },
 } as const;
 
-function accuracyFor(level: ModelLevel, twoPlanes: boolean): Record<string, string> {
+function accuracyFor(level: ModelLevel, twoPlanes: boolean, model: DelayModel): Record<string, string> {
   const cap = CAPACITANCE_ACCURACY[CAP_MODEL[level]];
   return {
     capacitance: twoPlanes && level !== "ideal" ? `${cap}; two planes: Cohn's thick strip with the fitted two-plane split` : cap,
     resistivity: level === "full" ? RESISTIVITY_ACCURACY.sizeEffect : RESISTIVITY_ACCURACY.bulk,
-    delay: level === "ideal" ? DELAY_ACCURACY.ideal : DELAY_ACCURACY.other,
-    repeaters: REPEATER_ACCURACY,
+    delay: `${model}: ${level === "ideal" ? DELAY_ACCURACY[model].ideal : DELAY_ACCURACY[model].other}`,
+    repeaters: `${REPEATED_NET_ACCURACY}; stage delays: ${model}`,
   };
 }
 
-// Shared, frozen accuracy records (one per level and plane count) keep the hot path free of allocations.
-const ACCURACY1: Record<ModelLevel, Readonly<Record<string, string>>> = {
-  ideal: Object.freeze(accuracyFor("ideal", false)),
-  fringe: Object.freeze(accuracyFor("fringe", false)),
-  coupled: Object.freeze(accuracyFor("coupled", false)),
-  full: Object.freeze(accuracyFor("full", false)),
-};
-const ACCURACY2: Record<ModelLevel, Readonly<Record<string, string>>> = {
-  ideal: Object.freeze(accuracyFor("ideal", true)),
-  fringe: Object.freeze(accuracyFor("fringe", true)),
-  coupled: Object.freeze(accuracyFor("coupled", true)),
-  full: Object.freeze(accuracyFor("full", true)),
-};
+// Shared, frozen accuracy records (one per level, plane count and delay model) keep the hot path free of allocations.
+const ACCURACY: Record<string, Readonly<Record<string, string>>> = {};
+for (const level of ["ideal", "fringe", "coupled", "full"] as const) {
+  for (const two of [false, true])
+    for (const m of ["exact", "sakurai"] as const) ACCURACY[`${level}|${two ? 2 : 1}|${m}`] = Object.freeze(accuracyFor(level, two, m));
+}
 
 /**
  * Evaluates one class at one scenario. Level `ideal`: parallel plate, bulk resistivity, barrier scaled with S,
- * delay 0.377·RC with no driver or load (energy without load). Other levels: driver × deviceRFactor, load ×
- * deviceCFactor, Sakurai delay, Elmore delay; `full` adds size-effect resistivity. Repeaters use R0 × deviceRFactor
- * and C0 × deviceCFactor. A histogram over MAX_EVALUATED_BINS bins is merged first (coarsenHistogram).
- * Throws RangeError on impossible input (including a barrier that fills the scaled line).
+ * delay of the open-ended line with no driver, load or vias (exact 0.3787·RC, or Sakurai 0.377·RC; energy without
+ * load). Other levels: driver × deviceRFactor plus the net's vias (lumped at the driver end), load × deviceCFactor,
+ * the technology's stage-delay model (exact table by default, or Sakurai), Elmore delay; `full` adds size-effect
+ * resistivity. Resistivity at the technology's temperatureC (default 25 °C) with its materials overrides.
+ * Repeaters (repeatedNet: the real driver → k repeaters of size h → the real load, inserted only when they cut the
+ * delay by at least minRepeaterGain) use R0 × deviceRFactor and C0 × deviceCFactor; their input and output
+ * capacitance count in energy and power, their leakage in power. A histogram over MAX_EVALUATED_BINS bins is merged
+ * first (coarsenHistogram). Throws RangeError on impossible input (including a barrier that fills the scaled line)
+ * and when a result would not be finite.
  */
 export function evaluateClass(p: { wireClass: WireClass; technology: Technology; settings: ScenarioSettings }): ClassResult {
   checkTechnology(p.technology);
@@ -99,6 +127,7 @@ function evaluatedBins(wc: WireClass): LengthBin[] | undefined {
 interface Electrical {
   /** Geometry and options after scaling (scaleClassInto, the one implementation of the scaling rules). */
   g: ScaledClass;
+  /** The class's metal at the operating temperature with the technology's overrides (metalAtInto). */
   metal: Metal;
   rho: number;
   rPerM: number;
@@ -107,13 +136,23 @@ interface Electrical {
   cl: number;
   r0: number;
   c0: number;
+  /** All vias of one net, Ω (0 at level ideal or without vias). */
+  via: number;
+  tempC: number;
+  exact: boolean;
+  gamma: number;
+  minGain: number;
   split: Split;
+  /** What `metal` was last computed from (metalAtInto is skipped when unchanged; always redone with an override). */
+  mBase: Metal | null;
+  mOverride: MetalOverride | undefined;
+  mTemp: number;
 }
 
 function newElectrical(): Electrical {
   return {
     g: newScaledClass(),
-    metal: getMetal("Cu"),
+    metal: newMetal(),
     rho: 0,
     rPerM: 0,
     cPerM: 0,
@@ -121,13 +160,22 @@ function newElectrical(): Electrical {
     cl: 0,
     r0: 0,
     c0: 0,
+    via: 0,
+    tempC: DEFAULT_TEMPERATURE_C,
+    exact: true,
+    gamma: DEFAULT_OUTPUT_C_RATIO,
+    minGain: DEFAULT_MIN_REPEATER_GAIN,
     split: { area: 0, ground: 0, couple: 0 },
+    mBase: null,
+    mOverride: undefined,
+    mTemp: Number.NaN,
   };
 }
 
 /**
- * Geometry → C, R per length, driver and load of one class at one scenario, into `e` (no allocation, no flags:
+ * Geometry → C, R per length, driver, load and vias of one class at one scenario, into `e` (no allocation, no flags:
  * the same code serves the sweep and the evaluation; validityInto adds the flags where a result needs them).
+ * Resistivity at the technology's temperature with its per-metal overrides (resistance.ts, metalAtInto).
  */
 function electricalInto(wc: WireClass, tech: Technology, settings: ScenarioSettings, e: Electrical): void {
   const level = settings.level;
@@ -137,7 +185,18 @@ function electricalInto(wc: WireClass, tech: Technology, settings: ScenarioSetti
   const bar = g.barrierM;
   const hb = g.ildBelowM;
   const ha = g.ildAboveM;
-  const metal = g.metal === e.metal.id ? e.metal : getMetal(g.metal);
+  const tempC = tech.temperatureC ?? DEFAULT_TEMPERATURE_C;
+  const base = getMetal(g.metal);
+  const mats = tech.materials;
+  const override = mats === undefined ? undefined : (mats[base.id] ?? mats[g.metal]);
+  // the metal at temperature is recomputed only when the metal, its override or the temperature changed (sweeps)
+  if (base !== e.mBase || override !== e.mOverride || tempC !== e.mTemp || override !== undefined) {
+    metalAtInto(base, override, tempC, e.metal);
+    e.mBase = base;
+    e.mOverride = override;
+    e.mTemp = tempC;
+  }
+  const metal = e.metal;
   // a lone plane above is treated as the plane (mirror symmetry)
   closedForm(CAP_MODEL[level] as ClosedFormModel, EPSILON_0_F_PER_M * g.k, w, t, g.spacingM, hb ?? (ha as number), hb === null ? null : ha, e.split);
   const wCond = w - 2 * bar;
@@ -148,7 +207,6 @@ function electricalInto(wc: WireClass, tech: Technology, settings: ScenarioSetti
   let rho = metal.resistivityOhmM;
   if (level === "full") rho *= sizeEffectFactor(metal, wCond, hCond);
   const ideal = level === "ideal";
-  e.metal = metal;
   e.rho = rho;
   e.rPerM = rho / (wCond * hCond);
   e.cPerM = e.split.ground + 2 * g.miller * e.split.couple;
@@ -156,6 +214,33 @@ function electricalInto(wc: WireClass, tech: Technology, settings: ScenarioSetti
   e.cl = ideal ? 0 : wc.loadF * settings.deviceCFactor;
   e.r0 = tech.repeaterR0Ohm * settings.deviceRFactor;
   e.c0 = tech.repeaterC0F * settings.deviceCFactor;
+  e.tempC = tempC;
+  e.exact = (tech.delayModel ?? "exact") === "exact";
+  e.gamma = tech.repeaterOutputCRatio ?? DEFAULT_OUTPUT_C_RATIO;
+  e.minGain = tech.minRepeaterGain ?? DEFAULT_MIN_REPEATER_GAIN;
+  e.via = ideal ? 0 : viasOhm(wc, g, metal, level === "full");
+}
+
+/**
+ * All vias of one net (Ω): viasPerNet × one via. A measured viaOhm scales as a square via of the line's width and
+ * the ILD-below height, R ∝ height/width² (× S when both shrink by S); otherwise viaResistanceOhm of the via geometry
+ * (default the line's width and the ILD below, or above without a plane below; both ÷ S) with the line's barrier.
+ */
+function viasOhm(wc: WireClass, g: ScaledClass, metal: Metal, sizeEffects: boolean): number {
+  const n = wc.viasPerNet ?? 0;
+  if (n === 0) return 0;
+  const s = g.s;
+  if (wc.viaOhm !== undefined) {
+    const h0 = wc.ildBelowM ?? (wc.ildAboveM as number);
+    const h1 = g.ildBelowM ?? (g.ildAboveM as number);
+    const r = wc.widthM / g.widthM;
+    return n * wc.viaOhm * (h1 / h0) * r * r;
+  }
+  const w = (wc.viaWidthM ?? wc.widthM) / s;
+  const h = (wc.viaHeightM ?? wc.ildBelowM ?? (wc.ildAboveM as number)) / s;
+  const tb = g.barrierM;
+  if (!(w - 2 * tb > 0)) throw new RangeError(`${wc.name}.viaWidthM must be > 2·barrierM after scaling (got via width ${w}, barrier ${tb})`);
+  return n * viaOhmUnchecked(metal, w, h, tb, sizeEffects, BARRIER_RESISTIVITY_OHM_M);
 }
 
 type ClosedFormModel = "ideal" | "fringe" | "coupled";
@@ -167,26 +252,39 @@ function validityInto(level: ModelLevel, e: Electrical, validity: ValidityFlag[]
   const ha = g.ildAboveM;
   closedFormFlags(CAP_MODEL[level] as ClosedFormModel, g.widthM, g.thicknessM, g.spacingM, hb ?? (ha as number), hb === null ? null : ha, validity);
   if (level === "full") sizeEffectFlags(e.metal, g.widthM - 2 * g.barrierM, g.thicknessM - g.barrierM, validity);
+  temperatureFlags(e.tempC, validity);
 }
+
+/** Default area of a minimum repeater, m²: 0.1 µm² (invented, no source). */
+export const DEFAULT_REPEATER_AREA_M2 = 0.1e-12;
 
 const SWEEP_SCRATCH = newElectrical();
 const CLASS_SCRATCH = newElectrical();
 
 /**
  * One sweep metric of a class at its scaled mean length (delay: delayS, rc: rcS, r: rOhm, c: cF), with no result
- * objects or flags: the sweep's hot path. Same numbers as evaluateClassCore.
+ * objects: the sweep's hot path. Same numbers as evaluateClassCore. When `flags` is given, the point's validity
+ * flags are pushed into it. Throws RangeError when the result is not finite.
  */
-export function classMetricCore(wc: WireClass, tech: Technology, settings: ScenarioSettings, metric: "delay" | "rc" | "r" | "c"): number {
+export function classMetricCore(
+  wc: WireClass,
+  tech: Technology,
+  settings: ScenarioSettings,
+  metric: "delay" | "rc" | "r" | "c",
+  flags?: ValidityFlag[],
+): number {
   const e = SWEEP_SCRATCH;
   electricalInto(wc, tech, settings, e);
+  if (flags !== undefined) validityInto(settings.level, e, flags);
   const L = e.g.lengthM;
   const R = e.rPerM * L;
   const C = e.cPerM * L;
-  if (metric === "r") return R;
-  if (metric === "c") return C;
-  if (metric === "rc") return R * C;
-  return t50Unchecked(R, C, e.rd, e.cl); // rd = cl = 0 at level ideal: 0.377·RC
+  const y = metric === "r" ? R : metric === "c" ? C : metric === "rc" ? R * C : stageT50(R, C, e.rd + e.via, e.cl, e.exact); // rd = cl = 0 at level ideal
+  if (!Number.isFinite(y)) throw new RangeError(`${wc.name}: the ${metric} is not finite (check the class's sizes, length and driver)`);
+  return y;
 }
+
+const NET = new Float64Array(4);
 
 /**
  * evaluateClass without the input checks; `withDistribution` false skips the histogram. `stats`, when given,
@@ -208,10 +306,13 @@ export function evaluateClassCore(
   validityInto(level, e, validity);
   const g = e.g;
   const sp = e.split;
+  const millerC = 2 * g.miller * sp.couple;
   const cap: CapacitanceParts = {
     areaFPerM: sp.area,
     fringeFPerM: sp.ground - sp.area,
-    couplingFPerM: 2 * g.miller * sp.couple,
+    couplingFPerM: millerC,
+    couplingMillerFPerM: millerC,
+    couplingEachFPerM: sp.couple,
     totalFPerM: e.cPerM,
     couplingPerNeighbourFPerM: sp.couple,
     model: CAP_MODEL[level],
@@ -222,12 +323,39 @@ export function evaluateClassCore(
   const R = rPerM * L;
   const C = cPerM * L;
   const rd = e.rd;
+  const rdv = rd + e.via;
   const cl = e.cl;
-  const d = lineDelayUnchecked(R, C, rd, cl);
-  const delayS = level === "ideal" ? d.intrinsicS : d.t50S;
-  const repeaters = optimalRepeatersUnchecked(R, C, L, e.r0, e.c0, delayS);
+  const exact = e.exact;
+  const d = lineDelayUnchecked(R, C, rdv, cl, exact);
+  const delayS = level === "ideal" ? (exact ? d.t50S : d.intrinsicS) : d.t50S;
+  if (!Number.isFinite(delayS) || !Number.isFinite(d.elmoreS)) {
+    throw new RangeError(`${wc.name}: the delay is not finite (check the class's sizes, length, driverOhm and loadF)`);
+  }
+  const r0 = e.r0;
+  const c0 = e.c0;
+  const gamma = e.gamma;
+  repeatedNetInto(R, C, rdv, cl, r0, c0, gamma, e.minGain, exact, NET);
+  const k = NET[0]!;
+  const hChosen = NET[1]!;
+  const repeatedDelay = NET[2]!;
+  const a = REPEATER_A;
+  const b = REPEATER_B;
+  const rc0 = r0 * c0;
+  const hStar = Math.sqrt((r0 * C) / (R * c0));
+  const repeaters = {
+    inserted: k,
+    stageCount: k + 1,
+    unrepeatedDelayS: delayS,
+    count: k + 1,
+    size: k > 0 ? hChosen : hStar,
+    delayS: k > 0 ? repeatedDelay : delayS,
+    delayPerMS: (2 * (a + Math.sqrt(a * b)) * Math.sqrt(rc0 * R * C)) / L,
+    criticalLengthM: L * Math.sqrt((2 * a * rc0) / (b * R * C)),
+  };
   const v = settings.supplyV;
-  const energyJ = energyUnchecked(C, cl, v);
+  const repCPerSize = c0 * (1 + gamma);
+  const repeaterEnergyJ = k * hChosen * repCPerSize * (v * v);
+  const energyJ = energyUnchecked(C, cl, v) + repeaterEnergyJ;
   const hasHist = bins !== undefined;
   const distribution = distributionCore(
     !withDistribution ? [] : hasHist ? bins : [{ lengthM: wc.meanLengthM, count: wc.netCount }],
@@ -235,17 +363,28 @@ export function evaluateClassCore(
     hasHist ? "histogram" : "mean",
     rPerM,
     cPerM,
-    rd,
+    rdv,
     cl,
-    e.r0,
-    e.c0,
+    r0,
+    c0,
     tech.delayBudgetS,
     stats,
+    exact,
+    gamma,
+    e.minGain,
   );
-  // Energy over the distribution's nets: (Σ wire C + nets·CL)·V²; equals netCount·energyJ at the mean length.
-  const totalEnergyJ = withDistribution ? energyUnchecked(distribution.totalCapacitanceF, distribution.totalNets * cl, v) : wc.netCount * energyJ;
-  const powerW = powerUnchecked(totalEnergyJ, wc.activity, tech.clockHz);
+  const sizeSum = withDistribution ? distribution.totalRepeaterSize : wc.netCount * k * hChosen;
+  const repTotalEnergy = sizeSum * repCPerSize * (v * v);
+  // Energy over the distribution's nets: (Σ wire C + nets·CL + Σ k·h·C0·(1 + γ))·V²; equals netCount·energyJ at the mean length.
+  const totalEnergyJ = withDistribution
+    ? energyUnchecked(distribution.totalCapacitanceF, distribution.totalNets * cl, v) + repTotalEnergy
+    : wc.netCount * energyJ;
+  const leakage = sizeSum * (tech.repeaterLeakageW ?? 0);
+  const powerW = powerUnchecked(totalEnergyJ, wc.activity, tech.clockHz) + leakage;
+  const repeaterPowerW = powerUnchecked(repTotalEnergy, wc.activity, tech.clockHz) + leakage;
+  const areaMin = tech.repeaterAreaM2 ?? DEFAULT_REPEATER_AREA_M2;
   const twoPlanes = g.ildBelowM !== null && g.ildAboveM !== null;
+  const model: DelayModel = exact ? "exact" : "sakurai";
   return {
     name: wc.name,
     tier: wc.tier,
@@ -275,9 +414,20 @@ export function evaluateClassCore(
     energyJ,
     totalEnergyJ,
     powerW,
+    temperatureC: e.tempC,
+    delayModel: model,
+    viaOhm: e.via,
+    repeaterCount: k,
+    repeaterSize: repeaters.size,
+    repeatedDelayS: repeaters.delayS,
+    stageCount: k + 1,
+    repeaterAreaM2: k * hChosen * areaMin,
+    repeaterEnergyJ,
+    totalRepeaterAreaM2: sizeSum * areaMin,
+    repeaterPowerW,
     distribution,
     validity: dedupeFlags(validity),
-    accuracy: (twoPlanes ? ACCURACY2 : ACCURACY1)[level] as Record<string, string>,
+    accuracy: ACCURACY[`${level}|${twoPlanes ? 2 : 1}|${model}`] as Record<string, string>,
   };
 }
 
@@ -294,8 +444,28 @@ export function evaluateScenario(p: { classes: WireClass[]; technology: Technolo
   const base = baselineSettings(p.settings.level, p.technology);
   base.miller = p.settings.miller;
   const classes: ClassComparison[] = new Array(p.classes.length);
-  const tb = { capacitanceF: 0, energyJ: 0, powerW: 0, repeaters: 0, worstDelayS: 0, meanDelayS: 0 };
-  const ts = { capacitanceF: 0, energyJ: 0, powerW: 0, repeaters: 0, worstDelayS: 0, meanDelayS: 0 };
+  const tb: EvaluationTotals = {
+    capacitanceF: 0,
+    energyJ: 0,
+    powerW: 0,
+    repeaters: 0,
+    worstDelayS: 0,
+    meanDelayS: 0,
+    repeaterAreaM2: 0,
+    repeaterPowerW: 0,
+    repeaterPowerShare: 0,
+  };
+  const ts: EvaluationTotals = {
+    capacitanceF: 0,
+    energyJ: 0,
+    powerW: 0,
+    repeaters: 0,
+    worstDelayS: 0,
+    meanDelayS: 0,
+    repeaterAreaM2: 0,
+    repeaterPowerW: 0,
+    repeaterPowerShare: 0,
+  };
   let nb = 0;
   let ns = 0;
   for (let i = 0; i < p.classes.length; i++) {
@@ -323,6 +493,8 @@ export function evaluateScenario(p: { classes: WireClass[]; technology: Technolo
   }
   tb.meanDelayS = nb > 0 ? tb.meanDelayS / nb : 0;
   ts.meanDelayS = ns > 0 ? ts.meanDelayS / ns : 0;
+  tb.repeaterPowerShare = tb.powerW > 0 ? tb.repeaterPowerW / tb.powerW : 0;
+  ts.repeaterPowerShare = ts.powerW > 0 ? ts.repeaterPowerW / ts.powerW : 0;
   return { engineVersion: ENGINE_VERSION, level: p.settings.level, classes, totals: { baseline: tb, scenario: ts } };
 }
 
@@ -330,8 +502,10 @@ const WORST_B = new Float64Array(1);
 const WORST_S = new Float64Array(1);
 
 /** Adds one class result to the totals; `worstDelayS` is the class's largest delay over bins with nets. */
-function addTotals(t: Evaluation["totals"]["baseline"], r: ClassResult, worstDelayS: number): number {
+function addTotals(t: EvaluationTotals, r: ClassResult, worstDelayS: number): number {
   const d = r.distribution;
+  t.repeaterAreaM2 += r.totalRepeaterAreaM2;
+  t.repeaterPowerW += r.repeaterPowerW;
   t.capacitanceF += d.totalCapacitanceF;
   t.energyJ += r.totalEnergyJ;
   t.powerW += r.powerW;

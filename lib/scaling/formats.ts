@@ -57,14 +57,7 @@ export const WIRE_CLASS_COLUMNS: readonly ColumnSpec[] = [
   { name: "tier", unit: "", exp10: null, required: true, description: TIERS.join(" | ") },
   { name: "width_nm", unit: "nm", exp10: NM, required: true, description: "line width", rule: { min: 0, minExclusive: true } },
   { name: "thickness_nm", unit: "nm", exp10: NM, required: true, description: "line thickness", rule: { min: 0, minExclusive: true } },
-  {
-    name: "spacing_nm",
-    unit: "nm",
-    exp10: NM,
-    required: true,
-    description: "edge-to-edge spacing to each neighbour",
-    rule: { min: 0, minExclusive: true },
-  },
+  { name: "spacing_nm", unit: "nm", exp10: NM, required: true, description: "edge-to-edge spacing to each neighbour", rule: { min: 0, minExclusive: true } },
   {
     name: "ild_below_nm",
     unit: "nm",
@@ -81,39 +74,88 @@ export const WIRE_CLASS_COLUMNS: readonly ColumnSpec[] = [
     description: "dielectric height to the plane above; empty = no plane",
     rule: { min: 0, minExclusive: true },
   },
-  {
-    name: "barrier_nm",
-    unit: "nm",
-    exp10: NM,
-    required: true,
-    description: "barrier/liner thickness (sidewalls and bottom)",
-    rule: { min: 0 },
-  },
+  { name: "barrier_nm", unit: "nm", exp10: NM, required: true, description: "barrier/liner thickness (sidewalls and bottom)", rule: { min: 0 } },
   { name: "metal", unit: "", exp10: null, required: true, description: `metal id: ${Object.keys(METALS).join(", ")}` },
   { name: "k", unit: "", exp10: 0, required: true, description: "relative permittivity, ≥ 1 (effective k for air gaps)", rule: { min: 1 } },
-  {
-    name: "net_count",
-    unit: "",
-    exp10: 0,
-    required: true,
-    description: "number of nets, whole number ≥ 0",
-    rule: { min: 0, integer: true },
-  },
+  { name: "net_count", unit: "", exp10: 0, required: true, description: "number of nets, whole number ≥ 0", rule: { min: 0, integer: true } },
   { name: "mean_length_um", unit: "µm", exp10: UM, required: true, description: "mean net length", rule: { min: 0, minExclusive: true } },
   { name: "driver_ohm", unit: "Ω", exp10: 0, required: true, description: "driver output resistance", rule: { min: 0 } },
   { name: "load_ff", unit: "fF", exp10: -15, required: true, description: "load capacitance", rule: { min: 0 } },
   { name: "activity", unit: "", exp10: 0, required: true, description: "transitions per clock cycle, 0 … 1", rule: { min: 0, max: 1 } },
+  {
+    name: "vias_per_net",
+    unit: "",
+    exp10: 0,
+    required: false,
+    description: "vias in series with each net, whole number ≥ 0 (empty = 0)",
+    rule: { min: 0, integer: true, max: 1e6 },
+  },
+  {
+    name: "via_ohm",
+    unit: "Ω",
+    exp10: 0,
+    required: false,
+    description: "measured resistance of one via at the baseline (scaled as height/width²); empty = from the via geometry",
+    rule: { min: 0 },
+  },
+  {
+    name: "via_width_nm",
+    unit: "nm",
+    exp10: NM,
+    required: false,
+    description: "via width (square via); empty = the line's width",
+    rule: { min: 0, minExclusive: true },
+  },
+  { name: "via_height_nm", unit: "nm", exp10: NM, required: false, description: "via height; empty = the ILD below", rule: { min: 0, minExclusive: true } },
 ];
+
+/**
+ * Columns of the measured-resistance CSV read by `npm run scaling -- fit` (one row per measurement of a class of the
+ * baseline): fitSizeEffect's input.
+ */
+export const MEASURED_RESISTANCE_COLUMNS: readonly ColumnSpec[] = [
+  { name: "class", unit: "", exp10: null, required: true, description: "name of a wire class of the baseline" },
+  { name: "r_ohm_per_um", unit: "Ω/µm", exp10: 6, required: true, description: "measured resistance per length", rule: { min: 0, minExclusive: true } },
+  {
+    name: "temperature_c",
+    unit: "°C",
+    exp10: 0,
+    required: false,
+    description: "temperature of the measurement, −273.15 … 400 (empty = the technology's)",
+    rule: { min: -273.15, max: 400 },
+  },
+];
+export const MEASURED_RESISTANCE_FORMAT: CsvFormat = { title: "measured resistances", columns: MEASURED_RESISTANCE_COLUMNS };
+
+const MR = new Map(MEASURED_RESISTANCE_COLUMNS.map((c) => [c.name, c]));
+
+/** Validates one measured-resistance row (cells by column name): the measurement in SI units, or every problem. */
+export function validateMeasuredRow(
+  record: Readonly<Record<string, string>>,
+  line: number,
+): {
+  measured: { className: string; rOhmPerM: number; temperatureC?: number } | null;
+  errors: FormatIssue[];
+} {
+  const errors: FormatIssue[] = [];
+  const className = (record.class ?? "").trim();
+  if (className === "") errors.push({ line, column: "class", value: record.class ?? "", message: "is required" });
+  const r = parseCell(MR.get("r_ohm_per_um")!, record.r_ohm_per_um ?? "");
+  if (!r.ok) errors.push({ line, column: "r_ohm_per_um", value: record.r_ohm_per_um ?? "", message: r.reason });
+  const tText = record.temperature_c ?? "";
+  let temperatureC: number | undefined;
+  if (tText.trim() !== "") {
+    const t = parseCell(MR.get("temperature_c")!, tText);
+    if (!t.ok) errors.push({ line, column: "temperature_c", value: tText, message: t.reason });
+    else temperatureC = t.value;
+  }
+  if (errors.length > 0 || !r.ok) return { measured: null, errors };
+  return { measured: temperatureC === undefined ? { className, rOhmPerM: r.value } : { className, rOhmPerM: r.value, temperatureC }, errors };
+}
 
 /** Columns of the length-histogram CSV: one row per (class, length bin). */
 export const HISTOGRAM_COLUMNS: readonly ColumnSpec[] = [
-  {
-    name: "class",
-    unit: "",
-    exp10: null,
-    required: true,
-    description: "name of a wire class of the baseline (exactly as in the class table)",
-  },
+  { name: "class", unit: "", exp10: null, required: true, description: "name of a wire class of the baseline (exactly as in the class table)" },
   { name: "length_um", unit: "µm", exp10: UM, required: true, description: "wire length of the bin", rule: { min: 0, minExclusive: true } },
   {
     name: "count",
@@ -171,21 +213,13 @@ export function resolveHeader(fields: readonly string[], format: CsvFormat): { o
   if (unknown.length > 0) {
     const tabHint = fields.length === 1 && fields[0]!.includes("\t") ? " Columns must be separated by commas (or semicolons), not tabs." : "";
     const list = unknown.join(", ");
-    return {
-      ok: false,
-      issue: { line: 1, column: null, value: list, message: `Unknown column${unknown.length > 1 ? "s" : ""} ${list}.${tabHint} ${tail}` },
-    };
+    return { ok: false, issue: { line: 1, column: null, value: list, message: `Unknown column${unknown.length > 1 ? "s" : ""} ${list}.${tabHint} ${tail}` } };
   }
   const missing = columns.filter((c) => c.required && !index.has(c.name)).map((c) => c.name);
   if (missing.length > 0) {
     return {
       ok: false,
-      issue: {
-        line: 1,
-        column: null,
-        value: null,
-        message: `Missing required column${missing.length > 1 ? "s" : ""} ${missing.join(", ")}. ${tail}`,
-      },
+      issue: { line: 1, column: null, value: null, message: `Missing required column${missing.length > 1 ? "s" : ""} ${missing.join(", ")}. ${tail}` },
     };
   }
   return { ok: true, index };
@@ -230,25 +264,14 @@ export function validateWireClassRow(record: Readonly<Record<string, string>>, l
   const tierText = cell("tier").trim();
   const tierLower = tierText.toLowerCase();
   const tier = (TIERS as readonly string[]).includes(tierLower) ? (tierLower as Tier) : null;
-  if (!tier)
-    errors.push({
-      line,
-      column: "tier",
-      value: cell("tier"),
-      message: tierText === "" ? "is required" : `must be one of ${TIERS.join(", ")}`,
-    });
+  if (!tier) errors.push({ line, column: "tier", value: cell("tier"), message: tierText === "" ? "is required" : `must be one of ${TIERS.join(", ")}` });
   const width = num("width_nm");
   const thickness = num("thickness_nm");
   const spacing = num("spacing_nm");
   const below = num("ild_below_nm");
   const above = num("ild_above_nm");
   if (cell("ild_below_nm").trim() === "" && cell("ild_above_nm").trim() === "") {
-    errors.push({
-      line,
-      column: "ild_below_nm",
-      value: "",
-      message: "is empty and so is ild_above_nm: a line needs at least one plane (below or above)",
-    });
+    errors.push({ line, column: "ild_below_nm", value: "", message: "is empty and so is ild_above_nm: a line needs at least one plane (below or above)" });
   }
   const barrier = num("barrier_nm");
   const metalText = cell("metal").trim();
@@ -258,12 +281,7 @@ export function validateWireClassRow(record: Readonly<Record<string, string>>, l
     try {
       metal = getMetal(metalText).id;
     } catch {
-      errors.push({
-        line,
-        column: "metal",
-        value: metalText,
-        message: `must be one of ${Object.keys(METALS).join(", ")} (got "${metalText}")`,
-      });
+      errors.push({ line, column: "metal", value: metalText, message: `must be one of ${Object.keys(METALS).join(", ")} (got "${metalText}")` });
     }
   }
   const k = num("k");
@@ -275,6 +293,10 @@ export function validateWireClassRow(record: Readonly<Record<string, string>>, l
   if (width !== null && barrier !== null && thickness !== null && !(width - 2 * barrier > 0 && thickness - barrier > 0)) {
     errors.push({ line, column: "barrier_nm", value: cell("barrier_nm"), message: "must be < width_nm/2 and < thickness_nm" });
   }
+  const vias = num("vias_per_net");
+  const viaOhm = num("via_ohm");
+  const viaWidth = num("via_width_nm");
+  const viaHeight = num("via_height_nm");
   if (
     errors.length > 0 ||
     tier === null ||
@@ -292,26 +314,29 @@ export function validateWireClassRow(record: Readonly<Record<string, string>>, l
   ) {
     return { wireClass: null, errors };
   }
-  return {
-    wireClass: {
-      name,
-      tier,
-      widthM: width,
-      thicknessM: thickness,
-      spacingM: spacing,
-      ildBelowM: below,
-      ildAboveM: above,
-      barrierM: barrier,
-      metal,
-      k,
-      netCount: nets,
-      meanLengthM: mean,
-      driverOhm: driver,
-      loadF: load,
-      activity,
-    },
-    errors,
+  const wireClass: WireClass = {
+    name,
+    tier,
+    widthM: width,
+    thicknessM: thickness,
+    spacingM: spacing,
+    ildBelowM: below,
+    ildAboveM: above,
+    barrierM: barrier,
+    metal,
+    k,
+    netCount: nets,
+    meanLengthM: mean,
+    driverOhm: driver,
+    loadF: load,
+    activity,
   };
+  // optional via columns: only present fields are set, so files without them give exactly the classes they gave before
+  if (vias !== null) wireClass.viasPerNet = vias;
+  if (viaOhm !== null) wireClass.viaOhm = viaOhm;
+  if (viaWidth !== null) wireClass.viaWidthM = viaWidth;
+  if (viaHeight !== null) wireClass.viaHeightM = viaHeight;
+  return { wireClass, errors };
 }
 
 /** Validates one histogram row (class name as written, length and count cells): the bin in SI units, or every problem. */

@@ -20,9 +20,32 @@ export {
   SPLIT_FIT,
   type LineCapacitanceInput,
 } from "./capacitance";
-export { resistivityOhmM, conductingAreaM2, sizeEffectFactor, mayadasShatzkesRatio } from "./resistance";
-export { lineDelay, lumpedT50S, type LineDelay } from "./delay";
-export { optimalRepeaters, criticalLengthM, repeatedDelayS } from "./repeaters";
+export {
+  resistivityOhmM,
+  conductingAreaM2,
+  sizeEffectFactor,
+  mayadasShatzkesRatio,
+  bulkResistivityAtOhmM,
+  metalAt,
+  viaResistanceOhm,
+  DEFAULT_TEMPERATURE_C,
+  REFERENCE_TEMPERATURE_C,
+  BARRIER_RESISTIVITY_OHM_M,
+} from "./resistance";
+export { lineDelay, lumpedT50S, exactStageT50, type LineDelay } from "./delay";
+export { exactTau50 } from "./delay-table";
+export {
+  optimalRepeaters,
+  criticalLengthM,
+  repeatedDelayS,
+  repeatedNet,
+  repeatedNetDelayS,
+  DEFAULT_OUTPUT_C_RATIO,
+  DEFAULT_MIN_REPEATER_GAIN,
+  type RepeatedNet,
+} from "./repeaters";
+export { DEFAULT_REPEATER_AREA_M2 } from "./evaluate";
+export { fitSizeEffect, type MeasuredResistance, type FitPoint, type SizeEffectFit } from "./fit";
 export { energyPerTransitionJ, switchingPowerW } from "./energy";
 export { rentWireLengths, classDistribution, type DistributionInput } from "./distribution";
 export { fieldSolve } from "./field-solve";
@@ -58,6 +81,9 @@ export {
   parseCell,
   validateWireClassRow,
   validateHistogramRow,
+  MEASURED_RESISTANCE_COLUMNS,
+  MEASURED_RESISTANCE_FORMAT,
+  validateMeasuredRow,
   type ColumnSpec,
   type CsvFormat,
   type FormatIssue,

@@ -18,7 +18,12 @@ export interface Metal {
   grainReflection: number;
   /** Steinhögl C factor of the surface term (≈ 1.2). */
   steinhoglC: number;
-  sources: { resistivity: string; meanFreePath: string; specularity: string; grainReflection: string; steinhoglC: string };
+  /**
+   * Temperature coefficient α of the bulk resistivity near 20 °C, 1/K: ρ0(T) = ρ0(20 °C)·(1 + α·(T − 20 °C))
+   * (resistance.ts, bulkResistivityAt).
+   */
+  tempCoeffPerK: number;
+  sources: { resistivity: string; meanFreePath: string; specularity: string; grainReflection: string; steinhoglC: string; tempCoeff: string };
 }
 
 export interface Dielectric {
@@ -29,6 +34,7 @@ export interface Dielectric {
 }
 
 const CRC = 'CRC Handbook of Chemistry and Physics, "Electrical resistivity of pure metals", 20 °C';
+const CRC_T = 'CRC Handbook of Chemistry and Physics, "Electrical resistivity of pure metals" (ρ against T), slope near 20 °C';
 const GALL = 'D. Gall, "Electron mean free path in elemental metals", J. Appl. Phys. 119, 085101 (2016)';
 const STEINHOGL = "W. Steinhögl et al., Phys. Rev. B 66, 075414 (2002); J. Appl. Phys. 97, 023706 (2005)";
 const P_DEFAULT = "p = 0 (fully diffuse), the conservative end of the typical Cu fit range p ≈ 0–0.6 (secondary, docs/models.md); assumed for this metal";
@@ -44,12 +50,14 @@ export const METALS: Readonly<Record<string, Metal>> = {
     specularity: 0,
     grainReflection: 0.4,
     steinhoglC: 1.2,
+    tempCoeffPerK: 0.00405,
     sources: {
       resistivity: `${CRC} (secondary)`,
       meanFreePath: `${GALL} (secondary)`,
       specularity: P_DEFAULT,
       grainReflection: R_DEFAULT,
       steinhoglC: `${STEINHOGL}, C ≈ 1.2 (from memory)`,
+      tempCoeff: `${CRC_T}: dρ/dT ≈ 0.0068 µΩ·cm/K over 1.678 µΩ·cm (docs/models.md; from memory); reproduces the table 273–400 K within 0.3%`,
     },
   },
   Al: {
@@ -60,12 +68,14 @@ export const METALS: Readonly<Record<string, Metal>> = {
     specularity: 0,
     grainReflection: 0.4,
     steinhoglC: 1.2,
+    tempCoeffPerK: 0.00429,
     sources: {
       resistivity: `${CRC} (secondary)`,
       meanFreePath: `${GALL} (from memory)`,
       specularity: P_DEFAULT,
       grainReflection: R_DEFAULT,
       steinhoglC: `${STEINHOGL}, Cu value reused (from memory)`,
+      tempCoeff: `${CRC_T} (from memory)`,
     },
   },
   W: {
@@ -76,12 +86,14 @@ export const METALS: Readonly<Record<string, Metal>> = {
     specularity: 0,
     grainReflection: 0.4,
     steinhoglC: 1.2,
+    tempCoeffPerK: 0.0045,
     sources: {
       resistivity: `${CRC} (from memory)`,
       meanFreePath: `${GALL} (from memory)`,
       specularity: P_DEFAULT,
       grainReflection: R_DEFAULT,
       steinhoglC: `${STEINHOGL}, Cu value reused (from memory)`,
+      tempCoeff: `${CRC_T} (from memory)`,
     },
   },
   Co: {
@@ -92,12 +104,14 @@ export const METALS: Readonly<Record<string, Metal>> = {
     specularity: 0,
     grainReflection: 0.4,
     steinhoglC: 1.2,
+    tempCoeffPerK: 0.006,
     sources: {
       resistivity: `${CRC} (from memory)`,
       meanFreePath: `${GALL} (from memory)`,
       specularity: P_DEFAULT,
       grainReflection: R_DEFAULT,
       steinhoglC: `${STEINHOGL}, Cu value reused (from memory)`,
+      tempCoeff: `${CRC_T} (from memory; ferromagnetic, the coefficient varies with the source)`,
     },
   },
   Ru: {
@@ -108,12 +122,14 @@ export const METALS: Readonly<Record<string, Metal>> = {
     specularity: 0,
     grainReflection: 0.4,
     steinhoglC: 1.2,
+    tempCoeffPerK: 0.0042,
     sources: {
       resistivity: `${CRC}, 7.1 from the quoted range 7.1–7.6 µΩ·cm (from memory)`,
       meanFreePath: `${GALL} (secondary)`,
       specularity: P_DEFAULT,
       grainReflection: R_DEFAULT,
       steinhoglC: `${STEINHOGL}, Cu value reused (from memory)`,
+      tempCoeff: `${CRC_T} (from memory)`,
     },
   },
 };
@@ -121,18 +137,8 @@ export const METALS: Readonly<Record<string, Metal>> = {
 /** Dielectrics by id (relative permittivity k). */
 export const DIELECTRICS: Readonly<Record<string, Dielectric>> = {
   SiO2: { id: "SiO2", name: "silicon dioxide", k: 3.9, source: "common practice, no source" },
-  "low-k": {
-    id: "low-k",
-    name: "low-k film (carbon-doped oxide)",
-    k: 2.7,
-    source: "common practice, no source (low-k films are roughly 2.2–3.0)",
-  },
-  "ultra-low-k": {
-    id: "ultra-low-k",
-    name: "porous ultra-low-k film",
-    k: 2.4,
-    source: "common practice, no source (low-k films are roughly 2.2–3.0)",
-  },
+  "low-k": { id: "low-k", name: "low-k film (carbon-doped oxide)", k: 2.7, source: "common practice, no source (low-k films are roughly 2.2–3.0)" },
+  "ultra-low-k": { id: "ultra-low-k", name: "porous ultra-low-k film", k: 2.4, source: "common practice, no source (low-k films are roughly 2.2–3.0)" },
   "air-gap": {
     id: "air-gap",
     name: "air gap between lines (effective k)",

@@ -3,9 +3,20 @@
  */
 import { positive } from "./check";
 import { classMetricCore } from "./evaluate";
-import type { ClassOverride, ModelLevel, ScenarioSettings, SweepCurve, SweepMetric, SweepVariable, Technology, WireClass } from "./types";
+import type {
+  ClassOverride,
+  ModelLevel,
+  ScenarioSettings,
+  SweepCurve,
+  SweepMetric,
+  SweepPoint,
+  SweepVariable,
+  Technology,
+  ValidityFlag,
+  WireClass,
+} from "./types";
 import { MODEL_LEVELS } from "./types";
-import { checkSettings, checkTechnology, checkWireClass } from "./validity";
+import { checkSettings, checkTechnology, checkWireClass, dedupeFlags } from "./validity";
 
 /** n evenly spaced values from `from` to `to` inclusive (n = 1 gives [from]). */
 export function linspace(from: number, to: number, n: number): number[] {
@@ -29,13 +40,17 @@ export function logspace(from: number, to: number, n: number): number[] {
   return out;
 }
 
+/** The shared, frozen flags array of every sweep point without flags (no allocation per point). */
+const NO_FLAGS = Object.freeze([]) as unknown as ValidityFlag[];
+
 function checkCount(n: number): void {
   if (!(Number.isInteger(n) && n >= 1 && n <= 100_000)) throw new RangeError(`points must be a whole number from 1 to 100000 (got ${n})`);
 }
 
 /**
- * One curve per class and level: y = the metric of the class at its scaled mean length (delay: delayS, rc: rcS,
- * r: rOhm, c: cF), x = the swept value. The swept value replaces the scenario's global value and any per-class
+ * One curve per class and level: y = the metric of the class at its scaled mean length (delay: delayS, the
+ * unrepeated net with the technology's delay model; rc: rcS; r: rOhm; c: cF), x = the swept value; every point carries
+ * the validity flags of the models at that point (`flags`, empty when all are in range). The swept value replaces the scenario's global value and any per-class
  * override of the same variable. Levels other than the scenario's own use their default barrier (scales except at
  * `full`). Points where the scaled geometry is impossible (e.g. a fixed barrier fills the line) are left out and
  * listed in `skipped`.
@@ -78,6 +93,7 @@ export function sweep(p: {
     overrides[name] = copy;
   }
   const curves: SweepCurve[] = [];
+  const scratch: ValidityFlag[] = [];
   for (const level of levels) {
     const base: ScenarioSettings = {
       ...p.settings,
@@ -90,7 +106,7 @@ export function sweep(p: {
       level,
       metric: p.metric,
       variable: p.variable,
-      points: [] as { x: number; y: number }[],
+      points: [] as SweepPoint[],
       skipped: [] as { x: number; reason: string }[],
     }));
     for (const x of xs) {
@@ -104,7 +120,9 @@ export function sweep(p: {
       for (let i = 0; i < classes.length; i++) {
         const curve = perClass[i]!;
         try {
-          curve.points.push({ x, y: classMetricCore(classes[i]!, p.technology, st, p.metric) });
+          scratch.length = 0;
+          const y = classMetricCore(classes[i]!, p.technology, st, p.metric, scratch);
+          curve.points.push({ x, y, flags: scratch.length === 0 ? NO_FLAGS : scratch.length > 1 ? dedupeFlags(scratch) : [scratch[0]!] });
         } catch (e) {
           if (!(e instanceof RangeError)) throw e;
           curve.skipped.push({ x, reason: e.message });

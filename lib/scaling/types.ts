@@ -53,6 +53,37 @@ export interface WireClass {
   activity: number;
   /** Optional length histogram; when present the distribution results use it (merged first when over MAX_EVALUATED_BINS bins). */
   histogram?: LengthBin[];
+  /** Vias in series with each net (whole number ≥ 0; default 0 = no vias). Lumped at the driver end in the delay. */
+  viasPerNet?: number;
+  /**
+   * Measured resistance of ONE via at the baseline (Ω). Scaled with the scenario as a square via of the line's width
+   * and the ILD-below height: R ∝ height / width², i.e. × S. Takes precedence over the via geometry.
+   */
+  viaOhm?: number;
+  /** Via width (square via) at the baseline; default the line's width. Scaled ÷ S like the line. */
+  viaWidthM?: number;
+  /** Via height at the baseline; default the ILD below (or above when there is no plane below). Scaled ÷ S. */
+  viaHeightM?: number;
+}
+
+/** Delay model of every stage and unrepeated net: the exact distributed-line solution (tabulated) or Sakurai's closed form. */
+export type DelayModel = "exact" | "sakurai";
+export const DELAY_MODELS: readonly DelayModel[] = ["exact", "sakurai"];
+
+/** Per-metal overrides of the materials catalogue (SI units), e.g. from fitSizeEffect. */
+export interface MetalOverride {
+  /** Bulk resistivity at 20 °C, Ω·m. */
+  resistivityOhmM?: number;
+  /** Temperature coefficient of the bulk resistivity at 20 °C, 1/K: ρ0(T) = ρ0(20 °C)·(1 + α·(T − 20 °C)). */
+  tempCoeffPerK?: number;
+  /** Electron mean free path at 20 °C, m. */
+  meanFreePathM?: number;
+  /** Fuchs–Sondheimer specularity p, 0 ≤ p < 1. */
+  specularity?: number;
+  /** Mayadas–Shatzkes grain-boundary reflection R, 0 ≤ R < 1. */
+  grainReflection?: number;
+  /** Steinhögl C factor of the surface term. */
+  steinhoglC?: number;
 }
 
 /** Technology parameters shared by all classes of a baseline. */
@@ -65,6 +96,20 @@ export interface Technology {
   repeaterC0F: number;
   /** Delay budget used for the "share of nets over budget" figure. */
   delayBudgetS: number;
+  /** Delay model of stages and unrepeated nets (default "exact"). */
+  delayModel?: DelayModel;
+  /** Operating temperature of the wiring, °C (default 25), from −273.15 to 400. */
+  temperatureC?: number;
+  /** Repeaters are inserted only when they cut a net's delay by at least this share (default 0.10), 0 ≤ g < 1. */
+  minRepeaterGain?: number;
+  /** Output (diffusion) capacitance of a repeater as a share γ of its input capacitance (default 0.5), ≥ 0. */
+  repeaterOutputCRatio?: number;
+  /** Layout area of a minimum-size repeater, m² (default 0.1 µm², invented); a repeater of size h takes h times it. */
+  repeaterAreaM2?: number;
+  /** Leakage power of a minimum-size repeater, W (default 0); a repeater of size h leaks h times it. */
+  repeaterLeakageW?: number;
+  /** Per-metal overrides of the materials catalogue, keyed by metal id (e.g. { Cu: { specularity: 0.2 } }). */
+  materials?: Record<string, MetalOverride>;
 }
 
 /** Per-class changes a scenario makes on top of its global settings. */
@@ -124,8 +169,16 @@ export interface CapacitanceParts {
   areaFPerM: number;
   /** Fringing to the plane(s) beyond the plate part. */
   fringeFPerM: number;
-  /** Effective line-to-line part, Miller factor applied, both neighbours together. */
+  /**
+   * Effective line-to-line part, Miller factor applied, both neighbours together (= couplingMillerFPerM).
+   * @deprecated ambiguous name (the capacitance command line's JSON used it for one neighbour): read couplingMillerFPerM
+   * or couplingEachFPerM instead; kept for the app until it switches.
+   */
   couplingFPerM: number;
+  /** Line-to-line part with the Miller factor, both neighbours together: 2·miller·couplingEachFPerM. */
+  couplingMillerFPerM: number;
+  /** Electrostatic (Maxwell) coupling to EACH neighbour, no Miller factor (= couplingPerNeighbourFPerM). */
+  couplingEachFPerM: number;
   totalFPerM: number;
   /** Electrostatic coupling to ONE neighbour (Maxwell, no Miller factor); 0 without neighbours. */
   couplingPerNeighbourFPerM: number;
@@ -133,16 +186,26 @@ export interface CapacitanceParts {
 }
 
 export interface RepeaterResult {
+  /** Inserted repeaters k ≥ 0 of the net at the class's length (real driver → k repeaters → real load). */
+  inserted: number;
+  /** Stages k + 1 (the driver's stage and one per inserted repeater) = count. */
+  stageCount: number;
+  /** Delay of the net without repeaters (driver, line, load, vias) with the same stage-delay model. */
+  unrepeatedDelayS: number;
   /**
-   * Whole number of repeater stages, >= 1 (1 = just the driver, no inserted repeater). In evaluations, stages are
-   * inserted only where they make the line faster than the class's own driver (as in the length distribution).
+   * Whole number of stages, >= 1 (1 = just the driver, no inserted repeater) = inserted + 1. In evaluations (engine 2)
+   * the net keeps its real driver and load, and repeaters are inserted only when they cut its delay by at least
+   * the technology's minRepeaterGain.
    */
   count: number;
-  /** Optimal repeater size h* in units of a minimum repeater (used by the stages when count >= 2). */
+  /**
+   * Repeater size h in units of a minimum repeater: in evaluations the chosen size when inserted ≥ 1, otherwise the
+   * Bakoglu–Meindl h* = sqrt(R0·C/(R·C0)) for information.
+   */
   size: number;
   /**
-   * Delay of the line of the class's length with `count` stages. In evaluations: count = 1 reports the class's own
-   * delayS (driver as given, no resizing); count >= 2 the Bakoglu–Meindl delay T(count, h*), which is then < delayS.
+   * Delay of the net of the class's length with `count` stages: in evaluations the sum of the stage delays
+   * (repeatedNet), equal to unrepeatedDelayS (= the class's delayS) when no repeater is inserted.
    */
   delayS: number;
   /** Repeated delay per metre at the optimum. */
@@ -156,7 +219,7 @@ export interface DistributionResult {
    * One entry per evaluated bin: classDistribution's given bins; in a class result, the class's histogram (merged first
    * when over MAX_EVALUATED_BINS bins, coarsenHistogram) or one bin of all nets at the mean length.
    */
-  bins: { lengthM: number; count: number; delayS: number; repeaters: number }[];
+  bins: { lengthM: number; count: number; delayS: number; repeaters: number; repeaterSize: number }[];
   totalNets: number;
   /** Share (0..1) of nets whose delay exceeds the technology's delay budget. */
   shareOverBudget: number;
@@ -165,6 +228,8 @@ export interface DistributionResult {
   meanDelayS: number;
   /** Total wire capacitance of the class (sum over nets). */
   totalCapacitanceF: number;
+  /** Σ over nets of k·h (inserted repeaters × their size, in minimum repeaters): area, energy and leakage follow from it. */
+  totalRepeaterSize: number;
   /** "histogram" when the class carries one, otherwise "mean" (all nets at the mean length). */
   source: "histogram" | "mean";
 }
@@ -203,12 +268,37 @@ export interface ClassResult {
   driverOhm: number;
   /** Load capacitance used (× deviceCFactor; 0 at level ideal). */
   loadF: number;
-  /** C·V² per transition, line + load: the energy drawn from the supply by one rising transition. */
+  /** C·V² per transition, line + load + repeaters (repeaterEnergyJ): the energy drawn from the supply by one rising transition. */
   energyJ: number;
   /** energyJ summed over all nets of the class (histogram lengths when present). */
   totalEnergyJ: number;
-  /** Switching power of all nets of the class: ½ · activity · clockHz · totalEnergyJ (activity = transitions per cycle). */
+  /**
+   * Power of all nets of the class: switching ½ · activity · clockHz · totalEnergyJ (activity = transitions per cycle;
+   * totalEnergyJ includes the repeaters' capacitance) + repeater leakage.
+   */
   powerW: number;
+  /** Operating temperature used for the resistivity, °C. */
+  temperatureC: number;
+  /** Stage-delay model used (technology delayModel). */
+  delayModel: DelayModel;
+  /** Resistance of all vias of one net (viasPerNet × one via), Ω; 0 without vias. Lumped at the driver end. */
+  viaOhm: number;
+  /** Inserted repeaters k of one net at the class's length (= repeaters.inserted). */
+  repeaterCount: number;
+  /** Repeater size h of that net (= repeaters.size). */
+  repeaterSize: number;
+  /** Delay of that net with its repeaters; equal to delayS when repeaterCount = 0 (= repeaters.delayS). */
+  repeatedDelayS: number;
+  /** k + 1 (= repeaters.count). */
+  stageCount: number;
+  /** Area of one net's inserted repeaters, k·h·repeaterAreaM2, m². */
+  repeaterAreaM2: number;
+  /** Energy per transition of one net's repeaters, k·h·C0·(1 + γ)·V², J (included in energyJ). */
+  repeaterEnergyJ: number;
+  /** Repeater area of all nets of the class (histogram when present), m². */
+  totalRepeaterAreaM2: number;
+  /** Power of the class's repeaters: switching of their capacitance + leakage, W (included in powerW). */
+  repeaterPowerW: number;
   distribution: DistributionResult;
   validity: ValidityFlag[];
   /** Stated accuracy of the models used, e.g. { capacitance: "±6% (Sakurai–Tamaru C1)" }. */
@@ -234,13 +324,30 @@ export interface ClassComparison {
   ratio: ClassRatio;
 }
 
+/** Totals of an evaluation over all classes (one for the baseline, one for the scenario). */
+export interface EvaluationTotals {
+  capacitanceF: number;
+  energyJ: number;
+  powerW: number;
+  /** Inserted repeaters over all nets. */
+  repeaters: number;
+  worstDelayS: number;
+  meanDelayS: number;
+  /** Area of all inserted repeaters, m². */
+  repeaterAreaM2: number;
+  /** Power of all repeaters (switching + leakage), W, included in powerW. */
+  repeaterPowerW: number;
+  /** repeaterPowerW / powerW (0 when powerW = 0). */
+  repeaterPowerShare: number;
+}
+
 export interface Evaluation {
   engineVersion: string;
   level: ModelLevel;
   classes: ClassComparison[];
   totals: {
-    baseline: { capacitanceF: number; energyJ: number; powerW: number; repeaters: number; worstDelayS: number; meanDelayS: number };
-    scenario: { capacitanceF: number; energyJ: number; powerW: number; repeaters: number; worstDelayS: number; meanDelayS: number };
+    baseline: EvaluationTotals;
+    scenario: EvaluationTotals;
   };
 }
 
@@ -250,6 +357,11 @@ export type SweepVariable = "s" | "sL" | "k";
 export interface SweepPoint {
   x: number;
   y: number;
+  /**
+   * Validity flags of the models at this point (empty when every model is inside its range). Engine 2's sweep sets it
+   * on every point; optional in the type only so that points stored or drawn before it (plain { x, y }) still fit.
+   */
+  flags?: ValidityFlag[];
 }
 
 export interface SweepCurve {

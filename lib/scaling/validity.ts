@@ -3,7 +3,8 @@
  * unit), and helpers for the validity flags every result carries. Model-specific flags are raised where the
  * model is computed (capacitance.ts, resistance.ts).
  */
-import { getMetal } from "./materials";
+import { getMetal, METALS } from "./materials";
+import { checkMetalOverride } from "./resistance";
 import { atLeast, inRange, nonNegative, positive } from "./check";
 import type { ClassOverride, ScenarioSettings, Technology, ValidityFlag, WireClass } from "./types";
 import { TIERS } from "./types";
@@ -27,6 +28,12 @@ export function checkWireClass(wc: WireClass): void {
   nonNeg(c, "driverOhm", wc.driverOhm);
   nonNeg(c, "loadF", wc.loadF);
   if (!(wc.activity >= 0 && wc.activity <= 1)) inRange(`${c}.activity`, wc.activity, 0, 1);
+  if (wc.viasPerNet !== undefined && !(Number.isInteger(wc.viasPerNet) && wc.viasPerNet >= 0 && wc.viasPerNet <= 1e6)) {
+    throw new RangeError(`${c}.viasPerNet must be a whole number from 0 to 1000000 (got ${wc.viasPerNet})`);
+  }
+  if (wc.viaOhm !== undefined) nonNeg(c, "viaOhm", wc.viaOhm);
+  if (wc.viaWidthM !== undefined) pos(c, "viaWidthM", wc.viaWidthM);
+  if (wc.viaHeightM !== undefined) pos(c, "viaHeightM", wc.viaHeightM);
   const h = wc.histogram;
   if (h) {
     for (let i = 0; i < h.length; i++) {
@@ -57,6 +64,29 @@ export function checkTechnology(t: Technology): void {
   positive("repeaterR0Ohm", t.repeaterR0Ohm);
   positive("repeaterC0F", t.repeaterC0F);
   positive("delayBudgetS", t.delayBudgetS);
+  if (t.delayModel !== undefined && t.delayModel !== "exact" && t.delayModel !== "sakurai") {
+    throw new RangeError(`delayModel must be exact or sakurai (got ${String(t.delayModel)})`);
+  }
+  if (t.temperatureC !== undefined) inRange("temperatureC", t.temperatureC, -273.15, 400);
+  if (t.minRepeaterGain !== undefined && !(t.minRepeaterGain >= 0 && t.minRepeaterGain < 1)) {
+    throw new RangeError(`minRepeaterGain must be >= 0 and < 1 (got ${t.minRepeaterGain})`);
+  }
+  if (t.repeaterOutputCRatio !== undefined) inRange("repeaterOutputCRatio", t.repeaterOutputCRatio, 0, 10);
+  if (t.repeaterAreaM2 !== undefined) nonNegative("repeaterAreaM2", t.repeaterAreaM2);
+  if (t.repeaterLeakageW !== undefined) nonNegative("repeaterLeakageW", t.repeaterLeakageW);
+  if (t.materials !== undefined) {
+    if (t.materials === null || typeof t.materials !== "object")
+      throw new RangeError(`materials must be an object keyed by metal id (got ${String(t.materials)})`);
+    for (const [id, o] of Object.entries(t.materials)) {
+      try {
+        getMetal(id);
+      } catch {
+        throw new RangeError(`materials.${id} must name a metal of the catalogue (one of ${Object.keys(METALS).join(", ")})`);
+      }
+      if (o === null || typeof o !== "object") throw new RangeError(`materials.${id} must be an object (got ${String(o)})`);
+      checkMetalOverride(`materials.${id}`, o);
+    }
+  }
 }
 
 function checkOverride(name: string, o: ClassOverride): void {
@@ -85,11 +115,19 @@ export function checkSettings(s: ScenarioSettings): void {
 /** Removes repeated flags (same model, quantity and value), keeping the first. */
 export function dedupeFlags(flags: ValidityFlag[]): ValidityFlag[] {
   if (flags.length < 2) return flags;
-  const seen = new Set<string>();
-  return flags.filter((f) => {
-    const key = `${f.model}|${f.quantity}|${f.value}`;
-    if (seen.has(key)) return false;
-    seen.add(key);
-    return true;
-  });
+  // a handful of flags at most: compare pairwise (no keys or sets to allocate on the sweep's path)
+  const out: ValidityFlag[] = [];
+  for (let i = 0; i < flags.length; i++) {
+    const f = flags[i]!;
+    let dup = false;
+    for (let j = 0; j < out.length; j++) {
+      const g = out[j]!;
+      if (g.model === f.model && g.quantity === f.quantity && (g.value === f.value || (g.value !== g.value && f.value !== f.value))) {
+        dup = true;
+        break;
+      }
+    }
+    if (!dup) out.push(f);
+  }
+  return out;
 }

@@ -1,7 +1,44 @@
 import { z } from "zod";
-import type { Technology } from "@/lib/scaling";
+import { DELAY_MODELS, getMetal, METALS, type DelayModel, type MetalOverride, type Technology } from "@/lib/scaling";
 import { mirrorOf } from "./mirror";
 import { quantity, wireClassListSchema } from "./wire-class";
+
+export const delayModelSchema = z.enum(DELAY_MODELS as [DelayModel, ...DelayModel[]], { error: `Delay model must be one of ${DELAY_MODELS.join(", ")}.` });
+
+/** Per-metal overrides of the materials catalogue (SI), with the engine's ranges (checkMetalOverride). */
+export const metalOverrideSchema = mirrorOf<MetalOverride>()(
+  z
+    .object({
+      resistivityOhmM: quantity("Resistivity", "", {
+        min: 0,
+        minExclusive: true,
+        max: 1e-4,
+        maxExclusive: true,
+        maxHint: "Resistivity must be below 1e-4 Ω·m.",
+      }).optional(),
+      tempCoeffPerK: quantity("Temperature coefficient", "", { min: 0, max: 0.02, maxHint: "Temperature coefficient must be at most 0.02 /K." }).optional(),
+      meanFreePathM: quantity("Mean free path", "m", { min: 0, minExclusive: true, max: 1e-6, maxHint: "Mean free path must be at most 1 µm." }).optional(),
+      specularity: quantity("Specularity", "", { min: 0, max: 1, maxExclusive: true, maxHint: "Specularity must be from 0 to less than 1." }).optional(),
+      grainReflection: quantity("Grain reflection", "", {
+        min: 0,
+        max: 1,
+        maxExclusive: true,
+        maxHint: "Grain reflection must be from 0 to less than 1.",
+      }).optional(),
+      steinhoglC: quantity("Steinhögl C", "", { min: 0, max: 10 }).optional(),
+    })
+    .strict(),
+);
+
+export const materialsSchema = z.record(z.string(), metalOverrideSchema).superRefine((m, ctx) => {
+  for (const id of Object.keys(m)) {
+    try {
+      getMetal(id);
+    } catch {
+      ctx.addIssue({ code: "custom", path: [id], message: `Materials: "${id}" is not a metal of the catalogue (one of ${Object.keys(METALS).join(", ")}).` });
+    }
+  }
+});
 
 /** Technology shared by a baseline's classes (the engine's Technology, field for field), SI or strings with units. */
 export const technologySchema = mirrorOf<Technology>()(
@@ -11,6 +48,25 @@ export const technologySchema = mirrorOf<Technology>()(
     repeaterR0Ohm: quantity("Repeater R0", "ohm", { min: 0, minExclusive: true, max: 1e7 }),
     repeaterC0F: quantity("Repeater C0", "F", { min: 0, minExclusive: true, max: 1e-12, maxHint: "Repeater C0 must be at most 1 pF." }),
     delayBudgetS: quantity("Delay budget", "s", { min: 0, minExclusive: true, max: 1e-6, maxHint: "Delay budget must be at most 1 µs." }),
+    // Engine 2 settings, all optional (absent = the engine's default); the ranges are the engine's own (checkTechnology).
+    delayModel: delayModelSchema.optional(),
+    temperatureC: quantity("Operating temperature", "", {
+      min: -273.15,
+      minExclusive: true,
+      minHint: "Operating temperature must be above −273.15 °C (absolute zero).",
+      max: 400,
+      maxHint: "Operating temperature must be at most 400 °C.",
+    }).optional(),
+    minRepeaterGain: quantity("Minimum repeater gain", "", {
+      min: 0,
+      max: 1,
+      maxExclusive: true,
+      maxHint: "Minimum repeater gain must be a share from 0 to less than 1 (0.1 = 10%).",
+    }).optional(),
+    repeaterOutputCRatio: quantity("Repeater output-capacitance ratio", "", { min: 0, max: 10 }).optional(),
+    repeaterAreaM2: quantity("Repeater area", "", { min: 0, max: 1e-6, maxHint: "Repeater area must be at most 1 mm² (1e-6 m²)." }).optional(),
+    repeaterLeakageW: quantity("Repeater leakage", "W", { min: 0, max: 1, maxHint: "Repeater leakage must be at most 1 W." }).optional(),
+    materials: materialsSchema.optional(),
   }),
 );
 export type TechnologyInput = z.infer<typeof technologySchema>;

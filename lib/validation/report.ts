@@ -1,5 +1,6 @@
 import { z } from "zod";
 import {
+  DELAY_MODELS,
   MODEL_LEVELS,
   TIERS,
   type CapacitanceModel,
@@ -8,9 +9,11 @@ import {
   type ClassOverride,
   type ClassRatio,
   type ClassResult,
+  type DelayModel,
   type DistributionResult,
   type Evaluation,
   type LengthBin,
+  type MetalOverride,
   type ModelLevel,
   type RepeaterResult,
   type ScenarioSettings,
@@ -22,7 +25,7 @@ import {
   type ValidityFlag,
   type WireClass,
 } from "@/lib/scaling/types";
-import { mirrorOf, type NullableFields, type Same } from "./mirror";
+import { mirrorOf, type NullableFields, type OptionalFields, type Same } from "./mirror";
 
 /** Metrics a report can put in its tables (the compose form's "which metrics matter"). */
 export const REPORT_METRICS = ["delay", "rc", "resistance", "capacitance", "repeaters", "energy", "power", "overBudget"] as const;
@@ -120,7 +123,20 @@ const num = z.number();
 const level = z.enum(MODEL_LEVELS as [ModelLevel, ...ModelLevel[]]);
 const tier = z.enum(TIERS as [Tier, ...Tier[]]);
 const lengthBinSchema = mirrorOf<LengthBin>()(z.object({ lengthM: num, count: num }));
+const delayModel = z.enum(DELAY_MODELS as [DelayModel, ...DelayModel[]]);
 
+const metalOverrideSnapshotSchema = mirrorOf<MetalOverride>()(
+  z.object({
+    resistivityOhmM: num.optional(),
+    tempCoeffPerK: num.optional(),
+    meanFreePathM: num.optional(),
+    specularity: num.optional(),
+    grainReflection: num.optional(),
+    steinhoglC: num.optional(),
+  }),
+);
+
+/** The engine's Technology; the engine 2 settings are optional there too (absent = the engine's default). */
 export const technologySnapshotSchema = mirrorOf<Technology>()(
   z.object({
     supplyV: num,
@@ -128,6 +144,13 @@ export const technologySnapshotSchema = mirrorOf<Technology>()(
     repeaterR0Ohm: num,
     repeaterC0F: num,
     delayBudgetS: num,
+    delayModel: delayModel.optional(),
+    temperatureC: num.optional(),
+    minRepeaterGain: num.optional(),
+    repeaterOutputCRatio: num.optional(),
+    repeaterAreaM2: num.optional(),
+    repeaterLeakageW: num.optional(),
+    materials: z.record(z.string(), metalOverrideSnapshotSchema).optional(),
   }),
 );
 
@@ -179,6 +202,10 @@ export const wireClassSnapshotSchema = mirrorOf<WireClass & { histogramBins?: nu
     loadF: num,
     activity: num,
     histogram: z.array(lengthBinSchema).optional(),
+    viasPerNet: num.optional(),
+    viaOhm: num.optional(),
+    viaWidthM: num.optional(),
+    viaHeightM: num.optional(),
     /** Bins in the stored histogram (also when the bins themselves were too many to freeze). */
     histogramBins: num.optional(),
   }),
@@ -196,11 +223,30 @@ const validityFlagSchema = mirrorOf<NullableFields<ValidityFlag, "value">>()(
   }),
 );
 
-const capacitanceSchema = mirrorOf<CapacitanceParts>()(
+// Result fields added by engine 2.0.0: reports frozen by engine 1.x lack them (optional here), reports frozen since carry them.
+type Engine2CapacitanceFields = "couplingMillerFPerM" | "couplingEachFPerM";
+type Engine2RepeaterFields = "inserted" | "stageCount" | "unrepeatedDelayS";
+type Engine2ClassFields =
+  | "temperatureC"
+  | "delayModel"
+  | "viaOhm"
+  | "repeaterCount"
+  | "repeaterSize"
+  | "repeatedDelayS"
+  | "stageCount"
+  | "repeaterAreaM2"
+  | "repeaterEnergyJ"
+  | "totalRepeaterAreaM2"
+  | "repeaterPowerW";
+type Engine2TotalsFields = "repeaterAreaM2" | "repeaterPowerW" | "repeaterPowerShare";
+
+const capacitanceSchema = mirrorOf<OptionalFields<CapacitanceParts, Engine2CapacitanceFields>>()(
   z.object({
     areaFPerM: num,
     fringeFPerM: num,
     couplingFPerM: num,
+    couplingMillerFPerM: num.optional(),
+    couplingEachFPerM: num.optional(),
     totalFPerM: num,
     couplingPerNeighbourFPerM: num,
     model: z.enum(["ideal", "fringe", "coupled", "field"] satisfies CapacitanceModel[]),
@@ -208,23 +254,52 @@ const capacitanceSchema = mirrorOf<CapacitanceParts>()(
 );
 const _capacitanceModels: Same<CapacitanceModel, z.output<typeof capacitanceSchema>["model"]> = true;
 
-const repeaterSchema = mirrorOf<RepeaterResult>()(z.object({ count: num, size: num, delayS: num, delayPerMS: num, criticalLengthM: num }));
-
-const distributionSchema = mirrorOf<DistributionResult>()(
+const repeaterSchema = mirrorOf<OptionalFields<RepeaterResult, Engine2RepeaterFields>>()(
   z.object({
-    bins: z.array(mirrorOf<DistributionResult["bins"][number]>()(z.object({ lengthM: num, count: num, delayS: num, repeaters: num }))),
+    inserted: num.optional(),
+    stageCount: num.optional(),
+    unrepeatedDelayS: num.optional(),
+    count: num,
+    size: num,
+    delayS: num,
+    delayPerMS: num,
+    criticalLengthM: num,
+  }),
+);
+
+type DistributionBin = DistributionResult["bins"][number];
+const distributionSchema = mirrorOf<
+  Omit<OptionalFields<DistributionResult, "totalRepeaterSize">, "bins"> & { bins: OptionalFields<DistributionBin, "repeaterSize">[] }
+>()(
+  z.object({
+    bins: z.array(
+      mirrorOf<OptionalFields<DistributionBin, "repeaterSize">>()(
+        z.object({ lengthM: num, count: num, delayS: num, repeaters: num, repeaterSize: num.optional() }),
+      ),
+    ),
     totalNets: num,
     shareOverBudget: num,
     totalRepeaters: num,
     meanDelayS: num,
     totalCapacitanceF: num,
+    totalRepeaterSize: num.optional(),
     source: z.enum(["histogram", "mean"]),
   }),
 );
 const _distributionSources: Same<DistributionResult["source"], z.output<typeof distributionSchema>["source"]> = true;
 
-/** One class at one scenario: the engine's ClassResult (validity values may be null, see validityFlagSchema). */
-const classResultSchema = mirrorOf<Omit<ClassResult, "validity"> & { validity: z.output<typeof validityFlagSchema>[] }>()(
+/**
+ * One class at one scenario: the engine's ClassResult (validity values may be null, see validityFlagSchema; the
+ * engine 2 fields are optional for reports frozen by engine 1.x, and the parts carry the old shapes too).
+ */
+const classResultSchema = mirrorOf<
+  Omit<OptionalFields<ClassResult, Engine2ClassFields>, "validity" | "capacitance" | "repeaters" | "distribution"> & {
+    validity: z.output<typeof validityFlagSchema>[];
+    capacitance: z.output<typeof capacitanceSchema>;
+    repeaters: z.output<typeof repeaterSchema>;
+    distribution: z.output<typeof distributionSchema>;
+  }
+>()(
   z.object({
     name: z.string(),
     tier,
@@ -254,6 +329,17 @@ const classResultSchema = mirrorOf<Omit<ClassResult, "validity"> & { validity: z
     energyJ: num,
     totalEnergyJ: num,
     powerW: num,
+    temperatureC: num.optional(),
+    delayModel: delayModel.optional(),
+    viaOhm: num.optional(),
+    repeaterCount: num.optional(),
+    repeaterSize: num.optional(),
+    repeatedDelayS: num.optional(),
+    stageCount: num.optional(),
+    repeaterAreaM2: num.optional(),
+    repeaterEnergyJ: num.optional(),
+    totalRepeaterAreaM2: num.optional(),
+    repeaterPowerW: num.optional(),
     distribution: distributionSchema,
     validity: z.array(validityFlagSchema),
     accuracy: z.record(z.string(), z.string()),
@@ -291,20 +377,37 @@ const classComparisonSchema = mirrorOf<
   }),
 );
 
-type Totals = Evaluation["totals"]["baseline"];
-const totalsSchema = mirrorOf<Totals>()(z.object({ capacitanceF: num, energyJ: num, powerW: num, repeaters: num, worstDelayS: num, meanDelayS: num }));
+type Totals = OptionalFields<Evaluation["totals"]["baseline"], Engine2TotalsFields>;
+const totalsSchema = mirrorOf<Totals>()(
+  z.object({
+    capacitanceF: num,
+    energyJ: num,
+    powerW: num,
+    repeaters: num,
+    worstDelayS: num,
+    meanDelayS: num,
+    repeaterAreaM2: num.optional(),
+    repeaterPowerW: num.optional(),
+    repeaterPowerShare: num.optional(),
+  }),
+);
 
-/** An option's Evaluation as frozen (ratios and validity values may be null, see above). */
-export const evaluationSnapshotSchema = mirrorOf<Omit<Evaluation, "classes"> & { classes: z.output<typeof classComparisonSchema>[] }>()(
+/** An option's Evaluation as frozen (ratios and validity values may be null, engine 2 fields optional, see above). */
+export const evaluationSnapshotSchema = mirrorOf<
+  Omit<Evaluation, "classes" | "totals"> & { classes: z.output<typeof classComparisonSchema>[]; totals: { baseline: Totals; scenario: Totals } }
+>()(
   z.object({
     engineVersion: z.string(),
     level,
     classes: z.array(classComparisonSchema),
-    totals: mirrorOf<Evaluation["totals"]>()(z.object({ baseline: totalsSchema, scenario: totalsSchema })),
+    totals: mirrorOf<{ baseline: Totals; scenario: Totals }>()(z.object({ baseline: totalsSchema, scenario: totalsSchema })),
   }),
 );
 
-const sweepPointSchema = mirrorOf<SweepPoint>()(z.object({ x: num, y: num }));
+/** A sweep point; `flags` (engine 2, every point) are absent in reports frozen by engine 1.x. */
+const sweepPointSchema = mirrorOf<Omit<SweepPoint, "flags"> & { flags?: z.output<typeof validityFlagSchema>[] }>()(
+  z.object({ x: num, y: num, flags: z.array(validityFlagSchema).optional() }),
+);
 const sweepMetricSchema = z.enum(["delay", "rc", "r", "c"] satisfies SweepMetric[]);
 const sweepVariableSchema = z.enum(["s", "sL", "k"] satisfies SweepVariable[]);
 const _sweepMetrics: Same<SweepMetric, z.output<typeof sweepMetricSchema>> = true;

@@ -9,7 +9,7 @@ import { mirrorOf } from "./mirror";
 export function quantity(
   label: string,
   unit: BaseUnit,
-  limits: { min?: number; minExclusive?: boolean; max?: number; maxHint?: string; minHint?: string } = {},
+  limits: { min?: number; minExclusive?: boolean; max?: number; maxExclusive?: boolean; maxHint?: string; minHint?: string } = {},
 ) {
   return z.union([z.number(), z.string()], { error: `${label} must be a number${unit ? " with a unit" : ""}.` }).transform((v, ctx) => {
     let n: number;
@@ -29,7 +29,7 @@ export function quantity(
       ctx.addIssue({ code: "custom", message: `${label} must be a finite number.` });
       return z.NEVER;
     }
-    const { min, minExclusive, max, maxHint, minHint } = limits;
+    const { min, minExclusive, max, maxExclusive, maxHint, minHint } = limits;
     if (min !== undefined && (minExclusive ? n <= min : n < min)) {
       ctx.addIssue({
         code: "custom",
@@ -39,8 +39,8 @@ export function quantity(
       });
       return z.NEVER;
     }
-    if (max !== undefined && n > max) {
-      ctx.addIssue({ code: "custom", message: maxHint ?? `${label} must be at most ${max}.` });
+    if (max !== undefined && (maxExclusive ? n >= max : n > max)) {
+      ctx.addIssue({ code: "custom", message: maxHint ?? (maxExclusive ? `${label} must be less than ${max}.` : `${label} must be at most ${max}.`) });
       return z.NEVER;
     }
     return n;
@@ -109,6 +109,16 @@ export const wireClassSchema = mirrorOf<Omit<WireClass, "histogram"> & { id?: st
       driverOhm: quantity("Driver resistance", "ohm", { min: 0, max: 1e9 }),
       loadF: quantity("Load", "F", { min: 0, max: 1e-9 }),
       activity: quantity("Activity", "", { min: 0, max: 1, maxHint: "Activity must be between 0 and 1." }),
+      /** Vias in series with each net (engine 2; optional, absent = none). */
+      viasPerNet: z
+        .number({ error: "Vias per net must be a number." })
+        .int("Vias per net must be a whole number.")
+        .min(0, "Vias per net must not be negative.")
+        .max(1e6, "Vias per net must be at most 1000000.")
+        .optional(),
+      viaOhm: quantity("Via resistance", "ohm", { min: 0, max: 1e9 }).optional(),
+      viaWidthM: size("Via width").optional(),
+      viaHeightM: size("Via height").optional(),
     })
     .superRefine((c, ctx) => {
       if (c.ildBelowM === null && c.ildAboveM === null) {

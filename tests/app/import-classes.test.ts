@@ -16,6 +16,7 @@ import {
 } from "./import-helpers";
 
 const enc = new TextEncoder();
+const VIA_COLUMNS = "vias_per_net,via_ohm,via_width_nm,via_height_nm";
 
 describe("POST /api/baselines/[id]/import (wire classes)", () => {
   it("answers 401 signed out, 404 to another team, 403 to a viewer, and stores nothing", async () => {
@@ -245,6 +246,43 @@ describe("POST /api/baselines/[id]/import (wire classes)", () => {
     expect(again.json.error.message).toBe('A baseline named "skua IMPORT" already exists in this team.');
     expect(dbState()).toEqual(mid);
   });
+
+  it("round-trips the optional via columns; files without them keep working", async () => {
+    const o = await ownerWithBaseline();
+    const csv = `${HEADER},${VIA_COLUMNS}\n${ROW_LOCAL},2,,20,35\n${ROW_GLOBAL},3,4.5,,\n`;
+    const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/import?mode=replace`, csv);
+    expect(r.status).toBe(200);
+    const cols = "name, vias_per_net, via_ohm, via_width_m, via_height_m";
+    const a = sql(`select ${cols} from wire_classes where baseline_id = ? order by position`, o.baselineId);
+    expect(a).toEqual([
+      { name: "local", vias_per_net: 2, via_ohm: null, via_width_m: 2e-8, via_height_m: 3.5e-8 },
+      { name: "global", vias_per_net: 3, via_ohm: 4.5, via_width_m: null, via_height_m: null },
+    ]);
+    const got = await o.client.get(`/api/baselines/${o.baselineId}`);
+    expect(got.json.baseline.classes[1]).toMatchObject({ viasPerNet: 3, viaOhm: 4.5 });
+    expect(got.json.baseline.classes[1]).not.toHaveProperty("viaWidthM");
+    const exp = await o.client.get(`/api/baselines/${o.baselineId}/export.csv`);
+    expect(exp.text).toContain(`${ROW_LOCAL},2,,20,35\r\n`);
+    const back = await postCsv(o.client, `/api/teams/${o.teamId}/baselines/import?name=Vias%20copy`, exp.text);
+    expect(back.status).toBe(201);
+    expect(sql(`select ${cols} from wire_classes where baseline_id = ? order by position`, back.json.baseline.id)).toEqual(a);
+    // a bad via cell names line and column, and nothing is stored
+    const before = dbState();
+    const bad = await postCsv(o.client, `/api/baselines/${o.baselineId}/import?mode=replace`, `${HEADER},vias_per_net\n${ROW_LOCAL},1.5\n`);
+    expect(bad.status).toBe(400);
+    expect(JSON.stringify(bad.json.error)).toMatch(/vias_per_net/);
+    expect(dbState()).toEqual(before);
+    // merging a file without via columns into classes with vias: the merged rows carry no vias, as the file says
+    const plain = await postCsv(o.client, `/api/baselines/${o.baselineId}/import?mode=merge`, `${HEADER}\n${ROW_LOCAL}\n`);
+    expect(plain.status).toBe(200);
+    expect(sql(`select ${cols} from wire_classes where baseline_id = ? order by position`, o.baselineId)[0]).toEqual({
+      name: "local",
+      vias_per_net: null,
+      via_ohm: null,
+      via_width_m: null,
+      via_height_m: null,
+    });
+  });
 });
 
 describe("GET /api/baselines/[id]/export.csv", () => {
@@ -261,9 +299,10 @@ describe("GET /api/baselines/[id]/export.csv", () => {
     expect(exp.status).toBe(200);
     expect(exp.headers.get("content-type")).toBe("text/csv; charset=utf-8");
     expect(exp.headers.get("content-disposition")).toContain("Skua-wire-classes.csv");
-    expect(exp.text.split("\r\n")[0]).toBe(HEADER);
+    expect(exp.text.split("\r\n")[0]).toBe(`${HEADER},${VIA_COLUMNS}`);
     expect(exp.text).toContain(`"'=HYPERLINK(""x"")",global,410.5,800.25,`);
-    expect(exp.text).toContain("local,local,24,48,24,30,30,2,Cu,2.7,1200000,4,8000,0.4,0.15\r\n");
+    // a file without via columns stores none; the export writes them empty
+    expect(exp.text).toContain("local,local,24,48,24,30,30,2,Cu,2.7,1200000,4,8000,0.4,0.15,,,,\r\n");
     const r = await postCsv(o.client, `/api/teams/${o.teamId}/baselines/import?name=Copy`, exp.text);
     expect(r.status).toBe(201);
     const cols =

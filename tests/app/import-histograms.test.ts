@@ -1,3 +1,4 @@
+import Papa from "papaparse";
 import fs from "node:fs";
 import os from "node:os";
 import { describe, expect, it } from "vitest";
@@ -44,6 +45,21 @@ describe("POST /api/baselines/[id]/histograms", () => {
     const nets = cols.indexOf("nets");
     expect(rows.map((l) => l.split(",")[src])).toEqual(["histogram", "histogram", "histogram", "histogram"]);
     expect(Number(rows[0]!.split(",")[nets])).toBe(r.json.classes[0].nets);
+    // engine 2 columns, appended after the earlier ones; values as the server's evaluation of the same scenario (POST evaluate)
+    expect(cols.slice(-6)).toEqual(["repeater_count", "repeater_size", "repeater_area_um2", "repeater_energy_fj", "via_ohm", "temperature_c"]);
+    expect(cols.indexOf("validity_flags")).toBe(cols.length - 7);
+    const table = Papa.parse<string[]>(res.text, { skipEmptyLines: true }).data;
+    const ev = (await viewer.post(`/api/scenarios/${s.json.scenario.id}/evaluate`)).json.evaluation;
+    const at = (name: string) => cols.indexOf(name);
+    const global = table.find((row) => row[0] === "global")!;
+    const g = ev.classes.find((c: { name: string }) => c.name === "global").scenario;
+    expect(g.repeaterCount).toBeGreaterThan(0); // the template's 1.5 mm global net is repeated
+    expect(Number(global[at("repeater_count")])).toBe(g.repeaterCount);
+    expect(Number(global[at("repeater_size")])).toBe(g.repeaterSize);
+    expect(Number(global[at("repeater_area_um2")])).toBeCloseTo(g.repeaterAreaM2 * 1e12, 9);
+    expect(Number(global[at("repeater_energy_fj")])).toBeCloseTo(g.repeaterEnergyJ * 1e15, 9);
+    expect(Number(global[at("via_ohm")])).toBe(0);
+    expect(Number(global[at("temperature_c")])).toBe(25);
     expect((await new Client().get(`/api/scenarios/${s.json.scenario.id}/results.csv`)).status).toBe(401);
     expect((await (await userWithTeam()).client.get(`/api/scenarios/${s.json.scenario.id}/results.csv`)).status).toBe(404);
   });

@@ -286,6 +286,16 @@ describe("share links", () => {
     expect(page.text).toContain("Caution.");
     for (const secret of [owner.teamId, baselineId, ...scenarioIds, owner.email]) expect(page.text).not.toContain(secret);
     expect(page.text).not.toMatch(/href="\/teams/);
+    // Sweep figures mark each stretch where a model is outside its range: one band per run of flagged points (frozen flags)
+    type P = { flags?: unknown[] };
+    const runs = (pts: P[]) => pts.filter((p, i) => (p.flags?.length ?? 0) > 0 && !((pts[i - 1]?.flags?.length ?? 0) > 0)).length;
+    const expected = (api.json.report.frozen.sweeps as { series: { points: P[] }[] }[]).reduce(
+      (n, sw) => n + sw.series.reduce((m, se) => m + runs(se.points), 0),
+      0,
+    );
+    expect(expected).toBeGreaterThan(0);
+    expect(page.text.match(/data-outside-range=""/g)?.length ?? 0).toBe(expected);
+    expect(page.text).toContain("outside model range");
     // The link is not a session: the team's API stays closed.
     expect((await anon.get(`/api/reports/${id}`)).status).toBe(401);
     expect((await anon.get(`/api/teams/${owner.teamId}/reports`)).status).toBe(401);

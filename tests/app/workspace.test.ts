@@ -52,6 +52,60 @@ describe("baselines: CRUD, versions and revisions", () => {
     expect(revs.json.revisions[0].userName).toBe("Eve Editor");
   });
 
+  it("stores the engine 2 technology settings and the classes' vias, and evaluates with them", async () => {
+    const { owner, teamId } = await teamWithRoles();
+    const b = await createBaseline(owner.client, teamId);
+    const tech = {
+      ...TECH,
+      temperatureC: 85,
+      delayModel: "sakurai",
+      minRepeaterGain: 0.05,
+      repeaterOutputCRatio: 0.6,
+      repeaterAreaM2: 2e-13,
+      repeaterLeakageW: "2 nW",
+    };
+    const p = await owner.client.patch(`/api/baselines/${b.id}`, { version: 1, technology: tech });
+    expect(p.status).toBe(200);
+    expect(p.json.baseline.technology).toEqual({ ...tech, repeaterLeakageW: 2e-9 });
+    const revs = await owner.client.get(`/api/baselines/${b.id}/revisions`);
+    expect(revs.json.revisions[0].summary).toMatch(/technology: delay model, temperature, minimum repeater gain/);
+    const classes = sampleClasses();
+    const put = await owner.client.put(`/api/baselines/${b.id}/classes`, {
+      version: 2,
+      classes: [
+        { ...classes[0], id: b.classes[0]!.id, viasPerNet: 4, viaOhm: "12 ohm" },
+        { ...classes[1], viasPerNet: 0, viaWidthM: "30 nm", viaHeightM: "45 nm" },
+      ],
+    });
+    expect(put.status).toBe(200);
+    const got = put.json.baseline.classes;
+    expect(got[0]).toMatchObject({ viasPerNet: 4, viaOhm: 12 });
+    expect(got[0]).not.toHaveProperty("viaWidthM");
+    expect(got[1]).toMatchObject({ viasPerNet: 0, viaWidthM: 3e-8, viaHeightM: 4.5e-8 });
+    const db = rawDb();
+    expect(db.prepare("select vias_per_net, via_ohm, via_width_m, via_height_m from wire_classes where id = ?").get(got[0].id)).toEqual({
+      vias_per_net: 4,
+      via_ohm: 12,
+      via_width_m: null,
+      via_height_m: null,
+    });
+    db.close();
+    // the server evaluates with what was stored: the same figures as the engine on the same inputs
+    const s = (await owner.client.post(`/api/teams/${teamId}/scenarios`, { baselineId: b.id, name: "Hot" })).json.scenario;
+    const ev = await owner.client.post(`/api/scenarios/${s.id}/evaluate`);
+    expect(ev.status).toBe(200);
+    const stored: WireClass[] = got.map(
+      ({ id: _i, position: _p, histogramBins: _h, ...c }: WireClass & { id: string; position: number; histogramBins: number }) => c,
+    );
+    const local = evaluateScenario({ classes: stored, technology: p.json.baseline.technology, settings: s.settings });
+    const first = ev.json.evaluation.classes[0].scenario;
+    expect(first.temperatureC).toBe(85);
+    expect(first.delayModel).toBe("sakurai");
+    expect(first.viaOhm).toBeGreaterThan(0);
+    expect(first.viaOhm).toBe(local.classes[0]!.scenario.viaOhm);
+    expect(first.delayS).toBe(local.classes[0]!.scenario.delayS);
+  });
+
   it("PUT classes replaces them in one go; a class keeping its id keeps its histogram, a removed class loses it", async () => {
     const { owner, teamId } = await teamWithRoles();
     const b = await createBaseline(owner.client, teamId);
@@ -287,6 +341,41 @@ describe("bad input: status, field message, nothing stored changes", () => {
       status: 400,
       field: "classes.0.spacingM",
       message: /Spacing must be greater than 0/,
+    },
+    {
+      what: "a fractional via count",
+      send: (c) => putClasses(c, withClass({ viasPerNet: 1.5 })),
+      status: 400,
+      field: "classes.0.viasPerNet",
+      message: /Vias per net must be a whole number/,
+    },
+    {
+      what: "a negative via resistance",
+      send: (c) => putClasses(c, withClass({ viaOhm: "-3 ohm" })),
+      status: 400,
+      field: "classes.0.viaOhm",
+      message: /Via resistance must not be negative/,
+    },
+    {
+      what: "a temperature below absolute zero",
+      send: (c) => c.owner.client.patch(`/api/baselines/${c.b.id}`, { version: 1, technology: { ...TECH, temperatureC: -300 } }),
+      status: 400,
+      field: "technology.temperatureC",
+      message: /above −273.15 °C/,
+    },
+    {
+      what: "an unknown delay model",
+      send: (c) => c.owner.client.patch(`/api/baselines/${c.b.id}`, { version: 1, technology: { ...TECH, delayModel: "elmore" } }),
+      status: 400,
+      field: "technology.delayModel",
+      message: /Delay model must be one of exact, sakurai/,
+    },
+    {
+      what: "a materials override out of the engine's range",
+      send: (c) => c.owner.client.patch(`/api/baselines/${c.b.id}`, { version: 1, technology: { ...TECH, materials: { Cu: { specularity: 1.2 } } } }),
+      status: 400,
+      field: "technology.materials.Cu.specularity",
+      message: /Specularity must be from 0 to less than 1/,
     },
     {
       what: "a negative net count",

@@ -61,7 +61,18 @@ describe("migrations", () => {
   it("is idempotent: a second run changes nothing", async () => {
     await migrateLatest(db);
     const [{ n }] = (await db("knex_migrations").count({ n: "*" })) as [{ n: number }];
-    expect(Number(n)).toBe(3);
+    expect(Number(n)).toBe(4);
+  });
+
+  it("gives wire_classes the engine 2 via columns, nullable (classes stored before have none)", async () => {
+    const cols = await db.raw<{ name: string; type: string; notnull: number }[]>("pragma table_info(wire_classes)");
+    const via = cols.filter((c) => c.name.startsWith("via"));
+    expect(via.map((c) => [c.name, c.type.toLowerCase(), c.notnull])).toEqual([
+      ["vias_per_net", "integer", 0],
+      ["via_ohm", "float", 0],
+      ["via_width_m", "float", 0],
+      ["via_height_m", "float", 0],
+    ]);
   });
 
   it("shares one migrations table with the knex CLI (file names match)", () => {

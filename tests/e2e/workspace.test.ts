@@ -338,4 +338,75 @@ describe("scenario editor in the browser", () => {
     expect(b.classes[0].histogramBins).toBeGreaterThan(0);
     await ctx.close();
   });
+
+  it("edits the operating point, repeater costs and vias; the scenario shows repeaters, their cost and the temperature, and marks the sweep outside model ranges", async () => {
+    const dup = await editor.client.post(`/api/baselines/${baselineId}/duplicate`, { name: "Hot corner" });
+    expect(dup.status).toBe(201);
+    const bid = dup.json.baseline.id as string;
+    const ctx = await contextFor(editor.client);
+    const page = await ctx.newPage();
+    const errors: string[] = [];
+    page.on("pageerror", (e) => errors.push(String(e)));
+    await page.goto(`${baseUrl}/teams/${teamId}/baselines/${bid}`);
+    await page.waitForSelector("[data-testid=technology-engine2]");
+    // a baseline without the engine 2 settings shows the engine's defaults
+    expect(await page.getByLabel("Operating temperature").inputValue()).toBe("25");
+    expect(await page.locator("select[name=delayModel]").inputValue()).toBe("exact");
+    expect(await page.getByLabel("Minimum repeater gain").inputValue()).toBe("10");
+    expect(await page.getByLabel("Repeater output-C ratio γ").inputValue()).toBe("0.5");
+    expect(await page.getByLabel("Minimum repeater area").inputValue()).toBe("0.1");
+    expect(await page.getByLabel("Leakage per repeater").inputValue()).toBe("0");
+    await expect(page.locator("text=Of the wiring; sets the metals' resistivity").count()).resolves.toBe(1);
+    await page.getByLabel("Operating temperature").fill("-300");
+    await page.waitForSelector("text=Temperature must be above −273.15 °C");
+    await page.getByLabel("Operating temperature").fill("85");
+    await page.selectOption("select[name=delayModel]", "sakurai");
+    await page.getByLabel("Minimum repeater gain").fill("5");
+    await page.getByLabel("Minimum repeater area").fill("0.2");
+    await page.getByLabel("Leakage per repeater").fill("3");
+    // via columns are hidden until asked for (no class has vias yet)
+    await expect(page.getByLabel("Vias of local").count()).resolves.toBe(0);
+    await page.check("[data-testid=show-vias]");
+    await page.getByLabel("Vias of local").fill("2");
+    await page.getByLabel("Via R of local (Ω)").fill("12");
+    await page.click("[data-testid=save-baseline]");
+    await page.waitForSelector("text=Saved as version 3");
+    // nothing left unsaved: the saved technology (in the server's field order) is what the form holds
+    expect(await page.locator("[data-testid=save-baseline]").isDisabled()).toBe(true);
+    await page.screenshot({ path: `${SHOTS}/baseline-engine2.png`, fullPage: true });
+    const saved = (await editor.client.get(`/api/baselines/${bid}`)).json.baseline;
+    expect(saved.technology).toMatchObject({ temperatureC: 85, delayModel: "sakurai", minRepeaterGain: 0.05, repeaterAreaM2: 2e-13, repeaterLeakageW: 3e-9 });
+    expect(saved.technology).not.toHaveProperty("repeaterOutputCRatio");
+    expect(saved.classes[0]).toMatchObject({ name: "local", viasPerNet: 2, viaOhm: 12 });
+    expect(saved.classes[1]).not.toHaveProperty("viasPerNet");
+    await page.reload();
+    await page.waitForSelector("[data-testid=technology-engine2]");
+    expect(await page.getByLabel("Operating temperature").inputValue()).toBe("85");
+    expect(await page.getByLabel("Vias of local").inputValue()).toBe("2");
+
+    const sc = await editor.client.post(`/api/teams/${teamId}/scenarios`, { baselineId: bid, name: "Hot shrink", settings: { s: 1.6, sL: 1.6 } });
+    expect(sc.status).toBe(201);
+    const sid = sc.json.scenario.id as string;
+    await page.goto(`${baseUrl}/teams/${teamId}/scenarios/${sid}?metric=delay&from=0.5&to=4`);
+    await waitForResults(page);
+    expect(await page.locator("[data-testid=r-temperature]").innerText()).toBe("at 85 °C");
+    const server = (await editor.client.post(`/api/scenarios/${sid}/evaluate`)).json.evaluation;
+    expect(server.classes[0].scenario.viaOhm).toBeGreaterThan(0);
+    expect(server.classes.some((c: { scenario: { repeaterCount: number } }) => c.scenario.repeaterCount > 0)).toBe(true);
+    for (const cc of server.classes) {
+      const cell = (col: string) => page.locator(`tbody[data-class="${cc.name}"] td[data-col="${col}"]`).first().innerText();
+      const r = cc.scenario;
+      expect(parseFloat(await cell("n"))).toBe(r.repeaterCount);
+      if (r.repeaterCount > 0) expect(parseFloat(await cell("h"))).toBeCloseTo(Number(r.repeaterSize.toPrecision(4)), 6);
+      else expect((await cell("h")).trim()).toMatch(/^—/);
+      expect(parseFloat(await cell("ra"))).toBeCloseTo(Number((r.repeaterAreaM2 * 1e12).toPrecision(4)), 6);
+      expect(parseFloat(await cell("rp"))).toBeCloseTo(Number(((100 * r.repeaterPowerW) / r.powerW).toPrecision(4)), 6);
+    }
+    // the ideal-scaling curve is the parallel plate, outside its range wherever W/H < 10 (every demo class): the sweep marks it
+    await expect(page.locator("[data-testid=legend-outside-range]").count()).resolves.toBe(1);
+    await page.locator(".sweep-chart").first().scrollIntoViewIfNeeded();
+    await page.screenshot({ path: `${SHOTS}/scenario-engine2.png`, fullPage: true });
+    expect(errors).toEqual([]);
+    await ctx.close();
+  });
 });

@@ -94,6 +94,60 @@ describe("frozenReportSchema and the current engine", () => {
     expect(result.distribution.source).toBe("histogram");
   });
 
+  it("a report frozen now carries engine 2's result fields; one frozen by engine 1.x (without them) still parses", () => {
+    const doc = stored(freezeReport(input(), 1_780_000_000_000)) as unknown as FrozenReport;
+    const opt = doc.options[0]!;
+    const global = opt.evaluation.classes[1]!.scenario;
+    // evaluateScenario (engine 2) on the invented global class (1.5 mm, 300 Ω driver): repeaters are inserted
+    expect(global.repeaterCount).toBeGreaterThan(0);
+    expect(global.repeaterCount).toBe(global.repeaters.inserted);
+    expect(global.repeaterAreaM2).toBeGreaterThan(0);
+    expect(global.temperatureC).toBe(25);
+    expect(global.delayModel).toBe("exact");
+    expect(opt.evaluation.totals.scenario.repeaterPowerShare).toBeGreaterThan(0);
+    expect(global.capacitance.couplingEachFPerM).toBe(global.capacitance.couplingPerNeighbourFPerM);
+    expect(doc.sweeps[0]!.series[0]!.points.every((p) => Array.isArray(p.flags))).toBe(true);
+
+    // An engine 1.x document: the same shape minus every field engine 2 added.
+    const old = structuredClone(doc) as unknown as Record<string, unknown> & FrozenReport;
+    const strip = (o: Record<string, unknown>, keys: string[]) => keys.forEach((k) => delete o[k]);
+    const classKeys = [
+      "temperatureC",
+      "delayModel",
+      "viaOhm",
+      "repeaterCount",
+      "repeaterSize",
+      "repeatedDelayS",
+      "stageCount",
+      "repeaterAreaM2",
+      "repeaterEnergyJ",
+      "totalRepeaterAreaM2",
+      "repeaterPowerW",
+    ];
+    old.engineVersion = "1.1.0";
+    for (const o of old.options) {
+      o.evaluation.engineVersion = "1.1.0";
+      for (const t of [o.evaluation.totals.baseline, o.evaluation.totals.scenario]) strip(t, ["repeaterAreaM2", "repeaterPowerW", "repeaterPowerShare"]);
+      for (const c of o.evaluation.classes)
+        for (const r of [c.baseline, c.scenario]) {
+          strip(r as unknown as Record<string, unknown>, classKeys);
+          strip(r.capacitance, ["couplingMillerFPerM", "couplingEachFPerM"]);
+          strip(r.repeaters, ["inserted", "stageCount", "unrepeatedDelayS"]);
+          strip(r.distribution, ["totalRepeaterSize"]);
+          for (const b of r.distribution.bins) strip(b, ["repeaterSize"]);
+        }
+    }
+    for (const sw of old.sweeps) for (const s of sw.series) for (const p of s.points) strip(p as unknown as Record<string, unknown>, ["flags"]);
+    const parsed = frozenReportSchema.safeParse(old);
+    expect(parsed.success, parsed.error?.message).toBe(true);
+    expect(parsed.data!.options[0]!.evaluation.classes[1]!.scenario.repeaterCount).toBeUndefined();
+    expect(parsed.data).toEqual(old);
+    // the old fields stay required
+    const noCount = structuredClone(old);
+    delete (noCount.options[0]!.evaluation.classes[1]!.scenario.repeaters as Partial<{ count: number }>).count;
+    expect(frozenReportSchema.safeParse(noCount).success).toBe(false);
+  });
+
   it("accepts the share view of a report (source ids left out)", () => {
     const doc = stored(freezeReport(input()));
     const shared = without(without(doc, "baseline.id"), "options.0.scenarioId");

@@ -112,6 +112,84 @@ describe("technologySchema", () => {
   });
 });
 
+describe("technologySchema: engine 2 settings (optional; the engine's ranges, checkTechnology)", () => {
+  const base = { supplyV: 0.75, clockHz: 1.5e9, repeaterR0Ohm: 6000, repeaterC0F: 2.5e-16, delayBudgetS: 1e-10 };
+  it("accepts every new field, with units where they have one, and leaves absent ones absent", () => {
+    expect(
+      technologySchema.parse({
+        ...base,
+        delayModel: "sakurai",
+        temperatureC: 85,
+        minRepeaterGain: 0.05,
+        repeaterOutputCRatio: "0.8",
+        repeaterAreaM2: 2e-13,
+        repeaterLeakageW: "3 nW",
+        materials: { Cu: { specularity: 0.2, meanFreePathM: "30 nm" }, Ru: {} },
+      }),
+    ).toEqual({
+      ...base,
+      delayModel: "sakurai",
+      temperatureC: 85,
+      minRepeaterGain: 0.05,
+      repeaterOutputCRatio: 0.8,
+      repeaterAreaM2: 2e-13,
+      repeaterLeakageW: 3e-9,
+      materials: { Cu: { specularity: 0.2, meanFreePathM: 3e-8 }, Ru: {} },
+    });
+    expect(Object.keys(technologySchema.parse(base)).sort()).toEqual(Object.keys(base).sort());
+    // the ends of the ranges the engine accepts
+    expect(technologySchema.parse({ ...base, temperatureC: 400, minRepeaterGain: 0, repeaterOutputCRatio: 10 }).temperatureC).toBe(400);
+    expect(technologySchema.parse({ ...base, temperatureC: -273 }).temperatureC).toBe(-273);
+  });
+  it.each([
+    [{ delayModel: "elmore" }, "delayModel", /Delay model must be one of exact, sakurai/],
+    [{ temperatureC: -273.15 }, "temperatureC", /above −273.15 °C/],
+    [{ temperatureC: 400.5 }, "temperatureC", /at most 400 °C/],
+    [{ temperatureC: "hot" }, "temperatureC", /not a number/],
+    [{ minRepeaterGain: 1 }, "minRepeaterGain", /less than 1/],
+    [{ minRepeaterGain: -0.1 }, "minRepeaterGain", /must not be negative/],
+    [{ repeaterOutputCRatio: 11 }, "repeaterOutputCRatio", /at most 10/],
+    [{ repeaterAreaM2: -1e-13 }, "repeaterAreaM2", /must not be negative/],
+    [{ repeaterLeakageW: -1 }, "repeaterLeakageW", /must not be negative/],
+    [{ materials: { Xx: { specularity: 0.1 } } }, "materials.Xx", /not a metal of the catalogue/],
+    [{ materials: { Cu: { specularity: 1 } } }, "materials.Cu.specularity", /less than 1/],
+    [{ materials: { Cu: { grainReflection: -0.1 } } }, "materials.Cu.grainReflection", /must not be negative/],
+    [{ materials: { Cu: { resistivityOhmM: 0 } } }, "materials.Cu.resistivityOhmM", /greater than 0/],
+    [{ materials: { Cu: { tempCoeffPerK: 0.03 } } }, "materials.Cu.tempCoeffPerK", /at most 0.02/],
+    [{ materials: { Cu: { meanFreePathM: 2e-6 } } }, "materials.Cu.meanFreePathM", /at most 1 µm/],
+    [{ materials: { Cu: { steinhoglC: 11 } } }, "materials.Cu.steinhoglC", /at most 10/],
+    [{ materials: { Cu: { colour: 1 } } }, "materials.Cu", /Unrecognized key/],
+  ])("rejects %j naming the field", (extra, key, msg) => {
+    const r = technologySchema.safeParse({ ...base, ...extra });
+    expect(r.success).toBe(false);
+    expect(fields(r)[key]).toMatch(msg);
+  });
+});
+
+describe("wireClassSchema: vias (engine 2, optional)", () => {
+  it("keeps the via fields (units accepted) and adds none when they are absent", () => {
+    expect(wireClassSchema.parse({ ...good, viasPerNet: 2, viaOhm: "15 ohm", viaWidthM: "20 nm", viaHeightM: 3e-8 })).toMatchObject({
+      viasPerNet: 2,
+      viaOhm: 15,
+      viaWidthM: 2e-8,
+      viaHeightM: 3e-8,
+    });
+    const plain = wireClassSchema.parse(good);
+    expect(["viasPerNet", "viaOhm", "viaWidthM", "viaHeightM"].filter((k) => k in plain)).toEqual([]);
+  });
+  it.each([
+    [{ viasPerNet: 1.5 }, "viasPerNet", /whole number/],
+    [{ viasPerNet: -1 }, "viasPerNet", /must not be negative/],
+    [{ viaOhm: -2 }, "viaOhm", /must not be negative/],
+    [{ viaWidthM: 0 }, "viaWidthM", /greater than 0/],
+    [{ viaHeightM: "1 mm" }, "viaHeightM", /at most 100 µm/],
+  ])("rejects %j naming the field", (extra, key, msg) => {
+    const r = wireClassSchema.safeParse({ ...good, ...extra });
+    expect(r.success).toBe(false);
+    expect(fields(r)[key]).toMatch(msg);
+  });
+});
+
 // The input schemas mirror the engine's types field for field (mirrorOf, checked by tsc); at run time, a value of
 // the engine type passes through them unchanged, so nothing the engine uses is dropped or altered at the API edge.
 describe("input schemas and the engine types", () => {
@@ -136,6 +214,17 @@ describe("input schemas and the engine types", () => {
   });
   it("Technology", () => {
     expect(technologySchema.parse(technology)).toEqual(technology);
+    const all: Required<Technology> = {
+      ...technology,
+      delayModel: "exact",
+      temperatureC: 105,
+      minRepeaterGain: 0.2,
+      repeaterOutputCRatio: 0.4,
+      repeaterAreaM2: 1.5e-13,
+      repeaterLeakageW: 2e-9,
+      materials: { Cu: { resistivityOhmM: 1.7e-8, tempCoeffPerK: 0.004, meanFreePathM: 3.9e-8, specularity: 0.1, grainReflection: 0.3, steinhoglC: 1.2 } },
+    };
+    expect(technologySchema.parse(all)).toEqual(all);
   });
   it("WireClass (without its histogram, which is imported separately)", () => {
     const c: Omit<WireClass, "histogram"> = wireClassSchema.parse(good);

@@ -168,16 +168,7 @@ describe("closed forms against the field solver (inside the validity ranges)", (
   });
   it("the parallel plate is several times too low for W/H ≤ 1 (docs/models.md) — the flag is warranted", () => {
     const f = fieldSolve({ widthM: H, thicknessM: H, spacingM: null, heightBelowM: H, heightAboveM: null, k: 1 });
-    const pp = lineCapacitance({
-      widthM: H,
-      thicknessM: H,
-      spacingM: null,
-      heightBelowM: H,
-      heightAboveM: null,
-      k: 1,
-      miller: 1,
-      model: "ideal",
-    });
+    const pp = lineCapacitance({ widthM: H, thicknessM: H, spacingM: null, heightBelowM: H, heightAboveM: null, k: 1, miller: 1, model: "ideal" });
     expect(f.totalFPerM / pp.totalFPerM).toBeGreaterThan(2.5);
   });
 });

@@ -39,11 +39,7 @@ describe("one default technology", () => {
     // end to end: the CLI's totals are the engine's at DEFAULT_TECHNOLOGY, to the bit
     const out = JSON.parse(run(["evaluate", "--baseline", BASE, "--s", "1.4", "--json"]).stdout);
     const { classes } = parseWireClassCsv(fs.readFileSync(BASE));
-    const ev = evaluateScenario({
-      classes,
-      technology: DEFAULT_TECHNOLOGY,
-      settings: { ...baselineSettings("full", DEFAULT_TECHNOLOGY), s: 1.4 },
-    });
+    const ev = evaluateScenario({ classes, technology: DEFAULT_TECHNOLOGY, settings: { ...baselineSettings("full", DEFAULT_TECHNOLOGY), s: 1.4 } });
     expect(out.totals).toEqual(ev.totals);
   });
 

@@ -27,7 +27,18 @@ const record = (row: string): Record<string, string> => Object.fromEntries(HEADE
 
 describe("lib/scaling/formats: columns, header rules, row rules", () => {
   it("the wire-class columns are the templates' header, in order; the histogram columns too", () => {
-    expect(WIRE_CLASS_COLUMNS.map((c) => c.name).join(",")).toBe(HEADER);
+    // engine 2 appends four optional via columns after the templates' columns (the templates stay valid without them)
+    expect(
+      WIRE_CLASS_COLUMNS.slice(0, 15)
+        .map((c) => c.name)
+        .join(","),
+    ).toBe(HEADER);
+    expect(WIRE_CLASS_COLUMNS.slice(15).map((c) => [c.name, c.required])).toEqual([
+      ["vias_per_net", false],
+      ["via_ohm", false],
+      ["via_width_nm", false],
+      ["via_height_nm", false],
+    ]);
     expect(DEMO_CLASSES.split("\n")[0]).toBe(HEADER);
     expect(HISTOGRAM_COLUMNS.map((c) => c.name).join(",")).toBe(DEMO_HISTOGRAMS.split("\n")[0]);
     expect(fs.readFileSync("public/templates/wire-classes-template.csv", "utf8")).toBe(DEMO_CLASSES);
@@ -36,16 +47,7 @@ describe("lib/scaling/formats: columns, header rules, row rules", () => {
 
   it("converts a row to SI exactly (decimal shift: 24 nm is the double nearest 2.4e-8)", () => {
     const c = validateWireClassRow(record(ROW.replace(",0.4,", ",0.3,").replace(",4,", ",4.1,")), 2).wireClass!;
-    expect(c).toMatchObject({
-      name: "m1",
-      tier: "local",
-      metal: "Cu",
-      ildAboveM: null,
-      k: 2.7,
-      netCount: 1000,
-      driverOhm: 8000,
-      activity: 0.15,
-    });
+    expect(c).toMatchObject({ name: "m1", tier: "local", metal: "Cu", ildAboveM: null, k: 2.7, netCount: 1000, driverOhm: 8000, activity: 0.15 });
     expect(c.widthM).toBe(2.4e-8);
     expect(c.thicknessM).toBe(4.8e-8);
     expect(c.ildBelowM).toBe(3e-8);
@@ -60,12 +62,7 @@ describe("lib/scaling/formats: columns, header rules, row rules", () => {
     expect(r.errors).toEqual([
       { line: 7, column: "tier", value: "upper", message: "must be one of local, intermediate, semi-global, global" },
       { line: 7, column: "width_nm", value: "-5", message: "must be > 0" },
-      {
-        line: 7,
-        column: "ild_below_nm",
-        value: "",
-        message: "is empty and so is ild_above_nm: a line needs at least one plane (below or above)",
-      },
+      { line: 7, column: "ild_below_nm", value: "", message: "is empty and so is ild_above_nm: a line needs at least one plane (below or above)" },
       { line: 7, column: "metal", value: "Xx", message: 'must be one of Cu, Al, W, Co, Ru (got "Xx")' },
       { line: 7, column: "k", value: "0.5", message: "must be ≥ 1" },
       { line: 7, column: "net_count", value: "10.5", message: "must be a whole number" },
@@ -105,12 +102,7 @@ describe("lib/scaling/formats: columns, header rules, row rules", () => {
     expect(resolveHeader(["class", "length_um", "count", ""], HISTOGRAM_FORMAT).ok).toBe(true); // a trailing delimiter
     expect(resolveHeader(["class", "length_um", "count", "weight"], HISTOGRAM_FORMAT)).toEqual({
       ok: false,
-      issue: {
-        line: 1,
-        column: null,
-        value: '"weight"',
-        message: 'Unknown column "weight". Expected columns for length histograms: class, length_um, count.',
-      },
+      issue: { line: 1, column: null, value: '"weight"', message: 'Unknown column "weight". Expected columns for length histograms: class, length_um, count.' },
     });
     expect(resolveHeader(["class", "length_um", "count", "Count"], HISTOGRAM_FORMAT)).toEqual({
       ok: false,

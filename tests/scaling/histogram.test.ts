@@ -79,11 +79,7 @@ describe("coarsenHistogram (the engine's one merge of long histograms)", () => {
     for (const seed of [6, 7, 8]) {
       const h = histogram(2000, seed);
       for (const s of [1, 1.4]) {
-        const r = evaluateClass({
-          wireClass: testClass(),
-          technology: DEFAULT_TECHNOLOGY,
-          settings: { ...baselineSettings("full", DEFAULT_TECHNOLOGY), s },
-        });
+        const r = evaluateClass({ wireClass: testClass(), technology: DEFAULT_TECHNOLOGY, settings: { ...baselineSettings("full", DEFAULT_TECHNOLOGY), s } });
         const t = DEFAULT_TECHNOLOGY;
         const p = {
           source: "histogram" as const,

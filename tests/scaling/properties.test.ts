@@ -103,16 +103,7 @@ describe("properties", () => {
         fc.double({ min: 1.05, max: 2, noNaN: true }),
         fc.constantFrom("ideal", "fringe", "coupled") as fc.Arbitrary<"ideal" | "fringe" | "coupled">,
         (w, h, sp, s, model) => {
-          const a = lineCapacitance({
-            widthM: w,
-            thicknessM: 2 * w,
-            spacingM: sp,
-            heightBelowM: h,
-            heightAboveM: null,
-            k: 3,
-            miller: 1,
-            model,
-          });
+          const a = lineCapacitance({ widthM: w, thicknessM: 2 * w, spacingM: sp, heightBelowM: h, heightAboveM: null, k: 3, miller: 1, model });
           const b = lineCapacitance({
             widthM: w / s,
             thicknessM: (2 * w) / s,
@@ -159,15 +150,7 @@ describe("properties", () => {
     });
   }
   it("the reported counterexample of engine 1.0.0 (two planes, S 306.6 nm vs 831 nm): the total rises as the neighbours approach", () => {
-    const g = {
-      widthM: 46.57e-9,
-      thicknessM: 1.8 * 46.57e-9,
-      heightBelowM: 98.16e-9,
-      heightAboveM: 103.8e-9,
-      k: 3,
-      miller: 1,
-      model: "coupled" as const,
-    };
+    const g = { widthM: 46.57e-9, thicknessM: 1.8 * 46.57e-9, heightBelowM: 98.16e-9, heightAboveM: 103.8e-9, k: 3, miller: 1, model: "coupled" as const };
     const near = lineCapacitance({ ...g, spacingM: 306.6e-9 });
     const far = lineCapacitance({ ...g, spacingM: 831e-9 });
     expect(near.totalFPerM).toBeGreaterThan(far.totalFPerM);

@@ -133,18 +133,9 @@ describe("one implementation of the scaling rules", () => {
           ["c", r.cF],
         ] as const;
         for (const [metric, y] of metrics) {
-          const [curve] = sweep({
-            classes: [wc],
-            technology: tech,
-            settings: st,
-            variable: "s",
-            metric,
-            from: x,
-            to: x,
-            points: 1,
-            levels: [st.level],
-          });
-          expect(curve!.points).toEqual([{ x, y }]);
+          const [curve] = sweep({ classes: [wc], technology: tech, settings: st, variable: "s", metric, from: x, to: x, points: 1, levels: [st.level] });
+          expect(curve!.points.map((p) => ({ x: p.x, y: p.y }))).toEqual([{ x, y }]);
+          expect(curve!.points[0]!.flags).toEqual(r.validity);
         }
       }),
       { numRuns: Number(process.env.PROP_RUNS ?? 200) },

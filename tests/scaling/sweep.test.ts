@@ -21,27 +21,9 @@ describe("linspace / logspace", () => {
 describe("sweep({ variable: 's', ... })", () => {
   const classes = [
     testClass(),
-    testClass({
-      name: "g",
-      tier: "global",
-      widthM: 400e-9,
-      thicknessM: 800e-9,
-      spacingM: 400e-9,
-      ildBelowM: 400e-9,
-      meanLengthM: 1e-3,
-      barrierM: 5e-9,
-    }),
+    testClass({ name: "g", tier: "global", widthM: 400e-9, thicknessM: 800e-9, spacingM: 400e-9, ildBelowM: 400e-9, meanLengthM: 1e-3, barrierM: 5e-9 }),
   ];
-  const curves = sweep({
-    classes,
-    technology: tech,
-    settings: baselineSettings("full", tech),
-    variable: "s",
-    metric: "rc",
-    from: 1,
-    to: 4,
-    points: 31,
-  });
+  const curves = sweep({ classes, technology: tech, settings: baselineSettings("full", tech), variable: "s", metric: "rc", from: 1, to: 4, points: 31 });
   it("one curve per class and level", () => {
     expect(curves).toHaveLength(8);
     expect(new Set(curves.map((c) => c.level))).toEqual(new Set(["ideal", "fringe", "coupled", "full"]));
@@ -108,18 +90,8 @@ describe("sweep lengthMode (S_L follows S, or is fixed at 1)", () => {
       lengthMode,
     })[0]!;
   const atOne = (lengthMode: "follow" | "fixed" | "scenario", metric: "rc" | "delay") =>
-    sweep({
-      classes: [testClass()],
-      technology: tech,
-      settings,
-      variable: "s",
-      metric,
-      from: 1,
-      to: 1,
-      points: 1,
-      levels: ["ideal"],
-      lengthMode,
-    })[0]!.points[0]!.y;
+    sweep({ classes: [testClass()], technology: tech, settings, variable: "s", metric, from: 1, to: 1, points: 1, levels: ["ideal"], lengthMode })[0]!
+      .points[0]!.y;
 
   it("follow: ideal RC is constant in S and ideal delay relative to S = 1 stays 1", () => {
     const rc = run("follow", "rc");
@@ -138,5 +110,43 @@ describe("sweep lengthMode (S_L follows S, or is fixed at 1)", () => {
     const fixed = run("fixed", "rc");
     const scen = run("scenario", "rc");
     expectClose(fixed.points[0]!.y / scen.points[0]!.y, 2.5 * 2.5, 1e-9);
+  });
+});
+
+describe("engine 2: validity along sweeps", () => {
+  it("fast-check: every point of every curve carries a flags array, equal to evaluateClass's validity there", async () => {
+    const fc = (await import("fast-check")).default;
+    const { DEFAULT_TECHNOLOGY: t } = await import("@/lib/scaling/technology");
+    const { baselineSettings: bs, evaluateClass: ev } = await import("@/lib/scaling/evaluate");
+    const { sweep: sw } = await import("@/lib/scaling/sweep");
+    const { testClass: tc } = await import("./fixtures");
+    fc.assert(
+      fc.property(
+        fc.double({ min: 0.5, max: 4, noNaN: true }),
+        fc.double({ min: 10, max: 300, noNaN: true }),
+        fc.constantFrom("ideal", "fringe", "coupled", "full" as const),
+        (s, wNm, level) => {
+          const wc = tc({ widthM: wNm * 1e-9, thicknessM: 2 * wNm * 1e-9, spacingM: wNm * 1e-9, barrierM: 1e-9 });
+          const curves = sw({
+            classes: [wc],
+            technology: t,
+            settings: bs(level, t),
+            variable: "s",
+            metric: "delay",
+            from: 1,
+            to: s,
+            points: 4,
+            levels: [level],
+          });
+          for (const c of curves) {
+            for (const p of c.points) {
+              expect(Array.isArray(p.flags)).toBe(true);
+              expect(p.flags).toEqual(ev({ wireClass: wc, technology: t, settings: { ...bs(level, t), s: p.x } }).validity);
+            }
+          }
+        },
+      ),
+      { numRuns: Number(process.env.PROP_RUNS ?? 100) },
+    );
   });
 });
