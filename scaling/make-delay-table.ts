@@ -1,8 +1,8 @@
 /**
- * Generates lib/scaling/delay-table.ts: the exact 50% step delay of a driver Rd + uniform distributed RC line (R, C) +
+ * Generates lib/scaling/delay-table-data.ts (the table read by lib/scaling/delay-table.ts): the exact 50% step delay of a driver Rd + uniform distributed RC line (R, C) +
  * load CL, tabulated over x = Rd/R and y = CL/C.
  *
- *   npx tsx scaling/make-delay-table.ts            (writes lib/scaling/delay-table.ts)
+ *   npx tsx scaling/make-delay-table.ts            (writes lib/scaling/delay-table-data.ts)
  *
  * The exact solution: the two-port of the line (ABCD = [cosh θ, Z0·sinh θ; sinh θ/Z0, cosh θ], θ = sqrt(s·R·C),
  * Z0 = R/θ) between the source resistance and the load gives, in normalised time τ = t/(R·C) and s' = s·R·C,
@@ -120,62 +120,22 @@ function main(): void {
  * τ_Sakurai = 0.377 + 0.693·(x + x·y + y) (T. Sakurai, IEEE JSSC SC-18(4), 1983 [memory]).
  * Interpolation: bilinear in (log10 x, log10 y) on the grid, linear in x (or y) between 0 and 10^${GRID_DECADES_LO}, q held at its
  * edge value beyond 10^${GRID_DECADES_HI} (where q → 1 as 1/x: a lumped time constant dominates). Measured against the exact
- * series solution at off-grid points: within 0.05% (tests/scaling/delay-table.test.ts).
+ * series solution at off-grid points: within 0.05% (tests/scaling/delay-table.test.ts). The interpolation is in delay-table.ts.
  */
 
 /** Number of grid values per axis (0 and the log-spaced ratios). */
-const N = ${n};
-const LOG_LO = ${GRID_DECADES_LO};
-const PER_DECADE = ${GRID_PER_DECADE};
-const FIRST = 1e${GRID_DECADES_LO};
-const LAST_INDEX = N - 1;
+export const N = ${n};
+export const LOG_LO = ${GRID_DECADES_LO};
+export const PER_DECADE = ${GRID_PER_DECADE};
+export const FIRST = 1e${GRID_DECADES_LO};
+export const LAST_INDEX = N - 1;
 
 /** q[i·N + j] at x = grid[i], y = grid[j]; grid[0] = 0, grid[k] = 10^(LOG_LO + (k − 1)/PER_DECADE). */
-const Q = new Float64Array([
+export const Q = new Float64Array([
 ${rows.join("\n")}
 ]);
-
-/** Position on the grid axis of ratio v ≥ 0 as index + fraction (into pos[0], pos[1]). */
-function axis(v: number, pos: Float64Array, o: number): void {
-  if (v < FIRST) {
-    pos[o] = 0;
-    pos[o + 1] = v / FIRST;
-    return;
-  }
-  const u = (Math.log10(v) - LOG_LO) * PER_DECADE + 1;
-  if (u >= LAST_INDEX) {
-    pos[o] = LAST_INDEX - 1;
-    pos[o + 1] = 1;
-    return;
-  }
-  const i = Math.floor(u);
-  pos[o] = i;
-  pos[o + 1] = u - i;
-}
-
-const POS = new Float64Array(4);
-
-/**
- * Exact normalised 50% delay τ50 = t50 / (R·C) of driver x·R + distributed line (R, C) + load y·C, x, y ≥ 0
- * (finite). Within 0.05% of the exact solution everywhere (tests/scaling/delay-table.test.ts).
- */
-export function exactTau50(x: number, y: number): number {
-  axis(x, POS, 0);
-  axis(y, POS, 2);
-  const i = POS[0]!;
-  const fx = POS[1]!;
-  const j = POS[2]!;
-  const fy = POS[3]!;
-  const a = i * N + j;
-  const q00 = Q[a]!;
-  const q01 = Q[a + 1]!;
-  const q10 = Q[a + N]!;
-  const q11 = Q[a + N + 1]!;
-  const q = (1 - fx) * ((1 - fy) * q00 + fy * q01) + fx * ((1 - fy) * q10 + fy * q11);
-  return q * (0.377 + 0.693 * (x + x * y + y));
-}
 `;
-  const out = new URL("../lib/scaling/delay-table.ts", import.meta.url).pathname;
+  const out = new URL("../lib/scaling/delay-table-data.ts", import.meta.url).pathname;
   writeFileSync(out, text);
   console.log(`wrote ${out}: ${n}×${n} values, q from ${min} to ${max}`);
 }

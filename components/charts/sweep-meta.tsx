@@ -32,21 +32,28 @@ export function LevelLegend({
       ))}
       {outsideRange ? (
         <li className="flex items-center gap-1.5" data-testid="legend-outside-range">
-          <svg width="26" height="10" aria-hidden="true">
-            <line
-              x1="1"
-              y1="5"
-              x2="25"
-              y2="5"
-              stroke={OUTSIDE_RANGE_STYLE.color}
-              strokeOpacity={OUTSIDE_RANGE_STYLE.opacity}
-              strokeWidth={OUTSIDE_RANGE_STYLE.width}
-              strokeDasharray={OUTSIDE_RANGE_STYLE.dash}
-            />
-          </svg>
+          <OutsideRangeSwatch />
           {OUTSIDE_RANGE_STYLE.label}
         </li>
       ) : null}
     </ul>
+  );
+}
+
+/** Legend swatch of the band drawn where a model is outside its validity range (workspace chart and report figure). */
+export function OutsideRangeSwatch() {
+  return (
+    <svg width="26" height="10" aria-hidden="true">
+      <line
+        x1="1"
+        y1="5"
+        x2="25"
+        y2="5"
+        stroke={OUTSIDE_RANGE_STYLE.color}
+        strokeOpacity={OUTSIDE_RANGE_STYLE.opacity}
+        strokeWidth={OUTSIDE_RANGE_STYLE.width}
+        strokeDasharray={OUTSIDE_RANGE_STYLE.dash}
+      />
+    </svg>
   );
 }

@@ -1,5 +1,6 @@
 import type { FrozenSweep } from "@/lib/validation/report";
 import { plain } from "@/lib/reports/format";
+import { OUTSIDE_RANGE_STYLE, OutsideRangeSwatch } from "@/components/charts/sweep-meta";
 
 /** Series styles: a distinct colour AND dash pattern each, so the figure still reads when printed in grey. */
 export const SERIES_STYLE: Record<string, { color: string; dash?: string; marker: "circle" | "square" | "diamond" | "triangle" }> = {
@@ -136,19 +137,8 @@ export function SweepFigure({ sweep, optionNames }: { sweep: FrozenSweep; option
         })}
         {outside.length > 0 ? (
           <span className="inline-flex items-center gap-1.5">
-            <svg width="26" height="10" aria-hidden="true">
-              <line
-                x1="1"
-                x2="25"
-                y1="5"
-                y2="5"
-                stroke={OUTSIDE.color}
-                strokeOpacity={OUTSIDE.opacity}
-                strokeWidth={OUTSIDE.width}
-                strokeDasharray={OUTSIDE.dash}
-              />
-            </svg>
-            outside model range
+            <OutsideRangeSwatch />
+            {OUTSIDE.label}
           </span>
         ) : null}
         <span>Markers: each option at its own S.</span>
@@ -157,8 +147,8 @@ export function SweepFigure({ sweep, optionNames }: { sweep: FrozenSweep; option
   );
 }
 
-/** Dashed amber band under a curve where a model is outside its range (as on the workspace's sweep chart). */
-const OUTSIDE = { color: "#8a6410", dash: "4 3", width: 5, opacity: 0.35 };
+/** Dashed amber band under a curve where a model is outside its range: the workspace sweep chart's style. */
+const OUTSIDE = OUTSIDE_RANGE_STYLE;
 
 /** Runs of flagged points, each widened by its in-range neighbours so the band reaches the boundary. */
 function outsideRuns<P extends { flags?: unknown[] }>(points: P[]): P[][] {

@@ -431,6 +431,10 @@ export function evaluateClassCore(
   };
 }
 
+function zeroTotals(): EvaluationTotals {
+  return { capacitanceF: 0, energyJ: 0, powerW: 0, repeaters: 0, worstDelayS: 0, meanDelayS: 0, repeaterAreaM2: 0, repeaterPowerW: 0, repeaterPowerShare: 0 };
+}
+
 /**
  * Evaluates every class at the scenario and at the baseline (baselineSettings at the same level, with the
  * scenario's Miller factor), with scenario/baseline ratios and totals. Totals: capacitanceF = Σ wire capacitance
@@ -444,28 +448,8 @@ export function evaluateScenario(p: { classes: WireClass[]; technology: Technolo
   const base = baselineSettings(p.settings.level, p.technology);
   base.miller = p.settings.miller;
   const classes: ClassComparison[] = new Array(p.classes.length);
-  const tb: EvaluationTotals = {
-    capacitanceF: 0,
-    energyJ: 0,
-    powerW: 0,
-    repeaters: 0,
-    worstDelayS: 0,
-    meanDelayS: 0,
-    repeaterAreaM2: 0,
-    repeaterPowerW: 0,
-    repeaterPowerShare: 0,
-  };
-  const ts: EvaluationTotals = {
-    capacitanceF: 0,
-    energyJ: 0,
-    powerW: 0,
-    repeaters: 0,
-    worstDelayS: 0,
-    meanDelayS: 0,
-    repeaterAreaM2: 0,
-    repeaterPowerW: 0,
-    repeaterPowerShare: 0,
-  };
+  const tb = zeroTotals();
+  const ts = zeroTotals();
   let nb = 0;
   let ns = 0;
   for (let i = 0; i < p.classes.length; i++) {

@@ -7,6 +7,7 @@ import { multipartField } from "@/lib/import/request-body";
 import { formatScaled, parseScaled } from "@/lib/scaling";
 import { ImportFatalError, type ImportIssue } from "@/lib/import/types";
 import { parseWireClassStream } from "@/lib/import/wire-classes";
+import { mulberry32 } from "../helpers/prng";
 
 const enc = new TextEncoder();
 /** Bytes in small chunks, so multi-byte characters, CRLF and quotes are split across chunk edges. */
@@ -21,18 +22,6 @@ const ROW_GLOBAL = "global,global,400,800,400,400,,5,Cu,3.0,4000,1500,300,5.0,0.
 const classes = (text: string, size = 7) => parseWireClassStream(chunks(text, size), { maxBytes: 1 << 20 });
 const hist = (text: string | Uint8Array, names = ["local", "global"], size = 7) =>
   parseHistogramCsv(chunks(text, size), names, { maxBytes: 1 << 20, sink: new HistogramAccumulator(names.length) });
-
-/** mulberry32, a small seeded PRNG in [0, 1) (common practice, no source): reproducible "random" input. */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 async function fatal(p: Promise<unknown>): Promise<ImportIssue & { status: number }> {
   try {

@@ -10,18 +10,7 @@ import {
   type LengthBin,
 } from "@/lib/scaling";
 import { testClass } from "./fixtures";
-
-/** mulberry32: a small seeded PRNG (common practice, no source), so the invented histograms are the same on every run. */
-function prng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { mulberry32 as prng } from "../helpers/prng";
 
 /** An invented length histogram: `n` log-spaced bins from 0.3 µm to 3 mm, log-normal-shaped counts with ±20% noise. */
 function histogram(n: number, seed: number): LengthBin[] {
