@@ -33,6 +33,12 @@ const COLUMNS = [
   header("nets"),
   header("over_budget", "pct"),
   header("validity_flags"),
+  // Engine 2.x (empty for reports frozen by engine 1.x): inserted repeaters and what they cost, and the temperature R is at.
+  header("repeater_count"),
+  header("repeater_size"),
+  header("repeater_area", "um2"),
+  header("repeater_energy", "fj"),
+  header("temperature", "c"),
 ];
 
 function row(option: string, scenario: string, level: string, r: FrozenClassResult, base: FrozenClassResult | null) {
@@ -64,6 +70,11 @@ function row(option: string, scenario: string, level: string, r: FrozenClassResu
     r.distribution.totalNets,
     sig(r.distribution.shareOverBudget * 100, 4),
     r.validity.map((f) => f.message).join(" | "),
+    r.repeaterCount ?? null,
+    r.repeaterSize === undefined ? null : sig(r.repeaterSize),
+    r.repeaterAreaM2 === undefined ? null : sig(r.repeaterAreaM2 / 1e-12),
+    r.repeaterEnergyJ === undefined ? null : sig(r.repeaterEnergyJ / 1e-15),
+    r.temperatureC ?? null,
   ];
 }
 

@@ -448,6 +448,15 @@ describe("GET /api/reports/[id]/export.csv", () => {
       expect.arrayContaining(["worst_class_delay_ps", "mean_net_delay_ps", "total_wire_capacitance_pf", "switching_energy_pj", "repeaters"]),
     );
     expect(table).toHaveLength(1 + 3 * 4);
+    // The repeater and temperature columns carry the frozen engine-2 results of each row (baseline row of the first class).
+    const head = table[0]!;
+    const frozen = (await viewer.client.get(`/api/reports/${made.json.report.id}`)).json.report.frozen;
+    const first = frozen.options[0].evaluation.classes.find((c: { name: string }) => c.name === frozen.classNames[0]).baseline;
+    const baseRow = table[1]!;
+    expect(Number(baseRow[head.indexOf("repeater_count")])).toBe(first.repeaterCount);
+    expect(Number(baseRow[head.indexOf("temperature_c")])).toBe(first.temperatureC);
+    expect(Number(baseRow[head.indexOf("repeater_area_um2")])).toBeCloseTo(first.repeaterAreaM2 / 1e-12, 4);
+    expect(Number(baseRow[head.indexOf("repeater_energy_fj")])).toBeCloseTo(first.repeaterEnergyJ / 1e-15, 4);
     for (const cell of [...table.slice(1), ...totals.slice(1)].flat()) {
       // A cell may start with - only as a number; nothing else may start like a formula.
       if (/^[=+\-@\t\r]/.test(cell)) expect(Number.isFinite(Number(cell)), cell).toBe(true);
