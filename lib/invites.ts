@@ -2,8 +2,6 @@ import "server-only";
 import { createHash, randomBytes } from "node:crypto";
 import { inviteStatus, type Invite } from "@/db/queries/invites";
 
-export { inviteStatus, type InviteStatus } from "@/db/queries/invites";
-
 export const INVITE_TTL_MS = 7 * 24 * 60 * 60 * 1000;
 
 /** A fresh invite token (256 random bits, base64url) and the SHA-256 hash that is stored instead. */

@@ -29,4 +29,3 @@ export function normalizeSettings(input: ScenarioSettingsInput, tech: Technology
 }
 
 /** Override keys that name no class of the baseline, as field errors (the scenario writes enforce the same rule). */
-export { unknownOverrideFields } from "@/db/writes/scenarios";

@@ -9,7 +9,8 @@ import { ButtonLink } from "@/components/ui/button";
 import { Notice } from "@/components/ui/card";
 import { getMembershipRole } from "@/lib/access";
 import { validateRequest } from "@/lib/auth";
-import { hashInviteToken, inviteStatus } from "@/lib/invites";
+import { inviteStatus } from "@/db/queries/invites";
+import { hashInviteToken } from "@/lib/invites";
 
 export const metadata: Metadata = { title: "Team invite", robots: { index: false } };
 export const dynamic = "force-dynamic";

@@ -3,7 +3,8 @@ import { getInviteByTokenHash } from "@/db/queries/invites";
 import { acceptInvite } from "@/db/writes/teams";
 import { getMembershipRole, requireApiUser } from "@/lib/access";
 import { ApiError, apiRoute, conflict, readJson } from "@/lib/api";
-import { hashInviteToken, inviteStatus } from "@/lib/invites";
+import { inviteStatus } from "@/db/queries/invites";
+import { hashInviteToken } from "@/lib/invites";
 import { acceptInviteSchema } from "@/lib/validation/team";
 
 const INVITE_NOT_FOUND = "This invite link is not valid. Check that you copied the whole link, or ask the team's owner for a new invite.";

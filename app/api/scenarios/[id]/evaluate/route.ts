@@ -5,7 +5,8 @@ import { apiRoute, badRequest } from "@/lib/api";
 import { readInput } from "@/lib/workspace/input";
 import { SCENARIO_JSON_LIMIT, scenarioEvaluateSchema } from "@/lib/validation/scenario";
 import { evaluateOrThrow, loadEngineInputs } from "@/lib/workspace/evaluate-server";
-import { normalizeSettings, unknownOverrideFields } from "@/lib/workspace/settings";
+import { unknownOverrideFields } from "@/db/writes/scenarios";
+import { normalizeSettings } from "@/lib/workspace/settings";
 
 export const dynamic = "force-dynamic";
 
