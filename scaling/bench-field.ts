@@ -34,7 +34,7 @@ const CASES: BenchCase[] = [
   },
 ];
 
-const QUANTITIES = ["groundFPerM", "couplingFPerM", "totalFPerM"] as const;
+const QUANTITIES = ["groundFPerM", "couplingEachFPerM", "totalFPerM"] as const;
 
 function median(values: number[]): number {
   const sorted = [...values].sort((a, b) => a - b);
@@ -82,8 +82,8 @@ export async function benchField(): Promise<{ ms: number; relErr: number; cells:
       `  ${c.name}`,
       `    default: ${caseMs.toFixed(1)} ms wall, ${median(cpuMs).toFixed(1)} ms CPU (medians of ${TIMED_RUNS}), ` +
         `${result.cells} cells, ${result.iterations} iterations`,
-      `    C' [aF/um] ground ${aFPerUm(result.groundFPerM)}, coupling ${aFPerUm(result.couplingFPerM)}, total ${aFPerUm(result.totalFPerM)}`,
-      `    resolution ${REFERENCE_RESOLUTION}: ground ${aFPerUm(fine.groundFPerM)}, coupling ${aFPerUm(fine.couplingFPerM)}, total ${aFPerUm(fine.totalFPerM)} (${fine.cells} cells, ${fine.elapsedMs.toFixed(0)} ms)`,
+      `    C' [aF/um] ground ${aFPerUm(result.groundFPerM)}, coupling ${aFPerUm(result.couplingEachFPerM)}, total ${aFPerUm(result.totalFPerM)}`,
+      `    resolution ${REFERENCE_RESOLUTION}: ground ${aFPerUm(fine.groundFPerM)}, coupling ${aFPerUm(fine.couplingEachFPerM)}, total ${aFPerUm(fine.totalFPerM)} (${fine.cells} cells, ${fine.elapsedMs.toFixed(0)} ms)`,
       `    max relative error: ${(err * 100).toFixed(3)}% vs resolution ${REFERENCE_RESOLUTION}, ${(errExtrapolated * 100).toFixed(3)}% vs Richardson(20, 40)`,
     );
   }

@@ -595,7 +595,7 @@ const engineScenario = () => {
         [res.powerW, bareOut[o + F.power]!],
         [res.distribution.meanDelayS, bareOut[o + F.meanDelay]!],
         [res.distribution.totalRepeaters, bareOut[o + F.reps]!],
-        [res.capacitance.couplingPerNeighbourFPerM, bareOut[o + F.couple]!],
+        [res.capacitance.couplingEachFPerM, bareOut[o + F.couple]!],
         [res.validity.length, bareFlags[row]!.length],
       ];
       pairs.push([res.energyJ, bareOut[o + F.energy]!], [res.repeaterAreaM2, bareOut[o + F.repArea]!], [res.repeaterPowerW, bareOut[o + F.repPower]!]);

@@ -232,14 +232,11 @@ function capacitanceCmd(argv: string[]): CliResult {
   const out = {
     model: r.model,
     groundFPerM: r.areaFPerM + r.fringeFPerM,
-    /** @deprecated per neighbour here (Miller × both in evaluate): read couplingEachFPerM. */
-    couplingFPerM: r.couplingPerNeighbourFPerM,
     couplingEachFPerM: r.couplingEachFPerM,
     couplingMillerFPerM: r.couplingMillerFPerM,
     totalFPerM: r.totalFPerM,
     areaFPerM: r.areaFPerM,
     fringeFPerM: r.fringeFPerM,
-    millerCouplingFPerM: r.couplingFPerM,
     miller,
     validity: r.validity,
     accuracy: r.accuracy,
@@ -250,7 +247,7 @@ function capacitanceCmd(argv: string[]): CliResult {
     [
       `model        ${out.model}`,
       `ground       ${f(out.groundFPerM)}  (area ${f(out.areaFPerM)}, fringe ${f(out.fringeFPerM)})`,
-      `coupling     ${f(out.couplingFPerM)} to each neighbour; ×${miller} Miller, both sides: ${f(out.millerCouplingFPerM)}`,
+      `coupling     ${f(out.couplingEachFPerM)} to each neighbour; ×${miller} Miller, both sides: ${f(out.couplingMillerFPerM)}`,
       `total        ${f(out.totalFPerM)}`,
       ...out.validity.map((x) => `warning      ${x.model}: ${x.message}`),
       `accuracy     ${out.accuracy}`,
@@ -417,7 +414,6 @@ function summary(r: ClassResult) {
     capacitance: {
       areaFPerM: r.capacitance.areaFPerM,
       fringeFPerM: r.capacitance.fringeFPerM,
-      couplingFPerM: r.capacitance.couplingFPerM,
       couplingMillerFPerM: r.capacitance.couplingMillerFPerM,
       couplingEachFPerM: r.capacitance.couplingEachFPerM,
       model: r.capacitance.model,

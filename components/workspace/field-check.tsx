@@ -67,11 +67,11 @@ export function FieldCheck({ results }: { results: ClassResult[] }) {
     out && closed
       ? [
           { label: "Ground (to planes)", numeric: out.r.groundFPerM, closed: closed.areaFPerM + closed.fringeFPerM },
-          { label: "Coupling (one neighbour)", numeric: out.r.couplingFPerM, closed: closed.couplingPerNeighbourFPerM },
+          { label: "Coupling (one neighbour)", numeric: out.r.couplingEachFPerM, closed: closed.couplingEachFPerM },
           {
             label: "Total (ground + 2 × coupling)",
             numeric: out.r.totalFPerM,
-            closed: closed.areaFPerM + closed.fringeFPerM + 2 * closed.couplingPerNeighbourFPerM,
+            closed: closed.areaFPerM + closed.fringeFPerM + 2 * closed.couplingEachFPerM,
           },
         ]
       : [];

@@ -54,7 +54,7 @@ const COLS: Col[] = [
     key: "cc",
     label: "coupling",
     unit: "fF/µm",
-    get: (r) => Number(fmtRaw(r.capacitance.couplingFPerM, FF_PER_UM.unitSI)),
+    get: (r) => Number(fmtRaw(r.capacitance.couplingMillerFPerM, FF_PER_UM.unitSI)),
     title: "Line-to-line, both neighbours, Miller factor applied",
   },
   { key: "rc", label: "RC", unit: "ps", get: (r) => Number(fmtRaw(r.rcS, 1e-12)), ratio: (c) => c.ratio.rcS },

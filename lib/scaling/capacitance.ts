@@ -268,15 +268,13 @@ export function capacitanceParts(p: LineCapacitanceInput, validity: ValidityFlag
   if (p.model === "field") {
     const r = fieldSolve({ widthM: w, thicknessM: t, spacingM: sp, heightBelowM: hb, heightAboveM: ha, k: p.k });
     const area = parallelPlateFPerM(eps, w, hb) + (ha !== null ? parallelPlateFPerM(eps, w, ha) : 0);
-    const coupling = 2 * p.miller * r.couplingFPerM;
+    const coupling = 2 * p.miller * r.couplingEachFPerM;
     return {
       areaFPerM: area,
       fringeFPerM: r.groundFPerM - area,
-      couplingFPerM: coupling,
       couplingMillerFPerM: coupling,
-      couplingEachFPerM: r.couplingFPerM,
+      couplingEachFPerM: r.couplingEachFPerM,
       totalFPerM: r.groundFPerM + coupling,
-      couplingPerNeighbourFPerM: r.couplingFPerM,
       model: "field",
     };
   }
@@ -288,11 +286,9 @@ export function capacitanceParts(p: LineCapacitanceInput, validity: ValidityFlag
   return {
     areaFPerM: split.area,
     fringeFPerM: split.ground - split.area,
-    couplingFPerM: coupling,
     couplingMillerFPerM: coupling,
     couplingEachFPerM: split.couple,
     totalFPerM: split.ground + coupling,
-    couplingPerNeighbourFPerM: split.couple,
     model,
   };
 }

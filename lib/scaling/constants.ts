@@ -30,5 +30,7 @@ export const REPEATER_B = SAKURAI_DISTRIBUTED_COEFF;
  * 2.0.0: exact (tabulated) stage delay by default; repeated nets keep their real driver and load (k inserted
  * repeaters with input, output and diffusion capacitance, minimum gain); repeaters cost energy, power, area and
  * leakage; operating temperature; per-metal overrides; vias; validity flags on sweep points.
+ * 2.1.0: one name per coupling part: couplingEachFPerM (Maxwell, one neighbour) and couplingMillerFPerM (Miller ×
+ * both neighbours); couplingFPerM and couplingPerNeighbourFPerM are gone (old reports read with the new names).
  */
-export const ENGINE_VERSION = "2.0.0";
+export const ENGINE_VERSION = "2.1.0";

@@ -310,11 +310,9 @@ export function evaluateClassCore(
   const cap: CapacitanceParts = {
     areaFPerM: sp.area,
     fringeFPerM: sp.ground - sp.area,
-    couplingFPerM: millerC,
     couplingMillerFPerM: millerC,
     couplingEachFPerM: sp.couple,
     totalFPerM: e.cPerM,
-    couplingPerNeighbourFPerM: sp.couple,
     model: CAP_MODEL[level],
   };
   const L = g.lengthM;

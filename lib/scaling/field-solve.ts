@@ -39,7 +39,7 @@
  * - Charge: by the discrete Gauss law on the dual-cell contour around each conductor,
  *   Q = Σ g·(φ_conductor − φ_outside) over the edges that leave it (corners included). The victim's
  *   self-capacitance uses the equivalent energy form C = Σ g·Δφ² over all edges (error quadratic
- *   in the solver error). couplingFPerM = −Q(neighbour) with the victim at 1 V (Maxwell
+ *   in the solver error). couplingEachFPerM = −Q(neighbour) with the victim at 1 V (Maxwell
  *   capacitance to one neighbour); groundFPerM = C_self − 2·coupling (what the planes and the far
  *   boundary receive); totalFPerM = C_self.
  *
@@ -132,7 +132,7 @@ export interface FieldSolveResult {
   /** Victim to the plane(s) (and far boundary), neighbours grounded. */
   groundFPerM: number;
   /** Maxwell capacitance victim to ONE neighbour (−charge on it with the victim at 1 V); 0 without. */
-  couplingFPerM: number;
+  couplingEachFPerM: number;
   /** ground + 2·coupling (the victim's self-capacitance); ground alone without neighbours. */
   totalFPerM: number;
   /** Rectangular cells of the solved half domain (x ≥ 0). */
@@ -339,7 +339,7 @@ const GROUND = 3;
  *
  * @param input geometry in m (widthM, thicknessM, spacingM | null, heightBelowM, heightAboveM | null),
  *   relative permittivity k ≥ 1, optional resolution, onProgress, domainScale, farBoundary, tolerance
- * @returns groundFPerM, couplingFPerM, totalFPerM in F/m, plus solver statistics
+ * @returns groundFPerM, couplingEachFPerM, totalFPerM in F/m, plus solver statistics
  * @throws RangeError on non-finite or non-positive lengths, k < 1, or an unknown resolution
  */
 export function fieldSolve(input: FieldSolveInput): FieldSolveResult {
@@ -520,11 +520,11 @@ export function fieldSolve(input: FieldSolveInput): FieldSolveResult {
   const chargeBalance = (victimCharge + neighbourCharge + charge[GROUND]!) / victimCharge;
   const eps = EPSILON_0_F_PER_M * k;
   const totalFPerM = 2 * energy * eps;
-  const couplingFPerM = S === null ? 0 : -neighbourCharge * eps;
-  const groundFPerM = totalFPerM - 2 * couplingFPerM;
+  const couplingEachFPerM = S === null ? 0 : -neighbourCharge * eps;
+  const groundFPerM = totalFPerM - 2 * couplingEachFPerM;
   return {
     groundFPerM,
-    couplingFPerM,
+    couplingEachFPerM,
     totalFPerM,
     cells: (nx - 1) * (ny - 1),
     iterations: solved.iterations,

@@ -169,19 +169,11 @@ export interface CapacitanceParts {
   areaFPerM: number;
   /** Fringing to the plane(s) beyond the plate part. */
   fringeFPerM: number;
-  /**
-   * Effective line-to-line part, Miller factor applied, both neighbours together (= couplingMillerFPerM).
-   * @deprecated ambiguous name (the capacitance command line's JSON used it for one neighbour): read couplingMillerFPerM
-   * or couplingEachFPerM instead; kept for the app until it switches.
-   */
-  couplingFPerM: number;
   /** Line-to-line part with the Miller factor, both neighbours together: 2·miller·couplingEachFPerM. */
   couplingMillerFPerM: number;
-  /** Electrostatic (Maxwell) coupling to EACH neighbour, no Miller factor (= couplingPerNeighbourFPerM). */
+  /** Electrostatic (Maxwell) coupling to EACH neighbour, no Miller factor; 0 without neighbours. */
   couplingEachFPerM: number;
   totalFPerM: number;
-  /** Electrostatic coupling to ONE neighbour (Maxwell, no Miller factor); 0 without neighbours. */
-  couplingPerNeighbourFPerM: number;
   model: CapacitanceModel;
 }
 

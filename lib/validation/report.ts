@@ -224,7 +224,6 @@ const validityFlagSchema = mirrorOf<NullableFields<ValidityFlag, "value">>()(
 );
 
 // Result fields added by engine 2.0.0: reports frozen by engine 1.x lack them (optional here), reports frozen since carry them.
-type Engine2CapacitanceFields = "couplingMillerFPerM" | "couplingEachFPerM";
 type Engine2RepeaterFields = "inserted" | "stageCount" | "unrepeatedDelayS";
 type Engine2ClassFields =
   | "temperatureC"
@@ -240,17 +239,32 @@ type Engine2ClassFields =
   | "repeaterPowerW";
 type Engine2TotalsFields = "repeaterAreaM2" | "repeaterPowerW" | "repeaterPowerShare";
 
-const capacitanceSchema = mirrorOf<OptionalFields<CapacitanceParts, Engine2CapacitanceFields>>()(
-  z.object({
-    areaFPerM: num,
-    fringeFPerM: num,
-    couplingFPerM: num,
-    couplingMillerFPerM: num.optional(),
-    couplingEachFPerM: num.optional(),
-    totalFPerM: num,
-    couplingPerNeighbourFPerM: num,
-    model: z.enum(["ideal", "fringe", "coupled", "field"] satisfies CapacitanceModel[]),
-  }),
+/**
+ * Reports frozen before engine 2.1 name the coupling parts `couplingFPerM` (Miller × both neighbours) and
+ * `couplingPerNeighbourFPerM` (Maxwell, one neighbour); they read as couplingMillerFPerM and couplingEachFPerM.
+ */
+function renameOldCouplingFields(v: unknown): unknown {
+  if (typeof v !== "object" || v === null || Array.isArray(v)) return v;
+  const { couplingFPerM, couplingPerNeighbourFPerM, ...rest } = v as Record<string, unknown>;
+  return {
+    ...rest,
+    ...(rest.couplingMillerFPerM === undefined && couplingFPerM !== undefined ? { couplingMillerFPerM: couplingFPerM } : {}),
+    ...(rest.couplingEachFPerM === undefined && couplingPerNeighbourFPerM !== undefined ? { couplingEachFPerM: couplingPerNeighbourFPerM } : {}),
+  };
+}
+
+const capacitanceSchema = z.preprocess(
+  renameOldCouplingFields,
+  mirrorOf<CapacitanceParts>()(
+    z.object({
+      areaFPerM: num,
+      fringeFPerM: num,
+      couplingMillerFPerM: num,
+      couplingEachFPerM: num,
+      totalFPerM: num,
+      model: z.enum(["ideal", "fringe", "coupled", "field"] satisfies CapacitanceModel[]),
+    }),
+  ),
 );
 const _capacitanceModels: Same<CapacitanceModel, z.output<typeof capacitanceSchema>["model"]> = true;
 

@@ -105,7 +105,7 @@ describe("frozenReportSchema and the current engine", () => {
     expect(global.temperatureC).toBe(25);
     expect(global.delayModel).toBe("exact");
     expect(opt.evaluation.totals.scenario.repeaterPowerShare).toBeGreaterThan(0);
-    expect(global.capacitance.couplingEachFPerM).toBe(global.capacitance.couplingPerNeighbourFPerM);
+    expect(global.capacitance).not.toHaveProperty("couplingFPerM");
     expect(doc.sweeps[0]!.series[0]!.points.every((p) => Array.isArray(p.flags))).toBe(true);
 
     // An engine 1.x document: the same shape minus every field engine 2 added.
@@ -131,17 +131,28 @@ describe("frozenReportSchema and the current engine", () => {
       for (const c of o.evaluation.classes)
         for (const r of [c.baseline, c.scenario]) {
           strip(r as unknown as Record<string, unknown>, classKeys);
-          strip(r.capacitance, ["couplingMillerFPerM", "couplingEachFPerM"]);
           strip(r.repeaters, ["inserted", "stageCount", "unrepeatedDelayS"]);
           strip(r.distribution, ["totalRepeaterSize"]);
           for (const b of r.distribution.bins) strip(b, ["repeaterSize"]);
         }
     }
     for (const sw of old.sweeps) for (const s of sw.series) for (const p of s.points) strip(p as unknown as Record<string, unknown>, ["flags"]);
+    // what 1.x documents parse to: the same, with the coupling parts under their engine-2 names
+    const expected = structuredClone(old);
+    // engine 1.x named the coupling parts couplingFPerM (Miller × both neighbours) and couplingPerNeighbourFPerM
+    for (const o of old.options)
+      for (const c of o.evaluation.classes)
+        for (const r of [c.baseline, c.scenario]) {
+          const cap = r.capacitance as unknown as Record<string, unknown>;
+          cap.couplingFPerM = cap.couplingMillerFPerM;
+          cap.couplingPerNeighbourFPerM = cap.couplingEachFPerM;
+          strip(cap, ["couplingMillerFPerM", "couplingEachFPerM"]);
+        }
     const parsed = frozenReportSchema.safeParse(old);
     expect(parsed.success, parsed.error?.message).toBe(true);
     expect(parsed.data!.options[0]!.evaluation.classes[1]!.scenario.repeaterCount).toBeUndefined();
-    expect(parsed.data).toEqual(old);
+    expect(parsed.data).toEqual(expected);
+    expect(parsed.data!.options[0]!.evaluation.classes[1]!.scenario.capacitance.couplingEachFPerM).toBe(global.capacitance.couplingEachFPerM);
     // the old fields stay required
     const noCount = structuredClone(old);
     delete (noCount.options[0]!.evaluation.classes[1]!.scenario.repeaters as Partial<{ count: number }>).count;
@@ -176,7 +187,7 @@ describe("frozenReportSchema and the current engine", () => {
     "options.0.evaluation.engineVersion",
     "options.1.evaluation.classes.0.scenario.intrinsicDelayS",
     "options.1.evaluation.classes.0.baseline.totalEnergyJ",
-    "options.1.evaluation.classes.1.scenario.capacitance.couplingPerNeighbourFPerM",
+    "options.1.evaluation.classes.1.scenario.capacitance.couplingEachFPerM",
     "options.2.evaluation.classes.1.scenario.repeaters.delayPerMS",
     "options.0.evaluation.classes.0.scenario.distribution.totalCapacitanceF",
     "options.0.evaluation.classes.0.ratio.energyJ",

@@ -55,13 +55,13 @@ describe("lineCapacitance({ ..., model })", () => {
     const eps = 3.9 * E0;
     const expected = sakuraiTamaruC1FPerM(eps, 50e-9, 100e-9, 60e-9) + 2 * sakuraiTamaruC21FPerM(eps, 50e-9, 100e-9, 60e-9, 50e-9);
     expectClose(r.totalFPerM, expected, 1e-12);
-    expectClose(r.areaFPerM + r.fringeFPerM + r.couplingFPerM, r.totalFPerM, 1e-12);
+    expectClose(r.areaFPerM + r.fringeFPerM + r.couplingMillerFPerM, r.totalFPerM, 1e-12);
   });
   it("Miller factor: C_eff = C_ground + MCF·2·C_couple (docs/models.md, Miller coupling factor)", () => {
     const m0 = lineCapacitance({ ...base, miller: 0, model: "coupled" });
     const m2 = lineCapacitance({ ...base, miller: 2, model: "coupled" });
-    expectClose(m2.totalFPerM - m0.totalFPerM, 4 * m0.couplingPerNeighbourFPerM, 1e-12);
-    expect(m0.couplingFPerM).toBe(0);
+    expectClose(m2.totalFPerM - m0.totalFPerM, 4 * m0.couplingEachFPerM, 1e-12);
+    expect(m0.couplingMillerFPerM).toBe(0);
   });
   it("flags inputs outside the fitted ranges and stays silent inside", () => {
     expect(lineCapacitance({ ...base, model: "coupled" }).validity).toEqual([]);
@@ -84,7 +84,7 @@ describe("lineCapacitance({ ..., model })", () => {
   it("plumbing: the field model returns fieldSolve's split", () => {
     const r = lineCapacitance({ ...base, model: "field" });
     const f = fieldSolve({ widthM: 50e-9, thicknessM: 100e-9, spacingM: 50e-9, heightBelowM: 60e-9, heightAboveM: null, k: 3.9 });
-    expectClose(r.couplingPerNeighbourFPerM, f.couplingFPerM, 1e-9);
+    expectClose(r.couplingEachFPerM, f.couplingEachFPerM, 1e-9);
     expectClose(r.totalFPerM, f.totalFPerM, 1e-9);
   });
 });
@@ -136,7 +136,7 @@ describe("closed forms against the field solver (inside the validity ranges)", (
           const r2 = lineCapacitance({ ...geo, miller: 2, model: "coupled" });
           note("st-total-m1", r1.totalFPerM / f.totalFPerM - 1);
           note("split-ground", (r1.areaFPerM + r1.fringeFPerM) / f.groundFPerM - 1);
-          note("st-total-m2", r2.totalFPerM / (f.groundFPerM + 4 * f.couplingFPerM) - 1);
+          note("st-total-m2", r2.totalFPerM / (f.groundFPerM + 4 * f.couplingEachFPerM) - 1);
         }
     expect(table["st-total-m1"]!).toBeLessThan(0.112);
     expect(table["split-ground"]!).toBeLessThan(0.067);
@@ -155,8 +155,8 @@ describe("closed forms against the field solver (inside the validity ranges)", (
             const r2 = lineCapacitance({ ...g, spacingM: s * H, miller: 2, model: "coupled" });
             note("two-plane-ground", (r1.areaFPerM + r1.fringeFPerM) / f.groundFPerM - 1);
             note("two-plane-total-m1", r1.totalFPerM / f.totalFPerM - 1);
-            note("two-plane-total-m2", r2.totalFPerM / (f.groundFPerM + 4 * f.couplingFPerM) - 1);
-            note("two-plane-coupling", r1.couplingPerNeighbourFPerM / f.couplingFPerM - 1);
+            note("two-plane-total-m2", r2.totalFPerM / (f.groundFPerM + 4 * f.couplingEachFPerM) - 1);
+            note("two-plane-coupling", r1.couplingEachFPerM / f.couplingEachFPerM - 1);
           }
         }
     console.log("max |closed form / field solver − 1|:", Object.fromEntries(Object.entries(table).map(([k, v]) => [k, `${(v * 100).toFixed(2)}%`])));

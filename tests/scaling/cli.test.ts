@@ -29,7 +29,11 @@ describe("run(argv)", () => {
     });
     expect(j.model).toBe("coupled");
     expect(j.totalFPerM).toBe(ref.totalFPerM);
-    expect(j.couplingFPerM).toBe(ref.couplingPerNeighbourFPerM);
+    expect(j.couplingEachFPerM).toBe(ref.couplingEachFPerM);
+    expect(j.couplingMillerFPerM).toBe(ref.couplingMillerFPerM);
+    // one name, one meaning: the ambiguous names of engine 1 are gone
+    expect(j).not.toHaveProperty("couplingFPerM");
+    expect(j).not.toHaveProperty("millerCouplingFPerM");
     expect(j.groundFPerM).toBeCloseTo(ref.areaFPerM + ref.fringeFPerM, 20);
     expect(Array.isArray(j.validity)).toBe(true);
   });
@@ -37,7 +41,7 @@ describe("run(argv)", () => {
     expect(JSON.parse(run(["capacitance", "--width", "2e-8", "--thickness", "4e-8", "--height", "2.5e-8", "--json"]).stdout).model).toBe("fringe");
     expect(
       JSON.parse(run(["capacitance", "--width", "20nm", "--thickness", "40nm", "--height", "25nm", "--spacing", "20nm", "--model", "field", "--json"]).stdout)
-        .couplingFPerM,
+        .couplingEachFPerM,
     ).toBeGreaterThan(0);
   });
   it("delay --json", () => {
@@ -161,7 +165,7 @@ describe("engine 2 on the command line", () => {
   };
   it("evaluate --json: the stable per-class repeater, via and temperature fields", () => {
     const j = JSON.parse(run(["evaluate", "--baseline", BASE, "--s", "1.43", "--json"]).stdout);
-    expect(j.engineVersion).toBe("2.0.0");
+    expect(j.engineVersion).toBe("2.1.0");
     for (const c of j.classes) {
       for (const side of [c.baseline, c.scenario]) {
         for (const k of ["repeaterCount", "repeaterSize", "repeatedDelayS", "stageCount", "repeaterAreaM2", "repeaterEnergyJ", "viaOhm", "temperatureC"])
@@ -170,7 +174,8 @@ describe("engine 2 on the command line", () => {
         if (side.repeaterCount === 0) expect(side.repeatedDelayS).toBe(side.delayS);
         else expect(side.repeatedDelayS).toBeLessThanOrEqual(0.9 * side.delayS);
         expect(side.temperatureC).toBe(25);
-        expect(side.capacitance.couplingMillerFPerM).toBe(side.capacitance.couplingFPerM);
+        expect(side.capacitance.couplingMillerFPerM).toBeCloseTo(2 * side.capacitance.couplingEachFPerM, 22);
+        expect(side.capacitance).not.toHaveProperty("couplingFPerM");
       }
     }
     expect(j.classes.find((c: { class: string }) => c.class === "global").scenario.repeaterCount).toBeGreaterThan(0);
@@ -207,7 +212,6 @@ describe("engine 2 on the command line", () => {
     const j = JSON.parse(
       run(["capacitance", "--width", "20nm", "--thickness", "40nm", "--height", "25nm", "--spacing", "20nm", "--miller", "1.5", "--json"]).stdout,
     );
-    expect(j.couplingEachFPerM).toBe(j.couplingFPerM);
     expect(j.couplingMillerFPerM).toBeCloseTo(2 * 1.5 * j.couplingEachFPerM, 22);
   });
   it("sweep --length-rule follows-s|fixed|scenario, and every point has flags", () => {

@@ -122,6 +122,6 @@ describe("evaluateScenario on the Skua demo", () => {
     const ev = evaluateScenario({ classes, technology: techJ, settings: at("coupled", { s: 1.4, miller: 2 }) });
     const b = ev.classes[0]!.baseline;
     expect(b.capacitance.model).toBe("coupled");
-    expectClose(b.capacitance.couplingFPerM, 4 * b.capacitance.couplingPerNeighbourFPerM, 1e-12);
+    expectClose(b.capacitance.couplingMillerFPerM, 4 * b.capacitance.couplingEachFPerM, 1e-12);
   });
 });

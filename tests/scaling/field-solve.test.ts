@@ -158,7 +158,7 @@ describe("fieldSolve(input) against exact references", () => {
       expectClose(r.totalFPerM, exact, 0.01);
       // Dirichlet principle: the discrete (finite-element-equivalent) energy is an upper bound.
       expect(r.totalFPerM).toBeGreaterThan(exact);
-      expect(r.couplingFPerM).toBe(0);
+      expect(r.couplingEachFPerM).toBe(0);
       expect(r.groundFPerM).toBe(r.totalFPerM);
     }
   });
@@ -241,7 +241,7 @@ describe("fieldSolve(input) convergence", () => {
     const base = { widthM: 20 * NM, thicknessM: 20 * NM, spacingM: 20 * NM, heightBelowM: 20 * NM, heightAboveM: 20 * NM, k: 1 };
     const r = (["coarse", "default", "fine"] as const).map((resolution) => fieldSolve({ ...base, resolution }));
     const [coarse, normal, fine] = r as [(typeof r)[0], (typeof r)[0], (typeof r)[0]];
-    for (const key of ["groundFPerM", "couplingFPerM", "totalFPerM"] as const) {
+    for (const key of ["groundFPerM", "couplingEachFPerM", "totalFPerM"] as const) {
       const d1 = Math.abs(coarse[key] - normal[key]);
       const d2 = Math.abs(normal[key] - fine[key]);
       expect(d2).toBeLessThan(d1 / 2);
@@ -274,34 +274,34 @@ describe("fieldSolve(input) physics and bookkeeping", () => {
 
   it("total = ground + 2·coupling, charge balances, and the result scales with k", () => {
     const r = fieldSolve(typical);
-    expectClose(r.totalFPerM, r.groundFPerM + 2 * r.couplingFPerM, 1e-12);
-    expect(r.couplingFPerM).toBeGreaterThan(0);
+    expectClose(r.totalFPerM, r.groundFPerM + 2 * r.couplingEachFPerM, 1e-12);
+    expect(r.couplingEachFPerM).toBeGreaterThan(0);
     expect(r.groundFPerM).toBeGreaterThan(0);
     expect(Math.abs(r.chargeBalance!)).toBeLessThan(1e-5);
     expect(r.converged).toBe(true);
     const r39 = fieldSolve({ ...typical, k: 3.9 });
     expectClose(r39.totalFPerM, 3.9 * r.totalFPerM, 1e-9);
-    expectClose(r39.couplingFPerM, 3.9 * r.couplingFPerM, 1e-9);
+    expectClose(r39.couplingEachFPerM, 3.9 * r.couplingEachFPerM, 1e-9);
   });
 
   it("neighbours take charge from the planes; far neighbours leave the isolated line", () => {
     const isolated = fieldSolve({ ...typical, spacingM: null });
     const spacings = [10, 20, 40, 80].map((s) => fieldSolve({ ...typical, spacingM: s * NM }));
     for (let i = 1; i < spacings.length; i++) {
-      expect(spacings[i]!.couplingFPerM).toBeLessThan(spacings[i - 1]!.couplingFPerM);
+      expect(spacings[i]!.couplingEachFPerM).toBeLessThan(spacings[i - 1]!.couplingEachFPerM);
       expect(spacings[i]!.groundFPerM).toBeGreaterThan(spacings[i - 1]!.groundFPerM);
     }
     expect(spacings[0]!.groundFPerM).toBeLessThan(isolated.groundFPerM);
     expect(spacings[0]!.totalFPerM).toBeGreaterThan(isolated.totalFPerM);
     const far = fieldSolve({ ...typical, spacingM: 100 * UM });
     expectClose(far.totalFPerM, isolated.totalFPerM, 0.005);
-    expect(far.couplingFPerM / far.totalFPerM).toBeLessThan(1e-3);
+    expect(far.couplingEachFPerM / far.totalFPerM).toBeLessThan(1e-3);
   });
 
   it("narrow spacing: coupling → ε·T/S (parallel plates between the sidewalls)", () => {
     // Parallel plate, plus fringe that stays finite as S → 0: coupling·S/(ε·T) → 1.
     const r = fieldSolve({ ...typical, spacingM: 0.2 * NM });
-    const ratio = (r.couplingFPerM * 0.2 * NM) / (EPS0 * 20 * NM);
+    const ratio = (r.couplingEachFPerM * 0.2 * NM) / (EPS0 * 20 * NM);
     expect(ratio).toBeGreaterThan(1);
     expect(ratio).toBeLessThan(1.1);
   });
@@ -310,7 +310,7 @@ describe("fieldSolve(input) physics and bookkeeping", () => {
     const a = fieldSolve({ ...typical, heightBelowM: 15 * NM, heightAboveM: 40 * NM });
     const b = fieldSolve({ ...typical, heightBelowM: 40 * NM, heightAboveM: 15 * NM });
     expectClose(a.totalFPerM, b.totalFPerM, 1e-8);
-    expectClose(a.couplingFPerM, b.couplingFPerM, 1e-6);
+    expectClose(a.couplingEachFPerM, b.couplingEachFPerM, 1e-6);
   });
 
   it("onProgress reports a non-decreasing fraction in [0, 1] that ends at 1", () => {

@@ -138,10 +138,10 @@ describe("properties", () => {
             const g = { widthM: w, thicknessM: ar * w, heightBelowM: h, heightAboveM: h2, k: 3, miller: 1, model: "coupled" as const };
             const far = lineCapacitance({ ...g, spacingM: sp * f });
             const near = lineCapacitance({ ...g, spacingM: sp });
-            expect(near.couplingPerNeighbourFPerM).toBeGreaterThan(far.couplingPerNeighbourFPerM);
+            expect(near.couplingEachFPerM).toBeGreaterThan(far.couplingEachFPerM);
             expect(near.areaFPerM + near.fringeFPerM).toBeLessThanOrEqual((far.areaFPerM + far.fringeFPerM) * (1 + 1e-9));
             expect(near.totalFPerM).toBeGreaterThanOrEqual(far.totalFPerM * (1 - 1e-9));
-            expect(near.couplingPerNeighbourFPerM).toBeGreaterThan(0);
+            expect(near.couplingEachFPerM).toBeGreaterThan(0);
             expect(near.areaFPerM + near.fringeFPerM).toBeGreaterThan(0);
           },
         ),

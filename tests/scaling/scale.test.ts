@@ -113,7 +113,7 @@ describe("one implementation of the scaling rules", () => {
           g.widthM + g.spacingM,
         ]);
         expect(r.metal).toBe(getMetal(g.metal).id);
-        expect(r.capacitance.couplingFPerM).toBe(2 * g.miller * r.capacitance.couplingPerNeighbourFPerM);
+        expect(r.capacitance.couplingMillerFPerM).toBe(2 * g.miller * r.capacitance.couplingEachFPerM);
       }),
       { numRuns: Number(process.env.PROP_RUNS ?? 500) },
     );
