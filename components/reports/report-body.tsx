@@ -3,7 +3,7 @@ import { Caution } from "@/components/caution";
 import { TableHead } from "@/components/ui/table";
 import { optionAssumptions, levelWords } from "@/lib/reports/assumptions";
 import { count, dateTime, eng, fixed, plain } from "@/lib/reports/format";
-import { materialSources, modelsUsed, validityFlags } from "@/lib/reports/models";
+import { materialSources, modelsUsed, technologyWords, validityFlags } from "@/lib/reports/models";
 import { signedPct, type Change, type ReportSummary } from "@/lib/reports/summary";
 import type { PublicReport } from "@/lib/reports/service";
 import type { FrozenClassResult, ReportMetric } from "@/lib/validation/report";
@@ -334,7 +334,7 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
         <p className="mt-2 text-xs text-muted">
           Technology (same for all): supply {plain(f.baseline.technology.supplyV)} V, clock {eng(f.baseline.technology.clockHz, "Hz")}, minimum repeater R0{" "}
           {eng(f.baseline.technology.repeaterR0Ohm, "Ω")} and C0 {eng(f.baseline.technology.repeaterC0F, "F")}, delay budget{" "}
-          {eng(f.baseline.technology.delayBudgetS, "s")}.
+          {eng(f.baseline.technology.delayBudgetS, "s")}; {technologyWords(f)}.
         </p>
       </Section>
 
@@ -375,6 +375,12 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
             {materials.map((m) => (
               <li key={m.metal}>
                 <span className="text-ink">{m.metal}</span>: resistivity {m.resistivity}; mean free path {m.meanFreePath}.
+                {m.override ? (
+                  <>
+                    {" "}
+                    <span className="text-ink">This baseline&apos;s values:</span> {m.override}; source: {m.overrideSource}.
+                  </>
+                ) : null}
               </li>
             ))}
           </ul>

@@ -24,6 +24,7 @@ import { swrKeys } from "@/lib/swr-keys";
 import { Button, ButtonLink } from "@/components/ui/button";
 import { Badge, Card, Notice } from "@/components/ui/card";
 import { inputClass } from "@/components/ui/field";
+import { MaterialsPanel } from "./materials-panel";
 import { NumberField } from "./number-field";
 import { U, formatValue, parseValue, type DisplayUnit } from "./units";
 import { ConfirmDelete } from "@/components/ui/confirm-delete";
@@ -499,6 +500,16 @@ export function BaselineEditor({
             </>
           )}
         </div>
+        <h3 className="mb-2 mt-5 text-xs font-semibold uppercase tracking-wide text-muted">Materials and calibration</h3>
+        <MaterialsPanel
+          baselineId={b.id}
+          classes={b.classes}
+          technology={tech}
+          onChange={(t) => setMeta((m) => ({ ...m, technology: t }))}
+          readOnly={readOnly}
+          classesDirty={classesDirty}
+          errors={serverErrors}
+        />
       </Card>
 
       <Card

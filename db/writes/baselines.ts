@@ -188,6 +188,7 @@ function describeTechnologyChange(before: Technology, after: Technology): string
     repeaterAreaM2: "repeater area",
     repeaterLeakageW: "repeater leakage",
     materials: "materials",
+    materialsSource: "materials source",
   };
   // JSON comparison: `materials` is an object; a field left out and one set to its absent value compare equal
   return (Object.keys(labels) as (keyof Technology)[]).filter((k) => JSON.stringify(before[k]) !== JSON.stringify(after[k])).map((k) => labels[k]);

@@ -27,13 +27,18 @@ function examplesDir(): string {
  * its three scenarios authored by the editor, all read from scaling/examples/ (the single source of demo data).
  * Idempotent: rows found by name are kept and reused.
  */
+/** Operating temperature of the demo's wiring, °C. */
+export const DEMO_TEMPERATURE_C = 85;
+
 export async function seedDemoWorkspace(
   db: Knex,
   p: { teamId: string; ownerId: string; editorId: string },
 ): Promise<{ baselineId: string; scenarioIds: string[] }> {
   const dir = examplesDir();
   const read = (f: string) => fs.readFileSync(path.join(dir, f), "utf8");
-  const technology: Technology = { ...DEFAULT_TECHNOLOGY };
+  // The one default technology, with the wiring at 85 °C: a product's hot corner, as planners use it (new baselines
+  // keep the engine's default of 25 °C).
+  const technology: Technology = { ...DEFAULT_TECHNOLOGY, temperatureC: DEMO_TEMPERATURE_C };
 
   let baselineId = await findBaselineIdByName(db, p.teamId, DEMO_BASELINE_NAME);
   if (!baselineId) {

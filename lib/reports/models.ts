@@ -1,4 +1,4 @@
-import { METALS } from "@/lib/scaling";
+import { DEFAULT_MIN_REPEATER_GAIN, DEFAULT_OUTPUT_C_RATIO, DEFAULT_REPEATER_AREA_M2, DEFAULT_TEMPERATURE_C, METALS, type MetalOverride } from "@/lib/scaling";
 import type { FrozenReport } from "@/lib/validation/report";
 
 export interface ModelUse {
@@ -90,17 +90,62 @@ export function modelsUsed(report: FrozenReport): ModelUse[] {
 }
 
 /** Material sources for the metals that appear in the report (baseline and options). */
-export function materialSources(report: FrozenReport): { metal: string; resistivity: string; meanFreePath: string }[] {
+/** Display of a materials parameter: label, unit and SI size of one display unit. */
+const MATERIAL_PARAMS: { key: keyof MetalOverride; label: string; unit: string; unitSI: number }[] = [
+  { key: "resistivityOhmM", label: "ρ0 at 20 °C", unit: " µΩ·cm", unitSI: 1e-8 },
+  { key: "tempCoeffPerK", label: "α", unit: "/K", unitSI: 1 },
+  { key: "meanFreePathM", label: "λ", unit: " nm", unitSI: 1e-9 },
+  { key: "specularity", label: "p", unit: "", unitSI: 1 },
+  { key: "grainReflection", label: "R", unit: "", unitSI: 1 },
+  { key: "steinhoglC", label: "C", unit: "", unitSI: 1 },
+];
+
+/**
+ * Sources of the metals a report uses, and the baseline's own values where its materials block overrides the
+ * catalogue (e.g. a fit to measured lines), with the source the baseline gives for them.
+ */
+export function materialSources(
+  report: FrozenReport,
+): { metal: string; resistivity: string; meanFreePath: string; override: string | null; overrideSource: string | null }[] {
   const ids = new Set<string>();
   for (const o of report.options)
     for (const c of o.evaluation.classes) {
       ids.add(c.baseline.metal);
       ids.add(c.scenario.metal);
     }
+  const materials = report.baseline.technology.materials ?? {};
   return [...ids]
     .map((id) => METALS[id])
     .filter((m): m is NonNullable<typeof m> => Boolean(m))
-    .map((m) => ({ metal: `${m.name} (${m.id})`, resistivity: m.sources.resistivity, meanFreePath: m.sources.meanFreePath }));
+    .map((m) => {
+      const o = materials[m.id];
+      const parts = o
+        ? MATERIAL_PARAMS.filter((q) => o[q.key] !== undefined).map(
+            (q) => `${q.label} ${Number((o[q.key]! / q.unitSI).toPrecision(4))}${q.unit} (catalogue ${Number((m[q.key] / q.unitSI).toPrecision(4))})`,
+          )
+        : [];
+      return {
+        metal: `${m.name} (${m.id})`,
+        resistivity: m.sources.resistivity,
+        meanFreePath: m.sources.meanFreePath,
+        override: parts.length > 0 ? parts.join(", ") : null,
+        overrideSource: parts.length > 0 ? (report.baseline.technology.materialsSource ?? "not given") : null,
+      };
+    });
+}
+
+/** The technology's operating point and repeater settings in words (engine defaults where the baseline sets none). */
+export function technologyWords(report: FrozenReport): string {
+  const t = report.baseline.technology;
+  const pct = (v: number) => `${Number((v * 100).toPrecision(3))}%`;
+  return [
+    `wiring at ${t.temperatureC ?? DEFAULT_TEMPERATURE_C} °C`,
+    `delay model ${(t.delayModel ?? "exact") === "exact" ? "exact distributed line" : "Sakurai's closed form"}`,
+    `repeaters only where they cut a net's delay by ≥ ${pct(t.minRepeaterGain ?? DEFAULT_MIN_REPEATER_GAIN)}`,
+    `repeater output capacitance ${Number((t.repeaterOutputCRatio ?? DEFAULT_OUTPUT_C_RATIO).toPrecision(3))} × input`,
+    `minimum repeater area ${Number(((t.repeaterAreaM2 ?? DEFAULT_REPEATER_AREA_M2) / 1e-12).toPrecision(4))} µm²`,
+    `leakage ${Number(((t.repeaterLeakageW ?? 0) / 1e-9).toPrecision(4))} nW per minimum repeater`,
+  ].join(", ");
 }
 
 export interface ReportFlag {

@@ -29,6 +29,23 @@ export interface SizeEffectFit {
   points: FitPoint[];
 }
 
+/**
+ * A measured point the fit cannot use: which point (index into `measured`), which field, and for a value below the bulk
+ * resistance the bound it broke (Ω/m at the point's temperature). The message names all of it.
+ */
+export class FitInputError extends RangeError {
+  constructor(
+    message: string,
+    readonly index: number,
+    readonly field: "className" | "rOhmPerM" | "temperatureC",
+    readonly bulkOhmPerM?: number,
+    readonly temperatureC?: number,
+  ) {
+    super(message);
+    this.name = "FitInputError";
+  }
+}
+
 const P_MAX = 0.95;
 const R_MIN = 0.01;
 const R_MAX = 0.95;
@@ -60,10 +77,10 @@ export function fitSizeEffect(p: { classes: WireClass[]; measured: MeasuredResis
   p.measured.forEach((m, i) => {
     const name = `measured[${i}] (class ${m.className})`;
     const cls = byName.get(m.className.toLowerCase());
-    if (!cls) throw new RangeError(`${name}.className must name a class of the baseline (got "${m.className}")`);
-    if (!(m.rOhmPerM > 0 && Number.isFinite(m.rOhmPerM))) throw new RangeError(`${name}.rOhmPerM must be > 0 and finite (got ${m.rOhmPerM})`);
+    if (!cls) throw new FitInputError(`${name}.className must name a class of the baseline (got "${m.className}")`, i, "className");
+    if (!(m.rOhmPerM > 0 && Number.isFinite(m.rOhmPerM))) throw new FitInputError(`${name}.rOhmPerM must be > 0 and finite (got ${m.rOhmPerM})`, i, "rOhmPerM");
     const t = m.temperatureC ?? tDefault;
-    if (!(t >= -273.15 && t <= 400)) throw new RangeError(`${name}.temperatureC must be between -273.15 and 400 (got ${t})`);
+    if (!(t > -273.15 && t <= 400)) throw new FitInputError(`${name}.temperatureC must be above -273.15 and at most 400 (got ${t})`, i, "temperatureC");
     const w = cls.widthM - 2 * cls.barrierM;
     const h = cls.thicknessM - cls.barrierM;
     if (!(w > 0 && h > 0))
@@ -72,8 +89,12 @@ export function fitSizeEffect(p: { classes: WireClass[]; measured: MeasuredResis
     const metal = metalAtInto(getMetal(id), p.technology?.materials?.[id], t, newMetal());
     const bulk = metal.resistivityOhmM / (w * h);
     if (m.rOhmPerM < bulk) {
-      throw new RangeError(
+      throw new FitInputError(
         `${name}.rOhmPerM must be >= the bulk resistance of the conducting cross-section, ${bulk.toPrecision(4)} Ω/m at ${t} °C (got ${m.rOhmPerM})`,
+        i,
+        "rOhmPerM",
+        bulk,
+        t,
       );
     }
     const list = groups.get(id) ?? [];

@@ -45,7 +45,7 @@ export {
   type RepeatedNet,
 } from "./repeaters";
 export { DEFAULT_REPEATER_AREA_M2 } from "./evaluate";
-export { fitSizeEffect, type MeasuredResistance, type FitPoint, type SizeEffectFit } from "./fit";
+export { fitSizeEffect, FitInputError, type MeasuredResistance, type FitPoint, type SizeEffectFit } from "./fit";
 export { energyPerTransitionJ, switchingPowerW } from "./energy";
 export { rentWireLengths, classDistribution, type DistributionInput } from "./distribution";
 export { fieldSolve } from "./field-solve";

@@ -110,6 +110,8 @@ export interface Technology {
   repeaterLeakageW?: number;
   /** Per-metal overrides of the materials catalogue, keyed by metal id (e.g. { Cu: { specularity: 0.2 } }). */
   materials?: Record<string, MetalOverride>;
+  /** Where the materials overrides come from, in words (e.g. "Fitted to 3 measured lines, 2026-12-02"); shown in reports. */
+  materialsSource?: string;
 }
 
 /** Per-class changes a scenario makes on top of its global settings. */

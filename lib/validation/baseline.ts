@@ -67,6 +67,12 @@ export const technologySchema = mirrorOf<Technology>()(
     repeaterAreaM2: quantity("Repeater area", "", { min: 0, max: 1e-6, maxHint: "Repeater area must be at most 1 mm² (1e-6 m²)." }).optional(),
     repeaterLeakageW: quantity("Repeater leakage", "W", { min: 0, max: 1, maxHint: "Repeater leakage must be at most 1 W." }).optional(),
     materials: materialsSchema.optional(),
+    materialsSource: z
+      .string({ error: "Materials source must be text." })
+      .trim()
+      .max(300, "Materials source must be at most 300 characters.")
+      .optional()
+      .transform((v) => (v === "" ? undefined : v)),
   }),
 );
 export type TechnologyInput = z.infer<typeof technologySchema>;
@@ -101,3 +107,34 @@ export type ClassesPut = z.infer<typeof classesPutSchema>;
 export const baselineDuplicateSchema = z.object({
   name: baselineNameSchema.optional(),
 });
+
+/** One measured line of POST /api/baselines/[id]/fit: resistance per length of a class at its baseline geometry. */
+export const measuredLineSchema = z
+  .object({
+    class: z.string({ error: "Class is required (the name of a class of the baseline)." }).trim().min(1, "Class is required."),
+    rOhmPerUm: z
+      .number({ error: "Measured resistance must be a number in Ω/µm." })
+      .refine((v) => Number.isFinite(v), "Measured resistance must be a finite number.")
+      .refine((v) => v > 0, "Measured resistance must be greater than 0 Ω/µm.")
+      .refine((v) => v < 1e9, "Measured resistance must be below 1e9 Ω/µm."),
+    temperatureC: quantity("Measurement temperature", "", {
+      min: -273.15,
+      minExclusive: true,
+      minHint: "Measurement temperature must be above −273.15 °C (absolute zero).",
+      max: 400,
+      maxHint: "Measurement temperature must be at most 400 °C.",
+    }).optional(),
+  })
+  .strict();
+
+/**
+ * POST /api/baselines/[id]/fit: measured lines (1–50) and optionally the technology to start from (the editor's
+ * unsaved one; default: the stored baseline's). Nothing is stored: applying the fit is a PATCH of `technology.materials`.
+ */
+export const fitRequestSchema = z
+  .object({
+    measured: z.array(measuredLineSchema, { error: "measured must be a list of measured lines." }).min(1, "Enter at least one measured line.").max(50),
+    technology: technologySchema.optional(),
+  })
+  .strict();
+export type FitRequest = z.infer<typeof fitRequestSchema>;

@@ -151,6 +151,7 @@ export const technologySnapshotSchema = mirrorOf<Technology>()(
     repeaterAreaM2: num.optional(),
     repeaterLeakageW: num.optional(),
     materials: z.record(z.string(), metalOverrideSnapshotSchema).optional(),
+    materialsSource: z.string().optional(),
   }),
 );
 

@@ -349,8 +349,8 @@ describe("scenario editor in the browser", () => {
     page.on("pageerror", (e) => errors.push(String(e)));
     await page.goto(`${baseUrl}/teams/${teamId}/baselines/${bid}`);
     await page.waitForSelector("[data-testid=technology-engine2]");
-    // a baseline without the engine 2 settings shows the engine's defaults
-    expect(await page.getByLabel("Operating temperature").inputValue()).toBe("25");
+    // the demo's wiring runs at 85 °C; settings it leaves out show the engine's defaults
+    expect(await page.getByLabel("Operating temperature").inputValue()).toBe("85");
     expect(await page.locator("select[name=delayModel]").inputValue()).toBe("exact");
     expect(await page.getByLabel("Minimum repeater gain").inputValue()).toBe("10");
     expect(await page.getByLabel("Repeater output-C ratio γ").inputValue()).toBe("0.5");
@@ -359,7 +359,7 @@ describe("scenario editor in the browser", () => {
     await expect(page.locator("text=Of the wiring; sets the metals' resistivity").count()).resolves.toBe(1);
     await page.getByLabel("Operating temperature").fill("-300");
     await page.waitForSelector("text=Temperature must be above −273.15 °C");
-    await page.getByLabel("Operating temperature").fill("85");
+    await page.getByLabel("Operating temperature").fill("105");
     await page.selectOption("select[name=delayModel]", "sakurai");
     await page.getByLabel("Minimum repeater gain").fill("5");
     await page.getByLabel("Minimum repeater area").fill("0.2");
@@ -375,13 +375,13 @@ describe("scenario editor in the browser", () => {
     expect(await page.locator("[data-testid=save-baseline]").isDisabled()).toBe(true);
     await page.screenshot({ path: `${SHOTS}/baseline-engine2.png`, fullPage: true });
     const saved = (await editor.client.get(`/api/baselines/${bid}`)).json.baseline;
-    expect(saved.technology).toMatchObject({ temperatureC: 85, delayModel: "sakurai", minRepeaterGain: 0.05, repeaterAreaM2: 2e-13, repeaterLeakageW: 3e-9 });
+    expect(saved.technology).toMatchObject({ temperatureC: 105, delayModel: "sakurai", minRepeaterGain: 0.05, repeaterAreaM2: 2e-13, repeaterLeakageW: 3e-9 });
     expect(saved.technology).not.toHaveProperty("repeaterOutputCRatio");
     expect(saved.classes[0]).toMatchObject({ name: "local", viasPerNet: 2, viaOhm: 12 });
     expect(saved.classes[1]).not.toHaveProperty("viasPerNet");
     await page.reload();
     await page.waitForSelector("[data-testid=technology-engine2]");
-    expect(await page.getByLabel("Operating temperature").inputValue()).toBe("85");
+    expect(await page.getByLabel("Operating temperature").inputValue()).toBe("105");
     expect(await page.getByLabel("Vias of local").inputValue()).toBe("2");
 
     const sc = await editor.client.post(`/api/teams/${teamId}/scenarios`, { baselineId: bid, name: "Hot shrink", settings: { s: 1.6, sL: 1.6 } });
@@ -389,7 +389,7 @@ describe("scenario editor in the browser", () => {
     const sid = sc.json.scenario.id as string;
     await page.goto(`${baseUrl}/teams/${teamId}/scenarios/${sid}?metric=delay&from=0.5&to=4`);
     await waitForResults(page);
-    expect(await page.locator("[data-testid=r-temperature]").innerText()).toBe("at 85 °C");
+    expect(await page.locator("[data-testid=r-temperature]").innerText()).toBe("at 105 °C");
     const server = (await editor.client.post(`/api/scenarios/${sid}/evaluate`)).json.evaluation;
     expect(server.classes[0].scenario.viaOhm).toBeGreaterThan(0);
     expect(server.classes.some((c: { scenario: { repeaterCount: number } }) => c.scenario.repeaterCount > 0)).toBe(true);
@@ -406,6 +406,61 @@ describe("scenario editor in the browser", () => {
     await expect(page.locator("[data-testid=legend-outside-range]").count()).resolves.toBe(1);
     await page.locator(".sweep-chart").first().scrollIntoViewIfNeeded();
     await page.screenshot({ path: `${SHOTS}/scenario-engine2.png`, fullPage: true });
+    expect(errors).toEqual([]);
+    await ctx.close();
+  });
+
+  it("fits the size-effect model to measured lines, shows residuals, applies the fit to the baseline's materials and saves it", async () => {
+    const dup = await editor.client.post(`/api/baselines/${baselineId}/duplicate`, { name: "Calibrated" });
+    const bid = dup.json.baseline.id as string;
+    const ctx = await contextFor(editor.client);
+    const page = await ctx.newPage();
+    const errors: string[] = [];
+    page.on("pageerror", (e) => errors.push(String(e)));
+    await page.goto(`${baseUrl}/teams/${teamId}/baselines/${bid}`);
+    await page.waitForSelector("[data-testid=materials-Cu]");
+    // the catalogue's values and sources show; nothing is overridden yet
+    expect(await page.getByLabel("Cu Specularity p (Fuchs–Sondheimer)").getAttribute("placeholder")).toBe("0");
+    expect(await page.getByLabel("Cu Specularity p (Fuchs–Sondheimer)").inputValue()).toBe("");
+    await page.click("[data-testid=fit-to-measured] summary");
+    // the invented measurements of scaling/examples/skua-measured.csv (local and intermediate at 25 °C)
+    await page.getByLabel("Measured line 1: resistance (Ω/µm)").fill("5");
+    await page.getByLabel("Measured line 1: temperature (°C)").fill("25");
+    await page.click("[data-testid=run-fit]");
+    // 5 Ω/µm is below local's bulk floor: the row says so, nothing applied
+    await page.waitForSelector("text=is below the bulk resistance");
+    await page.getByLabel("Measured line 1: resistance (Ω/µm)").fill("58.03");
+    await page.click("text=Add a line");
+    await page.getByLabel("Measured line 2: class").selectOption("intermediate");
+    await page.getByLabel("Measured line 2: resistance (Ω/µm)").fill("13.95");
+    await page.getByLabel("Measured line 2: temperature (°C)").fill("25");
+    await page.click("[data-testid=run-fit]");
+    await page.waitForSelector("[data-testid=fit-result]");
+    const api = await editor.client.post(`/api/baselines/${bid}/fit`, {
+      measured: [
+        { class: "local", rOhmPerUm: 58.03, temperatureC: 25 },
+        { class: "intermediate", rOhmPerUm: 13.95, temperatureC: 25 },
+      ],
+    });
+    expect(api.status).toBe(200);
+    const rows = await page.locator("[data-testid=fit-result] tbody tr").allInnerTexts();
+    expect(rows).toHaveLength(2);
+    expect(rows[0]).toMatch(/^local\s+58\.03\s+/);
+    await page.click("[data-testid=apply-fit]");
+    expect(await page.getByLabel("Cu Specularity p (Fuchs–Sondheimer)").inputValue()).not.toBe("");
+    expect(await page.locator("input[name=materialsSource]").inputValue()).toMatch(/^Fitted to 2 measured lines \(local, intermediate\), \d{4}-\d{2}-\d{2}$/);
+    await page.locator("[data-testid=fit-to-measured]").scrollIntoViewIfNeeded();
+    await page.screenshot({ path: `${SHOTS}/baseline-calibration.png`, fullPage: true });
+    await page.click("[data-testid=save-baseline]");
+    await page.waitForSelector("text=Saved as version 2");
+    const saved = (await editor.client.get(`/api/baselines/${bid}`)).json.baseline;
+    expect(saved.technology.materials).toEqual(api.json.metals);
+    expect(saved.technology.temperatureC).toBe(85);
+    // a typed override replaces one value; clearing it returns to the catalogue
+    await page.getByLabel("Cu Surface factor C (Steinhögl)").fill("1.1");
+    await page.click("[data-testid=save-baseline]");
+    await page.waitForSelector("text=Saved as version 3");
+    expect((await editor.client.get(`/api/baselines/${bid}`)).json.baseline.technology.materials.Cu.steinhoglC).toBe(1.1);
     expect(errors).toEqual([]);
     await ctx.close();
   });

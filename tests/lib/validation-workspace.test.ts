@@ -223,6 +223,7 @@ describe("input schemas and the engine types", () => {
       repeaterAreaM2: 1.5e-13,
       repeaterLeakageW: 2e-9,
       materials: { Cu: { resistivityOhmM: 1.7e-8, tempCoeffPerK: 0.004, meanFreePathM: 3.9e-8, specularity: 0.1, grainReflection: 0.3, steinhoglC: 1.2 } },
+      materialsSource: "Fitted to 3 measured lines, 2026-12-02",
     };
     expect(technologySchema.parse(all)).toEqual(all);
   });
