@@ -210,12 +210,12 @@ function OverrideInput(p: {
   onChange: (v: number | undefined) => void;
   errors?: string[];
 }) {
-  const [text, setText] = useState(p.value === undefined ? "" : show(p.value, p.unitSI, 10));
+  const [text, setText] = useState(p.value === undefined ? "" : show(p.value, p.unitSI, 6));
   const [msg, setMsg] = useState<string | undefined>();
   const [shown, setShown] = useState(p.value);
   if (!Object.is(shown, p.value)) {
     setShown(p.value);
-    setText(p.value === undefined ? "" : show(p.value, p.unitSI, 10));
+    setText(p.value === undefined ? "" : show(p.value, p.unitSI, 6));
     setMsg(undefined);
   }
   const all = [...(msg ? [msg] : []), ...(p.errors ?? [])];
@@ -225,7 +225,7 @@ function OverrideInput(p: {
         aria-label={p.label}
         inputMode="decimal"
         autoComplete="off"
-        className={`${inputClass} tabular w-24 px-1.5 py-0.5 text-right text-xs`}
+        className={`${inputClass} tabular w-28 px-1.5 py-0.5 text-right text-xs`}
         placeholder={p.placeholder}
         value={text}
         aria-invalid={all.length ? true : undefined}

@@ -3,8 +3,22 @@
  *
  * Geometry (SI units): a victim rectangle W × T whose bottom is at height H above a grounded
  * plane (always present); optionally a grounded plane H2 above the line's top; optionally two
- * grounded neighbours of the same W × T at edge-to-edge spacing S on both sides; one homogeneous
- * dielectric ε = ε0·k. The victim is held at 1 V and everything else at 0 V.
+ * grounded neighbours of the same W × T at edge-to-edge spacing S on both sides. The victim is
+ * held at 1 V and everything else at 0 V.
+ *
+ * Dielectrics: horizontal layers that span the whole width of the domain (with y = 0 at the
+ * bottom of the lines):
+ * - y < 0 (the ILD below the lines): k;
+ * - 0 ≤ y < f·T, outside the conductors (the space between the lines, and beyond the outer
+ *   neighbour, where an array would continue the pattern): kGap, with f = gapFraction. An air gap
+ *   between the lines that stops at the line bottoms, so the plate under the line keeps k;
+ * - f·T ≤ y < T outside the conductors: k;
+ * - T ≤ y < T + c (an optional cap layer of thickness c on the lines and gaps): capK;
+ * - above: k.
+ * Defaults kGap = capK = k, f = 1, c = 0: one homogeneous dielectric ε = ε0·k, as before.
+ * Every interface where the permittivity actually changes is a grid line (0 and T always are;
+ * f·T and T + c are added only when kGap ≠ k or capK ≠ k, so a homogeneous input keeps exactly
+ * the grid, and the numbers, it always had). See "Layered dielectrics" below for the stencil.
  *
  * Method
  * - Laplace's equation ∇·(ε∇φ) = 0, discretised by vertex-centred finite volumes on a
@@ -28,14 +42,45 @@
  *   Refining n scales h(x) by 1/n everywhere, a true h-refinement (used for Richardson checks).
  * - Linear solver: conjugate gradients (M. R. Hestenes and E. Stiefel, J. Res. NBS 49, 1952)
  *   preconditioned by modified incomplete Cholesky MIC(0) (I. Gustafsson, "A class of first order
- *   factorization methods", BIT 18, 1978), relaxation 0.97, with the safeguard of R. Bridson,
- *   Fluid Simulation for Computer Graphics, 2008 (fall back to the diagonal on small pivots).
+ *   factorization methods", BIT 18, 1978), relaxation 0.97, with a safeguard after R. Bridson,
+ *   Fluid Simulation for Computer Graphics, 2008: a modified pivot below 0.25 of the unmodified
+ *   one (the same elimination step without the row-sum compensation, i.e. the IC(0) formula) is
+ *   replaced by the unmodified one, or by the diagonal should that not be positive. Bridson
+ *   compares with the diagonal instead and falls back to it; that misfires where the
+ *   conductances on the two sides of a node differ several-fold (a thin high-k cap, an air gap
+ *   in k = 7), where the exact pivot is itself a small part of the diagonal, and it tripled the
+ *   iteration count there. The unmodified pivot never exceeds the diagonal, so the new rule
+ *   fires only where the old one did, and the old one fired on none of 860 homogeneous solves
+ *   checked (the geometries of the tests and a 5 × 4 × 5 × 4 grid of W, T, S, H2 at two
+ *   resolutions): those results are unchanged, bit for bit.
  *   Stopping rule on the quantity computed, not on ‖r‖ (whose scale depends on the cell aspect
  *   ratios): the energy of CG iterate k is E_k = E_fixed − bᵀx_k, each step lowers it by
  *   α_k·r_kᵀz_k, an estimate of the remaining A-norm error (Z. Strakoš and P. Tichý, "On error
  *   estimation in the conjugate gradient method and why it works in finite precision
  *   computations", ETNA 13, 2002); stop when 10·α_k·r_kᵀz_k ≤ 1e-12·E_k. Typically 30–90
  *   iterations. Float64Array throughout.
+ * - Layered dielectrics (node potentials, permittivity constant on each grid cell because every
+ *   interface is a grid line). The control volume of node (i, j) is the dual cell
+ *   [x_{i−½}, x_{i+½}] × [y_{j−½}, y_{j+½}] (half-way points). Its east face x = x_{i+½} runs
+ *   through two primal cells: the one above the edge (i, j)–(i+1, j) over a length dy₊/2 with
+ *   permittivity ε₊ and the one below over dy₋/2 with ε₋. Inside each cell the piecewise-linear
+ *   potential has E_x = (φ_i − φ_{i+1})/dx along that edge, so the flux through the face is
+ *   (ε₊·dy₊/2 + ε₋·dy₋/2)·(φ_i − φ_{i+1})/dx: the edge conductance is the dual length times the
+ *   area-weighted ARITHMETIC mean of the permittivities of the two cells adjacent to the edge,
+ *   divided by the primal length (likewise for north edges with the cells left and right). The
+ *   two halves of the face are side by side (parallel), hence arithmetic, not harmonic: the
+ *   harmonic mean belongs to cell-centred schemes, where the interface lies between two unknowns.
+ *   Here nodes sit ON the interface and the balance of their dual cell, which straddles it, is
+ *   the discrete continuity of the normal flux D·n. The same sum, cell by cell, is the linear
+ *   finite-element stiffness with ε constant per triangle, so the Dirichlet upper bound still
+ *   holds. The layers are horizontal, so a cell's permittivity depends only on its row: north
+ *   edges see one ε, east edges the rows below and above. Cells inside conductors never matter
+ *   (an edge between two nodes of one conductor carries no potential difference). Conductances
+ *   hold ε/ε_k with ε_k = ε0·k (the ILD's); the results are multiplied by ε0·k at the end, so a
+ *   homogeneous input computes exactly the same numbers as before (every ratio is 1). Energy
+ *   and charges use the same per-edge conductances as the solve. An interface closer than 1e-6
+ *   of the smallest feature to another grid line is moved onto it (a layer that thin changes
+ *   the capacitance by about that fraction, and would only make the system stiff).
  * - Charge: by the discrete Gauss law on the dual-cell contour around each conductor,
  *   Q = Σ g·(φ_conductor − φ_outside) over the edges that leave it (corners included). The victim's
  *   self-capacitance uses the equivalent energy form C = Σ g·Δφ² over all edges (error quadratic
@@ -70,6 +115,12 @@
  *   differ by 0.04% at the default domain (0.005% with neighbours at S = 20 nm).
  * - Typical case W = T = S = H = 20 nm, one plane or two, default resolution: 8–12k cells,
  *   9–20 ms, ground/coupling/total within 0.25% of resolution 40 (coupling converges slowest).
+ * - Layers (tests/scaling/field-solve-layered.test.ts): layers side by side along the field (a
+ *   5 nm slot, dC/dT) within +0.06 … +0.12% of the exact parallel form, layers in series across
+ *   it (a wide line under a cap, dC/dW) within 1e-6 of the exact series form. Air gap to T/2
+ *   under a 10 nm cap (k = 2.7, kGap = 1, capK = 4.5; W = 40, T = 80, S = 40, H = H2 = 80 nm):
+ *   observed order ≈ 1.75; the default resolution is within 0.16% (total), 0.22% (coupling) of
+ *   the Richardson extrapolation; about 40 iterations, as many as the homogeneous solve.
  */
 
 import { EPSILON_0_F_PER_M } from "./constants";
@@ -87,6 +138,8 @@ const SHIELDED_DOMAIN_FACTOR = 4;
 const MAX_NODES = 1_000_000;
 /** Safety factor on the last energy step when estimating the remaining solver error. */
 const ESTIMATE_FACTOR = 10;
+/** A dielectric layer thinner than this (in units of the smallest feature) is snapped away. */
+const MIN_LAYER = 1e-6;
 
 /** Input of {@link fieldSolve}. Lengths in m. */
 export interface FieldSolveInput {
@@ -100,8 +153,25 @@ export interface FieldSolveInput {
   heightBelowM: number;
   /** Height H2 from the top of the line to a grounded plane above, > 0; null = open top. */
   heightAboveM: number | null;
-  /** Relative permittivity of the homogeneous dielectric, ≥ 1. */
+  /**
+   * Relative permittivity, ≥ 1: of the whole domain when no layer is given; with layers, of the
+   * ILD below the lines, of the line layer above the gap and of everything above the cap.
+   */
   k: number;
+  /**
+   * Relative permittivity between the lines from their bottom up to gapFraction·T (e.g. 1 for an
+   * air gap), in [1, k]; default k (homogeneous).
+   */
+  kGap?: number;
+  /** Height of the kGap region as a fraction of T, in [0, 1]; default 1 (the full line height). */
+  gapFraction?: number;
+  /**
+   * Thickness c of a cap layer directly on top of the lines and gaps, in m, ≥ 0 and ≤ heightAboveM
+   * when there is a plane above; default 0 (none).
+   */
+  capThicknessM?: number;
+  /** Relative permittivity of the cap layer, ≥ 1; default k. */
+  capK?: number;
   /**
    * Cells across the smallest feature (min of W, T, S, H, H2): "coarse" = 5, "default" = 10,
    * "fine" = 20, or a number in [2, 64]. Default "default". Cost grows about as n³.
@@ -172,8 +242,36 @@ function requireRange(field: string, value: number, min: number, max: number, un
   }
 }
 
-function requirePermittivity(k: number): void {
-  if (!Number.isFinite(k) || k < 1) throw new RangeError(`k must be >= 1 (got ${k}, dimensionless)`);
+function requirePermittivity(k: number, field = "k"): void {
+  if (!Number.isFinite(k) || k < 1) throw new RangeError(`${field} must be >= 1 (got ${k}, dimensionless)`);
+}
+
+/** The dielectric layers of an input, validated, in SI units (see the comment at the top). */
+interface Layers {
+  kGap: number;
+  gapFraction: number;
+  capThicknessM: number;
+  capK: number;
+}
+
+function resolveLayers(input: FieldSolveInput): Layers {
+  const { k } = input;
+  const kGap = input.kGap ?? k;
+  if (!Number.isFinite(kGap) || kGap < 1 || kGap > k) {
+    throw new RangeError(`kGap must be in [1, k] = [1, ${k}] (got ${kGap}, dimensionless)`);
+  }
+  const gapFraction = input.gapFraction ?? 1;
+  requireRange("gapFraction", gapFraction, 0, 1, "");
+  const capThicknessM = input.capThicknessM ?? 0;
+  if (!Number.isFinite(capThicknessM) || capThicknessM < 0) {
+    throw new RangeError(`capThicknessM must be >= 0 (got ${capThicknessM} m)`);
+  }
+  if (input.heightAboveM !== null && capThicknessM > input.heightAboveM) {
+    throw new RangeError(`capThicknessM must be <= heightAboveM (got ${capThicknessM} m > ${input.heightAboveM} m)`);
+  }
+  const capK = input.capK ?? k;
+  requirePermittivity(capK, "capK");
+  return { kGap, gapFraction, capThicknessM, capK };
 }
 
 const now: () => number = typeof performance !== "undefined" && typeof performance.now === "function" ? () => performance.now() : () => Date.now();
@@ -321,6 +419,10 @@ const GROUND = 3;
  * Capacitance per length of a line (victim) over a ground plane, optionally under a second
  * plane and between two grounded neighbours, by a numeric 2D field solve.
  *
+ * Dielectric: k everywhere, or layers: kGap between the lines up to gapFraction·T, a cap layer
+ * (capThicknessM, capK) on top of the lines, k elsewhere; interfaces are grid lines and each edge
+ * conductance uses the area-weighted arithmetic mean of the permittivities of its two cells.
+ *
  * Method: finite volumes (5-point stencil, equal to linear finite elements on a right-triangle
  * split) on a graded rectilinear grid of the half cross-section x ≥ 0 (mirror plane Neumann);
  * conjugate gradients with MIC(0) preconditioning (Hestenes–Stiefel 1952; Gustafsson 1978);
@@ -338,9 +440,12 @@ const GROUND = 3;
  * resolution n: 10–20 ms at the default for a typical case on one core, 5–10× more at "fine".
  *
  * @param input geometry in m (widthM, thicknessM, spacingM | null, heightBelowM, heightAboveM | null),
- *   relative permittivity k ≥ 1, optional resolution, onProgress, domainScale, farBoundary, tolerance
+ *   relative permittivity k ≥ 1, optional layers (kGap in [1, k], gapFraction in [0, 1],
+ *   capThicknessM in [0, heightAboveM], capK ≥ 1), resolution, onProgress, domainScale,
+ *   farBoundary, tolerance
  * @returns groundFPerM, couplingEachFPerM, totalFPerM in F/m, plus solver statistics
- * @throws RangeError on non-finite or non-positive lengths, k < 1, or an unknown resolution
+ * @throws RangeError naming the field on non-finite or non-positive lengths, k < 1, a layer out of
+ *   range, or an unknown resolution
  */
 export function fieldSolve(input: FieldSolveInput): FieldSolveResult {
   const start = now();
@@ -351,6 +456,7 @@ export function fieldSolve(input: FieldSolveInput): FieldSolveResult {
   requirePositive("heightBelowM", h);
   if (h2 !== null) requirePositive("heightAboveM", h2);
   requirePermittivity(k);
+  const layers = resolveLayers(input);
   const n = resolveResolution(input.resolution);
   const domainScale = input.domainScale ?? 1;
   requireRange("domainScale", domainScale, 0.05, 100, "");
@@ -386,6 +492,26 @@ export function fieldSolve(input: FieldSolveInput): FieldSolveResult {
     xFar = xOuter + SHIELDED_DOMAIN_FACTOR * domainScale * yFar;
   }
 
+  // Layer interfaces (grid units): only where the permittivity changes; snapped onto a
+  // neighbouring grid line when closer than MIN_LAYER.
+  let yGap = H; // top of the kGap region (H: none)
+  if (layers.kGap !== k && layers.gapFraction > 0) {
+    yGap = H + layers.gapFraction * T;
+    if (yGap - H < MIN_LAYER) yGap = H;
+    else if (yTop - yGap < MIN_LAYER) yGap = yTop;
+  }
+  let yCap = yTop; // top of the cap layer (yTop: none)
+  if (layers.capK !== k && layers.capThicknessM > 0) {
+    yCap = yTop + layers.capThicknessM / unit;
+    if (yCap - yTop < MIN_LAYER) yCap = yTop;
+    else if (yFar - yCap < MIN_LAYER) yCap = yFar;
+  }
+  const yKeys = [0, H];
+  if (yGap > H && yGap < yTop) yKeys.push(yGap);
+  yKeys.push(yTop);
+  if (yCap > yTop && yCap < yFar) yKeys.push(yCap);
+  yKeys.push(yFar);
+
   const cornerSize = CORNER_FACTOR / n;
   const grading = GRADING / n;
   const xKeys = S === null ? [0, xVictim, xFar] : [0, xVictim, xVictim + S, xOuter, xFar];
@@ -399,9 +525,9 @@ export function fieldSolve(input: FieldSolveInput): FieldSolveResult {
     n,
   });
   const yAxis = buildAxis({
-    keys: [0, H, yTop, yFar],
+    keys: yKeys,
     corners: [H, yTop],
-    uncapped: H2 === null ? new Set([2]) : new Set<number>(),
+    uncapped: H2 === null ? new Set([yKeys.length - 2]) : new Set<number>(),
     cornerSize,
     grading,
     n,
@@ -416,8 +542,11 @@ export function fieldSolve(input: FieldSolveInput): FieldSolveResult {
   const iVictim = xAxis.keyIndex[1]!;
   const iNeighbourL = S === null ? -1 : xAxis.keyIndex[2]!;
   const iNeighbourR = S === null ? -1 : xAxis.keyIndex[3]!;
-  const jBottom = yAxis.keyIndex[1]!;
-  const jTop = yAxis.keyIndex[2]!;
+  const jAt = (y: number): number => yAxis.keyIndex[yKeys.indexOf(y)]!;
+  const jBottom = jAt(H);
+  const jTop = jAt(yTop);
+  const jGap = jAt(yGap);
+  const jCap = jAt(yCap);
 
   const size = nx * ny;
   const label = new Uint8Array(size);
@@ -433,16 +562,25 @@ export function fieldSolve(input: FieldSolveInput): FieldSolveResult {
     }
   }
 
-  // Edge conductances (ε = 1): east edge (i,j)–(i+1,j) and north edge (i,j)–(i,j+1).
+  // Permittivity of each row of cells (between grid lines j and j + 1) relative to ε0·k.
+  const epsRow = new Float64Array(ny).fill(1);
+  for (let j = jBottom; j < jGap; j++) epsRow[j] = layers.kGap / k;
+  for (let j = jTop; j < jCap; j++) epsRow[j] = layers.capK / k;
+
+  // Edge conductances (ε relative to ε0·k): east edge (i,j)–(i+1,j) and north edge (i,j)–(i,j+1).
+  // East: half the cell row below and half the row above, each with its permittivity (the
+  // area-weighted arithmetic mean derived at the top); north: one row, one permittivity.
+  // Homogeneous: every factor is exactly 1 and the products equal the old ε = 1 values bit for bit.
   const gE = new Float64Array(size);
   const gN = new Float64Array(size);
   for (let j = 0; j < ny; j++) {
-    const dyDual = 0.5 * ((j > 0 ? ys[j]! - ys[j - 1]! : 0) + (j < ny - 1 ? ys[j + 1]! - ys[j]! : 0));
+    const dyDual = 0.5 * ((j > 0 ? (ys[j]! - ys[j - 1]!) * epsRow[j - 1]! : 0) + (j < ny - 1 ? (ys[j + 1]! - ys[j]!) * epsRow[j]! : 0));
+    const epsN = epsRow[j]!;
     for (let i = 0; i < nx; i++) {
       const id = j * nx + i;
       const dxDual = 0.5 * ((i > 0 ? xs[i]! - xs[i - 1]! : 0) + (i < nx - 1 ? xs[i + 1]! - xs[i]! : 0));
       if (i < nx - 1) gE[id] = dyDual / (xs[i + 1]! - xs[i]!);
-      if (j < ny - 1) gN[id] = dxDual / (ys[j + 1]! - ys[j]!);
+      if (j < ny - 1) gN[id] = (dxDual * epsN) / (ys[j + 1]! - ys[j]!);
     }
   }
 
@@ -518,7 +656,7 @@ export function fieldSolve(input: FieldSolveInput): FieldSolveResult {
   const victimCharge = charge[VICTIM]!;
   const neighbourCharge = charge[NEIGHBOUR]!;
   const chargeBalance = (victimCharge + neighbourCharge + charge[GROUND]!) / victimCharge;
-  const eps = EPSILON_0_F_PER_M * k;
+  const eps = EPSILON_0_F_PER_M * k; // the conductances hold ε/(ε0·k)
   const totalFPerM = 2 * energy * eps;
   const couplingEachFPerM = S === null ? 0 : -neighbourCharge * eps;
   const groundFPerM = totalFPerM - 2 * couplingEachFPerM;
@@ -570,16 +708,19 @@ function solvePcg(p: {
   const sigma = 0.25;
   const prec = new Float64Array(size);
   for (let id = 0; id < size; id++) {
-    let e = diag[id]!;
+    let e = diag[id]!; // MIC(0) pivot
+    let e0 = e; // the same step without the row-sum compensation (IC(0) formula)
     if (id >= 1) {
       const a = cE[id - 1]! * prec[id - 1]!;
       e -= a * a + tau * cE[id - 1]! * cN[id - 1]! * prec[id - 1]! * prec[id - 1]!;
+      e0 -= a * a;
     }
     if (id >= nx) {
       const b = cN[id - nx]! * prec[id - nx]!;
       e -= b * b + tau * cN[id - nx]! * cE[id - nx]! * prec[id - nx]! * prec[id - nx]!;
+      e0 -= b * b;
     }
-    if (e < sigma * diag[id]!) e = diag[id]!;
+    if (e < sigma * e0) e = e0 > 0 ? e0 : diag[id]!;
     prec[id] = 1 / Math.sqrt(e);
   }
   const q = new Float64Array(size);
