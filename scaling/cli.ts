@@ -26,8 +26,6 @@ import {
   resolveHeader,
   sweep,
   validateMeasuredRow,
-  validateWireClassRow,
-  WIRE_CLASS_FORMAT,
   type BaseUnit,
   type CapacitanceModel,
   type ClassResult,
@@ -76,7 +74,7 @@ The technology JSON (--technology) lays its fields over the default technology: 
 repeaterC0F, delayBudgetS, and (engine 2) delayModel ("exact"|"sakurai"), temperatureC (default 25), minRepeaterGain
 (default 0.1), repeaterOutputCRatio (default 0.5), repeaterAreaM2 (default 1e-13), repeaterLeakageW (default 0),
 materials ({ "Cu": { "specularity": 0.2, ... } }). The baseline CSV may carry the optional columns vias_per_net,
-via_ohm, via_width_nm, via_height_nm.
+via_ohm, via_width_nm, via_height_nm, and k_gap, gap_fraction (an air gap between the lines).
 evaluate --json gives per class (baseline and scenario): repeaterCount (k inserted), repeaterSize (h), repeatedDelayS
 (= delayS when k = 0), stageCount (k + 1), repeaterAreaM2, repeaterEnergyJ (per net at the class's length),
 viaOhm, temperatureC, besides the line's R, C, delays, energy and power (repeaters included).
@@ -281,44 +279,11 @@ function delayCmd(argv: string[]): CliResult {
   );
 }
 
-/**
- * The optional via columns of a baseline file (the app's class schema does not carry them yet): the same file read
- * again with the one reader (lib/import/csv-stream) and the format's row rules, attached to the classes by name.
- * Rows were already validated by parseWireClassCsv (which rejects bad via cells naming the line).
- */
-function attachVias(bytes: Uint8Array, classes: WireClass[]): void {
-  const byName = new Map(classes.map((c) => [c.name, c]));
-  let index = new Map<string, number>();
-  readCsvSync(
-    bytes,
-    {
-      header(h) {
-        const r = resolveHeader(h.fields, WIRE_CLASS_FORMAT);
-        if (r.ok) index = r.index;
-      },
-      malformed() {},
-      row(f, line) {
-        if (!["vias_per_net", "via_ohm", "via_width_nm", "via_height_nm"].some((n) => index.has(n))) return;
-        const record: Record<string, string> = {};
-        for (const [name, i] of index) record[name] = (f[i] ?? "").trim();
-        const wc = validateWireClassRow(record, line).wireClass;
-        const target = wc ? byName.get(wc.name) : undefined;
-        if (!wc || !target) return;
-        if (wc.viasPerNet !== undefined) target.viasPerNet = wc.viasPerNet;
-        if (wc.viaOhm !== undefined) target.viaOhm = wc.viaOhm;
-        if (wc.viaWidthM !== undefined) target.viaWidthM = wc.viaWidthM;
-        if (wc.viaHeightM !== undefined) target.viaHeightM = wc.viaHeightM;
-      },
-    },
-    { maxBytes: 64 * 1024 * 1024 },
-  );
-}
-
 function loadBaseline(v: Record<string, unknown>): { classes: WireClass[]; technology: Technology } {
   const path = v.baseline;
   if (typeof path !== "string") throw new UsageError("--baseline is required: a wire-class CSV file (format: /help/csv in the app)");
+  // the one reader keeps the optional columns (vias, air gap): each class carries exactly the fields its row gives
   const classes: WireClass[] = readCsvFile("baseline", path, (bytes) => parseWireClassCsv(bytes)).classes;
-  attachVias(readBytes(path, "baseline"), classes);
   const histograms = v.histograms;
   if (typeof histograms === "string") {
     const h = readCsvFile("histograms", histograms, (bytes) =>

@@ -45,10 +45,26 @@ type NumKey =
   | "viasPerNet"
   | "viaOhm"
   | "viaWidthM"
-  | "viaHeightM";
-// Input widths per column (Tailwind classes) keep the editable table within a 1280 px layout.
-// `omit`: optional engine field left out when empty (vias: empty = none / the default geometry); `optional`: empty = null.
-const NUM_COLS: { key: NumKey; label: string; unit: DisplayUnit; optional?: boolean; omit?: boolean; int?: boolean; width: string; title?: string }[] = [
+  | "viaHeightM"
+  | "kGap"
+  | "gapFraction";
+// Input widths per column (Tailwind classes) keep the editable table within a 1280 px layout: the numeric cells are
+// spaced by NUM_PAD and the optional columns' inputs are dense, so the air-gap columns fit too (measured in Chromium:
+// 1207 of 1214 px); with the via columns as well the table scrolls sideways.
+// `omit`: optional engine field left out when empty (vias: empty = none / the default geometry; air gap: empty = none);
+// `optional`: empty = null. `group`: optional columns shown on request (or when a class uses them).
+type ColGroup = "vias" | "gap";
+const NUM_COLS: {
+  key: NumKey;
+  label: string;
+  unit: DisplayUnit;
+  optional?: boolean;
+  omit?: boolean;
+  int?: boolean;
+  width: string;
+  title?: string;
+  group?: ColGroup;
+}[] = [
   { key: "widthM", label: "Width", unit: U.nm, width: "w-14" },
   { key: "thicknessM", label: "Thickness", unit: U.nm, width: "w-14" },
   { key: "spacingM", label: "Spacing", unit: U.nm, width: "w-14" },
@@ -61,10 +77,36 @@ const NUM_COLS: { key: NumKey; label: string; unit: DisplayUnit; optional?: bool
   { key: "driverOhm", label: "Driver", unit: U.ohm, width: "w-14" },
   { key: "loadF", label: "Load", unit: U.fF, width: "w-12" },
   { key: "activity", label: "Activity", unit: U.none, width: "w-12" },
-  { key: "viasPerNet", label: "Vias", unit: U.none, omit: true, int: true, width: "w-10", title: "Vias in series with each net (empty = none)" },
-  { key: "viaOhm", label: "Via R", unit: U.ohm, omit: true, width: "w-12", title: "Measured resistance of one via (empty = from the via's size)" },
-  { key: "viaWidthM", label: "Via width", unit: U.nm, omit: true, width: "w-12", title: "Square via width (empty = the line's width)" },
-  { key: "viaHeightM", label: "Via height", unit: U.nm, omit: true, width: "w-12", title: "Via height (empty = the ILD below)" },
+  { key: "viasPerNet", label: "Vias", unit: U.none, omit: true, group: "vias", int: true, width: "w-10", title: "Vias in series with each net (empty = none)" },
+  {
+    key: "viaOhm",
+    label: "Via R",
+    unit: U.ohm,
+    omit: true,
+    group: "vias",
+    width: "w-12",
+    title: "Measured resistance of one via (empty = from the via's size)",
+  },
+  { key: "viaWidthM", label: "Via width", unit: U.nm, omit: true, group: "vias", width: "w-12", title: "Square via width (empty = the line's width)" },
+  { key: "viaHeightM", label: "Via height", unit: U.nm, omit: true, group: "vias", width: "w-12", title: "Via height (empty = the ILD below)" },
+  {
+    key: "kGap",
+    label: "k gap",
+    unit: U.none,
+    omit: true,
+    group: "gap",
+    width: "w-10",
+    title: "Permittivity of the air gap between neighbouring lines, 1 (air) … the class's k (empty = no gap; air when a gap fraction is given)",
+  },
+  {
+    key: "gapFraction",
+    label: "Gap fraction",
+    unit: U.none,
+    omit: true,
+    group: "gap",
+    width: "w-10",
+    title: "Share of the line thickness the gap covers from the bottom of the lines, 0 … 1 (empty = no gap; 1 when k gap is given)",
+  },
 ];
 
 interface Row {
@@ -81,6 +123,7 @@ interface Row {
 const techKey = (t: Technology) => JSON.stringify(Object.entries(t).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)));
 
 const hasVias = (c: WireClass) => c.viasPerNet !== undefined || c.viaOhm !== undefined || c.viaWidthM !== undefined || c.viaHeightM !== undefined;
+const hasGap = (c: WireClass) => c.kGap !== undefined || c.gapFraction !== undefined;
 
 let rowSeq = 0;
 function toRow(c: StoredWireClass | (WireClass & { id?: string; histogramBins?: number })): Row {
@@ -111,10 +154,14 @@ function parseRow(r: Row): { value?: Record<string, unknown>; errors: Record<str
     else if (col.int && !Number.isInteger(p.value)) errors[col.key] = `${col.label} must be a whole number.`;
     else if (col.key === "k" && p.value < 1) errors[col.key] = "k must be at least 1 (vacuum).";
     else if (col.key === "activity" && p.value > 1) errors[col.key] = "Activity must be between 0 and 1.";
+    else if (col.key === "kGap" && p.value < 1) errors[col.key] = "k gap must be at least 1 (air).";
+    else if (col.key === "gapFraction" && p.value > 1) errors[col.key] = "Gap fraction must be between 0 and 1.";
     else if (["widthM", "thicknessM", "spacingM", "meanLengthM", "ildBelowM", "ildAboveM", "viaWidthM", "viaHeightM"].includes(col.key) && p.value === 0)
       errors[col.key] = `${col.label} must be greater than 0.`;
     out[col.key] = p.value;
   }
+  if (typeof out.kGap === "number" && typeof out.k === "number" && out.kGap > out.k && !errors.kGap)
+    errors.kGap = `k gap must not exceed the class's k (${formatValue(out.k, U.none)}).`;
   return { value: Object.keys(errors).length ? undefined : out, errors };
 }
 
@@ -140,9 +187,10 @@ export function BaselineEditor({
   const canDelete = role === "owner" || (role === "editor" && b.createdBy === userId);
 
   const [rows, setRows] = useState<Row[]>(() => b.classes.map(toRow));
-  // The optional via columns show when a class has vias, or on request (they widen the table).
+  // The optional via and air-gap columns show when a class uses them, or on request (they widen the table).
   const [showVias, setShowVias] = useState(() => b.classes.some(hasVias));
-  const shownCols = showVias ? NUM_COLS : NUM_COLS.filter((c) => !c.omit);
+  const [showGap, setShowGap] = useState(() => b.classes.some(hasGap));
+  const shownCols = NUM_COLS.filter((c) => !c.group || (c.group === "vias" ? showVias : showGap));
   const [meta, setMeta] = useState({ name: b.name, description: b.description, technology: b.technology });
   const [version, setVersion] = useState(b.version);
   const [serverErrors, setServerErrors] = useState<Record<string, string[]>>({});
@@ -554,9 +602,16 @@ export function BaselineEditor({
           {showVias
             ? "Vias are optional: empty = no vias; empty via R = computed from the via's width and height (empty = the line's width and the ILD below). "
             : ""}
+          {showGap
+            ? "Air gap between neighbouring lines (optional): k gap from the bottom of the lines up to the gap fraction of the thickness; the ILD below and above keeps k. Both empty = no gap; only a fraction = air (k gap 1); only k gap = the whole thickness. "
+            : ""}
           <label className="no-print ml-1 inline-flex items-center gap-1 text-ink">
             <input type="checkbox" checked={showVias} onChange={(e) => setShowVias(e.target.checked)} data-testid="show-vias" />
             Via columns
+          </label>
+          <label className="no-print ml-3 inline-flex items-center gap-1 text-ink">
+            <input type="checkbox" checked={showGap} onChange={(e) => setShowGap(e.target.checked)} data-testid="show-air-gap" />
+            Air-gap columns
           </label>
         </p>
         {/* Scrolls sideways only on narrow screens; the class name stays pinned on the left. */}
@@ -574,7 +629,7 @@ export function BaselineEditor({
                   Metal
                 </th>
                 {shownCols.map((c) => (
-                  <th key={c.key} scope="col" className="px-1 py-1 text-right font-medium leading-tight" title={c.title}>
+                  <th key={c.key} scope="col" className={`${NUM_PAD} py-1 text-right font-medium leading-tight`} title={c.title}>
                     {c.label}
                     <span className="block text-[10px] font-normal text-faint">{c.unit.label || "\u00a0"}</span>
                   </th>
@@ -601,7 +656,7 @@ export function BaselineEditor({
                       <td className="px-1 py-1">{r.tier}</td>
                       <td className="px-1 py-1">{r.metal}</td>
                       {shownCols.map((c) => (
-                        <td key={c.key} className="tabular px-1 py-1 text-right">
+                        <td key={c.key} className={`tabular ${NUM_PAD} py-1 text-right`}>
                           {r.cells[c.key] || "—"}
                         </td>
                       ))}
@@ -646,7 +701,7 @@ export function BaselineEditor({
                         {cellErr(i, "metal").length ? <p className="text-[11px] text-bad">{cellErr(i, "metal").join(" ")}</p> : null}
                       </td>
                       {shownCols.map((c) => (
-                        <td key={c.key} className="px-1 py-0.5">
+                        <td key={c.key} className={`${NUM_PAD} py-0.5`}>
                           <Cell
                             label={`${c.label} of ${r.name}${c.unit.label ? ` (${c.unit.label})` : ""}`}
                             value={r.cells[c.key]}
@@ -655,6 +710,7 @@ export function BaselineEditor({
                             numeric
                             placeholder={c.optional ? "none" : c.omit ? "—" : ""}
                             width={c.width}
+                            dense={c.group !== undefined}
                           />
                         </td>
                       ))}
@@ -743,6 +799,9 @@ function CsvLinks({ teamId, baselineId, canImport }: { teamId: string; baselineI
   );
 }
 
+/** Horizontal padding of the numeric columns (4 px between the inputs; inputs keep their own padding). */
+const NUM_PAD = "px-0.5";
+
 /** The class-name column stays in view when the table scrolls sideways on narrow screens. */
 const STICKY = "sticky left-0 z-[1] bg-panel shadow-[1px_0_0_var(--color-rule)]";
 
@@ -772,6 +831,7 @@ function Cell({
   numeric,
   placeholder,
   width,
+  dense,
 }: {
   label: string;
   value: string;
@@ -780,6 +840,8 @@ function Cell({
   numeric?: boolean;
   placeholder?: string;
   width: string;
+  /** Narrow inner padding (the optional columns: more digits in less width). */
+  dense?: boolean;
 }) {
   return (
     <div className={width}>
@@ -790,7 +852,7 @@ function Cell({
         onChange={(e) => onChange(e.target.value)}
         aria-invalid={errors.length ? true : undefined}
         inputMode={numeric ? "decimal" : undefined}
-        className={`${inputClass} px-1 py-1 text-xs ${numeric ? "tabular text-right" : ""}`}
+        className={`${inputClass} ${dense ? "px-1!" : "px-1"} py-1 text-xs ${numeric ? "tabular text-right" : ""}`}
       />
       {errors.length ? <p className="mt-0.5 text-[11px] leading-tight text-bad">{errors.join(" ")}</p> : null}
     </div>

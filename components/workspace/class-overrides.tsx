@@ -1,8 +1,8 @@
 "use client";
 import { useState } from "react";
-import { METALS, type ClassOverride, type ScenarioSettings, type WireClass } from "@/lib/scaling";
+import { METALS, type AirGap, type ClassOverride, type ScenarioSettings, type WireClass } from "@/lib/scaling";
 import { inputClass } from "@/components/ui/field";
-import { DielectricField } from "./settings-panel";
+import { DEFAULT_AIR_GAP, DielectricField, gapFractionCheck, kGapCheck } from "./settings-panel";
 import { formatValue, parseValue, U, type DisplayUnit } from "./units";
 
 type NumKey = "s" | "sL" | "aspectRatio" | "miller" | "barrierM";
@@ -52,6 +52,12 @@ export function ClassOverrides({
             <th className="px-1 text-right font-medium">Barrier nm</th>
             <th className="px-1 text-right font-medium">T/W</th>
             <th className="px-1 text-right font-medium">Miller</th>
+            <th
+              className="px-1 font-medium"
+              title="Air gap between the lines: — follows the global setting (or the baseline class), none = no gap, custom = k gap and fraction"
+            >
+              Air gap
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -72,6 +78,7 @@ export function ClassOverrides({
                   <td className="px-1 text-right">{o.barrierM === undefined ? show(undefined) : formatValue(o.barrierM, U.nm)}</td>
                   <td className="px-1 text-right">{show(o.aspectRatio)}</td>
                   <td className="px-1 text-right">{show(o.miller)}</td>
+                  <td className="px-1">{showGap(o.airGap)}</td>
                 </tr>
               );
             return (
@@ -147,14 +154,91 @@ export function ClassOverrides({
                     />
                   </td>
                 ))}
+                <td className="px-1 py-0.5">
+                  <AirGapOverride
+                    name={c.name}
+                    value={o.airGap}
+                    classK={o.k ?? settings.k ?? c.k}
+                    onChange={(airGap) => setO(c.name, { airGap })}
+                    errors={e("airGap")}
+                    fieldErrors={(k) => e(`airGap.${k}`)}
+                  />
+                </td>
               </tr>
             );
           })}
         </tbody>
       </table>
       <p className="mt-1 text-[11px] text-muted">
-        Empty cells follow the global settings. Barrier nm replaces the barrier thickness (0 = barrier-free fill). k accepts an effective value for air gaps.
+        Empty cells follow the global settings. Barrier nm replaces the barrier thickness (0 = barrier-free fill). k accepts an effective value for air gaps
+        (first-order); Air gap puts the gap between the lines as geometry: none = no gap for this class, custom = the gap&apos;s k (1 = air) and the share of
+        the line thickness it covers from the bottom (empty = 1).
       </p>
+    </div>
+  );
+}
+
+const num = (v: number) => String(Number(v.toPrecision(6)));
+function showGap(g: AirGap | null | undefined) {
+  if (g === undefined) return <span className="text-faint">—</span>;
+  if (g === null) return "none";
+  return `k ${num(g.kGap)} × ${num(g.gapFraction)} T`;
+}
+
+/** Per-class air gap: follow (absent), none (null) or custom (k gap and fraction; an empty field is its default, 1). */
+function AirGapOverride({
+  name,
+  value,
+  classK,
+  onChange,
+  errors,
+  fieldErrors,
+}: {
+  name: string;
+  value: AirGap | null | undefined;
+  classK: number;
+  onChange: (g: AirGap | null | undefined) => void;
+  errors?: string[];
+  fieldErrors: (k: "kGap" | "gapFraction") => string[] | undefined;
+}) {
+  const mode = value === undefined ? "" : value === null ? "none" : "custom";
+  // a default shows as an empty field (placeholder 1), so clearing a field means its default
+  const shown = (v: number, d: number) => (v === d ? undefined : v);
+  return (
+    <div className="w-[5.5rem]">
+      <select
+        aria-label={`Air gap for ${name}`}
+        className={`${inputClass} px-1 py-1 text-xs`}
+        value={mode}
+        onChange={(ev) => onChange(ev.target.value === "" ? undefined : ev.target.value === "none" ? null : (value ?? DEFAULT_AIR_GAP))}
+      >
+        <option value="">—</option>
+        <option value="none">none</option>
+        <option value="custom">custom</option>
+      </select>
+      {value ? (
+        <div className="mt-0.5 flex gap-1">
+          <OptionalNumber
+            label={`Air-gap k for ${name}`}
+            className="w-10"
+            placeholder="1"
+            value={shown(value.kGap, DEFAULT_AIR_GAP.kGap)}
+            onChange={(v) => onChange({ ...value, kGap: v ?? DEFAULT_AIR_GAP.kGap })}
+            check={(v) => kGapCheck(v) ?? (v > classK ? `Air-gap k must not exceed this class's k (${num(classK)}).` : undefined)}
+            errors={fieldErrors("kGap")}
+          />
+          <OptionalNumber
+            label={`Gap fraction for ${name}`}
+            className="w-10"
+            placeholder="1"
+            value={shown(value.gapFraction, DEFAULT_AIR_GAP.gapFraction)}
+            onChange={(v) => onChange({ ...value, gapFraction: v ?? DEFAULT_AIR_GAP.gapFraction })}
+            check={gapFractionCheck}
+            errors={fieldErrors("gapFraction")}
+          />
+        </div>
+      ) : null}
+      {errors?.length ? <p className="text-[11px] text-bad">{errors.join(" ")}</p> : null}
     </div>
   );
 }
@@ -166,8 +250,12 @@ function OptionalNumber({
   check,
   errors,
   unit = U.none,
+  className = "w-16",
+  placeholder = "—",
 }: {
   unit?: DisplayUnit;
+  className?: string;
+  placeholder?: string;
   label: string;
   value: number | undefined;
   onChange: (v: number | undefined) => void;
@@ -188,12 +276,12 @@ function OptionalNumber({
   }
   const all = [...(msg ? [msg] : []), ...(errors ?? [])];
   return (
-    <div className="w-16">
+    <div className={className}>
       <input
         aria-label={label}
         inputMode="decimal"
         value={text}
-        placeholder="—"
+        placeholder={placeholder}
         aria-invalid={all.length ? true : undefined}
         className={`${inputClass} tabular px-1 py-1 text-right text-xs`}
         onChange={(e) => {

@@ -409,6 +409,7 @@ function ReadOnlySettings({ settings: s }: { settings: ScenarioSettings }) {
     ["Miller factor", n(s.miller)],
     ["Barrier", s.barrierScales ? "scales with S" : "keeps its thickness"],
     ["Dielectric k", s.k === null ? "each class's own" : n(s.k)],
+    ["Air gap between lines", s.airGap ? `k ${n(s.airGap.kGap)} over ${n(s.airGap.gapFraction * 100)}% of T` : "each class's own"],
     ["Metal", s.metal ?? "each class's own"],
     ["Driver R ×", n(s.deviceRFactor)],
     ["Load C ×", n(s.deviceCFactor)],

@@ -1,6 +1,6 @@
 "use client";
 import { useId, useState } from "react";
-import { DIELECTRICS, METALS, MODEL_LEVELS, sFromTargetPitch, type ModelLevel, type ScenarioSettings, type WireClass } from "@/lib/scaling";
+import { DIELECTRICS, METALS, MODEL_LEVELS, sFromTargetPitch, type AirGap, type ModelLevel, type ScenarioSettings, type WireClass } from "@/lib/scaling";
 import { inputClass } from "@/components/ui/field";
 import { NumberField } from "./number-field";
 import { U, formatValue, parseValue } from "./units";
@@ -26,6 +26,12 @@ const positive =
     v <= 0 ? `${label} must be greater than 0.` : v > max ? `${label} must be at most ${max}.` : undefined;
 const kCheck = (v: number) => (v < 1 ? "k must be at least 1 (vacuum); use an effective k for air gaps." : v > 30 ? "k must be at most 30." : undefined);
 const millerCheck = (v: number) => (v < 0 || v > 2 ? "Miller factor must be between 0 and 2." : undefined);
+export const kGapCheck = (v: number) => (v < 1 ? "Air-gap k must be at least 1 (air)." : v > 30 ? "Air-gap k must be at most 30." : undefined);
+export const gapFractionCheck = (v: number) => (v < 0 || v > 1 ? "Gap fraction must be between 0 and 1." : undefined);
+/** A new air gap: air over the whole line thickness. */
+export const DEFAULT_AIR_GAP: AirGap = { kGap: 1, gapFraction: 1 };
+const AIR_GAP_HINT =
+  "Gap between neighbouring lines only; the ILD below and above keeps its k. Ground and coupling are computed separately, so the Miller factor acts on the coupling part.";
 
 interface Props {
   settings: ScenarioSettings;
@@ -113,6 +119,15 @@ export function SettingsPanel({ settings, onChange, classes, errors }: Props) {
         </div>
       </fieldset>
       <DielectricField value={settings.k} onChange={(k) => set("k", k)} errors={err("k")} />
+      <AirGapField
+        value={settings.airGap ?? null}
+        onChange={(g) => {
+          // off = no global gap: the key is left out (null and absent mean the same), so toggling back is no change
+          const { airGap: _old, ...rest } = settings;
+          onChange(g ? { ...rest, airGap: g } : rest);
+        }}
+        errors={errors}
+      />
       <div>
         <label className="mb-1 block text-xs font-medium text-ink" htmlFor="metal">
           Metal (all classes)
@@ -200,7 +215,56 @@ export function SliderField(p: {
   );
 }
 
-/** Dielectric: keep per-class k, a catalogue preset (air gap = effective k) or a typed k. */
+/** Global air gap between the lines of every class (geometry, not an effective k): off, or kGap and gap fraction. */
+function AirGapField({ value, onChange, errors }: { value: AirGap | null; onChange: (g: AirGap | null) => void; errors: Record<string, string[]> }) {
+  const id = useId();
+  const err = (k: string) => [...(errors["settings.airGap"] ?? []), ...(errors[`settings.airGap.${k}`] ?? [])];
+  return (
+    <fieldset data-testid="air-gap">
+      <legend className="mb-1 text-xs font-medium text-ink">Air gap between lines</legend>
+      <label className="flex items-center gap-1.5 text-sm" htmlFor={id}>
+        <input id={id} type="checkbox" name="airGap" checked={value !== null} onChange={(e) => onChange(e.target.checked ? DEFAULT_AIR_GAP : null)} />
+        All classes: air gap between lines
+      </label>
+      {value !== null ? (
+        <div className="mt-2 grid grid-cols-2 gap-2">
+          <NumberField
+            label="Air-gap k"
+            name="airGapK"
+            value={value.kGap}
+            onChange={(v) => onChange({ ...value, kGap: v })}
+            check={kGapCheck}
+            errors={err("kGap")}
+            hint="1 = air; at most each class's k"
+          />
+          <NumberField
+            label="Gap fraction"
+            name="gapFraction"
+            value={value.gapFraction}
+            onChange={(v) => onChange({ ...value, gapFraction: v })}
+            check={gapFractionCheck}
+            errors={err("gapFraction")}
+            hint="of the line thickness, from its bottom"
+          />
+        </div>
+      ) : null}
+      <p className="mt-1 text-[11px] text-muted">{value !== null ? AIR_GAP_HINT : "Off: each class keeps its own air gap from the baseline, if any."}</p>
+    </fieldset>
+  );
+}
+
+/** The dielectric catalogue's air-gap entry is one effective k for the whole class: labelled so, beside the geometric air gap. */
+const AIR_GAP_PRESET = "air-gap";
+const presetLabel = (d: { id: string; name: string; k: number }, compact?: boolean) =>
+  d.id === AIR_GAP_PRESET
+    ? compact
+      ? `air-gap eff. (${d.k})`
+      : `Air gap, effective k (first-order): k ${d.k}`
+    : compact
+      ? `${d.id} (${d.k})`
+      : `${d.name} (k ${d.k})`;
+
+/** Dielectric: keep per-class k, a catalogue preset (air gap = effective k, first-order) or a typed k. */
 export function DielectricField({
   value,
   onChange,
@@ -235,7 +299,7 @@ export function DielectricField({
             <option value="">{compact ? "—" : "Keep each class's k"}</option>
             {Object.values(DIELECTRICS).map((d) => (
               <option key={d.id} value={d.id}>
-                {compact ? `${d.id} (${d.k})` : `${d.name} (k ${d.k})`}
+                {presetLabel(d, compact)}
               </option>
             ))}
             <option value="custom">{compact ? "other" : "Other k…"}</option>
@@ -243,6 +307,11 @@ export function DielectricField({
         </div>
         {value !== null ? <NumberField label={`${label} value`} compact value={value} onChange={onChange} check={kCheck} className="w-16" name="k" /> : null}
       </div>
+      {!compact && preset === AIR_GAP_PRESET ? (
+        <p className="mt-1 text-[11px] text-muted">
+          Effective k (first-order): one k for the whole class, ground and coupling alike. For the gap between the lines as geometry, use the air gap below.
+        </p>
+      ) : null}
       {errors?.length ? <p className="text-xs text-bad">{errors.join(" ")}</p> : null}
     </div>
   );

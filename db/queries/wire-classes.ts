@@ -38,6 +38,9 @@ interface ClassRow {
   via_ohm?: number | null;
   via_width_m?: number | null;
   via_height_m?: number | null;
+  /** Air gap between the lines (migration 5); null = not given. */
+  k_gap?: number | null;
+  gap_fraction?: number | null;
   bins?: number;
 }
 
@@ -65,6 +68,9 @@ function toWireClass(r: ClassRow): StoredWireClass {
     ...(r.via_ohm != null && { viaOhm: r.via_ohm }),
     ...(r.via_width_m != null && { viaWidthM: r.via_width_m }),
     ...(r.via_height_m != null && { viaHeightM: r.via_height_m }),
+    // the air-gap fields the same way: classes without a gap are exactly what they were
+    ...(r.k_gap != null && { kGap: r.k_gap }),
+    ...(r.gap_fraction != null && { gapFraction: r.gap_fraction }),
     histogramBins: Number(r.bins ?? 0),
   };
 }

@@ -121,6 +121,8 @@ export function classRow(baselineId: string, position: number, c: NewWireClass) 
     via_ohm: c.viaOhm ?? null,
     via_width_m: c.viaWidthM ?? null,
     via_height_m: c.viaHeightM ?? null,
+    k_gap: c.kGap ?? null,
+    gap_fraction: c.gapFraction ?? null,
   };
 }
 

@@ -42,21 +42,27 @@ const LABELS: Record<string, string> = {
   k: "k",
   metal: "metal",
   aspectRatio: "aspect ratio",
+  airGap: "air gap",
+  barrierM: "barrier",
 };
 
 function show(v: unknown): string {
   if (v === null || v === undefined) return "—";
   if (typeof v === "boolean") return v ? "scales" : "fixed";
   if (typeof v === "number") return String(Number(v.toPrecision(6)));
+  if (typeof v === "object" && "kGap" in v && "gapFraction" in v) return `k ${show(v.kGap)} over ${show(Number(v.gapFraction) * 100)}% of T`;
   return String(v);
 }
+
+/** Settings values compare by content (an air gap is an object). */
+const same = (x: unknown, y: unknown) => x === y || JSON.stringify(x ?? null) === JSON.stringify(y ?? null);
 
 /** Human summary of what changed between two settings (revision summaries): ["S 1 → 0.7", "M2: k 2.7 → 1.9"]. */
 export function describeSettingsChange(a: ScenarioSettings, b: ScenarioSettings): string[] {
   const out: string[] = [];
   for (const key of Object.keys(LABELS) as (keyof ScenarioSettings)[]) {
     if (key === "overrides" || !(key in b || key in a)) continue;
-    if (a[key] !== b[key]) out.push(`${LABELS[key]} ${show(a[key])} → ${show(b[key])}`);
+    if (!same(a[key], b[key])) out.push(`${LABELS[key]} ${show(a[key])} → ${show(b[key])}`);
   }
   const names = new Set([...Object.keys(a.overrides ?? {}), ...Object.keys(b.overrides ?? {})]);
   for (const n of names) {
@@ -64,7 +70,7 @@ export function describeSettingsChange(a: ScenarioSettings, b: ScenarioSettings)
     const ob = (b.overrides?.[n] ?? {}) as Record<string, unknown>;
     const keys = new Set([...Object.keys(oa), ...Object.keys(ob)]);
     const parts: string[] = [];
-    for (const k of keys) if (oa[k] !== ob[k]) parts.push(`${LABELS[k] ?? k} ${show(oa[k])} → ${show(ob[k])}`);
+    for (const k of keys) if (!same(oa[k], ob[k])) parts.push(`${LABELS[k] ?? k} ${show(oa[k])} → ${show(ob[k])}`);
     if (parts.length) out.push(`${n}: ${parts.join(", ")}`);
   }
   return out;

@@ -31,6 +31,8 @@ export function classesCsv(classes: StoredWireClass[]): string {
       via_ohm: c.viaOhm === undefined ? null : formatScaled(c.viaOhm, 0),
       via_width_nm: c.viaWidthM === undefined ? null : formatScaled(c.viaWidthM, -9),
       via_height_nm: c.viaHeightM === undefined ? null : formatScaled(c.viaHeightM, -9),
+      k_gap: c.kGap === undefined ? null : formatScaled(c.kGap, 0),
+      gap_fraction: c.gapFraction === undefined ? null : formatScaled(c.gapFraction, 0),
     };
     out += csvLine(cols.map((k) => v[k] ?? null));
   }

@@ -25,6 +25,8 @@ const FIELD_COLUMN: Record<string, string> = {
   viaOhm: "via_ohm",
   viaWidthM: "via_width_nm",
   viaHeightM: "via_height_nm",
+  kGap: "k_gap",
+  gapFraction: "gap_fraction",
 };
 
 /** Text columns: trimmed, and the export's formula neutralising undone. */

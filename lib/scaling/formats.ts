@@ -76,7 +76,14 @@ export const WIRE_CLASS_COLUMNS: readonly ColumnSpec[] = [
   },
   { name: "barrier_nm", unit: "nm", exp10: NM, required: true, description: "barrier/liner thickness (sidewalls and bottom)", rule: { min: 0 } },
   { name: "metal", unit: "", exp10: null, required: true, description: `metal id: ${Object.keys(METALS).join(", ")}` },
-  { name: "k", unit: "", exp10: 0, required: true, description: "relative permittivity, ≥ 1 (effective k for air gaps)", rule: { min: 1 } },
+  {
+    name: "k",
+    unit: "",
+    exp10: 0,
+    required: true,
+    description: "relative permittivity, ≥ 1 (or a first-order effective k for an air gap; k_gap and gap_fraction give the gap as geometry)",
+    rule: { min: 1 },
+  },
   { name: "net_count", unit: "", exp10: 0, required: true, description: "number of nets, whole number ≥ 0", rule: { min: 0, integer: true } },
   { name: "mean_length_um", unit: "µm", exp10: UM, required: true, description: "mean net length", rule: { min: 0, minExclusive: true } },
   { name: "driver_ohm", unit: "Ω", exp10: 0, required: true, description: "driver output resistance", rule: { min: 0 } },
@@ -107,6 +114,22 @@ export const WIRE_CLASS_COLUMNS: readonly ColumnSpec[] = [
     rule: { min: 0, minExclusive: true },
   },
   { name: "via_height_nm", unit: "nm", exp10: NM, required: false, description: "via height; empty = the ILD below", rule: { min: 0, minExclusive: true } },
+  {
+    name: "k_gap",
+    unit: "",
+    exp10: 0,
+    required: false,
+    description: "permittivity of the air gap between neighbouring lines, ≥ 1 and ≤ k (air = 1); empty = no gap, or air when gap_fraction is given",
+    rule: { min: 1 },
+  },
+  {
+    name: "gap_fraction",
+    unit: "",
+    exp10: 0,
+    required: false,
+    description: "share of the line thickness the air gap covers from the bottom of the lines, 0 … 1; empty = no gap, or 1 when k_gap is given",
+    rule: { min: 0, max: 1 },
+  },
 ];
 
 /**
@@ -297,6 +320,11 @@ export function validateWireClassRow(record: Readonly<Record<string, string>>, l
   const viaOhm = num("via_ohm");
   const viaWidth = num("via_width_nm");
   const viaHeight = num("via_height_nm");
+  const kGap = num("k_gap");
+  const gapFraction = num("gap_fraction");
+  if (k !== null && kGap !== null && kGap > k) {
+    errors.push({ line, column: "k_gap", value: cell("k_gap"), message: `must not exceed k (${cell("k").trim()})` });
+  }
   if (
     errors.length > 0 ||
     tier === null ||
@@ -336,6 +364,9 @@ export function validateWireClassRow(record: Readonly<Record<string, string>>, l
   if (viaOhm !== null) wireClass.viaOhm = viaOhm;
   if (viaWidth !== null) wireClass.viaWidthM = viaWidth;
   if (viaHeight !== null) wireClass.viaHeightM = viaHeight;
+  // optional air-gap columns, the same way
+  if (kGap !== null) wireClass.kGap = kGap;
+  if (gapFraction !== null) wireClass.gapFraction = gapFraction;
   return { wireClass, errors };
 }
 

@@ -64,6 +64,23 @@ export interface WireClass {
   viaWidthM?: number;
   /** Via height at the baseline; default the ILD below (or above when there is no plane below). Scaled ÷ S. */
   viaHeightM?: number;
+  /**
+   * Air gap between neighbouring lines, as geometry: relative permittivity of the gap (1 ≤ kGap ≤ k; air = 1.0). The
+   * gap fills the space between the lines from the bottom of the lines up to gapFraction × the line thickness; the
+   * ILD below and above keeps k. Both absent = no air gap (homogeneous k). Only gapFraction given: kGap = 1.0 (air).
+   */
+  kGap?: number;
+  /**
+   * Share of the line thickness the air gap covers, from the bottom of the lines, 0..1 (1 = the whole sidewall).
+   * Both absent = no air gap. Only kGap given: gapFraction = 1.
+   */
+  gapFraction?: number;
+}
+
+/** An air gap between neighbouring lines (see WireClass.kGap and gapFraction): 1 ≤ kGap ≤ k, 0 ≤ gapFraction ≤ 1. */
+export interface AirGap {
+  kGap: number;
+  gapFraction: number;
 }
 
 /** Delay model of every stage and unrepeated net: the exact distributed-line solution (tabulated) or Sakurai's closed form. */
@@ -126,6 +143,11 @@ export interface ClassOverride {
   miller?: number;
   /** Barrier/liner thickness after scaling, absolute (m); replaces the scaled or kept barrier (0 = barrier-free fill). */
   barrierM?: number;
+  /**
+   * Air gap between this class's lines: an AirGap = this class gets it; null = this class has no air gap, even when the
+   * baseline class or the global setting has one; absent = follow the global setting (or the baseline class).
+   */
+  airGap?: AirGap | null;
 }
 
 /** A scenario's settings: what-if scale factors and wiring options. */
@@ -149,6 +171,8 @@ export interface ScenarioSettings {
   k: number | null;
   /** Global metal override (null = keep each class's metal). */
   metal: string | null;
+  /** Air gap between the lines of every class (null or absent = each class keeps its baseline gap, if any). */
+  airGap?: AirGap | null;
   /** Per-class overrides keyed by class name. */
   overrides: Record<string, ClassOverride>;
 }

@@ -3,6 +3,7 @@ import {
   DELAY_MODELS,
   MODEL_LEVELS,
   TIERS,
+  type AirGap,
   type CapacitanceModel,
   type CapacitanceParts,
   type ClassComparison,
@@ -155,6 +156,9 @@ export const technologySnapshotSchema = mirrorOf<Technology>()(
   }),
 );
 
+/** An air gap between the lines (issue 11); settings, overrides and classes frozen before it have none. */
+const airGapSnapshotSchema = mirrorOf<AirGap>()(z.object({ kGap: num, gapFraction: num }));
+
 export const classOverrideSnapshotSchema = mirrorOf<ClassOverride>()(
   z.object({
     s: num.optional(),
@@ -165,6 +169,7 @@ export const classOverrideSnapshotSchema = mirrorOf<ClassOverride>()(
     aspectRatio: num.optional(),
     miller: num.optional(),
     barrierM: num.optional(),
+    airGap: airGapSnapshotSchema.nullable().optional(),
   }),
 );
 
@@ -180,6 +185,7 @@ export const settingsSnapshotSchema = mirrorOf<ScenarioSettings>()(
     supplyV: num,
     k: num.nullable(),
     metal: z.string().nullable(),
+    airGap: airGapSnapshotSchema.nullable().optional(),
     overrides: z.record(z.string(), classOverrideSnapshotSchema),
   }),
 );
@@ -207,6 +213,8 @@ export const wireClassSnapshotSchema = mirrorOf<WireClass & { histogramBins?: nu
     viaOhm: num.optional(),
     viaWidthM: num.optional(),
     viaHeightM: num.optional(),
+    kGap: num.optional(),
+    gapFraction: num.optional(),
     /** Bins in the stored histogram (also when the bins themselves were too many to freeze). */
     histogramBins: num.optional(),
   }),

@@ -1,7 +1,7 @@
 import { z } from "zod";
-import { MODEL_LEVELS, type ClassOverride, type ModelLevel, type ScenarioSettings } from "@/lib/scaling";
+import { MODEL_LEVELS, type AirGap, type ClassOverride, type ModelLevel, type ScenarioSettings } from "@/lib/scaling";
 import { mirrorOf, type OptionalFields } from "./mirror";
-import { kSchema, metalIdSchema, quantity } from "./wire-class";
+import { airGapKSchema, gapFractionSchema, kSchema, metalIdSchema, quantity } from "./wire-class";
 
 const sSchema = (label: string) =>
   quantity(label, "", {
@@ -24,6 +24,22 @@ export const levelSchema = z.enum(MODEL_LEVELS as [ModelLevel, ...ModelLevel[]],
   error: `Model level must be one of ${MODEL_LEVELS.join(", ")}.`,
 });
 
+/**
+ * The engine's AirGap: both fields required, no others. null (on the settings: no global gap; on an override: this
+ * class has none) and absent are told apart by the fields that use it.
+ */
+export const airGapSchema = mirrorOf<AirGap>()(
+  z
+    .object(
+      {
+        kGap: airGapKSchema.optional().pipe(z.number({ error: "Air-gap k is required (1 for air)." })),
+        gapFraction: gapFractionSchema.optional().pipe(z.number({ error: "Gap fraction is required (1 = the whole line thickness)." })),
+      },
+      { error: (iss) => (iss.code === "invalid_type" ? "Air gap must be an object { kGap, gapFraction }, or null for none." : undefined) },
+    )
+    .strict(),
+);
+
 /** The engine's ClassOverride, field for field. */
 export const classOverrideSchema = mirrorOf<ClassOverride>()(
   z
@@ -36,6 +52,7 @@ export const classOverrideSchema = mirrorOf<ClassOverride>()(
       aspectRatio: aspectSchema.optional(),
       miller: millerSchema.optional(),
       barrierM: quantity("Barrier", "m", { min: 0, max: 1e-6, maxHint: "Barrier must be at most 1 µm." }).optional(),
+      airGap: airGapSchema.nullable().optional(),
     })
     .strict(),
 );
@@ -62,6 +79,7 @@ export const scenarioSettingsSchema = mirrorOf<OptionalFields<ScenarioSettings, 
       }).optional(),
       k: kSchema.nullable().default(null),
       metal: metalIdSchema.nullable().default(null),
+      airGap: airGapSchema.nullable().optional(),
       overrides: z.record(z.string().max(60), classOverrideSchema).default({}),
     })
     .strict(),

@@ -76,6 +76,20 @@ export const kSchema = quantity("k", "", {
   max: 30,
   maxHint: "k must be at most 30.",
 });
+/** Permittivity of an air gap between the lines: 1 (air) … 30; a class's also at most its k (checked with the class). */
+export const airGapKSchema = quantity("Air-gap k", "", {
+  min: 1,
+  minHint: "Air-gap k must be at least 1 (air).",
+  max: 30,
+  maxHint: "Air-gap k must be at most 30.",
+});
+/** Share of the line thickness an air gap covers from the bottom of the lines, 0 … 1. */
+export const gapFractionSchema = quantity("Gap fraction", "", {
+  min: 0,
+  minHint: "Gap fraction must be between 0 and 1.",
+  max: 1,
+  maxHint: "Gap fraction must be between 0 and 1.",
+});
 export const classNameSchema = z
   .string({ error: "Class name is required." })
   .trim()
@@ -119,6 +133,9 @@ export const wireClassSchema = mirrorOf<Omit<WireClass, "histogram"> & { id?: st
       viaOhm: quantity("Via resistance", "ohm", { min: 0, max: 1e9 }).optional(),
       viaWidthM: size("Via width").optional(),
       viaHeightM: size("Via height").optional(),
+      /** Air gap between the lines (optional; both absent = none; kGap alone = that gap over the whole thickness, gapFraction alone = air). */
+      kGap: airGapKSchema.optional(),
+      gapFraction: gapFractionSchema.optional(),
     })
     .superRefine((c, ctx) => {
       if (c.ildBelowM === null && c.ildAboveM === null) {
@@ -126,6 +143,9 @@ export const wireClassSchema = mirrorOf<Omit<WireClass, "histogram"> & { id?: st
       }
       if (2 * c.barrierM >= c.widthM) ctx.addIssue({ code: "custom", path: ["barrierM"], message: "Barrier must be less than half the width." });
       if (c.barrierM >= c.thicknessM) ctx.addIssue({ code: "custom", path: ["barrierM"], message: "Barrier must be less than the thickness." });
+      if (c.kGap !== undefined && c.kGap > c.k) {
+        ctx.addIssue({ code: "custom", path: ["kGap"], message: `Air-gap k must not exceed the class's k (${Number(c.k.toPrecision(6))}).` });
+      }
     }),
 );
 export type WireClassInput = z.infer<typeof wireClassSchema>;

@@ -24,6 +24,8 @@ export function normalizeSettings(input: ScenarioSettingsInput, tech: Technology
     supplyV: input.supplyV ?? tech.supplyV,
     k: input.k,
     metal: input.metal,
+    // a global air gap only when one is set: null and absent both mean "each class keeps its own"
+    ...(input.airGap ? { airGap: input.airGap } : {}),
     overrides,
   };
 }

@@ -17,6 +17,7 @@ import {
 
 const enc = new TextEncoder();
 const VIA_COLUMNS = "vias_per_net,via_ohm,via_width_nm,via_height_nm";
+const GAP_COLUMNS = "k_gap,gap_fraction";
 
 describe("POST /api/baselines/[id]/import (wire classes)", () => {
   it("answers 401 signed out, 404 to another team, 403 to a viewer, and stores nothing", async () => {
@@ -262,7 +263,7 @@ describe("POST /api/baselines/[id]/import (wire classes)", () => {
     expect(got.json.baseline.classes[1]).toMatchObject({ viasPerNet: 3, viaOhm: 4.5 });
     expect(got.json.baseline.classes[1]).not.toHaveProperty("viaWidthM");
     const exp = await o.client.get(`/api/baselines/${o.baselineId}/export.csv`);
-    expect(exp.text).toContain(`${ROW_LOCAL},2,,20,35\r\n`);
+    expect(exp.text).toContain(`${ROW_LOCAL},2,,20,35,,\r\n`);
     const back = await postCsv(o.client, `/api/teams/${o.teamId}/baselines/import?name=Vias%20copy`, exp.text);
     expect(back.status).toBe(201);
     expect(sql(`select ${cols} from wire_classes where baseline_id = ? order by position`, back.json.baseline.id)).toEqual(a);
@@ -285,6 +286,52 @@ describe("POST /api/baselines/[id]/import (wire classes)", () => {
   });
 });
 
+describe("air-gap columns (issue 11): k_gap, gap_fraction", () => {
+  it("stores them, round-trips them through export and import, and leaves classes without them unchanged", async () => {
+    const o = await ownerWithBaseline();
+    const csv = `${HEADER},${GAP_COLUMNS}\n${ROW_LOCAL},1,0.6\n${ROW_GLOBAL},1.5,\n`;
+    const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/import?mode=replace`, csv);
+    expect(r.status, r.text).toBe(200);
+    const cols = "name, k_gap, gap_fraction, vias_per_net";
+    const a = sql(`select ${cols} from wire_classes where baseline_id = ? order by position`, o.baselineId);
+    expect(a).toEqual([
+      { name: "local", k_gap: 1, gap_fraction: 0.6, vias_per_net: null },
+      { name: "global", k_gap: 1.5, gap_fraction: null, vias_per_net: null },
+    ]);
+    const got = await o.client.get(`/api/baselines/${o.baselineId}`);
+    expect(got.json.baseline.classes[0]).toMatchObject({ kGap: 1, gapFraction: 0.6 });
+    expect(got.json.baseline.classes[1]).toMatchObject({ kGap: 1.5 });
+    expect(got.json.baseline.classes[1]).not.toHaveProperty("gapFraction");
+    const exp = await o.client.get(`/api/baselines/${o.baselineId}/export.csv`);
+    expect(exp.text.split("\r\n")[0]).toBe(`${HEADER},${VIA_COLUMNS},${GAP_COLUMNS}`);
+    expect(exp.text).toContain(`${ROW_LOCAL},,,,,1,0.6\r\n`);
+    expect(exp.text).toContain(`${ROW_GLOBAL.replace(",3.0,", ",3,").replace(",5.0,", ",5,")},,,,,1.5,\r\n`);
+    const back = await postCsv(o.client, `/api/teams/${o.teamId}/baselines/import?name=Air%20copy`, exp.text);
+    expect(back.status, back.text).toBe(201);
+    expect(sql(`select ${cols} from wire_classes where baseline_id = ? order by position`, back.json.baseline.id)).toEqual(a);
+    // the JSON class table of the copy equals the original's, field for field
+    const copy = await o.client.get(`/api/baselines/${back.json.baseline.id}`);
+    const strip = (cs: Record<string, unknown>[]) => cs.map(({ id: _i, ...c }) => c);
+    expect(strip(copy.json.baseline.classes)).toEqual(strip(got.json.baseline.classes));
+  });
+
+  it("rejects k_gap above the row's k and a gap_fraction above 1, naming line and column, and stores nothing", async () => {
+    const o = await ownerWithBaseline();
+    const before = dbState();
+    const bad = await postCsv(
+      o.client,
+      `/api/baselines/${o.baselineId}/import?mode=replace`,
+      `${HEADER},${GAP_COLUMNS}\n${ROW_LOCAL},2.8,0.5\n${ROW_GLOBAL},1,1.2\n`,
+    );
+    expect(bad.status).toBe(400);
+    expect(bad.json.error.errors).toEqual([
+      { line: 2, column: "k_gap", value: "2.8", message: "must not exceed k (2.7)" },
+      { line: 3, column: "gap_fraction", value: "1.2", message: "must be ≤ 1" },
+    ]);
+    expect(dbState()).toEqual(before);
+  });
+});
+
 describe("GET /api/baselines/[id]/export.csv", () => {
   it("round-trips: export → import into a new baseline gives identical classes", async () => {
     const o = await ownerWithBaseline();
@@ -299,10 +346,10 @@ describe("GET /api/baselines/[id]/export.csv", () => {
     expect(exp.status).toBe(200);
     expect(exp.headers.get("content-type")).toBe("text/csv; charset=utf-8");
     expect(exp.headers.get("content-disposition")).toContain("Skua-wire-classes.csv");
-    expect(exp.text.split("\r\n")[0]).toBe(`${HEADER},${VIA_COLUMNS}`);
+    expect(exp.text.split("\r\n")[0]).toBe(`${HEADER},${VIA_COLUMNS},${GAP_COLUMNS}`);
     expect(exp.text).toContain(`"'=HYPERLINK(""x"")",global,410.5,800.25,`);
-    // a file without via columns stores none; the export writes them empty
-    expect(exp.text).toContain("local,local,24,48,24,30,30,2,Cu,2.7,1200000,4,8000,0.4,0.15,,,,\r\n");
+    // a file without via or air-gap columns stores none; the export writes them empty
+    expect(exp.text).toContain("local,local,24,48,24,30,30,2,Cu,2.7,1200000,4,8000,0.4,0.15,,,,,,\r\n");
     const r = await postCsv(o.client, `/api/teams/${o.teamId}/baselines/import?name=Copy`, exp.text);
     expect(r.status).toBe(201);
     const cols =

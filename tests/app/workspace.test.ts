@@ -106,6 +106,49 @@ describe("baselines: CRUD, versions and revisions", () => {
     expect(first.delayS).toBe(local.classes[0]!.scenario.delayS);
   });
 
+  it("stores the classes' air gaps (issue 11) in their columns, returns only the fields given, and copies them on duplicate", async () => {
+    const { owner, teamId } = await teamWithRoles();
+    const b = await createBaseline(owner.client, teamId);
+    const classes = sampleClasses();
+    const put = await owner.client.put(`/api/baselines/${b.id}/classes`, {
+      version: 1,
+      classes: [
+        { ...classes[0], id: b.classes[0]!.id, kGap: "1", gapFraction: 0.6 },
+        { ...classes[1], id: b.classes[1]!.id, kGap: 2.7 },
+      ],
+    });
+    expect(put.status, put.text).toBe(200);
+    const got = put.json.baseline.classes;
+    expect(got[0]).toMatchObject({ name: "M1", kGap: 1, gapFraction: 0.6 });
+    expect(got[1]).toMatchObject({ name: "M2", kGap: 2.7 });
+    expect(got[1]).not.toHaveProperty("gapFraction");
+    const db = rawDb();
+    const row = (id: string) => db.prepare("select k_gap, gap_fraction from wire_classes where id = ?").get(id);
+    expect(row(got[0].id)).toEqual({ k_gap: 1, gap_fraction: 0.6 });
+    expect(row(got[1].id)).toEqual({ k_gap: 2.7, gap_fraction: null });
+    // the class table round-trips through the API unchanged (what the baseline editor sends back)
+    const again = await owner.client.put(`/api/baselines/${b.id}/classes`, {
+      version: 2,
+      classes: got.map(({ position: _p, histogramBins: _h, ...c }: Record<string, unknown>) => c),
+    });
+    expect(again.status, again.text).toBe(200);
+    expect(again.json.baseline.classes).toEqual(got);
+    const dup = await owner.client.post(`/api/baselines/${b.id}/duplicate`, {});
+    expect(dup.status, dup.text).toBe(201);
+    const copied = dup.json.baseline.classes;
+    expect(copied.map((c: Record<string, unknown>) => [c.name, c.kGap, c.gapFraction])).toEqual([
+      ["M1", 1, 0.6],
+      ["M2", 2.7, undefined],
+    ]);
+    expect(row(copied[0].id)).toEqual({ k_gap: 1, gap_fraction: 0.6 });
+    db.close();
+    // removing the gap clears the columns (a class without the fields has none)
+    const cleared = await owner.client.put(`/api/baselines/${b.id}/classes`, { version: 3, classes: [{ ...classes[0], id: got[0].id }, classes[1]] });
+    expect(cleared.status, cleared.text).toBe(200);
+    expect(cleared.json.baseline.classes[0]).not.toHaveProperty("kGap");
+    expect(cleared.json.baseline.classes[0]).not.toHaveProperty("gapFraction");
+  });
+
   it("PUT classes replaces them in one go; a class keeping its id keeps its histogram, a removed class loses it", async () => {
     const { owner, teamId } = await teamWithRoles();
     const b = await createBaseline(owner.client, teamId);
@@ -290,6 +333,52 @@ describe("scenarios: create, save with versions, history, restore, evaluate", ()
     expect(unsaved.json.evaluation.classes[0].scenario.widthM).toBeCloseTo(1e-8, 20);
   });
 
+  it("stores a global air gap and per-class ones (null = none for that class), evaluates, and freezes them in a report", async () => {
+    const { owner, teamId } = await teamWithRoles();
+    const b = await createBaseline(owner.client, teamId);
+    const withGap = await owner.client.put(`/api/baselines/${b.id}/classes`, {
+      version: 1,
+      classes: [
+        { ...sampleClasses()[0], id: b.classes[0]!.id, kGap: 1, gapFraction: 0.5 },
+        { ...sampleClasses()[1], id: b.classes[1]!.id },
+      ],
+    });
+    expect(withGap.status, withGap.text).toBe(200);
+    const s = (await owner.client.post(`/api/teams/${teamId}/scenarios`, { baselineId: b.id, name: "Air" })).json.scenario;
+    expect(s.settings).not.toHaveProperty("airGap");
+    const settings = {
+      ...s.settings,
+      airGap: { kGap: "1.0", gapFraction: 0.5 },
+      overrides: { M1: { airGap: null }, M2: { s: 1.2, airGap: { kGap: 1.5, gapFraction: 1 } } },
+    };
+    const p = await owner.client.patch(`/api/scenarios/${s.id}`, { version: 1, settings });
+    expect(p.status, p.text).toBe(200);
+    expect(p.json.scenario.settings.airGap).toEqual({ kGap: 1, gapFraction: 0.5 });
+    expect(p.json.scenario.settings.overrides).toEqual({ M1: { airGap: null }, M2: { s: 1.2, airGap: { kGap: 1.5, gapFraction: 1 } } });
+    const db = rawDb();
+    const stored = JSON.parse((db.prepare("select settings from scenarios where id = ?").get(s.id) as { settings: string }).settings);
+    db.close();
+    expect(stored.airGap).toEqual({ kGap: 1, gapFraction: 0.5 });
+    expect(stored.overrides.M1).toEqual({ airGap: null });
+    expect((await owner.client.get(`/api/scenarios/${s.id}`)).json.scenario.settings).toEqual(p.json.scenario.settings);
+    expect((await owner.client.post(`/api/scenarios/${s.id}/evaluate`)).status).toBe(200);
+    // a report freezes the settings with their air gaps
+    const other = (await owner.client.post(`/api/teams/${teamId}/scenarios`, { baselineId: b.id, name: "Plain", settings: { s: 1.4 } })).json.scenario;
+    const rep = await owner.client.post(`/api/teams/${teamId}/reports`, { baselineId: b.id, scenarioIds: [s.id, other.id], title: "Air gaps" });
+    expect(rep.status, rep.text).toBe(201);
+    const frozen = (await owner.client.get(`/api/reports/${rep.json.report.id}`)).json.report.frozen;
+    expect(frozen.options[0].settings.airGap).toEqual({ kGap: 1, gapFraction: 0.5 });
+    expect(frozen.options[0].settings.overrides.M1).toEqual({ airGap: null });
+    expect(frozen.options[1].settings).not.toHaveProperty("airGap");
+    expect(frozen.baseline.classes[0]).toMatchObject({ name: "M1", kGap: 1, gapFraction: 0.5 });
+    expect(frozen.baseline.classes[1]).not.toHaveProperty("kGap");
+    // switching the global gap off (null) stores none
+    const off = await owner.client.patch(`/api/scenarios/${s.id}`, { version: 2, settings: { ...p.json.scenario.settings, airGap: null } });
+    expect(off.status, off.text).toBe(200);
+    expect(off.json.scenario.settings).not.toHaveProperty("airGap");
+    expect(off.json.scenario.settings.overrides.M1).toEqual({ airGap: null });
+  });
+
   it("scenario delete is owner-or-author", async () => {
     const { owner, editor, teamId } = await teamWithRoles();
     const b = await createBaseline(owner.client, teamId);
@@ -435,6 +524,34 @@ describe("bad input: status, field message, nothing stored changes", () => {
       status: 400,
       field: "settings.miller",
       message: /between 0 and 2/,
+    },
+    {
+      what: "an air-gap k above the class's k",
+      send: (c) => putClasses(c, withClass({ kGap: 2.8 })),
+      status: 400,
+      field: "classes.0.kGap",
+      message: /Air-gap k must not exceed the class's k \(2\.7\)/,
+    },
+    {
+      what: "a gap fraction above 1",
+      send: (c) => putClasses(c, withClass({ kGap: 1, gapFraction: 1.2 })),
+      status: 400,
+      field: "classes.0.gapFraction",
+      message: /Gap fraction must be between 0 and 1/,
+    },
+    {
+      what: "a global air gap with k below 1",
+      send: (c) => patchSettings(c, { airGap: { kGap: 0.5 } }),
+      status: 400,
+      field: "settings.airGap.kGap",
+      message: /Air-gap k must be at least 1/,
+    },
+    {
+      what: "a per-class air gap with a fraction above 1",
+      send: (c) => patchSettings(c, { overrides: { M1: { airGap: { kGap: 1, gapFraction: 1.5 } } } }),
+      status: 400,
+      field: "settings.overrides.M1.airGap.gapFraction",
+      message: /Gap fraction must be between 0 and 1/,
     },
     {
       what: "Miller factor below 0",

@@ -61,7 +61,7 @@ describe("migrations", () => {
   it("is idempotent: a second run changes nothing", async () => {
     await migrateLatest(db);
     const [{ n }] = (await db("knex_migrations").count({ n: "*" })) as [{ n: number }];
-    expect(Number(n)).toBe(4);
+    expect(Number(n)).toBe(5);
   });
 
   it("gives wire_classes the engine 2 via columns, nullable (classes stored before have none)", async () => {
@@ -73,6 +73,26 @@ describe("migrations", () => {
       ["via_width_m", "float", 0],
       ["via_height_m", "float", 0],
     ]);
+  });
+
+  it("gives wire_classes the air-gap columns, nullable (classes stored before have no gap); down drops them", async () => {
+    const cols = await db.raw<{ name: string; type: string; notnull: number }[]>("pragma table_info(wire_classes)");
+    const gap = cols.filter((c) => c.name === "k_gap" || c.name === "gap_fraction");
+    expect(gap.map((c) => [c.name, c.type.toLowerCase(), c.notnull])).toEqual([
+      ["k_gap", "float", 0],
+      ["gap_fraction", "float", 0],
+    ]);
+    const m5 = await import("@/migrations/20261202000005_air_gaps");
+    await db.transaction(async (trx) => {
+      await m5.down(trx);
+      const after = (await trx.raw<{ name: string }[]>("pragma table_info(wire_classes)")).map((c) => c.name);
+      expect(after).not.toContain("k_gap");
+      expect(after).not.toContain("gap_fraction");
+      expect(after).toContain("via_height_m");
+      await m5.up(trx);
+    });
+    const again = (await db.raw<{ name: string }[]>("pragma table_info(wire_classes)")).map((c) => c.name);
+    expect(again).toEqual(expect.arrayContaining(["k_gap", "gap_fraction"]));
   });
 
   it("shares one migrations table with the knex CLI (file names match)", () => {

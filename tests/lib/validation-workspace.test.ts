@@ -3,6 +3,8 @@ import { baselineSettings, MODEL_LEVELS, type ClassOverride, type ScenarioSettin
 import { scenarioSettingsSchema } from "@/lib/validation/scenario";
 import { technologySchema } from "@/lib/validation/baseline";
 import { wireClassListSchema, wireClassSchema } from "@/lib/validation/wire-class";
+import { classOverrideSnapshotSchema, settingsSnapshotSchema, wireClassSnapshotSchema } from "@/lib/validation/report";
+import { normalizeSettings } from "@/lib/workspace/settings";
 
 const good = {
   name: "M1",
@@ -190,6 +192,68 @@ describe("wireClassSchema: vias (engine 2, optional)", () => {
   });
 });
 
+describe("air gaps (issue 11, optional): class fields and scenario settings", () => {
+  it("keeps kGap and gapFraction on a class (either alone too) and adds none when they are absent", () => {
+    expect(wireClassSchema.parse({ ...good, kGap: "1", gapFraction: 0.5 })).toMatchObject({ kGap: 1, gapFraction: 0.5 });
+    expect(wireClassSchema.parse({ ...good, kGap: 2.7 })).toMatchObject({ kGap: 2.7 }); // = k: allowed
+    expect(wireClassSchema.parse({ ...good, gapFraction: 0 })).toMatchObject({ gapFraction: 0 });
+    const plain = wireClassSchema.parse(good);
+    expect(["kGap", "gapFraction"].filter((k) => k in plain)).toEqual([]);
+  });
+  it.each([
+    [{ kGap: 2.8 }, "kGap", /^Air-gap k must not exceed the class's k \(2\.7\)\.$/],
+    [{ kGap: 0.5 }, "kGap", /Air-gap k must be at least 1/],
+    [{ k: 31, kGap: 30.5 }, "k", /k must be at most 30/],
+    [{ kGap: "x" }, "kGap", /Air-gap k: "x" is not a number/],
+    [{ gapFraction: 1.2 }, "gapFraction", /Gap fraction must be between 0 and 1/],
+    [{ gapFraction: -0.1 }, "gapFraction", /Gap fraction must be between 0 and 1/],
+  ])("rejects the class %j naming the field", (extra, key, msg) => {
+    const r = wireClassSchema.safeParse({ ...good, ...extra });
+    expect(r.success).toBe(false);
+    expect(fields(r)[key]).toMatch(msg);
+  });
+  it("settings: a global air gap and per-class ones (null = none for that class); absent stays absent", () => {
+    const s = scenarioSettingsSchema.parse({
+      airGap: { kGap: "1.0", gapFraction: 1 },
+      overrides: { M1: { airGap: null }, M2: { airGap: { kGap: 1.5, gapFraction: 0.5 } } },
+    });
+    expect(s.airGap).toEqual({ kGap: 1, gapFraction: 1 });
+    expect(s.overrides.M1).toEqual({ airGap: null });
+    expect(s.overrides.M2).toEqual({ airGap: { kGap: 1.5, gapFraction: 0.5 } });
+    expect(scenarioSettingsSchema.parse({ airGap: null }).airGap).toBeNull();
+    expect("airGap" in scenarioSettingsSchema.parse({})).toBe(false);
+  });
+  it.each([
+    [{ airGap: { kGap: 0.5, gapFraction: 1 } }, "airGap.kGap", /Air-gap k must be at least 1/],
+    [{ airGap: { kGap: 31, gapFraction: 1 } }, "airGap.kGap", /Air-gap k must be at most 30/],
+    [{ airGap: { kGap: 1, gapFraction: 1.2 } }, "airGap.gapFraction", /Gap fraction must be between 0 and 1/],
+    [{ airGap: { kGap: 1 } }, "airGap.gapFraction", /Gap fraction is required/],
+    [{ airGap: { gapFraction: 1 } }, "airGap.kGap", /Air-gap k is required/],
+    [{ airGap: { kGap: 1, gapFraction: 1, k: 2 } }, "airGap", /Unrecognized key/],
+    [{ airGap: 1.9 }, "airGap", /Air gap must be an object/],
+    [{ overrides: { M1: { airGap: { kGap: 1, gapFraction: 2 } } } }, "overrides.M1.airGap.gapFraction", /Gap fraction must be between 0 and 1/],
+  ])("rejects the settings %j naming the field", (input, key, msg) => {
+    const r = scenarioSettingsSchema.safeParse(input);
+    expect(r.success).toBe(false);
+    expect(fields(r)[key]).toMatch(msg);
+  });
+  it("normalised settings store a global gap only when one is set; per-class null is kept", () => {
+    const tech: Technology = { supplyV: 0.7, clockHz: 2e9, repeaterR0Ohm: 5000, repeaterC0F: 3e-16, delayBudgetS: 80e-12 };
+    expect(normalizeSettings(scenarioSettingsSchema.parse({ airGap: null, overrides: { M1: { airGap: null } } }), tech)).not.toHaveProperty("airGap");
+    const n = normalizeSettings(scenarioSettingsSchema.parse({ airGap: { kGap: 1, gapFraction: 0.5 }, overrides: { M1: { airGap: null } } }), tech);
+    expect(n.airGap).toEqual({ kGap: 1, gapFraction: 0.5 });
+    expect(n.overrides).toEqual({ M1: { airGap: null } });
+  });
+  it("frozen reports: classes, settings and overrides frozen before air gaps still parse, without the fields", () => {
+    const cls = wireClassSchema.parse(good);
+    expect(wireClassSnapshotSchema.parse(cls)).toEqual(cls);
+    const old = baselineSettings("full", { supplyV: 0.7, clockHz: 2e9, repeaterR0Ohm: 5000, repeaterC0F: 3e-16, delayBudgetS: 80e-12 });
+    const parsed = settingsSnapshotSchema.parse({ ...old, overrides: { M1: { k: 1.9 } } });
+    expect(parsed).not.toHaveProperty("airGap");
+    expect(parsed.overrides.M1).toEqual({ k: 1.9 });
+  });
+});
+
 // The input schemas mirror the engine's types field for field (mirrorOf, checked by tsc); at run time, a value of
 // the engine type passes through them unchanged, so nothing the engine uses is dropped or altered at the API edge.
 describe("input schemas and the engine types", () => {
@@ -208,9 +272,19 @@ describe("input schemas and the engine types", () => {
       aspectRatio: 2.5,
       miller: 1.5,
       barrierM: 1e-9,
+      airGap: { kGap: 1, gapFraction: 0.6 },
     };
-    const settings: ScenarioSettings = { ...baselineSettings("full", technology), k: 2.5, metal: "Co", overrides: { M1: override } };
+    const settings: Required<ScenarioSettings> = {
+      ...baselineSettings("full", technology),
+      k: 2.5,
+      metal: "Co",
+      airGap: { kGap: 1.2, gapFraction: 1 },
+      overrides: { M1: override, M2: { airGap: null } },
+    };
     expect(scenarioSettingsSchema.parse(settings)).toEqual(settings);
+    // the frozen report's copies of settings and overrides keep every field too
+    expect(settingsSnapshotSchema.parse(settings)).toEqual(settings);
+    expect(classOverrideSnapshotSchema.parse(override)).toEqual(override);
   });
   it("Technology", () => {
     expect(technologySchema.parse(technology)).toEqual(technology);
@@ -231,5 +305,8 @@ describe("input schemas and the engine types", () => {
     const c: Omit<WireClass, "histogram"> = wireClassSchema.parse(good);
     expect(wireClassSchema.parse(c)).toEqual(c);
     expect(Object.keys(c).sort()).toEqual(Object.keys(good).sort());
+    const all: Required<Omit<WireClass, "histogram">> = { ...c, viasPerNet: 2, viaOhm: 12, viaWidthM: 2e-8, viaHeightM: 3e-8, kGap: 1.5, gapFraction: 0.75 };
+    expect(wireClassSchema.parse(all)).toEqual(all);
+    expect(wireClassSnapshotSchema.parse(all)).toEqual(all);
   });
 });

@@ -27,7 +27,8 @@ const record = (row: string): Record<string, string> => Object.fromEntries(HEADE
 
 describe("lib/scaling/formats: columns, header rules, row rules", () => {
   it("the wire-class columns are the templates' header, in order; the histogram columns too", () => {
-    // engine 2 appends four optional via columns after the templates' columns (the templates stay valid without them)
+    // engine 2 appends four optional via columns after the templates' columns, then the two optional air-gap columns
+    // (issue 11); the templates stay valid without them
     expect(
       WIRE_CLASS_COLUMNS.slice(0, 15)
         .map((c) => c.name)
@@ -38,6 +39,8 @@ describe("lib/scaling/formats: columns, header rules, row rules", () => {
       ["via_ohm", false],
       ["via_width_nm", false],
       ["via_height_nm", false],
+      ["k_gap", false],
+      ["gap_fraction", false],
     ]);
     expect(DEMO_CLASSES.split("\n")[0]).toBe(HEADER);
     expect(HISTOGRAM_COLUMNS.map((c) => c.name).join(",")).toBe(DEMO_HISTOGRAMS.split("\n")[0]);
@@ -119,6 +122,52 @@ describe("lib/scaling/formats: columns, header rules, row rules", () => {
     );
     const tabs = resolveHeader(["class\tlength_um\tcount"], HISTOGRAM_FORMAT);
     expect(!tabs.ok && tabs.issue.message).toMatch(/not tabs/);
+  });
+
+  it("air-gap columns (optional): set only when present; k_gap 1 … k, gap_fraction 0 … 1, bad cells named", () => {
+    const plain = validateWireClassRow(record(ROW), 2).wireClass!;
+    expect(["kGap", "gapFraction"].filter((k) => k in plain)).toEqual([]);
+    // empty cells = absent: exactly the class a file without the columns gives
+    expect(validateWireClassRow({ ...record(ROW), k_gap: "", gap_fraction: " " }, 2).wireClass).toEqual(plain);
+    expect(validateWireClassRow({ ...record(ROW), k_gap: "1", gap_fraction: "0.5" }, 2).wireClass).toEqual({ ...plain, kGap: 1, gapFraction: 0.5 });
+    expect(validateWireClassRow({ ...record(ROW), k_gap: "2.7" }, 2).wireClass).toEqual({ ...plain, kGap: 2.7 }); // = k
+    expect(validateWireClassRow({ ...record(ROW), gap_fraction: "0" }, 2).wireClass).toEqual({ ...plain, gapFraction: 0 });
+    const bad = (cells: Record<string, string>, line: number) => validateWireClassRow({ ...record(ROW), ...cells }, line);
+    expect(bad({ k_gap: "2.8" }, 4)).toEqual({ wireClass: null, errors: [{ line: 4, column: "k_gap", value: "2.8", message: "must not exceed k (2.7)" }] });
+    expect(bad({ k_gap: "0.9", gap_fraction: "1.2" }, 5).errors).toEqual([
+      { line: 5, column: "k_gap", value: "0.9", message: "must be ≥ 1" },
+      { line: 5, column: "gap_fraction", value: "1.2", message: "must be ≤ 1" },
+    ]);
+    expect(bad({ gap_fraction: "-0.1", k_gap: "air" }, 6).errors).toEqual([
+      { line: 6, column: "k_gap", value: "air", message: expect.stringMatching(/^is not a number/) },
+      { line: 6, column: "gap_fraction", value: "-0.1", message: "must be ≥ 0" },
+    ]);
+    // a bad k is named once, not again as a k_gap problem
+    expect(bad({ k: "0.5", k_gap: "1" }, 7).errors).toEqual([{ line: 7, column: "k", value: "0.5", message: "must be ≥ 1" }]);
+  });
+
+  it("air-gap columns through the one reader: stored on the class, errors naming line and column, files without them unchanged", () => {
+    const text = `${HEADER},k_gap,gap_fraction\n${ROW},1,0.6\n${ROW.replace(/^m1/, "m2")},,\n${ROW.replace(/^m1/, "m3")},1.5,\n`;
+    const r = parseWireClassCsv(text);
+    expect(r.ok).toBe(true);
+    expect(r.classes.map((c) => [c.name, c.kGap, c.gapFraction])).toEqual([
+      ["m1", 1, 0.6],
+      ["m2", undefined, undefined],
+      ["m3", 1.5, undefined],
+    ]);
+    expect(["kGap", "gapFraction"].filter((k) => k in r.classes[1]!)).toEqual([]);
+    expect(parseWireClassCsv(`${HEADER}\n${ROW}\n`).classes).toEqual([r.classes[1]!].map((c) => ({ ...c, name: "m1" })));
+    const bad = parseWireClassCsv(`${HEADER},gap_fraction,k_gap\n${ROW},0.5,1\n${ROW.replace(/^m1/, "m2")},1.2,3\n`);
+    expect(bad.ok).toBe(false);
+    expect(bad.errors).toEqual([
+      { line: 3, column: "gap_fraction", value: "1.2", message: "must be ≤ 1" },
+      { line: 3, column: "k_gap", value: "3", message: "must not exceed k (2.7)" },
+    ]);
+    expect(bad.classes).toEqual([]);
+    // the command line reads them through the same reader and stops on the first problem, naming line and column
+    const cli = run(["evaluate", "--baseline", file(`${HEADER},k_gap\n${ROW},2.8\n`), "--s", "1.4", "--json"]);
+    expect(cli.code).toBe(2);
+    expect(cli.stderr).toMatch(/line 2, column k_gap, value "2\.8": must not exceed k \(2\.7\)/);
   });
 
   it("histogram rows: exact SI length, whole counts, every problem named", () => {

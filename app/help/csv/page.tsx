@@ -24,6 +24,8 @@ const CLASS_LIMITS: Record<string, string> = {
   driver_ohm: "≥ 0",
   load_ff: "≥ 0",
   activity: "0 … 1",
+  k_gap: "1 … 30 and ≤ the row's k, or empty",
+  gap_fraction: "0 … 1, or empty",
 };
 
 const EXAMPLE_CLASS: Record<string, string> = {
