@@ -637,6 +637,23 @@ const engineSweep = () => {
   sink += sweep({ classes, technology, settings, variable: "s", metric: "delay", from: 1, to: 4, points: 200 }).length;
 };
 
+// The sweep's bare loop must compute the engine's points too: same x order (level, class, x), same delays.
+{
+  const curves = sweep({ classes, technology, settings, variable: "s", metric: "delay", from: 1, to: 4, points: 200 });
+  bareSweep();
+  let n = 0;
+  let worst = 0;
+  for (const c of curves) {
+    if (c.skipped !== undefined || c.points.length !== xs.length) throw new Error(`bench: the engine's sweep skipped points of ${c.className}`);
+    for (const pt of c.points) {
+      const b = sweepYs[n++]!;
+      worst = Math.max(worst, pt.y === b ? 0 : Math.abs(pt.y - b) / Math.max(Math.abs(pt.y), Math.abs(b)));
+    }
+  }
+  if (!(n === sweepYs.length && worst < 1e-12))
+    throw new Error(`bench: the bare sweep does not reproduce the engine's (${n} points, worst relative difference ${worst})`);
+}
+
 // The machine may be shared: alternate engine and bare runs in rounds and keep each one's best round.
 function best(a: () => void, b: () => void, rounds: number, msPerRound: number): [{ perCallMs: number }, { perCallMs: number }] {
   let ea = Infinity;

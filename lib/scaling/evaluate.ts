@@ -31,6 +31,7 @@ import type {
   CapacitanceModel,
   CapacitanceParts,
   ClassComparison,
+  ClassOverride,
   ClassResult,
   DelayModel,
   Evaluation,
@@ -43,7 +44,7 @@ import type {
   ValidityFlag,
   WireClass,
 } from "./types";
-import { newScaledClass, scaleClassInto, type ScaledClass } from "./scale";
+import { newScaledClass, scaleClassWith, type ScaledClass } from "./scale";
 import { checkSettings, checkTechnology, checkWireClass, dedupeFlags } from "./validity";
 
 // Module-local copies of imported constants (imported bindings are getters under some loaders, e.g. tsx).
@@ -125,7 +126,7 @@ function evaluatedBins(wc: WireClass): LengthBin[] | undefined {
 
 /** Scratch state of one class's electrical evaluation (reused: the engine is synchronous and never re-entered). */
 interface Electrical {
-  /** Geometry and options after scaling (scaleClassInto, the one implementation of the scaling rules). */
+  /** Geometry and options after scaling (scaleClassWith, the one implementation of the scaling rules). */
   g: ScaledClass;
   /** The class's metal at the operating temperature with the technology's overrides (metalAtInto). */
   metal: Metal;
@@ -147,6 +148,20 @@ interface Electrical {
   mBase: Metal | null;
   mOverride: MetalOverride | undefined;
   mTemp: number;
+  /**
+   * The inputs of the closed forms that `split` holds (capacitanceInto skips closedForm when they repeat: a sweep's
+   * levels coupled and full use the same model on the same geometry). cH2 = −1 for no second plane.
+   */
+  cModel: ClosedFormModel | "";
+  cEps: number;
+  cW: number;
+  cT: number;
+  cSp: number;
+  cH: number;
+  cH2: number;
+  /** How many capacitance flags of those inputs cFlags holds (sweep points only, see validityInto); −1 = none recorded. */
+  cFlagCount: number;
+  cFlags: ValidityFlag[];
 }
 
 function newElectrical(): Electrical {
@@ -169,7 +184,34 @@ function newElectrical(): Electrical {
     mBase: null,
     mOverride: undefined,
     mTemp: Number.NaN,
+    cModel: "",
+    cEps: Number.NaN,
+    cW: Number.NaN,
+    cT: Number.NaN,
+    cSp: Number.NaN,
+    cH: Number.NaN,
+    cH2: Number.NaN,
+    cFlagCount: -1,
+    cFlags: [],
   };
+}
+
+/**
+ * closedForm into e.split, skipped when its inputs are those of the previous call on `e` (exact comparison, so the
+ * same numbers either way). Any new input of closedForm must join the key here.
+ */
+function capacitanceInto(e: Electrical, model: ClosedFormModel, eps: number, w: number, t: number, sp: number, h: number, h2: number | null): void {
+  const h2Key = h2 === null ? -1 : h2;
+  if (model === e.cModel && eps === e.cEps && w === e.cW && t === e.cT && sp === e.cSp && h === e.cH && h2Key === e.cH2) return;
+  closedForm(model, eps, w, t, sp, h, h2, e.split);
+  e.cModel = model;
+  e.cEps = eps;
+  e.cW = w;
+  e.cT = t;
+  e.cSp = sp;
+  e.cH = h;
+  e.cH2 = h2Key;
+  e.cFlagCount = -1;
 }
 
 /**
@@ -177,9 +219,9 @@ function newElectrical(): Electrical {
  * the same code serves the sweep and the evaluation; validityInto adds the flags where a result needs them).
  * Resistivity at the technology's temperature with its per-metal overrides (resistance.ts, metalAtInto).
  */
-function electricalInto(wc: WireClass, tech: Technology, settings: ScenarioSettings, e: Electrical): void {
+function electricalInto(wc: WireClass, tech: Technology, settings: ScenarioSettings, e: Electrical, override: ClassOverride | undefined): void {
   const level = settings.level;
-  const g = scaleClassInto(wc, settings, e.g);
+  const g = scaleClassWith(wc, settings, override, e.g);
   const w = g.widthM;
   const t = g.thicknessM;
   const bar = g.barrierM;
@@ -188,17 +230,17 @@ function electricalInto(wc: WireClass, tech: Technology, settings: ScenarioSetti
   const tempC = tech.temperatureC ?? DEFAULT_TEMPERATURE_C;
   const base = getMetal(g.metal);
   const mats = tech.materials;
-  const override = mats === undefined ? undefined : (mats[base.id] ?? mats[g.metal]);
+  const metalOverride = mats === undefined ? undefined : (mats[base.id] ?? mats[g.metal]);
   // the metal at temperature is recomputed only when the metal, its override or the temperature changed (sweeps)
-  if (base !== e.mBase || override !== e.mOverride || tempC !== e.mTemp || override !== undefined) {
-    metalAtInto(base, override, tempC, e.metal);
+  if (base !== e.mBase || metalOverride !== e.mOverride || tempC !== e.mTemp || metalOverride !== undefined) {
+    metalAtInto(base, metalOverride, tempC, e.metal);
     e.mBase = base;
-    e.mOverride = override;
+    e.mOverride = metalOverride;
     e.mTemp = tempC;
   }
   const metal = e.metal;
   // a lone plane above is treated as the plane (mirror symmetry)
-  closedForm(CAP_MODEL[level] as ClosedFormModel, EPSILON_0_F_PER_M * g.k, w, t, g.spacingM, hb ?? (ha as number), hb === null ? null : ha, e.split);
+  capacitanceInto(e, CAP_MODEL[level] as ClosedFormModel, EPSILON_0_F_PER_M * g.k, w, t, g.spacingM, hb ?? (ha as number), hb === null ? null : ha);
   const wCond = w - 2 * bar;
   const hCond = t - bar;
   if (!(wCond > 0 && hCond > 0)) {
@@ -245,12 +287,27 @@ function viasOhm(wc: WireClass, g: ScaledClass, metal: Metal, sizeEffects: boole
 
 type ClosedFormModel = "ideal" | "fringe" | "coupled";
 
-/** The validity flags of the models electricalInto used for `e` (once per class result). */
-function validityInto(level: ModelLevel, e: Electrical, validity: ValidityFlag[]): void {
+/**
+ * The validity flags of the models electricalInto used for `e` (once per class result or sweep point). With `reuse`
+ * (sweep points, whose flags the sweep copies), the capacitance flags of closed-form inputs seen in the previous call
+ * are pushed again (the same objects) instead of being rebuilt.
+ */
+function validityInto(level: ModelLevel, e: Electrical, validity: ValidityFlag[], reuse: boolean): void {
   const g = e.g;
   const hb = g.ildBelowM;
   const ha = g.ildAboveM;
-  closedFormFlags(CAP_MODEL[level] as ClosedFormModel, g.widthM, g.thicknessM, g.spacingM, hb ?? (ha as number), hb === null ? null : ha, validity);
+  const n = e.cFlagCount;
+  if (reuse && n >= 0) {
+    for (let i = 0; i < n; i++) validity.push(e.cFlags[i]!);
+  } else {
+    const start = validity.length;
+    closedFormFlags(CAP_MODEL[level] as ClosedFormModel, g.widthM, g.thicknessM, g.spacingM, hb ?? (ha as number), hb === null ? null : ha, validity);
+    if (reuse) {
+      const count = validity.length - start;
+      for (let i = 0; i < count; i++) e.cFlags[i] = validity[start + i]!;
+      e.cFlagCount = count;
+    }
+  }
   if (level === "full") sizeEffectFlags(e.metal, g.widthM - 2 * g.barrierM, g.thicknessM - g.barrierM, validity);
   temperatureFlags(e.tempC, validity);
 }
@@ -264,18 +321,20 @@ const CLASS_SCRATCH = newElectrical();
 /**
  * One sweep metric of a class at its scaled mean length (delay: delayS, rc: rcS, r: rOhm, c: cF), with no result
  * objects: the sweep's hot path. Same numbers as evaluateClassCore. When `flags` is given, the point's validity
- * flags are pushed into it. Throws RangeError when the result is not finite.
+ * flags are pushed into it. `override` = settings.overrides[wc.name] (the sweep looks it up once per class). Throws
+ * RangeError when the result is not finite.
  */
 export function classMetricCore(
   wc: WireClass,
   tech: Technology,
   settings: ScenarioSettings,
   metric: "delay" | "rc" | "r" | "c",
-  flags?: ValidityFlag[],
+  flags: ValidityFlag[] | undefined,
+  override: ClassOverride | undefined,
 ): number {
   const e = SWEEP_SCRATCH;
-  electricalInto(wc, tech, settings, e);
-  if (flags !== undefined) validityInto(settings.level, e, flags);
+  electricalInto(wc, tech, settings, e, override);
+  if (flags !== undefined) validityInto(settings.level, e, flags, true);
   const L = e.g.lengthM;
   const R = e.rPerM * L;
   const C = e.cPerM * L;
@@ -302,8 +361,8 @@ export function evaluateClassCore(
   const level = settings.level;
   const validity: ValidityFlag[] = [];
   const e = CLASS_SCRATCH;
-  electricalInto(wc, tech, settings, e);
-  validityInto(level, e, validity);
+  electricalInto(wc, tech, settings, e, settings.overrides[wc.name]);
+  validityInto(level, e, validity, false);
   const g = e.g;
   const sp = e.split;
   const millerC = 2 * g.miller * sp.couple;

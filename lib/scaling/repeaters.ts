@@ -11,6 +11,7 @@
 import { LN2 as LN2_IMPORTED, REPEATER_A, REPEATER_B as REPEATER_B_IMPORTED } from "./constants";
 import { inRange, nonNegative, positive } from "./check";
 import { stageT50 } from "./delay";
+import { exactTau50At, tablePosition } from "./delay-table";
 import type { DelayModel, RepeaterResult } from "./types";
 
 // Module-local copies: imported bindings are getters under some loaders (tsx), slow in the repeater search's loops.
@@ -153,6 +154,70 @@ function chainDelay(r: number, c: number, rd: number, cl: number, r0: number, c0
   return k === 1 ? first + last : first + (k - 1) * (stageT50(rs, cs, rr, hc0, exact) + own) + last;
 }
 
+/**
+ * Per-k state of the exact chain (chainDelay with the exact model) in the repeater search: segment rs, cs, their
+ * product, the driver's ratio Rd/Rs and the load's CL/Cs with their table positions. These do not depend on the
+ * size h, so the search computes them once per k and each delay at a new h needs only the two ratios that move
+ * (R0/h over Rs, h·C0 over Cs): same numbers as chainDelay, bit for bit.
+ */
+const KS = new Float64Array(7);
+
+/** Fills KS for k ≥ 1 stages of the exact model; false when a segment has no R or no C (then chainDelay applies). */
+function prepareExact(r: number, c: number, rd: number, cl: number, k: number): boolean {
+  const n = k + 1;
+  const rs = r / n;
+  const cs = c / n;
+  if (!(rs > 0 && cs > 0)) return false;
+  const x1 = rd / rs;
+  const y2 = cl / cs;
+  KS[0] = rs;
+  KS[1] = cs;
+  KS[2] = rs * cs;
+  KS[3] = x1;
+  KS[4] = tablePosition(x1);
+  KS[5] = y2;
+  KS[6] = tablePosition(y2);
+  return true;
+}
+
+/** chainDelay (exact model, k ≥ 1) at size h from the state prepareExact left in KS; `ownOut` = ln2·γ·R0·C0. */
+function chainExactPrepared(r0: number, c0: number, ownOut: number, k: number, h: number): number {
+  const rc = KS[2]!;
+  const x1 = KS[3]!;
+  const y2 = KS[5]!;
+  const x2 = r0 / h / KS[0]!;
+  const y1 = (h * c0) / KS[1]!;
+  const px2 = tablePosition(x2);
+  const py1 = tablePosition(y1);
+  const first = rc * exactTau50At(x1, KS[4]!, y1, py1);
+  const last = rc * exactTau50At(x2, px2, y2, KS[6]!) + ownOut;
+  return k === 1 ? first + last : first + (k - 1) * (rc * exactTau50At(x2, px2, y1, py1) + ownOut) + last;
+}
+
+/** refineSize's delay at size h: the prepared exact chain when `prepared` (KS holds this k), else chainDelay. */
+function sizedDelay(
+  prepared: boolean,
+  r: number,
+  c: number,
+  rd: number,
+  cl: number,
+  r0: number,
+  c0: number,
+  gamma: number,
+  exact: boolean,
+  ownOut: number,
+  k: number,
+  h: number,
+): number {
+  return prepared ? chainExactPrepared(r0, c0, ownOut, k, h) : chainDelay(r, c, rd, cl, r0, c0, gamma, exact, k, h);
+}
+
+/** chainDelay through the prepared exact path when it applies (same result either way). */
+function chainAt(r: number, c: number, rd: number, cl: number, r0: number, c0: number, gamma: number, exact: boolean, k: number, h: number): number {
+  if (exact && prepareExact(r, c, rd, cl, k)) return chainExactPrepared(r0, c0, LN2 * gamma * r0 * c0, k, h);
+  return chainDelay(r, c, rd, cl, r0, c0, gamma, exact, k, h);
+}
+
 /** The chosen repeated net: inserted k, size h, its delay and the unrepeated delay. */
 export interface RepeatedNet {
   /** Inserted repeaters k ≥ 0. */
@@ -255,7 +320,7 @@ export function repeatedNetInto(
   let kEnd = 0;
   const lb0 = lowerBound(r, c, rd, cl, r0, c0, gamma, k0, HS);
   if (lb0 <= thr) {
-    const u = chainDelay(r, c, rd, cl, r0, c0, gamma, exact, k0, HS[0]!);
+    const u = chainAt(r, c, rd, cl, r0, c0, gamma, exact, k0, HS[0]!);
     bestU = u;
     kU = k0;
     ensure(k0);
@@ -272,7 +337,7 @@ export function repeatedNetInto(
     if (k === k0 && kU === k0) continue;
     const lb = lowerBound(r, c, rd, cl, r0, c0, gamma, k, HS);
     if (!(lb <= cap)) continue;
-    const u = chainDelay(r, c, rd, cl, r0, c0, gamma, exact, k, HS[0]!);
+    const u = chainAt(r, c, rd, cl, r0, c0, gamma, exact, k, HS[0]!);
     U[k] = u;
     HU[k] = HS[0]!;
     if (u < bestU) {
@@ -342,6 +407,9 @@ function refineSize(
   t0: number,
   hOut: Float64Array,
 ): number {
+  // the exact model's h-independent part once for this k (chainExactPrepared); otherwise chainDelay
+  const prepared = exact && prepareExact(r, c, rd, cl, k);
+  const ownOut = LN2 * gamma * r0 * c0;
   let x = Math.log(h0);
   let t = t0;
   for (let round = 0; round < 2; round++) {
@@ -349,9 +417,9 @@ function refineSize(
     const xa = x - d < 0 ? 0 : x - d;
     const xb = xa + d;
     const xc = xa + 2 * d;
-    const fa = xa === x ? t : chainDelay(r, c, rd, cl, r0, c0, gamma, exact, k, Math.exp(xa));
-    const fb = xb === x ? t : chainDelay(r, c, rd, cl, r0, c0, gamma, exact, k, Math.exp(xb));
-    const fc = chainDelay(r, c, rd, cl, r0, c0, gamma, exact, k, Math.exp(xc));
+    const fa = xa === x ? t : sizedDelay(prepared, r, c, rd, cl, r0, c0, gamma, exact, ownOut, k, Math.exp(xa));
+    const fb = xb === x ? t : sizedDelay(prepared, r, c, rd, cl, r0, c0, gamma, exact, ownOut, k, Math.exp(xb));
+    const fc = sizedDelay(prepared, r, c, rd, cl, r0, c0, gamma, exact, ownOut, k, Math.exp(xc));
     // best of the three, then the parabola's vertex when it is a minimum
     let bx = x;
     let bt = t;
@@ -373,7 +441,7 @@ function refineSize(
       if (xv < 0) xv = 0;
       if (xv > xb + 4 * d) xv = xb + 4 * d;
       if (xv < xb - 4 * d && xb - 4 * d > 0) xv = xb - 4 * d;
-      const fv = chainDelay(r, c, rd, cl, r0, c0, gamma, exact, k, Math.exp(xv));
+      const fv = sizedDelay(prepared, r, c, rd, cl, r0, c0, gamma, exact, ownOut, k, Math.exp(xv));
       if (fv < bt) {
         bt = fv;
         bx = xv;

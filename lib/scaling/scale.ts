@@ -4,7 +4,7 @@
  * barrier, k, metal, Miller factor). Pure, SI units.
  */
 import { positive } from "./check";
-import type { ScenarioSettings, WireClass } from "./types";
+import type { ClassOverride, ScenarioSettings, WireClass } from "./types";
 
 export interface ScaledClass {
   s: number;
@@ -50,10 +50,17 @@ export function newScaledClass(): ScaledClass {
 
 /**
  * scaleClass into a caller-owned `out` (no allocation); returns `out`. The one implementation of the scaling
- * rules: scaleClass and the evaluation and sweep hot paths (evaluate.ts) all call it.
+ * rules: scaleClass and the evaluation and sweep hot paths (evaluate.ts) all call it (through scaleClassWith).
  */
 export function scaleClassInto(wc: WireClass, settings: ScenarioSettings, out: ScaledClass): ScaledClass {
-  const o = settings.overrides[wc.name];
+  return scaleClassWith(wc, settings, settings.overrides[wc.name], out);
+}
+
+/**
+ * scaleClassInto with the class's override `o` (= settings.overrides[wc.name]) given: the sweep looks it up once per
+ * class instead of once per point.
+ */
+export function scaleClassWith(wc: WireClass, settings: ScenarioSettings, o: ClassOverride | undefined, out: ScaledClass): ScaledClass {
   const s = o?.s ?? settings.s;
   const sL = o?.sL ?? settings.sL;
   const widthM = wc.widthM / s;

@@ -112,22 +112,25 @@ export function checkSettings(s: ScenarioSettings): void {
   for (const [name, o] of Object.entries(s.overrides)) checkOverride(name, o);
 }
 
-/** Removes repeated flags (same model, quantity and value), keeping the first. */
+/** Removes repeated flags (same model, quantity and value), keeping the first; a new array unless there are fewer than two. */
 export function dedupeFlags(flags: ValidityFlag[]): ValidityFlag[] {
   if (flags.length < 2) return flags;
-  // a handful of flags at most: compare pairwise (no keys or sets to allocate on the sweep's path)
-  const out: ValidityFlag[] = [];
+  // a handful of flags at most: compare pairwise (no keys or sets to allocate on the sweep's path). The copy comes from
+  // slice rather than a literal: sweeps keep these arrays, and a literal's allocation site would be pretenured (sweep.ts).
+  const out = flags.slice();
+  let n = 0;
   for (let i = 0; i < flags.length; i++) {
     const f = flags[i]!;
     let dup = false;
-    for (let j = 0; j < out.length; j++) {
+    for (let j = 0; j < n; j++) {
       const g = out[j]!;
       if (g.model === f.model && g.quantity === f.quantity && (g.value === f.value || (g.value !== g.value && f.value !== f.value))) {
         dup = true;
         break;
       }
     }
-    if (!dup) out.push(f);
+    if (!dup) out[n++] = f;
   }
+  out.length = n;
   return out;
 }
