@@ -56,7 +56,10 @@ Usage: npm run scaling -- <command> [options]   (or: npx tsx scaling/cli.ts <com
 
 Commands:
   capacitance  --width W --thickness T --height H [--height-above H2] [--spacing S] [--k 3.9] [--miller 1]
-               [--model ideal|fringe|coupled|field]          capacitance per length of one line
+               [--k-gap KG] [--gap-fraction F] [--model ideal|fringe|coupled|accurate|field]
+               capacitance per length of one line (default model: accurate with --spacing, else fringe);
+               --k is the dielectric everywhere except the gap between the lines (--k-gap, from the bottom of
+               the lines up to F × T, default F = 1)
   delay        --r-total R --c-total C [--driver RD] [--load CL]   50% step delay and Elmore delay
   evaluate     --baseline classes.csv --s S [--sl 1] [--model ideal|fringe|coupled|full] [--histograms h.csv]
                [--technology t.json] [--miller M] [--k K] [--metal Cu] [--barrier fixed|scales]
@@ -194,6 +197,8 @@ function capacitanceCmd(argv: string[]): CliResult {
     "height-above": { type: "string" },
     spacing: { type: "string" },
     k: { type: "string" },
+    "k-gap": { type: "string" },
+    "gap-fraction": { type: "string" },
     miller: { type: "string" },
     model: { type: "string" },
   });
@@ -215,8 +220,15 @@ function capacitanceCmd(argv: string[]): CliResult {
     positiveOrThrow(n, x, "a length in metres");
   if (!(k >= 1)) throw new UsageError(`--k: expected a relative permittivity >= 1, got ${k}`);
   if (!(miller >= 0 && miller <= 2)) throw new UsageError(`--miller: expected a Miller factor from 0 to 2, got ${miller}`);
-  const model = (v.model as string | undefined) ?? (spacing !== undefined ? "coupled" : "fringe");
-  if (!["ideal", "fringe", "coupled", "field"].includes(model)) throw new UsageError(`--model: expected ideal, fringe, coupled or field, got "${model}"`);
+  const kGap = q(v, "k-gap", "", NUMS("a relative permittivity from 1 to --k"));
+  const gapFraction = q(v, "gap-fraction", "", NUMS("a share of the line thickness from 0 to 1"));
+  if (kGap !== undefined && !(kGap >= 1 && kGap <= k)) throw new UsageError(`--k-gap: expected a relative permittivity from 1 to --k (${k}), got ${kGap}`);
+  if (gapFraction !== undefined && !(gapFraction >= 0 && gapFraction <= 1))
+    throw new UsageError(`--gap-fraction: expected a share of the line thickness from 0 to 1, got ${gapFraction}`);
+  if (gapFraction !== undefined && kGap === undefined) throw new UsageError("--gap-fraction needs --k-gap (the gap layer's permittivity, 1 for air)");
+  const model = (v.model as string | undefined) ?? (spacing !== undefined ? "accurate" : "fringe");
+  if (!["ideal", "fringe", "coupled", "accurate", "field"].includes(model))
+    throw new UsageError(`--model: expected ideal, fringe, coupled, accurate or field, got "${model}"`);
   const r = lineCapacitance({
     widthM,
     thicknessM,
@@ -224,6 +236,8 @@ function capacitanceCmd(argv: string[]): CliResult {
     heightBelowM: heightM,
     heightAboveM: above ?? null,
     k,
+    ...(kGap !== undefined ? { kGap } : {}),
+    ...(gapFraction !== undefined ? { gapFraction } : {}),
     miller,
     model: model as CapacitanceModel,
   });

@@ -4,7 +4,8 @@
  * and the numeric 2D solve. SI units: lengths in m, capacitance per length in F/m.
  */
 import { EPSILON_0_F_PER_M } from "./constants";
-import { atLeast, inRange, positive, rangeFlag } from "./check";
+import { atLeast, inRange, positive, rangeFlag, round3 } from "./check";
+import { accurateCapacitanceInto } from "./cap-accurate";
 import { fieldSolve } from "./field-solve";
 import type { CapacitanceModel, CapacitanceParts, ValidityFlag } from "./types";
 
@@ -104,12 +105,17 @@ export const SPLIT_FIT = {
   norm: 4,
 } as const;
 
+/** Accuracy of the accurate (table) model: held-out field solves, scaling/README.md "Accurate capacitance". */
+export const ACCURATE_ACCURACY =
+  "table of our 2D field solver (resolution 20, its own error ≤ 0.08% ground/total): on 600 held-out geometries ground within 0.61% (RMS 0.08%), total within 0.66% (RMS 0.09%), coupling per neighbour within 0.33% without a gap layer; with one (kGap < k) within 1.2% where coupling is ≥ 5% of the total, 4.1% where ≥ 1%, up to 14% where it is a smaller share (plane above, S/H ≥ 1.5) (measured)";
+
 /** Accuracy statements, measured against the field solver (scaling/README.md, tests/scaling/capacitance.test.ts). */
 export const CAPACITANCE_ACCURACY: Readonly<Record<CapacitanceModel, string>> = {
   ideal: "parallel plate: a lower bound that ignores fringing and coupling; several times too low for W/H ≤ 1",
   fringe: "Yuan–Trick (one plane): within 11% of the field solver for W ≥ T/2; Cohn (two planes): within 2.5% (measured)",
   coupled:
     "Sakurai–Tamaru total (one plane): within 6% (C1) / 11% (with neighbours) of the field solver in the fitted ranges; ground/coupling split fitted to the field solver: ground within 11%, Miller-weighted total within 15% (measured); two planes (H2/H ≤ 2, S/H ≤ 4): Cohn + fitted split, ground within 3.3%, total within 2.9% (Miller 2: 4.4%), coupling per neighbour within 21% (measured); with grounded neighbours the total never falls as they approach",
+  accurate: ACCURATE_ACCURACY,
   field: "numeric 2D field solve (finite differences): < 1% on analytic cases",
 };
 
@@ -220,8 +226,12 @@ export interface LineCapacitanceInput {
   heightBelowM: number | null;
   /** Height to the plane above; null = none. */
   heightAboveM: number | null;
-  /** Relative permittivity, ≥ 1. */
+  /** Relative permittivity of the ILD (everywhere except the gap layer), ≥ 1. */
   k: number;
+  /** Permittivity of the gap layer between the lines, 1 ≤ kGap ≤ k (default k: no gap; air = 1). */
+  kGap?: number;
+  /** Height of the gap layer from the bottom of the lines, as a share of T, 0..1 (default 1 when kGap is given). */
+  gapFraction?: number;
   /** Miller coupling factor applied to both neighbours, 0..2. */
   miller: number;
   model: CapacitanceModel;
@@ -260,13 +270,27 @@ export function capacitanceParts(p: LineCapacitanceInput, validity: ValidityFlag
     hb = ha;
     ha = null;
   }
+  if (p.kGap !== undefined && !(p.kGap >= 1 && p.kGap <= p.k)) throw new RangeError(`kGap must be >= 1 and <= k = ${p.k} (got ${p.kGap})`);
+  if (p.gapFraction !== undefined) inRange("gapFraction", p.gapFraction, 0, 1);
+  // absent kGap: no gap; kGap without a fraction: the gap fills the line's height
+  const kGap = p.kGap ?? p.k;
+  const gapFraction = p.gapFraction ?? (p.kGap === undefined ? 0 : 1);
+  const hasGap = kGap < p.k && gapFraction > 0;
   const eps = EPSILON_0_F_PER_M * p.k;
   const w = p.widthM;
   const t = p.thicknessM;
   const sp = p.spacingM;
 
   if (p.model === "field") {
-    const r = fieldSolve({ widthM: w, thicknessM: t, spacingM: sp, heightBelowM: hb, heightAboveM: ha, k: p.k });
+    const r = fieldSolve({
+      widthM: w,
+      thicknessM: t,
+      spacingM: sp,
+      heightBelowM: hb,
+      heightAboveM: ha,
+      k: p.k,
+      ...(hasGap ? { kGap, gapFraction } : {}),
+    });
     const area = parallelPlateFPerM(eps, w, hb) + (ha !== null ? parallelPlateFPerM(eps, w, ha) : 0);
     const coupling = 2 * p.miller * r.couplingEachFPerM;
     return {
@@ -279,9 +303,36 @@ export function capacitanceParts(p: LineCapacitanceInput, validity: ValidityFlag
     };
   }
 
-  const model = p.model;
   const split: Split = { area: 0, ground: 0, couple: 0 };
-  closedFormInto(model, eps, w, t, sp, hb, ha, split, validity);
+  let model = p.model;
+  if (model === "accurate" && sp !== null) accurateCapacitanceInto(w, t, sp, hb, ha, p.k, kGap, gapFraction, split, validity);
+  else {
+    if (model === "accurate") {
+      // the tables need two neighbours: an isolated line takes the published single-line form
+      validity.push({
+        model: "accurate-table",
+        quantity: "neighbours",
+        value: 0,
+        min: 2,
+        max: 2,
+        message: "no neighbours (isolated line): the accurate tables need two; the published single-line form was used",
+      });
+      model = "fringe";
+    }
+    closedFormInto(model, eps, w, t, sp, hb, ha, split, validity);
+    if (hasGap && model === "coupled" && sp !== null) {
+      // first order: the coupling part sees the side walls' layers in parallel; the ground part keeps k
+      split.couple *= (kGap * gapFraction + p.k * (1 - gapFraction)) / p.k;
+      validity.push({
+        model: "air-gap-first-order",
+        quantity: "kGap",
+        value: kGap,
+        min: null,
+        max: null,
+        message: `published form with an air gap: coupling scaled by the side-wall average k (${round3(kGap * gapFraction + p.k * (1 - gapFraction))}), ground unchanged — first order; the accurate model computes the gap`,
+      });
+    }
+  }
   const coupling = 2 * p.miller * split.couple;
   return {
     areaFPerM: split.area,

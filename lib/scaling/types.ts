@@ -9,7 +9,7 @@ export type Tier = "local" | "intermediate" | "semi-global" | "global";
 export const TIERS: readonly Tier[] = ["local", "intermediate", "semi-global", "global"];
 
 /** Capacitance model of one line. `field` is the numeric 2D solve. */
-export type CapacitanceModel = "ideal" | "fringe" | "coupled" | "field";
+export type CapacitanceModel = "ideal" | "fringe" | "coupled" | "accurate" | "field";
 
 /**
  * Model level of a whole evaluation.

@@ -271,7 +271,7 @@ const capacitanceSchema = z.preprocess(
       couplingMillerFPerM: num,
       couplingEachFPerM: num,
       totalFPerM: num,
-      model: z.enum(["ideal", "fringe", "coupled", "field"] satisfies CapacitanceModel[]),
+      model: z.enum(["ideal", "fringe", "coupled", "accurate", "field"] satisfies CapacitanceModel[]),
     }),
   ),
 );

@@ -209,6 +209,11 @@ describe("scenario editor in the browser", () => {
     await shot("Per-class overrides", "overrides.png");
     await page.click("text=Run field check");
     await page.waitForSelector("[data-testid=field-check-result]", { timeout: 60_000 });
+    // the accurate tables against the numeric solve of the same cross-section: ground and total within 1% (cap-accurate.test.ts)
+    for (const row of [0, 2]) {
+      const accurateDiff = await page.locator("[data-testid=field-check-result] tbody tr").nth(row).locator("td").nth(3).innerText();
+      expect(Math.abs(parseFloat(accurateDiff))).toBeLessThan(1);
+    }
     await shot("Field check", "field-check.png");
     await shot("History", "history.png");
     expect(errors).toEqual([]);

@@ -25,9 +25,9 @@ describe("run(argv)", () => {
       heightAboveM: null,
       k: 2.7,
       miller: 1,
-      model: "coupled",
+      model: "accurate",
     });
-    expect(j.model).toBe("coupled");
+    expect(j.model).toBe("accurate");
     expect(j.totalFPerM).toBe(ref.totalFPerM);
     expect(j.couplingEachFPerM).toBe(ref.couplingEachFPerM);
     expect(j.couplingMillerFPerM).toBe(ref.couplingMillerFPerM);
@@ -86,7 +86,10 @@ describe("run(argv)", () => {
     [["capacitance", "--thickness", "40nm", "--height", "25nm"], /--width is required/],
     [["capacitance", "--width=-20nm", "--thickness", "40nm", "--height", "25nm"], /--width: expected a length in metres > 0/],
     [["capacitance", "--width", "20nm", "--thickness", "40nm", "--height", "25nm", "--k", "0.5"], /--k: expected a relative permittivity >= 1/],
-    [["capacitance", "--width", "20nm", "--thickness", "40nm", "--height", "25nm", "--model", "magic"], /--model: expected ideal, fringe, coupled or field/],
+    [
+      ["capacitance", "--width", "20nm", "--thickness", "40nm", "--height", "25nm", "--model", "magic"],
+      /--model: expected ideal, fringe, coupled, accurate or field/,
+    ],
     [["capacitance", "--width", "20fF", "--thickness", "40nm", "--height", "25nm"], /--width: expected a length in metres/],
     [["delay", "--r-total", "1kF", "--c-total", "1fF"], /--r-total: expected a resistance in ohms/],
     [["delay", "--r-total", "1k"], /--c-total is required: a capacitance in farads/],
@@ -207,6 +210,29 @@ describe("engine 2 on the command line", () => {
     expect(r.code).toBe(2);
     expect(r.stdout).toBe("");
     expect(r.stderr.trim().split("\n")).toHaveLength(1);
+  });
+  it("capacitance --k-gap/--gap-fraction: the accurate model (default with --spacing) follows our field solve of the same air gap within 1%", () => {
+    const geo = ["--width", "40nm", "--thickness", "80nm", "--height", "80nm", "--height-above", "80nm", "--spacing", "40nm", "--k", "2.7"];
+    const json = (extra: string[]) => JSON.parse(run(["capacitance", ...geo, ...extra, "--json"]).stdout);
+    const acc = json(["--k-gap", "1", "--gap-fraction", "0.5"]);
+    const field = json(["--k-gap", "1", "--gap-fraction", "0.5", "--model", "field"]);
+    const homogeneous = json([]);
+    expect(acc.model).toBe("accurate");
+    expect(homogeneous.model).toBe("accurate");
+    for (const key of ["groundFPerM", "couplingEachFPerM", "totalFPerM"]) expect(Math.abs(acc[key] / field[key] - 1)).toBeLessThan(0.01);
+    // the gap takes more off the coupling than off the ground (the ILD below and above keeps k)
+    expect(acc.couplingEachFPerM / homogeneous.couplingEachFPerM).toBeLessThan(acc.groundFPerM / homogeneous.groundFPerM);
+    expect(acc.totalFPerM).toBeCloseTo(acc.groundFPerM + 2 * acc.couplingEachFPerM, 22);
+  });
+  it.each([
+    [["--k-gap", "0.5"], /^error: --k-gap: expected a relative permittivity from 1 to --k \(2\.7\), got 0\.5\n$/],
+    [["--k-gap", "3"], /^error: --k-gap: expected a relative permittivity from 1 to --k \(2\.7\), got 3\n$/],
+    [["--k-gap", "1", "--gap-fraction", "1.2"], /^error: --gap-fraction: expected a share of the line thickness from 0 to 1, got 1\.2\n$/],
+    [["--gap-fraction", "0.5"], /^error: --gap-fraction needs --k-gap/],
+  ])("capacitance %j exits 2 naming the argument", (extra, message) => {
+    const r = run(["capacitance", "--width", "40nm", "--thickness", "80nm", "--height", "80nm", "--spacing", "40nm", "--k", "2.7", ...extra]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(message);
   });
   it("capacitance --json: couplingEachFPerM (one neighbour) and couplingMillerFPerM (Miller × both)", () => {
     const j = JSON.parse(
