@@ -3,6 +3,7 @@
  * energy and the length distribution, with validity flags and accuracy statements. SI units.
  */
 import { getMetal, type Metal } from "./materials";
+import { accurateCapacitanceInto } from "./cap-accurate";
 import { CAPACITANCE_ACCURACY, closedForm, closedFormFlags, type Split } from "./capacitance";
 import { ENGINE_VERSION, EPSILON_0_F_PER_M, REPEATER_A, REPEATER_B } from "./constants";
 import { stageT50 } from "./delay";
@@ -159,6 +160,9 @@ interface Electrical {
   cSp: number;
   cH: number;
   cH2: number;
+  cK: number;
+  cKGap: number;
+  cGapF: number;
   /** How many capacitance flags of those inputs cFlags holds (sweep points only, see validityInto); −1 = none recorded. */
   cFlagCount: number;
   cFlags: ValidityFlag[];
@@ -191,6 +195,9 @@ function newElectrical(): Electrical {
     cSp: Number.NaN,
     cH: Number.NaN,
     cH2: Number.NaN,
+    cK: Number.NaN,
+    cKGap: Number.NaN,
+    cGapF: Number.NaN,
     cFlagCount: -1,
     cFlags: [],
   };
@@ -200,10 +207,39 @@ function newElectrical(): Electrical {
  * closedForm into e.split, skipped when its inputs are those of the previous call on `e` (exact comparison, so the
  * same numbers either way). Any new input of closedForm must join the key here.
  */
-function capacitanceInto(e: Electrical, model: ClosedFormModel, eps: number, w: number, t: number, sp: number, h: number, h2: number | null): void {
+function capacitanceInto(
+  e: Electrical,
+  model: ClosedFormModel,
+  eps: number,
+  w: number,
+  t: number,
+  sp: number,
+  h: number,
+  h2: number | null,
+  k: number,
+  kGap: number,
+  gapF: number,
+): void {
   const h2Key = h2 === null ? -1 : h2;
-  if (model === e.cModel && eps === e.cEps && w === e.cW && t === e.cT && sp === e.cSp && h === e.cH && h2Key === e.cH2) return;
-  closedForm(model, eps, w, t, sp, h, h2, e.split);
+  if (
+    model === e.cModel &&
+    eps === e.cEps &&
+    w === e.cW &&
+    t === e.cT &&
+    sp === e.cSp &&
+    h === e.cH &&
+    h2Key === e.cH2 &&
+    k === e.cK &&
+    kGap === e.cKGap &&
+    gapF === e.cGapF
+  )
+    return;
+  // an air gap between the lines is geometry: the accurate tables compute ground and coupling with it (cap-accurate.ts)
+  if (model === "coupled" && kGap < k && gapF > 0) accurateCapacitanceInto(w, t, sp, h, h2, k, kGap, gapF, e.split, null);
+  else closedForm(model, eps, w, t, sp, h, h2, e.split);
+  e.cK = k;
+  e.cKGap = kGap;
+  e.cGapF = gapF;
   e.cModel = model;
   e.cEps = eps;
   e.cW = w;
@@ -240,7 +276,19 @@ function electricalInto(wc: WireClass, tech: Technology, settings: ScenarioSetti
   }
   const metal = e.metal;
   // a lone plane above is treated as the plane (mirror symmetry)
-  capacitanceInto(e, CAP_MODEL[level] as ClosedFormModel, EPSILON_0_F_PER_M * g.k, w, t, g.spacingM, hb ?? (ha as number), hb === null ? null : ha);
+  capacitanceInto(
+    e,
+    CAP_MODEL[level] as ClosedFormModel,
+    EPSILON_0_F_PER_M * g.k,
+    w,
+    t,
+    g.spacingM,
+    hb ?? (ha as number),
+    hb === null ? null : ha,
+    g.k,
+    g.kGap,
+    g.gapFraction,
+  );
   const wCond = w - 2 * bar;
   const hCond = t - bar;
   if (!(wCond > 0 && hCond > 0)) {
@@ -301,7 +349,20 @@ function validityInto(level: ModelLevel, e: Electrical, validity: ValidityFlag[]
     for (let i = 0; i < n; i++) validity.push(e.cFlags[i]!);
   } else {
     const start = validity.length;
-    closedFormFlags(CAP_MODEL[level] as ClosedFormModel, g.widthM, g.thicknessM, g.spacingM, hb ?? (ha as number), hb === null ? null : ha, validity);
+    if (hasAirGap(level, g))
+      accurateCapacitanceInto(
+        g.widthM,
+        g.thicknessM,
+        g.spacingM,
+        hb ?? (ha as number),
+        hb === null ? null : ha,
+        g.k,
+        g.kGap,
+        g.gapFraction,
+        FLAG_SPLIT,
+        validity,
+      );
+    else closedFormFlags(CAP_MODEL[level] as ClosedFormModel, g.widthM, g.thicknessM, g.spacingM, hb ?? (ha as number), hb === null ? null : ha, validity);
     if (reuse) {
       const count = validity.length - start;
       for (let i = 0; i < count; i++) e.cFlags[i] = validity[start + i]!;
@@ -311,6 +372,14 @@ function validityInto(level: ModelLevel, e: Electrical, validity: ValidityFlag[]
   if (level === "full") sizeEffectFlags(e.metal, g.widthM - 2 * g.barrierM, g.thicknessM - g.barrierM, validity);
   temperatureFlags(e.tempC, validity);
 }
+
+/** True when the class's capacitance comes from the accurate tables with its air gap (levels coupled and full). */
+function hasAirGap(level: ModelLevel, g: ScaledClass): boolean {
+  return CAP_MODEL[level] === "coupled" && g.kGap < g.k && g.gapFraction > 0;
+}
+
+/** Scratch output of the flag pass of the accurate tables (the values are e.split's already). */
+const FLAG_SPLIT: Split = { area: 0, ground: 0, couple: 0 };
 
 /** Default area of a minimum repeater, m²: 0.1 µm² (invented, no source). */
 export const DEFAULT_REPEATER_AREA_M2 = 0.1e-12;
@@ -372,7 +441,7 @@ export function evaluateClassCore(
     couplingMillerFPerM: millerC,
     couplingEachFPerM: sp.couple,
     totalFPerM: e.cPerM,
-    model: CAP_MODEL[level],
+    model: hasAirGap(level, g) ? "accurate" : CAP_MODEL[level],
   };
   const L = g.lengthM;
   const rPerM = e.rPerM;

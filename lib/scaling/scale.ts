@@ -18,6 +18,10 @@ export interface ScaledClass {
   lengthM: number;
   metal: string;
   k: number;
+  /** Permittivity of the gap layer between the lines (= k without an air gap), ≤ k. */
+  kGap: number;
+  /** Height of the gap layer as a share of T (0 without an air gap). */
+  gapFraction: number;
   miller: number;
 }
 
@@ -44,6 +48,8 @@ export function newScaledClass(): ScaledClass {
     lengthM: 0,
     metal: "",
     k: 1,
+    kGap: 1,
+    gapFraction: 0,
     miller: 1,
   };
 }
@@ -76,6 +82,22 @@ export function scaleClassWith(wc: WireClass, settings: ScenarioSettings, o: Cla
   out.lengthM = wc.meanLengthM / sL;
   out.metal = o?.metal ?? settings.metal ?? wc.metal;
   out.k = o?.k ?? settings.k ?? wc.k;
+  // air gap: the class's override (null = none), else the scenario's, else the baseline class's own (kGap 1 and
+  // fraction 1 where only one of them is given); a gap never holds more than the surrounding k
+  const gap = o?.airGap !== undefined ? o.airGap : (settings.airGap ?? undefined);
+  if (gap === null) {
+    out.kGap = out.k;
+    out.gapFraction = 0;
+  } else if (gap !== undefined) {
+    out.kGap = Math.min(gap.kGap, out.k);
+    out.gapFraction = gap.gapFraction;
+  } else if (wc.kGap !== undefined || wc.gapFraction !== undefined) {
+    out.kGap = Math.min(wc.kGap ?? 1, out.k);
+    out.gapFraction = wc.gapFraction ?? 1;
+  } else {
+    out.kGap = out.k;
+    out.gapFraction = 0;
+  }
   out.miller = o?.miller ?? settings.miller;
   return out;
 }

@@ -6,7 +6,7 @@
 import { getMetal, METALS } from "./materials";
 import { checkMetalOverride } from "./resistance";
 import { atLeast, inRange, nonNegative, positive } from "./check";
-import type { ClassOverride, ScenarioSettings, Technology, ValidityFlag, WireClass } from "./types";
+import type { ClassOverride, ScenarioSettings, Technology, ValidityFlag, WireClass, AirGap } from "./types";
 import { TIERS } from "./types";
 
 /** Throws RangeError on an impossible wire class (non-positive sizes, k < 1, NaN, infinities, unknown metal). */
@@ -28,6 +28,10 @@ export function checkWireClass(wc: WireClass): void {
   nonNeg(c, "driverOhm", wc.driverOhm);
   nonNeg(c, "loadF", wc.loadF);
   if (!(wc.activity >= 0 && wc.activity <= 1)) inRange(`${c}.activity`, wc.activity, 0, 1);
+  if (wc.kGap !== undefined && !(wc.kGap >= 1 && wc.kGap <= wc.k)) throw new RangeError(`${c}.kGap must be >= 1 and <= the class's k ${wc.k} (got ${wc.kGap})`);
+  if (wc.gapFraction !== undefined && !(wc.gapFraction >= 0 && wc.gapFraction <= 1)) {
+    throw new RangeError(`${c}.gapFraction must be from 0 to 1 (got ${wc.gapFraction})`);
+  }
   if (wc.viasPerNet !== undefined && !(Number.isInteger(wc.viasPerNet) && wc.viasPerNet >= 0 && wc.viasPerNet <= 1e6)) {
     throw new RangeError(`${c}.viasPerNet must be a whole number from 0 to 1000000 (got ${wc.viasPerNet})`);
   }
@@ -109,7 +113,17 @@ export function checkSettings(s: ScenarioSettings): void {
   positive("supplyV", s.supplyV);
   if (s.k !== null) atLeast("k", s.k, 1);
   if (s.metal !== null) getMetal(s.metal);
-  for (const [name, o] of Object.entries(s.overrides)) checkOverride(name, o);
+  if (s.airGap) checkAirGap("airGap", s.airGap);
+  for (const [name, o] of Object.entries(s.overrides)) {
+    checkOverride(name, o);
+    if (o.airGap) checkAirGap(`overrides.${name}.airGap`, o.airGap);
+  }
+}
+
+/** An air gap of a scenario: kGap ≥ 1 (a gap above the class's k is held at k by the scaling), fraction 0..1. */
+function checkAirGap(name: string, g: AirGap): void {
+  atLeast(`${name}.kGap`, g.kGap, 1);
+  inRange(`${name}.gapFraction`, g.gapFraction, 0, 1);
 }
 
 /** Removes repeated flags (same model, quantity and value), keeping the first; a new array unless there are fewer than two. */
