@@ -25,6 +25,13 @@ const CAPACITANCE: Record<string, { model: string; sources: string[] }> = {
       'T. Sakurai, "Closed-form expressions for interconnection delay, coupling, and crosstalk in VLSI\'s", IEEE Trans. Electron Devices 40(1), 1993',
     ],
   },
+  accurate: {
+    model:
+      "Air gap between the lines as geometry: tables of our own 2D field solver (layered dielectrics), ground and coupling separately, Miller factor on the coupling part",
+    sources: [
+      "Plateau's finite-volume field solver (lib/scaling/field-solve.ts) and its tables (scaling/make-cap-table.ts), checked against exact layered plates and Cohn's stripline (S. B. Cohn, IRE Trans. MTT 2(2), 1954); docs/models.md",
+    ],
+  },
 };
 
 const RESISTIVITY = {
@@ -80,7 +87,9 @@ export function modelsUsed(report: FrozenReport): ModelUse[] {
     const who = `Option ${o.key}`;
     for (const c of o.evaluation.classes) {
       const acc = c.scenario.accuracy;
-      add("Capacitance", CAPACITANCE[level === "full" ? "coupled" : level] ?? CAPACITANCE.coupled!, acc.capacitance, who);
+      // the model each class used: an air-gapped class takes the accurate tables at levels coupled and full
+      const cap = c.scenario.capacitance.model === "accurate" ? "accurate" : level === "full" ? "coupled" : level;
+      add("Capacitance", CAPACITANCE[cap] ?? CAPACITANCE.coupled!, acc.capacitance, who);
       add("Resistance", level === "full" ? RESISTIVITY.size : RESISTIVITY.bulk, acc.resistivity, who);
       add("Delay", level === "ideal" ? DELAY.ideal : DELAY.other, acc.delay, who);
       add("Repeaters", REPEATERS, acc.repeaters, who);

@@ -83,10 +83,14 @@ const DELAY_ACCURACY = {
   },
 } as const;
 
-function accuracyFor(level: ModelLevel, twoPlanes: boolean, model: DelayModel): Record<string, string> {
+function accuracyFor(level: ModelLevel, twoPlanes: boolean, model: DelayModel, airGap = false): Record<string, string> {
   const cap = CAPACITANCE_ACCURACY[CAP_MODEL[level]];
   return {
-    capacitance: twoPlanes && level !== "ideal" ? `${cap}; two planes: Cohn's thick strip with the fitted two-plane split` : cap,
+    capacitance: airGap
+      ? `air gap between the lines as geometry: ${CAPACITANCE_ACCURACY.accurate}`
+      : twoPlanes && level !== "ideal"
+        ? `${cap}; two planes: Cohn's thick strip with the fitted two-plane split`
+        : cap,
     resistivity: level === "full" ? RESISTIVITY_ACCURACY.sizeEffect : RESISTIVITY_ACCURACY.bulk,
     delay: `${model}: ${level === "ideal" ? DELAY_ACCURACY[model].ideal : DELAY_ACCURACY[model].other}`,
     repeaters: `${REPEATED_NET_ACCURACY}; stage delays: ${model}`,
@@ -98,6 +102,7 @@ const ACCURACY: Record<string, Readonly<Record<string, string>>> = {};
 for (const level of ["ideal", "fringe", "coupled", "full"] as const) {
   for (const two of [false, true])
     for (const m of ["exact", "sakurai"] as const) ACCURACY[`${level}|${two ? 2 : 1}|${m}`] = Object.freeze(accuracyFor(level, two, m));
+  for (const m of ["exact", "sakurai"] as const) ACCURACY[`${level}|gap|${m}`] = Object.freeze(accuracyFor(level, false, m, true));
 }
 
 /**
@@ -553,7 +558,7 @@ export function evaluateClassCore(
     repeaterPowerW,
     distribution,
     validity: dedupeFlags(validity),
-    accuracy: ACCURACY[`${level}|${twoPlanes ? 2 : 1}|${model}`] as Record<string, string>,
+    accuracy: ACCURACY[`${level}|${hasAirGap(level, g) ? "gap" : twoPlanes ? 2 : 1}|${model}`] as Record<string, string>,
   };
 }
 
