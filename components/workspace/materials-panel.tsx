@@ -1,53 +1,26 @@
 "use client";
 import Decimal from "decimal.js";
 import { useId, useState } from "react";
-import { DEFAULT_TEMPERATURE_C, METALS, metalAt, type Metal, type MetalOverride, type SizeEffectFit, type Technology, type WireClass } from "@/lib/scaling";
+import {
+  DEFAULT_TEMPERATURE_C,
+  METAL_PARAMETERS,
+  METALS,
+  metalAt,
+  type MetalOverride,
+  type SizeEffectFit,
+  type Technology,
+  type WireClass,
+} from "@/lib/scaling";
 import { ApiRequestError, apiSend, errorMessage } from "@/lib/api-client";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/card";
 import { inputClass } from "@/components/ui/field";
+import { formatValue } from "./units";
 
 type Param = keyof MetalOverride;
 
-/** The materials block's parameters: display unit (SI size of one display unit), label and the catalogue's source key. */
-const PARAMS: {
-  key: Param;
-  label: string;
-  unit: string;
-  unitSI: number;
-  source: keyof Metal["sources"];
-  /** Allowed range in display units (the engine's, checkMetalOverride); open ends where marked. */
-  min: number;
-  minOpen?: boolean;
-  max: number;
-  maxOpen?: boolean;
-}[] = [
-  {
-    key: "resistivityOhmM",
-    label: "Bulk resistivity ρ0 at 20 °C",
-    unit: "µΩ·cm",
-    unitSI: 1e-8,
-    source: "resistivity",
-    min: 0,
-    minOpen: true,
-    max: 1e4,
-    maxOpen: true,
-  },
-  { key: "tempCoeffPerK", label: "Temperature coefficient α", unit: "10⁻³/K", unitSI: 1e-3, source: "tempCoeff", min: 0, max: 20 },
-  { key: "meanFreePathM", label: "Mean free path λ at 20 °C", unit: "nm", unitSI: 1e-9, source: "meanFreePath", min: 0, minOpen: true, max: 1000 },
-  { key: "specularity", label: "Specularity p (Fuchs–Sondheimer)", unit: "", unitSI: 1, source: "specularity", min: 0, max: 1, maxOpen: true },
-  { key: "grainReflection", label: "Grain reflection R (Mayadas–Shatzkes)", unit: "", unitSI: 1, source: "grainReflection", min: 0, max: 1, maxOpen: true },
-  { key: "steinhoglC", label: "Surface factor C (Steinhögl)", unit: "", unitSI: 1, source: "steinhoglC", min: 0, max: 10 },
-];
-
-const show = (si: number, unitSI: number, digits = 6) =>
-  new Decimal(si)
-    .toSignificantDigits(15)
-    .div(unitSI)
-    .toSignificantDigits(digits)
-    .toFixed()
-    .replace(/(\.\d*?)0+$/, "$1")
-    .replace(/\.$/, "");
+/** A value in a display unit (SI size `unitSI`), exact and short: formatValue of the editor's units. */
+const show = (si: number, unitSI: number, digits = 6) => formatValue(si, { label: "", unitSI, base: "", suffix: "" }, digits);
 
 /** Metals the baseline uses (in class order), then any metal that only has overrides. */
 function metalsOf(classes: WireClass[], technology: Technology): string[] {
@@ -157,7 +130,7 @@ function MetalTable(p: {
           </tr>
         </thead>
         <tbody>
-          {PARAMS.map((q) => {
+          {METAL_PARAMETERS.map((q) => {
             const v = p.override?.[q.key];
             const err = p.errors[`technology.materials.${p.id}.${q.key}`];
             return (

@@ -1,4 +1,4 @@
-import { DEFAULT_MIN_REPEATER_GAIN, DEFAULT_OUTPUT_C_RATIO, DEFAULT_REPEATER_AREA_M2, DEFAULT_TEMPERATURE_C, METALS, type MetalOverride } from "@/lib/scaling";
+import { DEFAULT_MIN_REPEATER_GAIN, DEFAULT_OUTPUT_C_RATIO, DEFAULT_REPEATER_AREA_M2, DEFAULT_TEMPERATURE_C, METAL_PARAMETERS, METALS } from "@/lib/scaling";
 import type { FrozenReport } from "@/lib/validation/report";
 
 export interface ModelUse {
@@ -99,16 +99,6 @@ export function modelsUsed(report: FrozenReport): ModelUse[] {
 }
 
 /** Material sources for the metals that appear in the report (baseline and options). */
-/** Display of a materials parameter: label, unit and SI size of one display unit. */
-const MATERIAL_PARAMS: { key: keyof MetalOverride; label: string; unit: string; unitSI: number }[] = [
-  { key: "resistivityOhmM", label: "ρ0 at 20 °C", unit: " µΩ·cm", unitSI: 1e-8 },
-  { key: "tempCoeffPerK", label: "α", unit: "/K", unitSI: 1 },
-  { key: "meanFreePathM", label: "λ", unit: " nm", unitSI: 1e-9 },
-  { key: "specularity", label: "p", unit: "", unitSI: 1 },
-  { key: "grainReflection", label: "R", unit: "", unitSI: 1 },
-  { key: "steinhoglC", label: "C", unit: "", unitSI: 1 },
-];
-
 /**
  * Sources of the metals a report uses, and the baseline's own values where its materials block overrides the
  * catalogue (e.g. a fit to measured lines), with the source the baseline gives for them.
@@ -129,8 +119,9 @@ export function materialSources(
     .map((m) => {
       const o = materials[m.id];
       const parts = o
-        ? MATERIAL_PARAMS.filter((q) => o[q.key] !== undefined).map(
-            (q) => `${q.label} ${Number((o[q.key]! / q.unitSI).toPrecision(4))}${q.unit} (catalogue ${Number((m[q.key] / q.unitSI).toPrecision(4))})`,
+        ? METAL_PARAMETERS.filter((q) => o[q.key] !== undefined).map(
+            (q) =>
+              `${q.short} ${Number((o[q.key]! / q.unitSI).toPrecision(4))}${q.unit ? ` ${q.unit}` : ""} (catalogue ${Number((m[q.key] / q.unitSI).toPrecision(4))})`,
           )
         : [];
       return {

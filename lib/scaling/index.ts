@@ -68,7 +68,7 @@ export {
   type BaseUnit,
   type NumberCheck,
 } from "./units";
-export { METALS, DIELECTRICS, getMetal, type Metal, type Dielectric } from "./materials";
+export { METALS, METAL_PARAMETERS, DIELECTRICS, getMetal, type Metal, type Dielectric } from "./materials";
 export {
   WIRE_CLASS_COLUMNS,
   HISTOGRAM_COLUMNS,

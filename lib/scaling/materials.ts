@@ -26,6 +26,52 @@ export interface Metal {
   sources: { resistivity: string; meanFreePath: string; specularity: string; grainReflection: string; steinhoglC: string; tempCoeff: string };
 }
 
+/**
+ * The per-metal parameters a baseline may override (Technology.materials), with their display: label, short label,
+ * display unit and its size in SI, the catalogue's source key and the accepted range in display units (the engine's,
+ * resistance.ts checkMetalOverride; open ends where marked). One list for the Technology panel and the report.
+ */
+export const METAL_PARAMETERS: readonly {
+  key: "resistivityOhmM" | "tempCoeffPerK" | "meanFreePathM" | "specularity" | "grainReflection" | "steinhoglC";
+  label: string;
+  short: string;
+  unit: string;
+  unitSI: number;
+  source: keyof Metal["sources"];
+  min: number;
+  minOpen?: boolean;
+  max: number;
+  maxOpen?: boolean;
+}[] = [
+  {
+    key: "resistivityOhmM",
+    label: "Bulk resistivity ρ0 at 20 °C",
+    short: "ρ0 at 20 °C",
+    unit: "µΩ·cm",
+    unitSI: 1e-8,
+    source: "resistivity",
+    min: 0,
+    minOpen: true,
+    max: 1e4,
+    maxOpen: true,
+  },
+  { key: "tempCoeffPerK", label: "Temperature coefficient α", short: "α", unit: "10⁻³/K", unitSI: 1e-3, source: "tempCoeff", min: 0, max: 20 },
+  { key: "meanFreePathM", label: "Mean free path λ at 20 °C", short: "λ", unit: "nm", unitSI: 1e-9, source: "meanFreePath", min: 0, minOpen: true, max: 1000 },
+  { key: "specularity", label: "Specularity p (Fuchs–Sondheimer)", short: "p", unit: "", unitSI: 1, source: "specularity", min: 0, max: 1, maxOpen: true },
+  {
+    key: "grainReflection",
+    label: "Grain reflection R (Mayadas–Shatzkes)",
+    short: "R",
+    unit: "",
+    unitSI: 1,
+    source: "grainReflection",
+    min: 0,
+    max: 1,
+    maxOpen: true,
+  },
+  { key: "steinhoglC", label: "Surface factor C (Steinhögl)", short: "C", unit: "", unitSI: 1, source: "steinhoglC", min: 0, max: 10 },
+];
+
 export interface Dielectric {
   id: string;
   name: string;
