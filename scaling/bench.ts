@@ -31,7 +31,10 @@ const hist = parseHistogramBins(
   readFileSync(`${here}examples/skua-histograms.csv`),
   base.map((c) => c.name),
 ).bins;
-const technology: Technology = { ...DEFAULT_TECHNOLOGY };
+// The bare loop re-codes the published closed forms, so the engine is compared on them (capacitanceModel
+// "published"); the default (the accurate tables) is timed against that below and in scaling/bench-cap.ts.
+const technology: Technology = { ...DEFAULT_TECHNOLOGY, capacitanceModel: "published" };
+const accurateTechnology: Technology = { ...DEFAULT_TECHNOLOGY };
 
 // 20 classes: the four Skua classes in five invented variants each, every one with a 64-bin histogram.
 const classes: WireClass[] = [];
@@ -572,6 +575,9 @@ const bareScenario = () => {
 const engineScenario = () => {
   sink += evaluateScenario({ classes, technology, settings }).totals.scenario.powerW;
 };
+const engineScenarioAccurate = () => {
+  sink += evaluateScenario({ classes, technology: accurateTechnology, settings }).totals.scenario.powerW;
+};
 
 // The bare loop must compute what the engine computes: check it once, number for number.
 {
@@ -636,6 +642,9 @@ const bareSweep = () => {
 const engineSweep = () => {
   sink += sweep({ classes, technology, settings, variable: "s", metric: "delay", from: 1, to: 4, points: 200 }).length;
 };
+const engineSweepAccurate = () => {
+  sink += sweep({ classes, technology: accurateTechnology, settings, variable: "s", metric: "delay", from: 1, to: 4, points: 200 }).length;
+};
 
 // The sweep's bare loop must compute the engine's points too: same x order (level, class, x), same delays.
 {
@@ -672,6 +681,10 @@ timeIt(bareSweep, 1000);
 const ROUNDS = 8;
 const [evE, evB] = best(engineScenario, bareScenario, ROUNDS, 300);
 const [swE, swB] = best(engineSweep, bareSweep, ROUNDS, 400);
+timeIt(engineScenarioAccurate, 1000);
+timeIt(engineSweepAccurate, 1000);
+const [evA, evP] = best(engineScenarioAccurate, engineScenario, ROUNDS, 300);
+const [swA, swP] = best(engineSweepAccurate, engineSweep, ROUNDS, 400);
 
 const rows: [string, string, string, string][] = [
   [
@@ -691,6 +704,22 @@ const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i]!.le
 console.log(head.map((h, i) => h.padEnd(widths[i]!)).join(" | "));
 console.log(widths.map((w) => "-".repeat(w)).join("-|-"));
 for (const r of rows) console.log(r.map((c, i) => (i === 0 ? c.padEnd(widths[i]!) : c.padStart(widths[i]!))).join(" | "));
+console.log("");
+// The default capacitance (the accurate tables at levels coupled and full) against the published forms, same engine.
+const accRows: [string, string, string, string][] = [
+  [
+    "full scenario, 20 classes × 64 bins (baseline + scenario)",
+    `${(1000 / evA.perCallMs).toFixed(0)} eval/s`,
+    `${(1000 / evP.perCallMs).toFixed(0)} eval/s`,
+    (evA.perCallMs / evP.perCallMs).toFixed(2),
+  ],
+  ["sweep, 200 points × 20 classes × 4 levels", `${swA.perCallMs.toFixed(2)} ms`, `${swP.perCallMs.toFixed(2)} ms`, (swA.perCallMs / swP.perCallMs).toFixed(2)],
+];
+const accHead = ["work", "accurate tables (default)", "published forms", "accurate/published"];
+const accWidths = accHead.map((h, i) => Math.max(h.length, ...accRows.map((r) => r[i]!.length)));
+console.log(accHead.map((h, i) => h.padEnd(accWidths[i]!)).join(" | "));
+console.log(accWidths.map((w) => "-".repeat(w)).join("-|-"));
+for (const r of accRows) console.log(r.map((c, i) => (i === 0 ? c.padEnd(accWidths[i]!) : c.padStart(accWidths[i]!))).join(" | "));
 console.log("");
 const field = await benchField();
 for (const line of field.lines) console.log(line);

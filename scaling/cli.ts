@@ -74,7 +74,8 @@ Commands:
 
 delay takes [--model exact|sakurai] (default exact: the tabulated exact solution; sakurai: the closed form).
 The technology JSON (--technology) lays its fields over the default technology: supplyV, clockHz, repeaterR0Ohm,
-repeaterC0F, delayBudgetS, and (engine 2) delayModel ("exact"|"sakurai"), temperatureC (default 25), minRepeaterGain
+repeaterC0F, delayBudgetS, and (engine 2) delayModel ("exact"|"sakurai"), capacitanceModel ("accurate", the default:
+our field solver's tables at levels coupled and full; "published": Sakurai–Tamaru / Cohn), temperatureC (default 25), minRepeaterGain
 (default 0.1), repeaterOutputCRatio (default 0.5), repeaterAreaM2 (default 1e-13), repeaterLeakageW (default 0),
 materials ({ "Cu": { "specularity": 0.2, ... } }). The baseline CSV may carry the optional columns vias_per_net,
 via_ohm, via_width_nm, via_height_nm, and k_gap, gap_fraction (an air gap between the lines).
@@ -84,8 +85,9 @@ viaOhm, temperatureC, besides the line's R, C, delays, energy and power (repeate
 
 Values: SI-prefixed units (20nm, 0.02um, 1.5fF, 2kohm, 10ps) or bare SI numbers (2e-8).
 Options: --json (only JSON on standard output), --help.
-Without --model each command uses its most accurate closed form (capacitance: coupled with --spacing, else fringe;
-evaluate: full). Results are first-order planning estimates, not sign-off.`;
+Without --model each command uses its most accurate model (capacitance: accurate with --spacing, else fringe;
+evaluate: full, with the accurate tables unless the technology JSON says capacitanceModel "published").
+Results are first-order planning estimates, not sign-off.`;
 
 function q(values: Record<string, unknown>, name: string, unit: BaseUnit, what: string): number | undefined {
   const v = values[name];
@@ -396,6 +398,7 @@ function summary(r: ClassResult) {
       couplingMillerFPerM: r.capacitance.couplingMillerFPerM,
       couplingEachFPerM: r.capacitance.couplingEachFPerM,
       model: r.capacitance.model,
+      effectiveK: r.capacitance.effectiveK,
     },
     rOhm: r.rOhm,
     cF: r.cF,

@@ -184,6 +184,7 @@ function describeTechnologyChange(before: Technology, after: Technology): string
     repeaterC0F: "repeater C0",
     delayBudgetS: "delay budget",
     delayModel: "delay model",
+    capacitanceModel: "capacitance model",
     temperatureC: "temperature",
     minRepeaterGain: "minimum repeater gain",
     repeaterOutputCRatio: "repeater output-capacitance ratio",

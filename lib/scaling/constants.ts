@@ -32,5 +32,7 @@ export const REPEATER_B = SAKURAI_DISTRIBUTED_COEFF;
  * leakage; operating temperature; per-metal overrides; vias; validity flags on sweep points.
  * 2.1.0: one name per coupling part: couplingEachFPerM (Maxwell, one neighbour) and couplingMillerFPerM (Miller ×
  * both neighbours); couplingFPerM and couplingPerNeighbourFPerM are gone (old reports read with the new names).
+ * 2.2.0: levels coupled and full take the accurate capacitance tables (our field solver, within 1%) unless the
+ * technology's capacitanceModel is "published"; air gaps as geometry; capacitance.effectiveK at Miller 0, 1 and 2.
  */
-export const ENGINE_VERSION = "2.1.0";
+export const ENGINE_VERSION = "2.2.0";

@@ -4,7 +4,7 @@
  */
 import { getMetal, type Metal } from "./materials";
 import { accurateCapacitanceInto } from "./cap-accurate";
-import { CAPACITANCE_ACCURACY, closedForm, closedFormFlags, type Split } from "./capacitance";
+import { ACCURATE_ACCURACY_AIR_GAP, ACCURATE_ACCURACY_HOMOGENEOUS, CAPACITANCE_ACCURACY, closedForm, closedFormFlags, type Split } from "./capacitance";
 import { ENGINE_VERSION, EPSILON_0_F_PER_M, REPEATER_A, REPEATER_B } from "./constants";
 import { stageT50 } from "./delay";
 import { lineDelayUnchecked } from "./delay";
@@ -30,11 +30,12 @@ import {
 } from "./resistance";
 import type {
   CapacitanceModel,
-  CapacitanceParts,
+  ClassCapacitance,
   ClassComparison,
   ClassOverride,
   ClassResult,
   DelayModel,
+  EffectiveK,
   Evaluation,
   EvaluationTotals,
   LengthBin,
@@ -45,6 +46,7 @@ import type {
   ValidityFlag,
   WireClass,
 } from "./types";
+import { DELAY_MODELS, MODEL_LEVELS } from "./types";
 import { newScaledClass, scaleClassWith, type ScaledClass } from "./scale";
 import { checkSettings, checkTechnology, checkWireClass, dedupeFlags } from "./validity";
 
@@ -83,27 +85,38 @@ const DELAY_ACCURACY = {
   },
 } as const;
 
-function accuracyFor(level: ModelLevel, twoPlanes: boolean, model: DelayModel, airGap = false): Record<string, string> {
-  const cap = CAPACITANCE_ACCURACY[CAP_MODEL[level]];
+/** The capacitance accuracy statement of one capacitance kind, plane count and gap (evaluateClassCore's `accuracy`). */
+function capacitanceAccuracy(kind: CapKind, twoPlanes: boolean, airGap: boolean): string {
+  const planes = twoPlanes ? "planes below and above" : "one plane";
+  if (kind === "accurate")
+    return airGap
+      ? `accurate tables, ${planes}, air gap between the lines as geometry: ${ACCURATE_ACCURACY_AIR_GAP}`
+      : `accurate tables, ${planes}: ${ACCURATE_ACCURACY_HOMOGENEOUS}`;
+  const cap = CAPACITANCE_ACCURACY[kind];
+  return twoPlanes && kind !== "ideal" ? `${cap}; two planes: Cohn's thick strip with the fitted two-plane split` : cap;
+}
+
+const CAP_KINDS: readonly CapKind[] = ["ideal", "fringe", "coupled", "accurate"];
+
+function accuracyFor(level: ModelLevel, kind: CapKind, twoPlanes: boolean, model: DelayModel, airGap: boolean): Record<string, string> {
   return {
-    capacitance: airGap
-      ? `air gap between the lines as geometry: ${CAPACITANCE_ACCURACY.accurate}`
-      : twoPlanes && level !== "ideal"
-        ? `${cap}; two planes: Cohn's thick strip with the fitted two-plane split`
-        : cap,
+    capacitance: capacitanceAccuracy(kind, twoPlanes, airGap),
     resistivity: level === "full" ? RESISTIVITY_ACCURACY.sizeEffect : RESISTIVITY_ACCURACY.bulk,
     delay: `${model}: ${level === "ideal" ? DELAY_ACCURACY[model].ideal : DELAY_ACCURACY[model].other}`,
     repeaters: `${REPEATED_NET_ACCURACY}; stage delays: ${model}`,
   };
 }
 
-// Shared, frozen accuracy records (one per level, plane count and delay model) keep the hot path free of allocations.
+// Shared, frozen accuracy records (one per level, capacitance kind, plane count, gap and delay model) keep the hot path
+// free of allocations.
 const ACCURACY: Record<string, Readonly<Record<string, string>>> = {};
-for (const level of ["ideal", "fringe", "coupled", "full"] as const) {
-  for (const two of [false, true])
-    for (const m of ["exact", "sakurai"] as const) ACCURACY[`${level}|${two ? 2 : 1}|${m}`] = Object.freeze(accuracyFor(level, two, m));
-  for (const m of ["exact", "sakurai"] as const) ACCURACY[`${level}|gap|${m}`] = Object.freeze(accuracyFor(level, false, m, true));
-}
+const accuracyKey = (level: ModelLevel, kind: CapKind, two: boolean, gap: boolean, m: DelayModel) =>
+  `${level}|${kind}|${two ? 2 : 1}|${gap ? "gap" : "-"}|${m}`;
+for (const level of MODEL_LEVELS)
+  for (const kind of CAP_KINDS)
+    for (const two of [false, true])
+      for (const gap of [false, true])
+        for (const m of DELAY_MODELS) ACCURACY[accuracyKey(level, kind, two, gap, m)] = Object.freeze(accuracyFor(level, kind, two, m, gap));
 
 /**
  * Evaluates one class at one scenario. Level `ideal`: parallel plate, bulk resistivity, barrier scaled with S,
@@ -150,6 +163,8 @@ interface Electrical {
   gamma: number;
   minGain: number;
   split: Split;
+  /** The capacitance the class takes at this level (capKindOf). */
+  capKind: CapKind;
   /** What `metal` was last computed from (metalAtInto is skipped when unchanged; always redone with an override). */
   mBase: Metal | null;
   mOverride: MetalOverride | undefined;
@@ -158,7 +173,7 @@ interface Electrical {
    * The inputs of the closed forms that `split` holds (capacitanceInto skips closedForm when they repeat: a sweep's
    * levels coupled and full use the same model on the same geometry). cH2 = −1 for no second plane.
    */
-  cModel: ClosedFormModel | "";
+  cModel: CapKind | "";
   cEps: number;
   cW: number;
   cT: number;
@@ -190,6 +205,7 @@ function newElectrical(): Electrical {
     gamma: DEFAULT_OUTPUT_C_RATIO,
     minGain: DEFAULT_MIN_REPEATER_GAIN,
     split: { area: 0, ground: 0, couple: 0 },
+    capKind: "ideal",
     mBase: null,
     mOverride: undefined,
     mTemp: Number.NaN,
@@ -214,7 +230,7 @@ function newElectrical(): Electrical {
  */
 function capacitanceInto(
   e: Electrical,
-  model: ClosedFormModel,
+  model: CapKind,
   eps: number,
   w: number,
   t: number,
@@ -239,8 +255,8 @@ function capacitanceInto(
     gapF === e.cGapF
   )
     return;
-  // an air gap between the lines is geometry: the accurate tables compute ground and coupling with it (cap-accurate.ts)
-  if (model === "coupled" && kGap < k && gapF > 0) accurateCapacitanceInto(w, t, sp, h, h2, k, kGap, gapF, e.split, null);
+  // the accurate tables (cap-accurate.ts) compute ground and coupling, with an air gap between the lines as geometry
+  if (model === "accurate") accurateCapacitanceInto(w, t, sp, h, h2, k, kGap, gapF, e.split, null);
   else closedForm(model, eps, w, t, sp, h, h2, e.split);
   e.cK = k;
   e.cKGap = kGap;
@@ -281,19 +297,8 @@ function electricalInto(wc: WireClass, tech: Technology, settings: ScenarioSetti
   }
   const metal = e.metal;
   // a lone plane above is treated as the plane (mirror symmetry)
-  capacitanceInto(
-    e,
-    CAP_MODEL[level] as ClosedFormModel,
-    EPSILON_0_F_PER_M * g.k,
-    w,
-    t,
-    g.spacingM,
-    hb ?? (ha as number),
-    hb === null ? null : ha,
-    g.k,
-    g.kGap,
-    g.gapFraction,
-  );
+  e.capKind = capKindOf(level, tech, g);
+  capacitanceInto(e, e.capKind, EPSILON_0_F_PER_M * g.k, w, t, g.spacingM, hb ?? (ha as number), hb === null ? null : ha, g.k, g.kGap, g.gapFraction);
   const wCond = w - 2 * bar;
   const hCond = t - bar;
   if (!(wCond > 0 && hCond > 0)) {
@@ -339,6 +344,18 @@ function viasOhm(wc: WireClass, g: ScaledClass, metal: Metal, sizeEffects: boole
 }
 
 type ClosedFormModel = "ideal" | "fringe" | "coupled";
+/** The capacitance a class takes: a closed form, or the accurate tables. */
+type CapKind = ClosedFormModel | "accurate";
+
+/**
+ * Levels coupled and full take the accurate tables unless the technology chooses the published forms
+ * (capacitanceModel "published"); a class with an air gap always takes them (the published forms have no gap layer).
+ */
+function capKindOf(level: ModelLevel, tech: Technology, g: ScaledClass): CapKind {
+  const m = CAP_MODEL[level] as ClosedFormModel;
+  if (m !== "coupled") return m;
+  return (tech.capacitanceModel ?? "accurate") === "accurate" || hasAirGap(g) ? "accurate" : "coupled";
+}
 
 /**
  * The validity flags of the models electricalInto used for `e` (once per class result or sweep point). With `reuse`
@@ -354,7 +371,7 @@ function validityInto(level: ModelLevel, e: Electrical, validity: ValidityFlag[]
     for (let i = 0; i < n; i++) validity.push(e.cFlags[i]!);
   } else {
     const start = validity.length;
-    if (hasAirGap(level, g))
+    if (e.capKind === "accurate")
       accurateCapacitanceInto(
         g.widthM,
         g.thicknessM,
@@ -367,7 +384,7 @@ function validityInto(level: ModelLevel, e: Electrical, validity: ValidityFlag[]
         FLAG_SPLIT,
         validity,
       );
-    else closedFormFlags(CAP_MODEL[level] as ClosedFormModel, g.widthM, g.thicknessM, g.spacingM, hb ?? (ha as number), hb === null ? null : ha, validity);
+    else closedFormFlags(e.capKind, g.widthM, g.thicknessM, g.spacingM, hb ?? (ha as number), hb === null ? null : ha, validity);
     if (reuse) {
       const count = validity.length - start;
       for (let i = 0; i < count; i++) e.cFlags[i] = validity[start + i]!;
@@ -378,13 +395,34 @@ function validityInto(level: ModelLevel, e: Electrical, validity: ValidityFlag[]
   temperatureFlags(e.tempC, validity);
 }
 
-/** True when the class's capacitance comes from the accurate tables with its air gap (levels coupled and full). */
-function hasAirGap(level: ModelLevel, g: ScaledClass): boolean {
-  return CAP_MODEL[level] === "coupled" && g.kGap < g.k && g.gapFraction > 0;
+/** True when the scaled class has an air gap (a gap layer of lower k over some of the line's thickness). */
+function hasAirGap(g: ScaledClass): boolean {
+  return g.kGap < g.k && g.gapFraction > 0;
 }
 
 /** Scratch output of the flag pass of the accurate tables (the values are e.split's already). */
 const FLAG_SPLIT: Split = { area: 0, ground: 0, couple: 0 };
+
+/** Scratch output of the homogeneous solve behind effectiveKOf. */
+const HOMOGENEOUS_SPLIT: Split = { area: 0, ground: 0, couple: 0 };
+
+/**
+ * The uniform k giving the same total as `e.split` at Miller 0, 1 and 2: k × C(gap) / C(k everywhere), the
+ * denominator from the same tables without the gap layer. Exactly k without an air gap (or when the tables do not
+ * apply: the published forms ignore the gap).
+ */
+function effectiveKOf(e: Electrical): EffectiveK {
+  const g = e.g;
+  const k = g.k;
+  if (e.capKind !== "accurate" || !hasAirGap(g)) return { miller0: k, miller1: k, miller2: k };
+  const hb = g.ildBelowM;
+  const ha = g.ildAboveM;
+  const h0 = HOMOGENEOUS_SPLIT;
+  accurateCapacitanceInto(g.widthM, g.thicknessM, g.spacingM, hb ?? (ha as number), hb === null ? null : ha, k, k, 0, h0, null);
+  const s = e.split;
+  const at = (m: number) => (k * (s.ground + 2 * m * s.couple)) / (h0.ground + 2 * m * h0.couple);
+  return { miller0: at(0), miller1: at(1), miller2: at(2) };
+}
 
 /** Default area of a minimum repeater, m²: 0.1 µm² (invented, no source). */
 export const DEFAULT_REPEATER_AREA_M2 = 0.1e-12;
@@ -440,13 +478,14 @@ export function evaluateClassCore(
   const g = e.g;
   const sp = e.split;
   const millerC = 2 * g.miller * sp.couple;
-  const cap: CapacitanceParts = {
+  const cap: ClassCapacitance = {
     areaFPerM: sp.area,
     fringeFPerM: sp.ground - sp.area,
     couplingMillerFPerM: millerC,
     couplingEachFPerM: sp.couple,
     totalFPerM: e.cPerM,
-    model: hasAirGap(level, g) ? "accurate" : CAP_MODEL[level],
+    model: e.capKind,
+    effectiveK: effectiveKOf(e),
   };
   const L = g.lengthM;
   const rPerM = e.rPerM;
@@ -558,7 +597,7 @@ export function evaluateClassCore(
     repeaterPowerW,
     distribution,
     validity: dedupeFlags(validity),
-    accuracy: ACCURACY[`${level}|${hasAirGap(level, g) ? "gap" : twoPlanes ? 2 : 1}|${model}`] as Record<string, string>,
+    accuracy: ACCURACY[accuracyKey(level, e.capKind, twoPlanes, e.capKind === "accurate" && hasAirGap(g), model)] as Record<string, string>,
   };
 }
 

@@ -87,6 +87,15 @@ export interface AirGap {
 export type DelayModel = "exact" | "sakurai";
 export const DELAY_MODELS: readonly DelayModel[] = ["exact", "sakurai"];
 
+/**
+ * Capacitance at levels coupled and full (technology `capacitanceModel`, default "accurate"): the tables of our own
+ * field solver (cap-accurate.ts, within 1% of it; published forms with a flag outside their range), or the published
+ * closed forms (Sakurai–Tamaru one plane, Cohn two planes). A class with an air gap always takes the tables: the
+ * published forms have no gap layer.
+ */
+export type CapacitanceChoice = "accurate" | "published";
+export const CAPACITANCE_CHOICES: readonly CapacitanceChoice[] = ["accurate", "published"];
+
 /** Per-metal overrides of the materials catalogue (SI units), e.g. from fitSizeEffect. */
 export interface MetalOverride {
   /** Bulk resistivity at 20 °C, Ω·m. */
@@ -115,6 +124,8 @@ export interface Technology {
   delayBudgetS: number;
   /** Delay model of stages and unrepeated nets (default "exact"). */
   delayModel?: DelayModel;
+  /** Capacitance at levels coupled and full (default "accurate": the field-solver tables). */
+  capacitanceModel?: CapacitanceChoice;
   /** Operating temperature of the wiring, °C (default 25), from −273.15 to 400. */
   temperatureC?: number;
   /** Repeaters are inserted only when they cut a net's delay by at least this share (default 0.10), 0 ≤ g < 1. */
@@ -203,6 +214,22 @@ export interface CapacitanceParts {
   model: CapacitanceModel;
 }
 
+/** A class result's capacitance: the parts, and the effective k they amount to. */
+export interface ClassCapacitance extends CapacitanceParts {
+  /**
+   * The one uniform k that would give the same total at Miller factor 0, 1 and 2 (derived: k × C / C with the ILD's k
+   * everywhere). Equal to the class's k without an air gap; with one, ground and coupling fall by different shares.
+   */
+  effectiveK: EffectiveK;
+}
+
+/** Derived effective dielectric constant at Miller factors 0, 1 and 2 (see CapacitanceParts.effectiveK). */
+export interface EffectiveK {
+  miller0: number;
+  miller1: number;
+  miller2: number;
+}
+
 export interface RepeaterResult {
   /** Inserted repeaters k ≥ 0 of the net at the class's length (real driver → k repeaters → real load). */
   inserted: number;
@@ -270,7 +297,7 @@ export interface ClassResult {
   /** Effective resistivity (bulk or with size effects). */
   resistivityOhmM: number;
   rOhmPerM: number;
-  capacitance: CapacitanceParts;
+  capacitance: ClassCapacitance;
   cFPerM: number;
   /** Totals at the class's (mean) length. */
   rOhm: number;

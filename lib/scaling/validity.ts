@@ -71,6 +71,9 @@ export function checkTechnology(t: Technology): void {
   if (t.delayModel !== undefined && t.delayModel !== "exact" && t.delayModel !== "sakurai") {
     throw new RangeError(`delayModel must be exact or sakurai (got ${String(t.delayModel)})`);
   }
+  if (t.capacitanceModel !== undefined && t.capacitanceModel !== "accurate" && t.capacitanceModel !== "published") {
+    throw new RangeError(`capacitanceModel must be accurate or published (got ${String(t.capacitanceModel)})`);
+  }
   if (t.temperatureC !== undefined) inRange("temperatureC", t.temperatureC, -273.15, 400);
   if (t.minRepeaterGain !== undefined && !(t.minRepeaterGain >= 0 && t.minRepeaterGain < 1)) {
     throw new RangeError(`minRepeaterGain must be >= 0 and < 1 (got ${t.minRepeaterGain})`);

@@ -1,7 +1,20 @@
 import { z } from "zod";
-import { DELAY_MODELS, getMetal, METALS, type DelayModel, type MetalOverride, type Technology } from "@/lib/scaling";
+import {
+  CAPACITANCE_CHOICES,
+  DELAY_MODELS,
+  getMetal,
+  type CapacitanceChoice,
+  METALS,
+  type DelayModel,
+  type MetalOverride,
+  type Technology,
+} from "@/lib/scaling";
 import { mirrorOf } from "./mirror";
 import { quantity, wireClassListSchema } from "./wire-class";
+
+export const capacitanceModelSchema = z.enum(CAPACITANCE_CHOICES as [CapacitanceChoice, ...CapacitanceChoice[]], {
+  error: `Capacitance model must be one of ${CAPACITANCE_CHOICES.join(", ")}.`,
+});
 
 export const delayModelSchema = z.enum(DELAY_MODELS as [DelayModel, ...DelayModel[]], { error: `Delay model must be one of ${DELAY_MODELS.join(", ")}.` });
 
@@ -50,6 +63,7 @@ export const technologySchema = mirrorOf<Technology>()(
     delayBudgetS: quantity("Delay budget", "s", { min: 0, minExclusive: true, max: 1e-6, maxHint: "Delay budget must be at most 1 µs." }),
     // Engine 2 settings, all optional (absent = the engine's default); the ranges are the engine's own (checkTechnology).
     delayModel: delayModelSchema.optional(),
+    capacitanceModel: capacitanceModelSchema.optional(),
     temperatureC: quantity("Operating temperature", "", {
       min: -273.15,
       minExclusive: true,

@@ -1,17 +1,20 @@
 import { z } from "zod";
 import {
+  CAPACITANCE_CHOICES,
   DELAY_MODELS,
   MODEL_LEVELS,
   TIERS,
   type AirGap,
+  type CapacitanceChoice,
   type CapacitanceModel,
-  type CapacitanceParts,
+  type ClassCapacitance,
   type ClassComparison,
   type ClassOverride,
   type ClassRatio,
   type ClassResult,
   type DelayModel,
   type DistributionResult,
+  type EffectiveK,
   type Evaluation,
   type LengthBin,
   type MetalOverride,
@@ -146,6 +149,7 @@ export const technologySnapshotSchema = mirrorOf<Technology>()(
     repeaterC0F: num,
     delayBudgetS: num,
     delayModel: delayModel.optional(),
+    capacitanceModel: z.enum(CAPACITANCE_CHOICES as [CapacitanceChoice, ...CapacitanceChoice[]]).optional(),
     temperatureC: num.optional(),
     minRepeaterGain: num.optional(),
     repeaterOutputCRatio: num.optional(),
@@ -264,7 +268,8 @@ function renameOldCouplingFields(v: unknown): unknown {
 
 const capacitanceSchema = z.preprocess(
   renameOldCouplingFields,
-  mirrorOf<CapacitanceParts>()(
+  // effectiveK: engine 2.2 (reports frozen before it have none)
+  mirrorOf<OptionalFields<ClassCapacitance, "effectiveK">>()(
     z.object({
       areaFPerM: num,
       fringeFPerM: num,
@@ -272,6 +277,7 @@ const capacitanceSchema = z.preprocess(
       couplingEachFPerM: num,
       totalFPerM: num,
       model: z.enum(["ideal", "fringe", "coupled", "accurate", "field"] satisfies CapacitanceModel[]),
+      effectiveK: mirrorOf<EffectiveK>()(z.object({ miller0: num, miller1: num, miller2: num })).optional(),
     }),
   ),
 );

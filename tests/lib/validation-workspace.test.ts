@@ -291,6 +291,7 @@ describe("input schemas and the engine types", () => {
     const all: Required<Technology> = {
       ...technology,
       delayModel: "exact",
+      capacitanceModel: "published",
       temperatureC: 105,
       minRepeaterGain: 0.2,
       repeaterOutputCRatio: 0.4,

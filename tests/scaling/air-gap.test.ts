@@ -11,8 +11,24 @@ const two = testClass({ ildAboveM: 50e-9 });
 const coupled = (over: Partial<ScenarioSettings> = {}): ScenarioSettings => ({ ...baselineSettings("coupled", tech), ...over });
 
 describe("air gaps in the evaluation", () => {
-  it("a class without a gap keeps the published forms (nothing changes for existing baselines)", () => {
-    const r = evaluateClass({ wireClass: two, technology: tech, settings: coupled() });
+  it("a class without a gap takes the accurate tables by default, and the published forms when the technology chooses them", () => {
+    const acc = evaluateClass({ wireClass: two, technology: tech, settings: coupled() });
+    expect(acc.capacitance.model).toBe("accurate");
+    const tables = lineCapacitance({
+      widthM: 40e-9,
+      thicknessM: 80e-9,
+      spacingM: 40e-9,
+      heightBelowM: 50e-9,
+      heightAboveM: 50e-9,
+      k: 2.7,
+      miller: 1,
+      model: "accurate",
+    });
+    expect(acc.capacitance.couplingEachFPerM).toBe(tables.couplingEachFPerM);
+    expect(acc.cFPerM).toBe(tables.totalFPerM);
+    // without a gap the effective k is the class's k at every Miller factor
+    expect(acc.capacitance.effectiveK).toEqual({ miller0: 2.7, miller1: 2.7, miller2: 2.7 });
+    const r = evaluateClass({ wireClass: two, technology: { ...tech, capacitanceModel: "published" }, settings: coupled() });
     const ref = lineCapacitance({
       widthM: 40e-9,
       thicknessM: 80e-9,
@@ -72,18 +88,31 @@ describe("air gaps in the evaluation", () => {
     const couplingRatio = m0.couplingEachFPerM / h.couplingEachFPerM;
     expect(couplingRatio).toBeLessThan(0.75);
     expect(groundRatio).toBeGreaterThan(0.9);
+    // the derived effective k: k × C / C(homogeneous) at each Miller factor, falling as the coupling weighs more
+    const hg = h.areaFPerM + h.fringeFPerM;
+    const eff = m0.effectiveK;
+    expect(eff.miller0).toBeCloseTo(2.7 * groundRatio, 12);
+    expect(eff.miller2).toBeCloseTo((2.7 * (m0.areaFPerM + m0.fringeFPerM + 4 * m0.couplingEachFPerM)) / (hg + 4 * h.couplingEachFPerM), 12);
+    expect(eff.miller0).toBeGreaterThan(eff.miller1);
+    expect(eff.miller1).toBeGreaterThan(eff.miller2);
+    expect(eff.miller2).toBeGreaterThan(1);
   });
 
   it("the scenario's air gap applies to every class; a class override null removes it; kGap is held at the class's k", () => {
     const a = { ...two, name: "a" };
     const b = { ...two, name: "b" };
     const s = coupled({ airGap: { kGap: 1, gapFraction: 1 }, overrides: { b: { airGap: null } } });
-    const ev = evaluateScenario({ classes: [a, b], technology: tech, settings: s });
+    const ev = evaluateScenario({ classes: [a, b], technology: { ...tech, capacitanceModel: "published" }, settings: s });
+    // a gapped class takes the tables even when the technology chooses the published forms (they have no gap layer)
     expect(ev.classes[0]!.scenario.capacitance.model).toBe("accurate");
     expect(ev.classes[1]!.scenario.capacitance.model).toBe("coupled");
     expect(ev.classes[0]!.scenario.cFPerM).toBeLessThan(ev.classes[1]!.scenario.cFPerM);
     // a scenario k of 1 (air everywhere) leaves no gap to speak of: kGap is held at k = 1, the published forms apply
-    const air = evaluateScenario({ classes: [a], technology: tech, settings: coupled({ k: 1, airGap: { kGap: 1, gapFraction: 1 } }) });
+    const air = evaluateScenario({
+      classes: [a],
+      technology: { ...tech, capacitanceModel: "published" },
+      settings: coupled({ k: 1, airGap: { kGap: 1, gapFraction: 1 } }),
+    });
     expect(air.classes[0]!.scenario.capacitance.model).toBe("coupled");
   });
 

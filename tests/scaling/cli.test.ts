@@ -168,7 +168,7 @@ describe("engine 2 on the command line", () => {
   };
   it("evaluate --json: the stable per-class repeater, via and temperature fields", () => {
     const j = JSON.parse(run(["evaluate", "--baseline", BASE, "--s", "1.43", "--json"]).stdout);
-    expect(j.engineVersion).toBe("2.1.0");
+    expect(j.engineVersion).toBe("2.2.0");
     for (const c of j.classes) {
       for (const side of [c.baseline, c.scenario]) {
         for (const k of ["repeaterCount", "repeaterSize", "repeatedDelayS", "stageCount", "repeaterAreaM2", "repeaterEnergyJ", "viaOhm", "temperatureC"])

@@ -121,7 +121,7 @@ describe("evaluateScenario on the Skua demo", () => {
   it("baseline uses the scenario's level and Miller factor", () => {
     const ev = evaluateScenario({ classes, technology: techJ, settings: at("coupled", { s: 1.4, miller: 2 }) });
     const b = ev.classes[0]!.baseline;
-    expect(b.capacitance.model).toBe("coupled");
+    expect(b.capacitance.model).toBe("accurate");
     expectClose(b.capacitance.couplingMillerFPerM, 4 * b.capacitance.couplingEachFPerM, 1e-12);
   });
 });
