@@ -50,5 +50,32 @@ export default defineConfig([
       ],
     },
   },
+  {
+    // The browser's main thread takes engine values only from the light entry (lib/scaling/client.ts): the evaluating
+    // half and its capacitance tables load in the editor's Web Worker (engine-worker.ts), keeping first-load JS small.
+    files: ["components/**/*.ts", "components/**/*.tsx", "lib/validation/**/*.ts", "lib/import/**/*.ts"],
+    ignores: ["components/workspace/engine-worker.ts"],
+    rules: {
+      "no-restricted-imports": [
+        "error",
+        {
+          paths: [
+            {
+              name: "@/lib/scaling",
+              allowTypeImports: true,
+              message: 'Import engine values from "@/lib/scaling/client" here (evaluation runs in the Web Worker); types may come from "@/lib/scaling".',
+            },
+          ],
+          patterns: [
+            {
+              group: ["@/lib/scaling/*", "!@/lib/scaling/client", "!@/lib/scaling/types"],
+              allowTypeImports: true,
+              message: 'Import engine values from "@/lib/scaling/client" here.',
+            },
+          ],
+        },
+      ],
+    },
+  },
   globalIgnores([".next*/**", "node_modules/**", "data/**", "tmp/**", ".bench/**", "next-env.d.ts", "public/**", "test-results/**"]),
 ]);

@@ -59,7 +59,8 @@ Commands:
                [--k-gap KG] [--gap-fraction F] [--model ideal|fringe|coupled|accurate|field]
                capacitance per length of one line (default model: accurate with --spacing, else fringe);
                --k is the dielectric everywhere except the gap between the lines (--k-gap, from the bottom of
-               the lines up to F × T, default F = 1)
+               the lines up to F × T, default F = 1); with --model field also [--cap-thickness C] [--cap-k KC]:
+               a cap layer of thickness C (≤ --height-above) and permittivity KC (default --k) on the lines
   delay        --r-total R --c-total C [--driver RD] [--load CL]   50% step delay and Elmore delay
   evaluate     --baseline classes.csv --s S [--sl 1] [--model ideal|fringe|coupled|full] [--histograms h.csv]
                [--technology t.json] [--miller M] [--k K] [--metal Cu] [--barrier fixed|scales]
@@ -201,6 +202,8 @@ function capacitanceCmd(argv: string[]): CliResult {
     k: { type: "string" },
     "k-gap": { type: "string" },
     "gap-fraction": { type: "string" },
+    "cap-thickness": { type: "string" },
+    "cap-k": { type: "string" },
     miller: { type: "string" },
     model: { type: "string" },
   });
@@ -231,6 +234,18 @@ function capacitanceCmd(argv: string[]): CliResult {
   const model = (v.model as string | undefined) ?? (spacing !== undefined ? "accurate" : "fringe");
   if (!["ideal", "fringe", "coupled", "accurate", "field"].includes(model))
     throw new UsageError(`--model: expected ideal, fringe, coupled, accurate or field, got "${model}"`);
+  // a cap layer on the lines and gaps: only the field solve models it
+  const capThicknessM = q(v, "cap-thickness", "m", LEN);
+  const capK = q(v, "cap-k", "", NUMS("a relative permittivity >= 1"));
+  if ((capThicknessM !== undefined || capK !== undefined) && model !== "field")
+    throw new UsageError(`--cap-thickness and --cap-k need --model field (the ${model} model has no cap layer)`);
+  if (capThicknessM !== undefined) {
+    if (!(capThicknessM >= 0)) throw new UsageError(`--cap-thickness: expected a thickness >= 0, got ${capThicknessM}`);
+    if (above === undefined) throw new UsageError("--cap-thickness needs --height-above (the cap sits in the ILD above the lines)");
+    if (capThicknessM > above)
+      throw new UsageError(`--cap-thickness: the cap layer (${capThicknessM} m) is thicker than the ILD above the lines (--height-above ${above} m)`);
+  }
+  if (capK !== undefined && !(capK >= 1)) throw new UsageError(`--cap-k: expected a relative permittivity >= 1, got ${capK}`);
   const r = lineCapacitance({
     widthM,
     thicknessM,
@@ -240,6 +255,8 @@ function capacitanceCmd(argv: string[]): CliResult {
     k,
     ...(kGap !== undefined ? { kGap } : {}),
     ...(gapFraction !== undefined ? { gapFraction } : {}),
+    ...(capThicknessM !== undefined ? { capThicknessM } : {}),
+    ...(capK !== undefined ? { capK } : {}),
     miller,
     model: model as CapacitanceModel,
   });

@@ -138,6 +138,7 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
   const first = f.options[0]!;
   const flags = validityFlags(f);
   const models = modelsUsed(f);
+  const classCount = f.options[0]?.evaluation.classes.length ?? 0;
   const materials = materialSources(f);
   const metricRows = f.metrics.flatMap((m) => METRIC_ROWS[m]);
   return (
@@ -344,7 +345,7 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
             rowClassName="border-b border-rule-strong text-left text-muted"
             cell="py-1 pr-2"
             lastCell="py-1"
-            columns={["Quantity", { label: "Model and published source", className: "w-[42%]" }, "Stated accuracy", "Options"]}
+            columns={["Quantity", { label: "Model and published source", className: "w-[42%]" }, "Stated accuracy", "Used by (option: classes)"]}
           />
           <tbody>
             {models.map((m) => (
@@ -365,7 +366,18 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
                     ))}
                   </ul>
                 </td>
-                <td className="py-1.5 whitespace-nowrap text-muted">{m.usedBy.map((u) => u.replace("Option ", "")).join(", ")}</td>
+                <td className="py-1.5 text-muted" data-testid="model-used-by">
+                  {m.usedBy.map((u) => {
+                    const classes = m.classesByOption[u] ?? [];
+                    const all = classes.length === classCount;
+                    return (
+                      <div key={u} className="whitespace-nowrap">
+                        {u.replace("Option ", "")}
+                        {all ? "" : `: ${classes.join(", ")}`}
+                      </div>
+                    );
+                  })}
+                </td>
               </tr>
             ))}
           </tbody>

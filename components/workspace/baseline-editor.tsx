@@ -14,11 +14,12 @@ import {
   DEFAULT_TEMPERATURE_C,
   METALS,
   TIERS,
+  type CapacitanceChoice,
   type DelayModel,
   type Technology,
   type Tier,
   type WireClass,
-} from "@/lib/scaling";
+} from "@/lib/scaling/client";
 import { ApiRequestError, apiSend, errorMessage, fetchJson, staleVersionOf } from "@/lib/api-client";
 import { swrKeys } from "@/lib/swr-keys";
 import { Button, ButtonLink } from "@/components/ui/button";
@@ -26,7 +27,7 @@ import { Badge, Card, Notice } from "@/components/ui/card";
 import { inputClass } from "@/components/ui/field";
 import { MaterialsPanel } from "./materials-panel";
 import { NumberField } from "./number-field";
-import { U, formatValue, parseValue, type DisplayUnit } from "./units";
+import { CAPACITANCE_CHOICE_LABEL, U, formatValue, parseValue, type DisplayUnit } from "./units";
 import { ConfirmDelete } from "@/components/ui/confirm-delete";
 
 type NumKey =
@@ -328,7 +329,7 @@ export function BaselineEditor({
     return out;
   };
   const tech = meta.technology;
-  const setTech = (k: keyof Technology, v: number | DelayModel) => setMeta((m) => ({ ...m, technology: { ...m.technology, [k]: v } }));
+  const setTech = (k: keyof Technology, v: number | DelayModel | CapacitanceChoice) => setMeta((m) => ({ ...m, technology: { ...m.technology, [k]: v } }));
   // Engine 2 settings: absent = the engine's default, shown as such; a field is stored once it is edited.
   const gainPct = toDisplay(tech.minRepeaterGain ?? DEFAULT_MIN_REPEATER_GAIN, 0.01);
   const areaUm2 = toDisplay(tech.repeaterAreaM2 ?? DEFAULT_REPEATER_AREA_M2, 1e-12);
@@ -469,6 +470,7 @@ export function BaselineEditor({
             <>
               <Fact label="Temperature" value={`${formatValue(tech.temperatureC ?? DEFAULT_TEMPERATURE_C, U.none)} °C`} />
               <Fact label="Delay model" value={DELAY_MODEL_LABEL[tech.delayModel ?? "exact"]} />
+              <Fact label="Capacitance model" value={CAPACITANCE_CHOICE_LABEL[tech.capacitanceModel ?? "accurate"]} />
               <Fact label="Minimum repeater gain" value={`${formatValue(gainPct, U.none)} %`} />
               <Fact label="Repeater output-C ratio γ" value={formatValue(tech.repeaterOutputCRatio ?? DEFAULT_OUTPUT_C_RATIO, U.none)} />
               <Fact label="Minimum repeater area" value={`${formatValue(areaUm2, U.none)} µm²`} />
@@ -505,6 +507,26 @@ export function BaselineEditor({
                   Exact distributed line, or Sakurai&apos;s closed form (0–3% lower).
                 </p>
                 {techErr("delayModel") ? <p className="text-[11px] text-bad">{techErr("delayModel")!.join(" ")}</p> : null}
+              </div>
+              <div>
+                <label htmlFor="capacitance-model" className="mb-1 block text-xs font-medium text-ink">
+                  Capacitance model
+                </label>
+                <select
+                  id="capacitance-model"
+                  name="capacitanceModel"
+                  aria-describedby="capacitance-model-hint"
+                  className={inputClass}
+                  value={tech.capacitanceModel ?? "accurate"}
+                  onChange={(e) => setTech("capacitanceModel", e.target.value as CapacitanceChoice)}
+                >
+                  <option value="accurate">{CAPACITANCE_CHOICE_LABEL.accurate}</option>
+                  <option value="published">{CAPACITANCE_CHOICE_LABEL.published}</option>
+                </select>
+                <p id="capacitance-model-hint" className="mt-0.5 text-[11px] text-muted">
+                  At the coupled and full levels. Tables: within 1% of our field solver; published forms: 2–15% off. Air-gapped classes always use the tables.
+                </p>
+                {techErr("capacitanceModel") ? <p className="text-[11px] text-bad">{techErr("capacitanceModel")!.join(" ")}</p> : null}
               </div>
               <NumberField
                 label="Minimum repeater gain"

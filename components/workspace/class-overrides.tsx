@@ -1,6 +1,6 @@
 "use client";
 import { useState } from "react";
-import { METALS, type AirGap, type ClassOverride, type ScenarioSettings, type WireClass } from "@/lib/scaling";
+import { METALS, type AirGap, type ClassOverride, type ScenarioSettings, type WireClass } from "@/lib/scaling/client";
 import { inputClass } from "@/components/ui/field";
 import { DEFAULT_AIR_GAP, DielectricField, gapFractionCheck, kGapCheck } from "./settings-panel";
 import { formatValue, parseValue, U, type DisplayUnit } from "./units";

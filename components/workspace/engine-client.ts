@@ -1,6 +1,6 @@
 "use client";
-import type { FieldSolveResult, SweepCurve } from "@/lib/scaling";
-import type { FieldArgs, SweepArgs, WorkerRequest, WorkerResponse } from "./engine-protocol";
+import type { Evaluation, FieldSolveResult, SweepCurve } from "@/lib/scaling";
+import type { CapacitanceArgs, CapacitanceModels, EvaluateArgs, FieldArgs, SweepArgs, WorkerRequest, WorkerResponse } from "./engine-protocol";
 
 type Pending = {
   resolve: (v: unknown) => void;
@@ -12,7 +12,11 @@ type Pending = {
 /** Superseded by a newer sweep while queued: callers ignore it. */
 export class Superseded extends Error {}
 
-/** One Web Worker running the engine; requests are answered in order, sweeps coalesce. */
+/**
+ * One Web Worker running the engine; requests are answered in order, sweeps and evaluations coalesce (a newer one
+ * supersedes a queued one of the same kind). The engine (and its capacitance tables) loads only in workers: the
+ * main thread's bundle carries none of it.
+ */
 export class EngineWorker {
   private worker: Worker;
   private next = 1;
@@ -28,6 +32,8 @@ export class EngineWorker {
       this.pending.delete(msg.id);
       if (msg.kind === "sweep") p.resolve(p.withReference ? { curves: msg.curves, reference: msg.reference ?? [] } : msg.curves);
       else if (msg.kind === "field") p.resolve(msg.result);
+      else if (msg.kind === "evaluate") p.resolve(msg.evaluation);
+      else if (msg.kind === "capacitance") p.resolve(msg.models);
       else if (msg.kind === "superseded") p.reject(new Superseded("superseded"));
       else p.reject(new Error(msg.message));
     };
@@ -52,6 +58,16 @@ export class EngineWorker {
   /** A sweep plus every curve's value at `args.referenceX` (the x of "relative to"). */
   sweepWithReference(args: SweepArgs & { referenceX: number }): Promise<{ curves: SweepCurve[]; reference: SweepCurve[] }> {
     return this.send({ kind: "sweep", args } as Omit<WorkerRequest, "id">, undefined, true);
+  }
+
+  /** evaluateScenario in the worker; a newer call supersedes a queued one (it rejects with Superseded). */
+  evaluate(args: EvaluateArgs): Promise<Evaluation> {
+    return this.send({ kind: "evaluate", args } as Omit<WorkerRequest, "id">);
+  }
+
+  /** The accurate tables and the published closed forms on one cross-section. */
+  capacitance(args: CapacitanceArgs): Promise<CapacitanceModels> {
+    return this.send({ kind: "capacitance", args } as Omit<WorkerRequest, "id">);
   }
 
   field(args: FieldArgs, onProgress?: (f: number) => void): Promise<FieldSolveResult> {

@@ -1,11 +1,13 @@
 /// <reference lib="webworker" />
-// The heavy engine work off the main thread: sweeps and the field check.
-import { fieldSolve, sweep, type FieldSolveInput } from "@/lib/scaling";
+// The engine off the main thread: evaluations, sweeps and the field check (the main thread's bundle carries no engine).
+import { evaluateScenario, fieldSolve, lineCapacitance, sweep, type FieldSolveInput } from "@/lib/scaling";
 import type { WorkerRequest, WorkerResponse } from "./engine-protocol";
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 let pendingSweep: Extract<WorkerRequest, { kind: "sweep" }> | null = null;
+let pendingEval: Extract<WorkerRequest, { kind: "evaluate" }> | null = null;
 let scheduled = false;
+let scheduledEval = false;
 
 function post(msg: WorkerResponse) {
   scope.postMessage(msg);
@@ -28,8 +30,41 @@ function runPendingSweep() {
   }
 }
 
+// Evaluations coalesce too: while a slider moves, only the newest queued one is computed.
+function runPendingEval() {
+  scheduledEval = false;
+  const req = pendingEval;
+  pendingEval = null;
+  if (!req) return;
+  try {
+    const t0 = performance.now();
+    const evaluation = evaluateScenario(req.args);
+    post({ id: req.id, kind: "evaluate", evaluation, elapsedMs: performance.now() - t0 });
+  } catch (e) {
+    post({ id: req.id, kind: "error", message: e instanceof Error ? e.message : String(e) });
+  }
+}
+
 scope.onmessage = (ev: MessageEvent<WorkerRequest>) => {
   const req = ev.data;
+  if (req.kind === "evaluate") {
+    if (pendingEval) post({ id: pendingEval.id, kind: "superseded" });
+    pendingEval = req;
+    if (!scheduledEval) {
+      scheduledEval = true;
+      setTimeout(runPendingEval, 0);
+    }
+    return;
+  }
+  if (req.kind === "capacitance") {
+    try {
+      const models = { accurate: lineCapacitance({ ...req.args, model: "accurate" }), published: lineCapacitance({ ...req.args, model: "coupled" }) };
+      post({ id: req.id, kind: "capacitance", models });
+    } catch (e) {
+      post({ id: req.id, kind: "error", message: e instanceof Error ? e.message : String(e) });
+    }
+    return;
+  }
   if (req.kind === "sweep") {
     if (pendingSweep) post({ id: pendingSweep.id, kind: "superseded" });
     pendingSweep = req;

@@ -1,12 +1,13 @@
 "use client";
 import { useEffect, useRef, useState } from "react";
-import { lineCapacitance, type ClassResult, type FieldSolveResult } from "@/lib/scaling";
+import type { ClassResult, FieldSolveResult } from "@/lib/scaling";
+import type { CapacitanceModels } from "./engine-protocol";
 import { Button } from "@/components/ui/button";
 import { inputClass } from "@/components/ui/field";
 import { Notice } from "@/components/ui/card";
 import { CrossSection } from "./cross-section";
 import { EngineWorker } from "./engine-client";
-import { fmt } from "./units";
+import { fmt, U } from "./units";
 
 const FF_PER_UM = { label: "fF/µm", unitSI: 1e-9, base: "" as const, suffix: "" };
 
@@ -15,7 +16,7 @@ export function FieldCheck({ results }: { results: ClassResult[] }) {
   const [name, setName] = useState(results[0]?.name ?? "");
   const [resolution, setResolution] = useState<"coarse" | "default" | "fine">("default");
   const [progress, setProgress] = useState<number | null>(null);
-  const [out, setOut] = useState<{ r: FieldSolveResult; cls: ClassResult } | null>(null);
+  const [out, setOut] = useState<{ r: FieldSolveResult; cls: ClassResult; models: CapacitanceModels } | null>(null);
   const [error, setError] = useState<string | null>(null);
   const worker = useRef<EngineWorker | null>(null);
   useEffect(() => () => worker.current?.terminate(), []);
@@ -30,20 +31,20 @@ export function FieldCheck({ results }: { results: ClassResult[] }) {
     setOut(null);
     setProgress(0);
     worker.current ??= new EngineWorker();
+    // the class's own cross-section, with its air gap between the lines when it has one
+    const section = {
+      widthM: cls.widthM,
+      thicknessM: cls.thicknessM,
+      spacingM: cls.spacingM,
+      heightBelowM: below,
+      heightAboveM: above,
+      k: cls.k,
+      ...(cls.airGap ? { kGap: cls.airGap.kGap, gapFraction: cls.airGap.gapFraction } : {}),
+    };
     try {
-      const r = await worker.current.field(
-        {
-          widthM: cls.widthM,
-          thicknessM: cls.thicknessM,
-          spacingM: cls.spacingM,
-          heightBelowM: below,
-          heightAboveM: above,
-          k: cls.k,
-          resolution,
-        },
-        (f) => setProgress(f),
-      );
-      setOut({ r, cls });
+      const r = await worker.current.field({ ...section, resolution }, (f) => setProgress(f));
+      const models = await worker.current.capacitance({ ...section, miller: 1 });
+      setOut({ r, cls, models });
     } catch (e) {
       setError(e instanceof Error ? e.message : String(e));
     } finally {
@@ -52,21 +53,8 @@ export function FieldCheck({ results }: { results: ClassResult[] }) {
   }
 
   // the two models the evaluation can use, on the same cross-section: the accurate tables and the published closed forms
-  const model = (m: "accurate" | "coupled") =>
-    out
-      ? lineCapacitance({
-          widthM: out.cls.widthM,
-          thicknessM: out.cls.thicknessM,
-          spacingM: out.cls.spacingM,
-          heightBelowM: out.cls.ildBelowM ?? out.cls.ildAboveM,
-          heightAboveM: out.cls.ildBelowM === null ? null : out.cls.ildAboveM,
-          k: out.cls.k,
-          miller: 1,
-          model: m,
-        })
-      : null;
-  const accurate = model("accurate");
-  const closed = model("coupled");
+  const accurate = out?.models.accurate ?? null;
+  const closed = out?.models.published ?? null;
   const parts = (c: NonNullable<typeof closed>) => [c.areaFPerM + c.fringeFPerM, c.couplingEachFPerM, c.areaFPerM + c.fringeFPerM + 2 * c.couplingEachFPerM];
   const rows =
     out && closed && accurate
@@ -119,8 +107,16 @@ export function FieldCheck({ results }: { results: ClassResult[] }) {
           heightBelowM={below ?? cls.thicknessM}
           heightAboveM={above}
           barrierM={cls.barrierM}
+          k={cls.k}
+          airGap={cls.airGap ?? null}
         />
-        <p className="max-w-[260px] text-[11px] text-muted">Scaled cross-section of the scenario, one dielectric k = {cls.k}. Neighbours are grounded.</p>
+        <p className="max-w-[260px] text-[11px] text-muted">
+          Scaled cross-section of the scenario: ILD k {fmt(cls.k, U.none, 3)}
+          {cls.airGap
+            ? `; between the lines, k ${fmt(cls.airGap.kGap, U.none, 3)} from their bottom up to ${fmt(100 * cls.airGap.gapFraction, U.none, 3)}% of their thickness (air gap)`
+            : ""}
+          . Neighbours are grounded.
+        </p>
       </div>
       <div>
         {progress !== null ? (
@@ -144,6 +140,7 @@ export function FieldCheck({ results }: { results: ClassResult[] }) {
             <table className="num w-full max-w-2xl text-xs">
               <caption className="mb-1 text-left text-xs font-semibold text-ink">
                 {out.cls.name}: numeric 2D solve vs the accurate tables and the published forms
+                {out.cls.airGap ? " (with its air gap)" : ""}
               </caption>
               <thead className="text-muted">
                 <tr className="border-b border-rule">
@@ -170,6 +167,20 @@ export function FieldCheck({ results }: { results: ClassResult[] }) {
             </table>
             <p className="mt-1 max-w-2xl text-[11px] text-muted">Accurate: {accurate?.accuracy}</p>
             <p className="mt-1 max-w-2xl text-[11px] text-muted">Published: {closed?.accuracy}</p>
+            {closed && closed.validity.length ? (
+              <ul className="mt-1 max-w-2xl text-[11px] text-warn">
+                {closed.validity.map((f, i) => (
+                  <li key={i}>⚠ Published: {f.message}</li>
+                ))}
+              </ul>
+            ) : null}
+            {accurate && accurate.validity.length ? (
+              <ul className="mt-1 max-w-2xl text-[11px] text-warn">
+                {accurate.validity.map((f, i) => (
+                  <li key={i}>⚠ Accurate: {f.message}</li>
+                ))}
+              </ul>
+            ) : null}
             <p className="mt-1 text-[11px] text-muted">
               {out.r.cells.toLocaleString("en")} cells, {out.r.iterations} iterations, residual {out.r.residual.toExponential(1)}, {Math.round(out.r.elapsedMs)}{" "}
               ms. Difference = the model relative to the numeric solve.

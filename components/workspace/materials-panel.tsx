@@ -1,16 +1,8 @@
 "use client";
 import Decimal from "decimal.js";
 import { useId, useState } from "react";
-import {
-  DEFAULT_TEMPERATURE_C,
-  METAL_PARAMETERS,
-  METALS,
-  metalAt,
-  type MetalOverride,
-  type SizeEffectFit,
-  type Technology,
-  type WireClass,
-} from "@/lib/scaling";
+import { DEFAULT_TEMPERATURE_C, METAL_PARAMETERS, METALS, metalAt, type MetalOverride, type Technology, type WireClass } from "@/lib/scaling/client";
+import type { SizeEffectFit } from "@/lib/scaling";
 import { ApiRequestError, apiSend, errorMessage } from "@/lib/api-client";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/card";

@@ -224,6 +224,7 @@ function ClassRows({ cc }: { cc: ClassComparison }) {
               ))}
             </ul>
           ) : null}
+          {s.airGap ? <AirGapLine r={s} /> : null}
           <details className="mt-0.5">
             <summary className="cursor-pointer select-none">Model accuracy (±)</summary>
             <dl className="mt-0.5 grid grid-cols-[5.5rem_1fr] gap-x-2">
@@ -244,6 +245,22 @@ function ClassRows({ cc }: { cc: ClassComparison }) {
         </td>
       </tr>
     </tbody>
+  );
+}
+
+/** An air-gapped class: its gap, and the one uniform k that would give the same C at Miller 0, 1 and 2 (derived). */
+function AirGapLine({ r }: { r: ClassResult }) {
+  const gap = r.airGap!;
+  const eff = r.capacitance.effectiveK;
+  return (
+    <p className="mt-0.5 text-ink" data-testid="effective-k">
+      Air gap between the lines: k<sub>gap</sub> {fmt(gap.kGap, U.none, 3)} over {fmt(100 * gap.gapFraction, U.none, 3)}% of the thickness, ILD k{" "}
+      {fmt(r.k, U.none, 3)} → effective k{" "}
+      <span className="tabular font-medium">
+        {fmt(eff.miller0, U.none, 3)} / {fmt(eff.miller1, U.none, 3)} / {fmt(eff.miller2, U.none, 3)}
+      </span>{" "}
+      at Miller 0 / 1 / 2 <span className="text-muted">(derived, not an input)</span>
+    </p>
   );
 }
 

@@ -7,7 +7,7 @@ import useSWR from "swr";
 import type { BaselineWithClasses } from "@/db/queries/baselines";
 import type { Role } from "@/lib/access";
 import type { Scenario, ScenarioRevision, ScenarioSummary } from "@/db/queries/scenarios";
-import { DEFAULT_TEMPERATURE_C, evaluateScenario, type Evaluation, type ScenarioSettings, type WireClass } from "@/lib/scaling";
+import { DEFAULT_TEMPERATURE_C, type Evaluation, type ScenarioSettings, type WireClass } from "@/lib/scaling/client";
 import { apiSend, errorMessage, fetchJson, staleVersionOf, ApiRequestError } from "@/lib/api-client";
 import { swrKeys } from "@/lib/swr-keys";
 import { Caution } from "@/components/caution";
@@ -20,6 +20,8 @@ import { RevisionHistory } from "./revision-history";
 import { LEVEL_LABEL, SettingsPanel } from "./settings-panel";
 import { SweepPanel, type SweepView } from "./sweep-panel";
 import { fmt, U } from "./units";
+import { keyOf } from "./settings-key";
+import { useEvaluation, type EvaluationState } from "./use-evaluation";
 import { ConfirmDelete } from "@/components/ui/confirm-delete";
 
 // Charts (visx) and the field check load in the browser after the first paint: the settings and the results
@@ -37,14 +39,6 @@ const FieldCheck = dynamic(() => import("./field-check").then((m) => m.FieldChec
 
 type Draft = { name: string; notes: string; settings: ScenarioSettings };
 
-/** Short stable key of the settings: table and chart carry it so tests (and people) can tell when both caught up. */
-function keyOf(s: ScenarioSettings): string {
-  const str = JSON.stringify(s);
-  let h = 2166136261;
-  for (let i = 0; i < str.length; i++) h = Math.imul(h ^ str.charCodeAt(i), 16777619);
-  return (h >>> 0).toString(36);
-}
-
 export function ScenarioEditor(props: {
   teamId: string;
   userId: string;
@@ -52,6 +46,8 @@ export function ScenarioEditor(props: {
   initialScenario: Scenario;
   initialBaseline: BaselineWithClasses;
   initialView: SweepView;
+  /** The server's evaluation of the saved settings (the worker evaluates every later change). */
+  initialEvaluation: EvaluationState;
 }) {
   const { teamId, role } = props;
   const router = useRouter();
@@ -100,13 +96,7 @@ export function ScenarioEditor(props: {
   }, []);
 
   const settingsKey = keyOf(draft.settings);
-  const evalResult = useMemo((): { ok: true; e: Evaluation } | { ok: false; message: string } => {
-    try {
-      return { ok: true, e: evaluateScenario({ classes, technology: baseline.technology, settings: draft.settings }) };
-    } catch (e) {
-      return { ok: false, message: e instanceof Error ? e.message : String(e) };
-    }
-  }, [classes, baseline.technology, draft.settings]);
+  const evalResult = useEvaluation(classes, baseline.technology, draft.settings, settingsKey, props.initialEvaluation);
 
   const [busy, setBusy] = useState(false);
   const [fieldErrors, setFieldErrors] = useState<Record<string, string[]>>({});
@@ -316,6 +306,8 @@ export function ScenarioEditor(props: {
               <dd className="tabular text-right">{fmt(baseline.technology.temperatureC ?? DEFAULT_TEMPERATURE_C, U.none)} °C</dd>
               <dt className="text-muted">Delay model</dt>
               <dd className="text-right">{(baseline.technology.delayModel ?? "exact") === "exact" ? "exact" : "Sakurai"}</dd>
+              <dt className="text-muted">Capacitance</dt>
+              <dd className="text-right">{(baseline.technology.capacitanceModel ?? "accurate") === "accurate" ? "field-solver tables" : "published forms"}</dd>
             </dl>
           </Card>
         </aside>
@@ -341,7 +333,7 @@ export function ScenarioEditor(props: {
             {evaluation ? (
               <>
                 <Totals e={evaluation} />
-                <ResultsTable evaluation={evaluation} dataKey={settingsKey} />
+                <ResultsTable evaluation={evaluation} dataKey={evalResult.key} />
               </>
             ) : (
               <Notice tone="bad">These settings cannot be evaluated: {evalResult.ok ? "" : evalResult.message}</Notice>

@@ -1,6 +1,6 @@
 "use client";
 import { useId, useState } from "react";
-import { DIELECTRICS, METALS, MODEL_LEVELS, sFromTargetPitch, type AirGap, type ModelLevel, type ScenarioSettings, type WireClass } from "@/lib/scaling";
+import { DIELECTRICS, METALS, MODEL_LEVELS, sFromTargetPitch, type AirGap, type ModelLevel, type ScenarioSettings, type WireClass } from "@/lib/scaling/client";
 import { inputClass } from "@/components/ui/field";
 import { NumberField } from "./number-field";
 import { U, formatValue, parseValue } from "./units";

@@ -1,5 +1,5 @@
 import Decimal from "decimal.js";
-import { parseQuantity, type BaseUnit } from "@/lib/scaling";
+import { parseQuantity, type BaseUnit, type CapacitanceChoice } from "@/lib/scaling/client";
 
 /** A column's display unit: SI size of one display unit, its label and the base unit for parsing. */
 export interface DisplayUnit {
@@ -79,3 +79,9 @@ export function fmtRatio(r: number): string {
   if (!Number.isFinite(r)) return "—";
   return `${new Decimal(r).toSignificantDigits(3).toFixed()}×`;
 }
+
+/** The technology's capacitance model (capacitanceModel) in words. */
+export const CAPACITANCE_CHOICE_LABEL: Record<CapacitanceChoice, string> = {
+  accurate: "Accurate (field-solver tables)",
+  published: "Published closed forms",
+};

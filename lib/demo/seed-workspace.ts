@@ -4,7 +4,7 @@ import type { Knex } from "knex";
 import { findBaselineIdByName, findScenarioIdByName } from "@/db/queries/demo";
 import { parseHistogramBins } from "@/lib/import/histograms";
 import { parseWireClassCsv } from "@/lib/import/wire-classes";
-import { DEFAULT_TECHNOLOGY, type ScenarioSettings, type Technology } from "@/lib/scaling";
+import { DEFAULT_TECHNOLOGY, type ScenarioSettings, type Technology } from "@/lib/scaling/client";
 import { createBaseline } from "@/db/writes/baselines";
 import { createScenario } from "@/db/writes/scenarios";
 import { scenarioSettingsSchema } from "@/lib/validation/scenario";

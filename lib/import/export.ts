@@ -3,7 +3,7 @@ import type { Knex } from "knex";
 import { classHistogram, classIdsAndNames } from "@/db/queries/import";
 import type { HistogramArrays } from "@/db/histogram-blob";
 import type { StoredWireClass } from "@/db/queries/wire-classes";
-import { formatScaled, WIRE_CLASS_COLUMNS, type ClassComparison, type Evaluation } from "@/lib/scaling";
+import { formatScaled, WIRE_CLASS_COLUMNS, type ClassComparison, type Evaluation } from "@/lib/scaling/client";
 import { csvLine } from "@/lib/csv-safe";
 
 /** Classes CSV in the import format (same columns and units), so an export re-imports unchanged. */

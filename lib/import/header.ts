@@ -1,4 +1,4 @@
-import { resolveHeader as resolveFormatHeader, type CsvFormat } from "@/lib/scaling";
+import { resolveHeader as resolveFormatHeader, type CsvFormat } from "@/lib/scaling/client";
 import { ImportFatalError } from "./types";
 
 /**

@@ -1,4 +1,4 @@
-import { formatScaled, HISTOGRAM_FORMAT, validateHistogramRow, type LengthBin } from "@/lib/scaling";
+import { formatScaled, HISTOGRAM_FORMAT, validateHistogramRow, type LengthBin } from "@/lib/scaling/client";
 import { readCsv, readCsvSync, type CsvConsumer, type CsvReadOptions, type CsvReadResult, type Delimiter } from "./csv-stream";
 import { resolveHeader, unneutralise } from "./header";
 import { HistogramAccumulator } from "./histogram-accumulator";

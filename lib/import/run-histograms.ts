@@ -8,7 +8,7 @@ import { HistogramAccumulator } from "./histogram-accumulator";
 import { parseHistogramCsv } from "./histograms";
 import { MAX_IMPORT_BYTES } from "./limits";
 import { nodeUtf8Decoder } from "./node-utf8";
-import { formatScaled } from "@/lib/scaling";
+import { formatScaled } from "@/lib/scaling/client";
 
 /** What a histogram import answers (the route sends it as JSON): per-class totals, warnings, and the new version once stored. */
 export type HistogramImportResult = Awaited<ReturnType<typeof runHistogramImport>>;

@@ -1,4 +1,4 @@
-import { DIELECTRICS, METALS, NM } from "@/lib/scaling";
+import { DIELECTRICS, METALS, NM } from "@/lib/scaling/client";
 import type { FrozenOption, FrozenReport } from "@/lib/validation/report";
 import { fixed, plain } from "./format";
 

@@ -1,4 +1,4 @@
-import { formatEngineering, formatIn } from "@/lib/scaling";
+import { formatEngineering, formatIn } from "@/lib/scaling/client";
 
 /** A number in a fixed display unit, without the unit (the unit sits in the column header). */
 export function fixed(valueSI: number, unitSI: number, significant = 4): string {

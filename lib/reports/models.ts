@@ -1,4 +1,11 @@
-import { DEFAULT_MIN_REPEATER_GAIN, DEFAULT_OUTPUT_C_RATIO, DEFAULT_REPEATER_AREA_M2, DEFAULT_TEMPERATURE_C, METAL_PARAMETERS, METALS } from "@/lib/scaling";
+import {
+  DEFAULT_MIN_REPEATER_GAIN,
+  DEFAULT_OUTPUT_C_RATIO,
+  DEFAULT_REPEATER_AREA_M2,
+  DEFAULT_TEMPERATURE_C,
+  METAL_PARAMETERS,
+  METALS,
+} from "@/lib/scaling/client";
 import type { FrozenReport } from "@/lib/validation/report";
 
 export interface ModelUse {
@@ -8,31 +15,61 @@ export interface ModelUse {
   /** Accuracy statements frozen with the results (the engine's own words). */
   accuracy: string[];
   usedBy: string[];
+  /** Per option (e.g. "Option A"), the classes whose figures use this model. */
+  classesByOption: Record<string, string[]>;
 }
 
-const CAPACITANCE: Record<string, { model: string; sources: string[] }> = {
-  ideal: { model: "Parallel plate, C′ = ε·W/H", sources: ["Common practice, no single source"] },
-  fringe: {
-    model: "Yuan–Trick single line over a plane",
-    sources: [
-      'C. P. Yuan and T. N. Trick, "A simple formula for the estimation of the capacitance of two-dimensional interconnects in VLSI circuits", IEEE Electron Device Letters EDL-3(12), 1982',
-    ],
-  },
-  coupled: {
-    model: "Sakurai–Tamaru line with neighbours (C1 + 2·C21), Miller factor on the coupling part",
-    sources: [
-      'T. Sakurai and K. Tamaru, "Simple formulas for two- and three-dimensional capacitances", IEEE Trans. Electron Devices ED-30(2), 1983',
-      'T. Sakurai, "Closed-form expressions for interconnection delay, coupling, and crosstalk in VLSI\'s", IEEE Trans. Electron Devices 40(1), 1993',
-    ],
-  },
-  accurate: {
-    model:
-      "Air gap between the lines as geometry: tables of our own 2D field solver (layered dielectrics), ground and coupling separately, Miller factor on the coupling part",
-    sources: [
-      "Plateau's finite-volume field solver (lib/scaling/field-solve.ts) and its tables (scaling/make-cap-table.ts), checked against exact layered plates and Cohn's stripline (S. B. Cohn, IRE Trans. MTT 2(2), 1954); docs/models.md",
-    ],
-  },
-};
+const SAKURAI_TAMARU = [
+  'T. Sakurai and K. Tamaru, "Simple formulas for two- and three-dimensional capacitances", IEEE Trans. Electron Devices ED-30(2), 1983',
+  'T. Sakurai, "Closed-form expressions for interconnection delay, coupling, and crosstalk in VLSI\'s", IEEE Trans. Electron Devices 40(1), 1993',
+];
+const COHN = ['S. B. Cohn, "Characteristic impedance of the shielded-strip transmission line", IRE Trans. MTT 2(2), 1954'];
+const TABLES = [
+  "Plateau's finite-volume field solver (lib/scaling/field-solve.ts, layered dielectrics) and its tables (scaling/make-cap-table.ts), checked against exact layered plates and Cohn's stripline (S. B. Cohn, IRE Trans. MTT 2(2), 1954); held out on 600 geometries (scaling/README.md)",
+];
+
+/**
+ * The capacitance model one class result used, named with its planes and air gap: the frozen model id, and the
+ * class's planes (a plane above too when both ILD heights are set) and gap (engine 2.2 freezes airGap; in reports
+ * frozen before it, only an air-gapped class took the accurate tables).
+ */
+export function capacitanceModelOf(r: {
+  capacitance: { model: string };
+  ildBelowM: number | null;
+  ildAboveM: number | null;
+  airGap?: { kGap: number; gapFraction: number } | null;
+}): { model: string; sources: string[] } {
+  const two = r.ildBelowM !== null && r.ildAboveM !== null;
+  const planes = two ? "planes below and above" : "one plane";
+  switch (r.capacitance.model) {
+    case "ideal":
+      return { model: `Parallel plate, C′ = ε·W/H${two ? " + ε·W/H2" : ""} (${planes})`, sources: ["Common practice, no single source"] };
+    case "fringe":
+      return two
+        ? { model: "Cohn's thick strip between two planes, single line (planes below and above)", sources: COHN }
+        : {
+            model: "Yuan–Trick single line over a plane (one plane)",
+            sources: [
+              'C. P. Yuan and T. N. Trick, "A simple formula for the estimation of the capacitance of two-dimensional interconnects in VLSI circuits", IEEE Electron Device Letters EDL-3(12), 1982',
+            ],
+          };
+    case "accurate": {
+      const gap = r.airGap !== undefined ? r.airGap !== null : true;
+      return {
+        model: `Accurate tables of our own 2D field solver, ${planes}${gap ? ", air gap between the lines as geometry" : ""}: ground and coupling separately, Miller factor on the coupling part`,
+        sources: TABLES,
+      };
+    }
+    default:
+      return two
+        ? {
+            model:
+              "Published: Cohn's thick strip between two planes with the fitted ground/coupling split, Miller factor on the coupling part (planes below and above)",
+            sources: [...COHN, ...SAKURAI_TAMARU.slice(0, 1)],
+          }
+        : { model: "Published: Sakurai–Tamaru line with neighbours (C1 + 2·C21), Miller factor on the coupling part (one plane)", sources: SAKURAI_TAMARU };
+  }
+}
 
 const RESISTIVITY = {
   bulk: {
@@ -75,11 +112,13 @@ const REPEATERS = {
  */
 export function modelsUsed(report: FrozenReport): ModelUse[] {
   const rows = new Map<string, ModelUse>();
-  const add = (quantity: string, m: { model: string; sources: string[] }, accuracy: string | undefined, who: string) => {
+  const add = (quantity: string, m: { model: string; sources: string[] }, accuracy: string | undefined, who: string, className: string) => {
     const id = `${quantity}|${m.model}`;
-    const row = rows.get(id) ?? { quantity, model: m.model, sources: m.sources, accuracy: [], usedBy: [] };
+    const row = rows.get(id) ?? { quantity, model: m.model, sources: m.sources, accuracy: [], usedBy: [], classesByOption: {} };
     if (accuracy && !row.accuracy.includes(accuracy)) row.accuracy.push(accuracy);
     if (!row.usedBy.includes(who)) row.usedBy.push(who);
+    const list = (row.classesByOption[who] ??= []);
+    if (!list.includes(className)) list.push(className);
     rows.set(id, row);
   };
   for (const o of report.options) {
@@ -87,12 +126,11 @@ export function modelsUsed(report: FrozenReport): ModelUse[] {
     const who = `Option ${o.key}`;
     for (const c of o.evaluation.classes) {
       const acc = c.scenario.accuracy;
-      // the model each class used: an air-gapped class takes the accurate tables at levels coupled and full
-      const cap = c.scenario.capacitance.model === "accurate" ? "accurate" : level === "full" ? "coupled" : level;
-      add("Capacitance", CAPACITANCE[cap] ?? CAPACITANCE.coupled!, acc.capacitance, who);
-      add("Resistance", level === "full" ? RESISTIVITY.size : RESISTIVITY.bulk, acc.resistivity, who);
-      add("Delay", level === "ideal" ? DELAY.ideal : DELAY.other, acc.delay, who);
-      add("Repeaters", REPEATERS, acc.repeaters, who);
+      // the model each class used, with its planes and air gap
+      add("Capacitance", capacitanceModelOf(c.scenario), acc.capacitance, who, c.name);
+      add("Resistance", level === "full" ? RESISTIVITY.size : RESISTIVITY.bulk, acc.resistivity, who, c.name);
+      add("Delay", level === "ideal" ? DELAY.ideal : DELAY.other, acc.delay, who, c.name);
+      add("Repeaters", REPEATERS, acc.repeaters, who, c.name);
     }
   }
   return [...rows.values()];
@@ -141,6 +179,7 @@ export function technologyWords(report: FrozenReport): string {
   return [
     `wiring at ${t.temperatureC ?? DEFAULT_TEMPERATURE_C} °C`,
     `delay model ${(t.delayModel ?? "exact") === "exact" ? "exact distributed line" : "Sakurai's closed form"}`,
+    `capacitance at the coupled and full levels from ${(t.capacitanceModel ?? "accurate") === "accurate" ? "the accurate field-solver tables" : "the published closed forms (air-gapped classes: the tables)"}`,
     `repeaters only where they cut a net's delay by ≥ ${pct(t.minRepeaterGain ?? DEFAULT_MIN_REPEATER_GAIN)}`,
     `repeater output capacitance ${Number((t.repeaterOutputCRatio ?? DEFAULT_OUTPUT_C_RATIO).toPrecision(3))} × input`,
     `minimum repeater area ${Number(((t.repeaterAreaM2 ?? DEFAULT_REPEATER_AREA_M2) / 1e-12).toPrecision(4))} µm²`,

@@ -236,10 +236,16 @@ export interface LineCapacitanceInput {
   heightAboveM: number | null;
   /** Relative permittivity of the ILD (everywhere except the gap layer), ≥ 1. */
   k: number;
-  /** Permittivity of the gap layer between the lines, 1 ≤ kGap ≤ k (default k: no gap; air = 1). */
+  /** Permittivity of the gap layer between the lines, 1 ≤ kGap ≤ k (default: 1 (air) when gapFraction is given, else k: no gap). */
   kGap?: number;
   /** Height of the gap layer from the bottom of the lines, as a share of T, 0..1 (default 1 when kGap is given). */
   gapFraction?: number;
+  /**
+   * An optional cap layer on top of the lines and gaps (model "field" only: the tables and the published forms have
+   * none): its thickness (m, at most heightAboveM) and permittivity (default k).
+   */
+  capThicknessM?: number;
+  capK?: number;
   /** Miller coupling factor applied to both neighbours, 0..2. */
   miller: number;
   model: CapacitanceModel;
@@ -259,7 +265,9 @@ export interface LineCapacitanceInput {
 export function lineCapacitance(p: LineCapacitanceInput): CapacitanceParts & { validity: ValidityFlag[]; accuracy: string } {
   const validity: ValidityFlag[] = [];
   const parts = capacitanceParts(p, validity);
-  return { ...parts, validity, accuracy: CAPACITANCE_ACCURACY[p.model] };
+  const gap = p.model === "accurate" && p.kGap !== undefined && p.kGap < p.k && (p.gapFraction ?? 1) > 0;
+  const accuracy = p.model === "accurate" ? (gap ? ACCURATE_ACCURACY_AIR_GAP : ACCURATE_ACCURACY_HOMOGENEOUS) : CAPACITANCE_ACCURACY[p.model];
+  return { ...parts, validity, accuracy };
 }
 
 /** lineCapacitance without the copy: pushes flags into `validity`. Used by the evaluation hot path. */
@@ -280,8 +288,11 @@ export function capacitanceParts(p: LineCapacitanceInput, validity: ValidityFlag
   }
   if (p.kGap !== undefined && !(p.kGap >= 1 && p.kGap <= p.k)) throw new RangeError(`kGap must be >= 1 and <= k = ${p.k} (got ${p.kGap})`);
   if (p.gapFraction !== undefined) inRange("gapFraction", p.gapFraction, 0, 1);
-  // absent kGap: no gap; kGap without a fraction: the gap fills the line's height
-  const kGap = p.kGap ?? p.k;
+  if ((p.capThicknessM !== undefined || p.capK !== undefined) && p.model !== "field")
+    throw new RangeError(`capThicknessM and capK need model "field" (the ${p.model} model has no cap layer)`);
+  // kGap without a fraction: the gap fills the line's height
+  // as for a wire class (scale.ts): a gap given by its fraction alone is air (kGap 1, held at k when k is lower)
+  const kGap = p.kGap ?? (p.gapFraction !== undefined ? Math.min(1, p.k) : p.k);
   const gapFraction = p.gapFraction ?? (p.kGap === undefined ? 0 : 1);
   const hasGap = kGap < p.k && gapFraction > 0;
   const eps = EPSILON_0_F_PER_M * p.k;
@@ -298,6 +309,8 @@ export function capacitanceParts(p: LineCapacitanceInput, validity: ValidityFlag
       heightAboveM: ha,
       k: p.k,
       ...(hasGap ? { kGap, gapFraction } : {}),
+      ...(p.capThicknessM !== undefined ? { capThicknessM: p.capThicknessM } : {}),
+      ...(p.capK !== undefined ? { capK: p.capK } : {}),
     });
     const area = parallelPlateFPerM(eps, w, hb) + (ha !== null ? parallelPlateFPerM(eps, w, ha) : 0);
     const coupling = 2 * p.miller * r.couplingEachFPerM;

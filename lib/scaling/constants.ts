@@ -36,3 +36,10 @@ export const REPEATER_B = SAKURAI_DISTRIBUTED_COEFF;
  * technology's capacitanceModel is "published"; air gaps as geometry; capacitance.effectiveK at Miller 0, 1 and 2.
  */
 export const ENGINE_VERSION = "2.2.0";
+
+/** Default γ: a repeater's output (diffusion) capacitance is half its input capacitance (common practice, no source). */
+export const DEFAULT_OUTPUT_C_RATIO = 0.5;
+/** Default minimum gain: repeaters must cut a net's delay by at least 10% (common practice, no source). */
+export const DEFAULT_MIN_REPEATER_GAIN = 0.1;
+/** Default area of a minimum repeater, m²: 0.1 µm² (invented, no source). */
+export const DEFAULT_REPEATER_AREA_M2 = 0.1e-12;

@@ -5,7 +5,7 @@
 import { getMetal, type Metal } from "./materials";
 import { accurateCapacitanceInto } from "./cap-accurate";
 import { ACCURATE_ACCURACY_AIR_GAP, ACCURATE_ACCURACY_HOMOGENEOUS, CAPACITANCE_ACCURACY, closedForm, closedFormFlags, type Split } from "./capacitance";
-import { ENGINE_VERSION, EPSILON_0_F_PER_M, REPEATER_A, REPEATER_B } from "./constants";
+import { DEFAULT_REPEATER_AREA_M2, ENGINE_VERSION, EPSILON_0_F_PER_M, REPEATER_A, REPEATER_B } from "./constants";
 import { stageT50 } from "./delay";
 import { lineDelayUnchecked } from "./delay";
 import { distributionCore } from "./distribution";
@@ -424,8 +424,7 @@ function effectiveKOf(e: Electrical): EffectiveK {
   return { miller0: at(0), miller1: at(1), miller2: at(2) };
 }
 
-/** Default area of a minimum repeater, m²: 0.1 µm² (invented, no source). */
-export const DEFAULT_REPEATER_AREA_M2 = 0.1e-12;
+export { DEFAULT_REPEATER_AREA_M2 };
 
 const SWEEP_SCRATCH = newElectrical();
 const CLASS_SCRATCH = newElectrical();
@@ -568,6 +567,7 @@ export function evaluateClassCore(
     lengthM: L,
     metal: e.metal.id,
     k: g.k,
+    airGap: hasAirGap(g) ? { kGap: g.kGap, gapFraction: g.gapFraction } : null,
     resistivityOhmM: e.rho,
     rOhmPerM: rPerM,
     capacitance: cap,

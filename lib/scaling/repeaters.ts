@@ -8,7 +8,7 @@
  * T* = 2·(a + sqrt(a·b))·sqrt(R0·C0·R·C). Repeater self-loading and input slope are ignored.
  * @see H. B. Bakoglu and J. D. Meindl, "Optimal interconnection circuits for VLSI", IEEE TED ED-32(5), 1985 [memory]
  */
-import { LN2 as LN2_IMPORTED, REPEATER_A, REPEATER_B as REPEATER_B_IMPORTED } from "./constants";
+import { DEFAULT_MIN_REPEATER_GAIN, DEFAULT_OUTPUT_C_RATIO, LN2 as LN2_IMPORTED, REPEATER_A, REPEATER_B as REPEATER_B_IMPORTED } from "./constants";
 import { inRange, nonNegative, positive } from "./check";
 import { stageT50 } from "./delay";
 import { exactTau50At, tablePosition } from "./delay-table";
@@ -136,10 +136,7 @@ export function repeatedNetDelayS(p: {
   return chainDelay(p.rOhm, p.cF, p.driverOhm, p.loadF, p.r0Ohm, p.c0F, gamma, (p.model ?? "exact") === "exact", p.inserted, p.size);
 }
 
-/** Default γ: a repeater's output (diffusion) capacitance is half its input capacitance (common practice, no source). */
-export const DEFAULT_OUTPUT_C_RATIO = 0.5;
-/** Default minimum gain: repeaters must cut a net's delay by at least 10% (common practice, no source). */
-export const DEFAULT_MIN_REPEATER_GAIN = 0.1;
+export { DEFAULT_OUTPUT_C_RATIO, DEFAULT_MIN_REPEATER_GAIN };
 
 function chainDelay(r: number, c: number, rd: number, cl: number, r0: number, c0: number, gamma: number, exact: boolean, k: number, h: number): number {
   if (k === 0) return stageT50(r, c, rd, cl, exact);

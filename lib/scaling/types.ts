@@ -294,6 +294,8 @@ export interface ClassResult {
   lengthM: number;
   metal: string;
   k: number;
+  /** The air gap between the lines the class was evaluated with (kGap held at k when the gap is larger); null = none. */
+  airGap: AirGap | null;
   /** Effective resistivity (bulk or with size effects). */
   resistivityOhmM: number;
   rOhmPerM: number;

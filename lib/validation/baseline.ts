@@ -8,7 +8,7 @@ import {
   type DelayModel,
   type MetalOverride,
   type Technology,
-} from "@/lib/scaling";
+} from "@/lib/scaling/client";
 import { mirrorOf } from "./mirror";
 import { quantity, wireClassListSchema } from "./wire-class";
 

@@ -249,7 +249,9 @@ type Engine2ClassFields =
   | "repeaterAreaM2"
   | "repeaterEnergyJ"
   | "totalRepeaterAreaM2"
-  | "repeaterPowerW";
+  | "repeaterPowerW"
+  // engine 2.2.0
+  | "airGap";
 type Engine2TotalsFields = "repeaterAreaM2" | "repeaterPowerW" | "repeaterPowerShare";
 
 /**
@@ -342,6 +344,7 @@ const classResultSchema = mirrorOf<
     lengthM: num,
     metal: z.string(),
     k: num,
+    airGap: airGapSnapshotSchema.nullable().optional(),
     resistivityOhmM: num,
     rOhmPerM: num,
     capacitance: capacitanceSchema,

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { MODEL_LEVELS, type AirGap, type ClassOverride, type ModelLevel, type ScenarioSettings } from "@/lib/scaling";
+import { MODEL_LEVELS, type AirGap, type ClassOverride, type ModelLevel, type ScenarioSettings } from "@/lib/scaling/client";
 import { mirrorOf, type OptionalFields } from "./mirror";
 import { airGapKSchema, gapFractionSchema, kSchema, metalIdSchema, quantity } from "./wire-class";
 

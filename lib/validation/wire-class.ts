@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { METALS, parseQuantity, TIERS, type BaseUnit, type Tier, type WireClass } from "@/lib/scaling";
+import { METALS, parseQuantity, TIERS, type BaseUnit, type Tier, type WireClass } from "@/lib/scaling/client";
 import { mirrorOf } from "./mirror";
 
 /**

@@ -87,6 +87,17 @@ describe("scenario editor in the browser", () => {
     }
     await page.screenshot({ path: `${SHOTS}/editor-top.png` });
 
+    // The air-gapped intermediate class shows the effective k its ground and coupling amount to at Miller 0, 1 and 2
+    // (derived; the server's figures), and only that class does.
+    const effK = page.locator(`tbody[data-class="intermediate"] [data-testid=effective-k]`);
+    const mid = server.classes.find((c: { name: string }) => c.name === "intermediate").scenario;
+    const k3 = (v: number) => String(Number(v.toPrecision(3)));
+    expect(await effK.innerText()).toContain(
+      `${k3(mid.capacitance.effectiveK.miller0)} / ${k3(mid.capacitance.effectiveK.miller1)} / ${k3(mid.capacitance.effectiveK.miller2)}`,
+    );
+    expect(mid.capacitance.effectiveK.miller0).toBeGreaterThan(mid.capacitance.effectiveK.miller2);
+    expect(await page.locator("[data-testid=effective-k]").count()).toBe(1);
+
     // First-load JS of the editor page: gzip sum of its script tags.
     // The <script src> of the server's HTML (not the DOM after load, which also holds the lazily loaded chart chunks);
     // nomodule polyfills are not loaded by a current browser and are left out.
@@ -215,6 +226,20 @@ describe("scenario editor in the browser", () => {
       expect(Math.abs(parseFloat(accurateDiff))).toBeLessThan(1);
     }
     await shot("Field check", "field-check.png");
+    // the air-gapped class: the picture shows the gap layer, the solve and the tables take it (ground, total within 1%)
+    await page
+      .locator("section", { has: page.locator(`h2:text-is("Field check")`) })
+      .locator("select")
+      .first()
+      .selectOption("intermediate");
+    expect(await page.locator("[data-testid=cross-section] [data-region=gap]").count()).toBe(1);
+    await page.click("text=Run field check");
+    await page.waitForSelector("[data-testid=field-check-result] caption:has-text('with its air gap')", { timeout: 60_000 });
+    for (const row of [0, 2]) {
+      const accurateDiff = await page.locator("[data-testid=field-check-result] tbody tr").nth(row).locator("td").nth(3).innerText();
+      expect(Math.abs(parseFloat(accurateDiff))).toBeLessThan(1);
+    }
+    await shot("Field check", "field-check-air-gap.png");
     await shot("History", "history.png");
     expect(errors).toEqual([]);
     await ctx.close();

@@ -116,6 +116,14 @@ describe("air gaps in the evaluation", () => {
     expect(air.classes[0]!.scenario.capacitance.model).toBe("coupled");
   });
 
+  it("a gap given by its fraction alone is air, in lineCapacitance as in a wire class (kGap 1)", () => {
+    const geo = { widthM: 40e-9, thicknessM: 80e-9, spacingM: 40e-9, heightBelowM: 50e-9, heightAboveM: 50e-9, k: 2.7, miller: 1, model: "accurate" as const };
+    expect(lineCapacitance({ ...geo, gapFraction: 0.5 }).totalFPerM).toBe(lineCapacitance({ ...geo, kGap: 1, gapFraction: 0.5 }).totalFPerM);
+    const viaClass = evaluateClass({ wireClass: { ...two, gapFraction: 0.5 }, technology: tech, settings: coupled() });
+    expect(viaClass.airGap).toEqual({ kGap: 1, gapFraction: 0.5 });
+    expect(viaClass.cFPerM).toBe(lineCapacitance({ ...geo, gapFraction: 0.5 }).totalFPerM);
+  });
+
   it("bad air gaps are RangeErrors naming the field", () => {
     expect(() => evaluateScenario({ classes: [two], technology: tech, settings: coupled({ airGap: { kGap: 0.5, gapFraction: 1 } }) })).toThrow(/^airGap\.kGap/);
     expect(() => evaluateScenario({ classes: [two], technology: tech, settings: coupled({ airGap: { kGap: 1, gapFraction: 1.5 } }) })).toThrow(

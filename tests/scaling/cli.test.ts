@@ -229,10 +229,31 @@ describe("engine 2 on the command line", () => {
     [["--k-gap", "3"], /^error: --k-gap: expected a relative permittivity from 1 to --k \(2\.7\), got 3\n$/],
     [["--k-gap", "1", "--gap-fraction", "1.2"], /^error: --gap-fraction: expected a share of the line thickness from 0 to 1, got 1\.2\n$/],
     [["--gap-fraction", "0.5"], /^error: --gap-fraction needs --k-gap/],
+    [
+      ["--model", "field", "--height-above", "50nm", "--cap-thickness", "60nm"],
+      /^error: --cap-thickness: the cap layer \(6e-8 m\) is thicker than the ILD above/,
+    ],
+    [["--model", "field", "--cap-thickness", "10nm"], /^error: --cap-thickness needs --height-above/],
+    [["--height-above", "50nm", "--cap-thickness", "10nm"], /^error: --cap-thickness and --cap-k need --model field/],
+    [
+      ["--model", "field", "--height-above", "50nm", "--cap-thickness", "10nm", "--cap-k", "0.8"],
+      /^error: --cap-k: expected a relative permittivity >= 1, got 0\.8/,
+    ],
   ])("capacitance %j exits 2 naming the argument", (extra, message) => {
     const r = run(["capacitance", "--width", "40nm", "--thickness", "80nm", "--height", "80nm", "--spacing", "40nm", "--k", "2.7", ...extra]);
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(message);
+  });
+  it("capacitance --model field --cap-thickness/--cap-k: a cap of higher k on the lines raises the coupling and the total; a cap of k itself changes nothing", () => {
+    const geo = ["--width", "40nm", "--thickness", "80nm", "--height", "80nm", "--height-above", "80nm", "--spacing", "40nm", "--k", "2.7", "--model", "field"];
+    const json = (extra: string[]) => JSON.parse(run(["capacitance", ...geo, ...extra, "--json"]).stdout);
+    const plain = json([]);
+    const capped = json(["--cap-thickness", "10nm", "--cap-k", "4.5"]);
+    const same = json(["--cap-thickness", "10nm", "--cap-k", "2.7"]);
+    expect(capped.couplingEachFPerM).toBeGreaterThan(plain.couplingEachFPerM);
+    expect(capped.totalFPerM).toBeGreaterThan(plain.totalFPerM);
+    // capK = k: the homogeneous solve exactly (the layer is not even added to the grid; field-solve.ts)
+    expect(same.totalFPerM).toBe(plain.totalFPerM);
   });
   it("capacitance --json: couplingEachFPerM (one neighbour) and couplingMillerFPerM (Miller × both)", () => {
     const j = JSON.parse(

@@ -3,7 +3,7 @@ import Link from "next/link";
 import type { ReactNode } from "react";
 import { PanelTable } from "@/components/ui/table";
 import { MAX_IMPORT_BYTES, MAX_LISTED_ERRORS } from "@/lib/import/limits";
-import { HISTOGRAM_COLUMNS, METALS, WIRE_CLASS_COLUMNS } from "@/lib/scaling";
+import { HISTOGRAM_COLUMNS, METALS, WIRE_CLASS_COLUMNS } from "@/lib/scaling/client";
 import { MAX_CLASSES } from "@/lib/validation/wire-class";
 
 export const metadata: Metadata = { title: "CSV formats" };

@@ -4,7 +4,7 @@ import { listClassesWithHistograms } from "@/db/queries/wire-classes";
 import { deleteBaseline, updateBaseline } from "@/db/writes/baselines";
 import { requireResource, requireResourceRole } from "@/lib/access";
 import { apiRoute, forbidden } from "@/lib/api";
-import { coarsenHistogram } from "@/lib/scaling";
+import { coarsenHistogram } from "@/lib/scaling/client";
 import { readInput } from "@/lib/workspace/input";
 import { baselinePatchSchema } from "@/lib/validation/baseline";
 

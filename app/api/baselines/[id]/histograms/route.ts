@@ -4,7 +4,7 @@ import { histogramsByClass } from "@/db/queries/import";
 import { requireResourceRole } from "@/lib/access";
 import { apiRoute } from "@/lib/api";
 import { baselineImportRoute } from "@/lib/baseline-import-route";
-import { formatScaled } from "@/lib/scaling";
+import { formatScaled } from "@/lib/scaling/client";
 import { runHistogramImport } from "@/lib/import/run-histograms";
 
 export const dynamic = "force-dynamic";

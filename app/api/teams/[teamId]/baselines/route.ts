@@ -3,7 +3,7 @@ import { getBaselineWithClasses, listBaselines } from "@/db/queries/baselines";
 import { createBaseline } from "@/db/writes/baselines";
 import { requireTeamRole } from "@/lib/access";
 import { apiRoute } from "@/lib/api";
-import { DEFAULT_TECHNOLOGY } from "@/lib/scaling";
+import { DEFAULT_TECHNOLOGY } from "@/lib/scaling/client";
 import { readInput } from "@/lib/workspace/input";
 import { baselineCreateSchema } from "@/lib/validation/baseline";
 

@@ -7,7 +7,9 @@ import { getScenario } from "@/db/queries/scenarios";
 import { listClassesWithHistograms } from "@/db/queries/wire-classes";
 import { ScenarioEditor } from "@/components/workspace/scenario-editor";
 import { parseSweepChoices } from "@/lib/workspace/sweep-view";
-import { coarsenHistogram, type SweepMetric } from "@/lib/scaling";
+import { coarsenHistogram, evaluateScenario, type SweepMetric, type WireClass } from "@/lib/scaling";
+import { keyOf } from "@/components/workspace/settings-key";
+import type { EvaluationState } from "@/components/workspace/use-evaluation";
 import { getTeamContext } from "@/lib/team-context";
 
 // Metadata and page share one read per request.
@@ -52,6 +54,18 @@ export default async function ScenarioPage({
     classes: (one("classes") ?? "").split(",").filter(Boolean),
     ...parseSweepChoices(one("scale"), one("length")),
   };
+  // The first results come with the page (the browser evaluates later changes in a Web Worker).
+  const engineClasses = classes.map(({ id: _i, position: _p, histogramBins: _h, ...c }): WireClass => c);
+  let initialEvaluation: EvaluationState;
+  try {
+    initialEvaluation = {
+      ok: true,
+      e: evaluateScenario({ classes: engineClasses, technology: baseline.technology, settings: scenario.settings }),
+      key: keyOf(scenario.settings),
+    };
+  } catch (e) {
+    initialEvaluation = { ok: false, message: e instanceof Error ? e.message : String(e), key: keyOf(scenario.settings) };
+  }
   return (
     <ScenarioEditor
       teamId={teamId}
@@ -60,6 +74,7 @@ export default async function ScenarioPage({
       initialScenario={scenario}
       initialBaseline={{ ...baseline, classes }}
       initialView={view}
+      initialEvaluation={initialEvaluation}
     />
   );
 }

@@ -3,7 +3,7 @@ import { requireTeamRole } from "@/lib/access";
 import { apiRoute, parseOrThrow } from "@/lib/api";
 import { csvUploadSource } from "@/lib/import/request-body";
 import { runNewBaselineImport } from "@/lib/import/run-classes";
-import { DEFAULT_TECHNOLOGY } from "@/lib/scaling";
+import { DEFAULT_TECHNOLOGY } from "@/lib/scaling/client";
 import { newBaselineImportQuerySchema, searchParamsObject } from "@/lib/validation/import";
 
 export const dynamic = "force-dynamic";

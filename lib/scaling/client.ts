@@ -1,0 +1,52 @@
+/**
+ * The engine's light half, for the browser's main thread: types, constants, the default technology, catalogues,
+ * units, the CSV formats and the small helpers forms need. It imports nothing that evaluates (evaluate, sweep, the
+ * capacitance and delay tables, the field solver): those run in the editor's Web Worker (components/workspace/
+ * engine-worker.ts) and on the server, so the main thread's bundle stays free of the tables (about 220 kB gzip).
+ * Client components import values from here; `import type` from "@/lib/scaling" is fine anywhere (ESLint enforces it).
+ */
+export * from "./types";
+export { ENGINE_VERSION, EPSILON_0_F_PER_M, DEFAULT_OUTPUT_C_RATIO, DEFAULT_MIN_REPEATER_GAIN, DEFAULT_REPEATER_AREA_M2 } from "./constants";
+export { DEFAULT_TECHNOLOGY } from "./technology";
+export { coarsenHistogram, MAX_EVALUATED_BINS } from "./histogram";
+export { sFromTargetPitch } from "./scale";
+export { metalAt, bulkResistivityAtOhmM, DEFAULT_TEMPERATURE_C, REFERENCE_TEMPERATURE_C } from "./resistance";
+export {
+  parseQuantity,
+  formatEngineering,
+  formatIn,
+  convertExact,
+  parseScaled,
+  formatScaled,
+  toNm,
+  fromNm,
+  toUm,
+  fromUm,
+  NM,
+  UM,
+  FF,
+  PS,
+  type BaseUnit,
+  type NumberCheck,
+} from "./units";
+export { METALS, METAL_PARAMETERS, DIELECTRICS, getMetal, type Metal, type Dielectric } from "./materials";
+export {
+  WIRE_CLASS_COLUMNS,
+  HISTOGRAM_COLUMNS,
+  WIRE_CLASS_FORMAT,
+  HISTOGRAM_FORMAT,
+  HISTOGRAM_LENGTH_COLUMN,
+  HISTOGRAM_COUNT_COLUMN,
+  normaliseHeader,
+  resolveHeader,
+  parseCell,
+  validateWireClassRow,
+  validateHistogramRow,
+  MEASURED_RESISTANCE_COLUMNS,
+  MEASURED_RESISTANCE_FORMAT,
+  validateMeasuredRow,
+  type ColumnSpec,
+  type CsvFormat,
+  type FormatIssue,
+  type NumberRule,
+} from "./formats";
