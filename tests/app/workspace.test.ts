@@ -59,6 +59,7 @@ describe("baselines: CRUD, versions and revisions", () => {
       ...TECH,
       temperatureC: 85,
       delayModel: "sakurai",
+      capacitanceModel: "published",
       minRepeaterGain: 0.05,
       repeaterOutputCRatio: 0.6,
       repeaterAreaM2: 2e-13,
@@ -68,7 +69,7 @@ describe("baselines: CRUD, versions and revisions", () => {
     expect(p.status).toBe(200);
     expect(p.json.baseline.technology).toEqual({ ...tech, repeaterLeakageW: 2e-9 });
     const revs = await owner.client.get(`/api/baselines/${b.id}/revisions`);
-    expect(revs.json.revisions[0].summary).toMatch(/technology: delay model, temperature, minimum repeater gain/);
+    expect(revs.json.revisions[0].summary).toMatch(/technology: delay model, capacitance model, temperature, minimum repeater gain/);
     const classes = sampleClasses();
     const put = await owner.client.put(`/api/baselines/${b.id}/classes`, {
       version: 2,
@@ -101,6 +102,9 @@ describe("baselines: CRUD, versions and revisions", () => {
     const first = ev.json.evaluation.classes[0].scenario;
     expect(first.temperatureC).toBe(85);
     expect(first.delayModel).toBe("sakurai");
+    // the published forms chosen: an ungapped class takes Sakurai–Tamaru / Cohn, not the tables
+    expect(first.capacitance.model).toBe("coupled");
+    expect(first.cFPerM).toBe(local.classes[0]!.scenario.cFPerM);
     expect(first.viaOhm).toBeGreaterThan(0);
     expect(first.viaOhm).toBe(local.classes[0]!.scenario.viaOhm);
     expect(first.delayS).toBe(local.classes[0]!.scenario.delayS);
@@ -458,6 +462,13 @@ describe("bad input: status, field message, nothing stored changes", () => {
       status: 400,
       field: "technology.delayModel",
       message: /Delay model must be one of exact, sakurai/,
+    },
+    {
+      what: "an unknown capacitance model",
+      send: (c) => c.owner.client.patch(`/api/baselines/${c.b.id}`, { version: 1, technology: { ...TECH, capacitanceModel: "closed" } }),
+      status: 400,
+      field: "technology.capacitanceModel",
+      message: /Capacitance model must be one of accurate, published/,
     },
     {
       what: "a materials override out of the engine's range",
