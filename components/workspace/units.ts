@@ -82,6 +82,6 @@ export function fmtRatio(r: number): string {
 
 /** The technology's capacitance model (capacitanceModel) in words. */
 export const CAPACITANCE_CHOICE_LABEL: Record<CapacitanceChoice, string> = {
-  accurate: "Accurate (field-solver tables)",
-  published: "Published closed forms",
+  accurate: "Field-solver tables",
+  published: "Published forms",
 };

@@ -133,7 +133,9 @@ export function modelsUsed(report: FrozenReport): ModelUse[] {
       add("Repeaters", REPEATERS, acc.repeaters, who, c.name);
     }
   }
-  return [...rows.values()];
+  // one block per quantity (a quantity's models side by side), in the order of the first row of each
+  const order = ["Capacitance", "Resistance", "Delay", "Repeaters"];
+  return [...rows.values()].sort((a, b) => order.indexOf(a.quantity) - order.indexOf(b.quantity));
 }
 
 /** Material sources for the metals that appear in the report (baseline and options). */
