@@ -29,6 +29,14 @@ export const LIMITS = { pair: 5, client: 20, device: 5 } as const;
 export type ThrottleKind = keyof typeof LIMITS | "account";
 export type ThrottleKey = { kind: ThrottleKind; key: string };
 
+/** "45 seconds", "1 second", "15 minutes": how long a throttled client waits, in words. */
+export function waitWords(ms: number): string {
+  const seconds = Math.max(1, Math.ceil(ms / 1000));
+  if (seconds < 60) return `${seconds} second${seconds === 1 ? "" : "s"}`;
+  const minutes = Math.ceil(seconds / 60);
+  return `${minutes} minute${minutes === 1 ? "" : "s"}`;
+}
+
 /** The delay the account waits after its `failures`-th failure within the hour (0 below the free allowance). */
 export function accountDelayMs(failures: number): number {
   if (failures < ACCOUNT_FREE_FAILURES) return 0;

@@ -7,7 +7,7 @@ import { validateRequest } from "@/lib/auth";
 import { clientAddress } from "@/lib/client-address";
 import { knownDeviceId } from "@/lib/known-device";
 import { hashPassword, passwordProblem, verifyPassword } from "@/lib/password";
-import { lockedUntil, recordFailure, recordSuccess, throttleKeys } from "@/lib/throttle";
+import { lockedUntil, recordFailure, recordSuccess, throttleKeys, waitWords } from "@/lib/throttle";
 import { changePasswordSchema } from "@/lib/validation/auth";
 
 const WRONG_CURRENT = "That is not your current password.";
@@ -25,14 +25,7 @@ export const POST = apiRoute(async (req) => {
   if (!user || !session) throw unauthorized();
   const keys = throttleKeys(user.email, clientAddress(req.headers), await knownDeviceId(db, user.id));
   const until = await lockedUntil(db, keys);
-  if (until) {
-    const seconds = Math.max(1, Math.ceil((until - Date.now()) / 1000));
-    throw new ApiError(
-      429,
-      "too_many_attempts",
-      `Too many wrong passwords. Wait ${seconds < 60 ? `${seconds} seconds` : `${Math.ceil(seconds / 60)} minutes`}, then try again.`,
-    );
-  }
+  if (until) throw new ApiError(429, "too_many_attempts", `Too many wrong passwords. Wait ${waitWords(until - Date.now())}, then try again.`);
   if (!(await verifyPassword(input.currentPassword, user.passwordHash))) {
     await recordFailure(db, keys);
     throw badRequest(WRONG_CURRENT, { currentPassword: [WRONG_CURRENT] });

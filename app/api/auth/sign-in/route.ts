@@ -5,7 +5,7 @@ import { startSession } from "@/lib/auth";
 import { clientAddress } from "@/lib/client-address";
 import { knownDeviceId, rememberThisDevice } from "@/lib/known-device";
 import { dummyHash, verifyPassword } from "@/lib/password";
-import { lockedUntil, recordFailure, recordSuccess, throttleKeys } from "@/lib/throttle";
+import { lockedUntil, recordFailure, recordSuccess, throttleKeys, waitWords } from "@/lib/throttle";
 import { publicUser } from "@/lib/users";
 import { signInSchema } from "@/lib/validation/auth";
 
@@ -13,10 +13,8 @@ const WRONG = "E-mail or password is wrong.";
 
 function tooMany(until: number): Response {
   const seconds = Math.max(1, Math.ceil((until - Date.now()) / 1000));
-  const minutes = Math.ceil(seconds / 60);
-  const wait = seconds < 60 ? `${seconds} second${seconds === 1 ? "" : "s"}` : `${minutes} minute${minutes === 1 ? "" : "s"}`;
   return Response.json(
-    { error: { code: "too_many_attempts", message: `Too many failed sign-in attempts. Wait ${wait}, then try again.` } },
+    { error: { code: "too_many_attempts", message: `Too many failed sign-in attempts. Wait ${waitWords(seconds * 1000)}, then try again.` } },
     { status: 429, headers: { "retry-after": String(seconds) } },
   );
 }
