@@ -3,6 +3,7 @@ import { type z } from "zod";
 import { ConflictError, InvalidInputError, NotFoundError, StaleVersionError } from "@/db/errors";
 import { InvalidCsvError, UploadInterruptedError } from "@/lib/import/errors";
 import { ImportFatalError, type ImportIssue } from "@/lib/import/types";
+import { expectedOrigin } from "@/lib/public-url";
 
 /** Error body of every API answer: `{ error: { code, message, fields? } }`. */
 export type ApiErrorBody = { error: { code: string; message: string; fields?: Record<string, string[]> } };
@@ -97,21 +98,23 @@ export function knownErrorResponse(e: unknown): Response | undefined {
 const STATE_CHANGING = new Set(["POST", "PUT", "PATCH", "DELETE"]);
 
 /**
- * State-changing requests must come from our own origin. A request without an Origin header
- * (a script with curl) is accepted: browsers always send Origin on cross-site POST/PUT/PATCH/DELETE.
+ * State-changing requests must come from our own origin: scheme, host and port equal to PLATEAU_PUBLIC_URL's, or
+ * without it to the request's own (lib/public-url.ts `expectedOrigin`; never a client-chosen X-Forwarded-Host).
+ * A request without an Origin header (a script with curl) is accepted: browsers always send Origin on
+ * cross-site POST/PUT/PATCH/DELETE (OWASP ASVS 4.0.3 4.2.2, 13.2.3).
  */
 export function checkOrigin(req: Request): void {
   if (!STATE_CHANGING.has(req.method)) return;
   const origin = req.headers.get("origin");
   if (!origin) return;
-  const host = req.headers.get("x-forwarded-host") ?? req.headers.get("host");
-  let originHost: string;
+  let actual: string;
   try {
-    originHost = new URL(origin).host;
+    actual = new URL(origin).origin;
   } catch {
     throw new ApiError(403, "bad_origin", "The request's Origin header is not valid.");
   }
-  if (!host || originHost !== host) throw new ApiError(403, "bad_origin", "Cross-site requests are not accepted.");
+  const expected = expectedOrigin(req.headers);
+  if (!expected || actual !== expected) throw new ApiError(403, "bad_origin", "Cross-site requests are not accepted.");
 }
 
 export const DEFAULT_JSON_LIMIT = 256 * 1024;

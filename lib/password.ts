@@ -1,4 +1,5 @@
 import { randomBytes, scrypt, timingSafeEqual, type ScryptOptions } from "node:crypto";
+import { COMMON_PASSWORDS_TEXT } from "@/lib/common-passwords";
 
 // scrypt with N = 2^15, r = 8, p = 1 needs 32 MiB; Node's default maxmem (32 MiB) is just too small.
 const PARAMS = { N: 2 ** 15, r: 8, p: 1 } as const;
@@ -46,11 +47,21 @@ export function dummyHash(): Promise<string> {
   return (dummy ??= hashPassword(randomBytes(18).toString("base64")));
 }
 
-/** Why a password is refused, or null when it is acceptable. */
+let common: Set<string> | undefined;
+/** Whether a password is on the bundled list of common passwords (lib/common-passwords.ts), ignoring case and outer spaces. */
+export function isCommonPassword(password: string): boolean {
+  common ??= new Set(COMMON_PASSWORDS_TEXT.split("\n"));
+  return common.has(password.normalize("NFKC").trim().toLowerCase());
+}
+
+export const COMMON_PASSWORD = "This is one of the most common passwords. Choose another: a few unrelated words work well.";
+
+/** Why a password is refused, or null when it is acceptable (OWASP ASVS 4.0.3 2.1.1, 2.1.7). */
 export function passwordProblem(password: string, email?: string): string | null {
   if (password.length < PASSWORD_MIN) return `Use at least ${PASSWORD_MIN} characters.`;
   if (password.length > PASSWORD_MAX) return `Use at most ${PASSWORD_MAX} characters.`;
   if (new Set(password).size === 1) return "Use more than one distinct character.";
+  if (isCommonPassword(password)) return COMMON_PASSWORD;
   if (email && password.trim().toLowerCase() === email.trim().toLowerCase()) return "The password must not be your e-mail address.";
   return null;
 }

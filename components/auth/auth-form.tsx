@@ -42,9 +42,16 @@ export function AuthForm({ mode, next, email: initialEmail = "" }: { mode: Mode;
         autoComplete={mode === "sign-up" ? "new-password" : "current-password"}
         required
         maxLength={128}
-        hint={mode === "sign-up" ? "10 to 128 characters. A few unrelated words work well." : undefined}
+        hint={mode === "sign-up" ? "10 to 128 characters, not a common password. A few unrelated words work well." : undefined}
         errors={fields.password}
       />
+      {mode === "sign-in" ? (
+        <p className="-mt-2 text-right text-sm">
+          <Link className="text-copper-dark underline" href="/forgot-password">
+            Forgot password?
+          </Link>
+        </p>
+      ) : null}
       <button
         type="submit"
         disabled={busy}

@@ -120,6 +120,9 @@ export function AccountMenu({ name, email, showOutbox, signOut }: { name: string
       <Link href="/teams" className={itemClass}>
         Your teams
       </Link>
+      <Link href="/account" className={itemClass}>
+        Account and password
+      </Link>
       {showOutbox ? (
         <Link href="/dev/outbox" className={itemClass}>
           Outbox (sent mail)

@@ -142,6 +142,6 @@ export function publicReport(r: StoredReport): PublicReport {
 }
 
 /** The share page of a link token, on the public base URL (lib/public-url.ts), as invites build theirs. */
-export function shareUrl(req: Request, token: string): string {
-  return `${publicBaseUrl(req)}/r/${token}`;
+export function shareUrl(token: string): string {
+  return `${publicBaseUrl()}/r/${token}`;
 }

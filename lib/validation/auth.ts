@@ -31,3 +31,28 @@ export const signInSchema = z.object({
   password: z.string({ error: "Enter your password." }).min(1, "Enter your password.").max(PASSWORD_MAX, `Passwords have at most ${PASSWORD_MAX} characters.`),
 });
 export type SignInInput = z.infer<typeof signInSchema>;
+
+const newPassword = (required: string) =>
+  z.string({ error: required }).superRefine((p, ctx) => {
+    const problem = passwordProblem(p);
+    if (problem) ctx.addIssue({ code: "custom", message: problem });
+  });
+
+/** Change password (signed in): the current password proves it is the owner. The route adds the e-mail rule. */
+export const changePasswordSchema = z.object({
+  currentPassword: z
+    .string({ error: "Enter your current password." })
+    .min(1, "Enter your current password.")
+    .max(PASSWORD_MAX, `Passwords have at most ${PASSWORD_MAX} characters.`),
+  newPassword: newPassword("Choose a new password."),
+});
+
+export const passwordResetRequestSchema = z.object({ email: emailSchema });
+
+/** A reset token is 32 random bytes in base64url (43 characters). */
+export const passwordResetSchema = z.object({
+  token: z
+    .string({ error: "The reset link is incomplete." })
+    .regex(/^[A-Za-z0-9_-]{43}$/, "The reset link is incomplete. Open the whole link from the e-mail."),
+  password: newPassword("Choose a new password."),
+});

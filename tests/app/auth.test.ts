@@ -1,4 +1,4 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import type Database from "better-sqlite3";
 import { Client, GOOD_PASSWORD, signedUpClient, uniqueEmail } from "../helpers/http";
 import { countRows, openTestDb } from "../helpers/db-file";
@@ -12,7 +12,7 @@ afterAll(() => db.close());
 const users = () => countRows(db, "users");
 let ipCounter = 0;
 /** A distinct client address per test, so throttling in one test never touches another. */
-const freshIp = () => `198.51.100.${(++ipCounter % 250) + 1}`;
+const freshIp = () => `203.0.113.${(++ipCounter % 250) + 1}`;
 
 describe("POST /api/auth/sign-up", () => {
   it("creates the account, signs in and normalises the e-mail to lower case", async () => {
@@ -35,15 +35,36 @@ describe("POST /api/auth/sign-up", () => {
     expect(row.password_hash).not.toContain(GOOD_PASSWORD);
   });
 
-  it("rejects a duplicate e-mail (any letter case) with 409 and stores nothing", async () => {
-    const { email } = await signedUpClient();
+  it("answers a taken address (any letter case) exactly like a new sign-up, without a session, and tells the owner by e-mail (issue 12 finding 8)", async () => {
+    const { email, userId } = await signedUpClient("Owner Olsen");
     const before = users();
-    const r = await new Client().post("/api/auth/sign-up", { email: email.toUpperCase(), password: GOOD_PASSWORD, name: "Second" });
-    expect(r.status).toBe(409);
-    expect(r.json.error.code).toBe("conflict");
-    expect(r.json.error.message).toMatch(/already exists/);
-    expect(r.json.error.fields.email[0]).toMatch(/already exists/);
-    expect(users()).toBe(before);
+    const fresh = await new Client().post("/api/auth/sign-up", { email: uniqueEmail(), password: GOOD_PASSWORD, name: "Second" });
+    const c = new Client();
+    const taken = await c.post("/api/auth/sign-up", { email: email.toUpperCase(), password: "another good password 9", name: "Second" });
+    // Used to be 409 "An account with this e-mail address already exists."
+    expect(taken.status).toBe(fresh.status);
+    expect(taken.status).toBe(201);
+    expect(Object.keys(taken.json)).toEqual(Object.keys(fresh.json));
+    expect(Object.keys(taken.json.user).sort()).toEqual(Object.keys(fresh.json.user).sort());
+    expect(taken.json.user).toEqual({ id: expect.stringMatching(/^[a-z2-7]{20}$/), email, name: "Second" });
+    expect(taken.json.user.id).not.toBe(userId);
+    expect(taken.text).not.toMatch(/exist/i);
+    // No account, no session for the taken address; the owner's password is unchanged.
+    expect(users()).toBe(before + 1);
+    expect(c.cookie).toBe("");
+    expect((await c.get("/api/me")).status).toBe(401);
+    const mail = db
+      .prepare("select o.subject, o.text_body from outbox o join captured_mail c on c.outbox_id = o.id where o.kind = 'account_exists' and o.to_addresses = ?")
+      .all(email) as { subject: string; text_body: string }[];
+    expect(mail).toHaveLength(1);
+    expect(mail[0]!.subject).toBe("Someone tried to create a Plateau account with your address");
+    expect(mail[0]!.text_body).toContain(`${inject("baseUrl")}/forgot-password`);
+    // A second try within the hour answers the same and mails no more.
+    const again = await new Client().post("/api/auth/sign-up", { email, password: "another good password 9", name: "Third" });
+    expect(again.status).toBe(201);
+    expect(countRows(db, "outbox", "kind = 'account_exists' and to_addresses = ?", email)).toBe(1);
+    const signIn = await new Client().req("POST", "/api/auth/sign-in", { email, password: GOOD_PASSWORD }, { headers: { "x-forwarded-for": freshIp() } });
+    expect(signIn.status).toBe(200);
   });
 
   const bad: [string, Record<string, unknown>, string, RegExp][] = [
@@ -159,29 +180,23 @@ describe("POST /api/auth/sign-in", () => {
     expect(r.json.error.fields.password[0]).toMatch(/at most 128/);
   });
 
-  it("locks an account after 5 failures, even for the right password, without revealing whether it exists", async () => {
+  it("5 failures from one client lock that client out of the account for 15 minutes, the same for an unknown address", async () => {
     const { email } = await signedUpClient();
     const ghost = uniqueEmail("ghost");
+    const ip = freshIp();
+    const ghostIp = freshIp();
     const statuses: number[] = [];
     const ghostStatuses: number[] = [];
+    const attempt = (e: string, password: string, addr: string) =>
+      new Client().req("POST", "/api/auth/sign-in", { email: e, password }, { headers: { "x-forwarded-for": addr } });
     for (let i = 0; i < 5; i++) {
-      statuses.push(
-        (await new Client().req("POST", "/api/auth/sign-in", { email, password: `wrong password ${i}` }, { headers: { "x-forwarded-for": freshIp() } })).status,
-      );
-      ghostStatuses.push(
-        (await new Client().req("POST", "/api/auth/sign-in", { email: ghost, password: `wrong password ${i}` }, { headers: { "x-forwarded-for": freshIp() } }))
-          .status,
-      );
+      statuses.push((await attempt(email, `wrong password ${i}`, ip)).status);
+      ghostStatuses.push((await attempt(ghost, `wrong password ${i}`, ghostIp)).status);
     }
     expect(statuses).toEqual([401, 401, 401, 401, 429]);
     expect(ghostStatuses).toEqual(statuses);
-    const right = await new Client().req("POST", "/api/auth/sign-in", { email, password: GOOD_PASSWORD }, { headers: { "x-forwarded-for": freshIp() } });
-    const ghostRight = await new Client().req(
-      "POST",
-      "/api/auth/sign-in",
-      { email: ghost, password: GOOD_PASSWORD },
-      { headers: { "x-forwarded-for": freshIp() } },
-    );
+    const right = await attempt(email, GOOD_PASSWORD, ip);
+    const ghostRight = await attempt(ghost, GOOD_PASSWORD, ghostIp);
     expect(right.status).toBe(429);
     expect(right.json.error.code).toBe("too_many_attempts");
     expect(right.json.error.message).toMatch(/^Too many failed sign-in attempts\. Wait 1[45] minutes, then try again\.$/);
@@ -189,9 +204,47 @@ describe("POST /api/auth/sign-in", () => {
     expect(ghostRight.status).toBe(429);
     expect(ghostRight.json.error.message).toBe(right.json.error.message);
     expect(right.headers.get("set-cookie") ?? "").not.toMatch(/plateau_session=[^;]/);
-    const row = db.prepare("select locked_until from sign_in_throttle where key = ?").get(`account:${email}`) as { locked_until: number };
-    expect(row.locked_until).toBeGreaterThan(Date.now());
+    const row = db.prepare("select locked_until from sign_in_throttle where key = ?").get(`pair:${email}|${ip}`) as { locked_until: number };
+    expect(row.locked_until).toBeGreaterThan(Date.now() + 800_000);
   });
+
+  it("OWASP ASVS 4.0.3 2.2.1: an attacker's failures never lock the owner out (issue 12 finding 2)", async () => {
+    const owner = new Client();
+    const email = uniqueEmail("owner");
+    const ownerIp = freshIp();
+    const attempt = (c: Client, password: string, addr: string) =>
+      c.req("POST", "/api/auth/sign-in", { email, password }, { headers: { "x-forwarded-for": addr } });
+    expect(
+      (await owner.req("POST", "/api/auth/sign-up", { email, password: GOOD_PASSWORD, name: "Owner" }, { headers: { "x-forwarded-for": ownerIp } })).status,
+    ).toBe(201);
+    expect(owner.device).toMatch(/^plateau_device=[A-Za-z0-9_-]{43}$/);
+    await owner.post("/api/auth/sign-out");
+    // The attacker fails 12 times from several clients (the owner's own address among them).
+    const statuses: number[] = [];
+    for (let i = 0; i < 12; i++) statuses.push((await attempt(new Client(), `guess ${i} of many`, i % 3 === 0 ? ownerIp : freshIp())).status);
+    expect(statuses.slice(0, 4)).toEqual([401, 401, 401, 401]);
+    expect(statuses).toContain(429);
+    // Before the fix every client got 429 for 15 minutes. The owner's browser (a known device) signs in at once,
+    // even from the address the attacker used.
+    const mine = await attempt(owner, GOOD_PASSWORD, ownerIp);
+    expect(mine.status).toBe(200);
+    expect((await owner.get("/api/me")).json.user.email).toBe(email);
+    // A browser the owner never used waits at most the account's delay (seconds, capped at one minute), then gets in.
+    await owner.post("/api/auth/sign-out");
+    for (let i = 0; i < 5; i++) await attempt(new Client(), `more guesses ${i}`, freshIp());
+    const other = new Client();
+    const elsewhere = freshIp();
+    let r = await attempt(other, GOOD_PASSWORD, elsewhere);
+    if (r.status === 429) {
+      const wait = Number(r.headers.get("retry-after"));
+      expect(wait).toBeGreaterThan(0);
+      expect(wait).toBeLessThanOrEqual(60);
+      expect(r.json.error.message).toMatch(/^Too many failed sign-in attempts\. Wait (\d+ seconds?|1 minute), then try again\.$/);
+      await new Promise((res) => setTimeout(res, wait * 1000 + 50));
+      r = await attempt(other, GOOD_PASSWORD, elsewhere);
+    }
+    expect(r.status).toBe(200);
+  }, 90_000);
 
   it("locks a client address after 20 failures across accounts, other addresses unaffected", async () => {
     const ip = freshIp();
@@ -202,13 +255,19 @@ describe("POST /api/auth/sign-in", () => {
           "POST",
           "/api/auth/sign-in",
           { email: uniqueEmail("spray"), password: "wrong password 1" },
-          { headers: { "x-forwarded-for": `${ip}, 10.0.0.1` } },
+          { headers: { "x-forwarded-for": ip } },
         )
       ).status;
     }
     expect(last).toBe(429);
     const { email } = await signedUpClient();
-    const blocked = await new Client().req("POST", "/api/auth/sign-in", { email, password: GOOD_PASSWORD }, { headers: { "x-forwarded-for": ip } });
+    // A spoofed hop in front of the address our (trusted) proxy saw changes nothing (issue 12 finding 1).
+    const blocked = await new Client().req(
+      "POST",
+      "/api/auth/sign-in",
+      { email, password: GOOD_PASSWORD },
+      { headers: { "x-forwarded-for": `198.51.100.8, ${ip}` } },
+    );
     expect(blocked.status).toBe(429);
     const elsewhere = await new Client().req("POST", "/api/auth/sign-in", { email, password: GOOD_PASSWORD }, { headers: { "x-forwarded-for": freshIp() } });
     expect(elsewhere.status).toBe(200);

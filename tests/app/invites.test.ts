@@ -136,10 +136,12 @@ describe("POST /api/invites/accept", () => {
     const wrong = await signedUpClient();
     const r = await wrong.client.post("/api/invites/accept", { token });
     expect(r.status).toBe(403);
+    // Issue 12 finding 8: the answer no longer echoes the invited address (it read "This invite was sent to <address>").
     expect(r.json.error).toEqual({
       code: "invite_email_mismatch",
-      message: `This invite was sent to ${email}. Sign in with that address to accept it.`,
+      message: "This invite was sent to a different e-mail address. Sign in with the address the invite was sent to, then open the link again.",
     });
+    expect(r.text).not.toContain(email);
     expect(memberships(o.teamId)).toBe(before);
     expect((db.prepare("select accepted_at from invites where team_id = ?").get(o.teamId) as { accepted_at: number | null }).accepted_at).toBeNull();
   });

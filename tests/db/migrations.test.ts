@@ -31,6 +31,8 @@ describe("migrations", () => {
       "scenario_revisions",
       "reports",
       "share_links",
+      "known_devices",
+      "password_resets",
     ]) {
       expect(names).toContain(t);
     }
@@ -61,7 +63,7 @@ describe("migrations", () => {
   it("is idempotent: a second run changes nothing", async () => {
     await migrateLatest(db);
     const [{ n }] = (await db("knex_migrations").count({ n: "*" })) as [{ n: number }];
-    expect(Number(n)).toBe(5);
+    expect(Number(n)).toBe(6);
   });
 
   it("gives wire_classes the engine 2 via columns, nullable (classes stored before have none)", async () => {
@@ -93,6 +95,25 @@ describe("migrations", () => {
     });
     const again = (await db.raw<{ name: string }[]>("pragma table_info(wire_classes)")).map((c) => c.name);
     expect(again).toEqual(expect.arrayContaining(["k_gap", "gap_fraction"]));
+  });
+
+  it("auth hardening: sessions get created_at (existing ones count from the migration), reset tokens and devices go with their user", async () => {
+    const cols = (await db.raw<{ name: string }[]>("pragma table_info(sessions)")).map((c) => c.name);
+    expect(cols).toContain("created_at");
+    const fks = await db.raw<{ table: string; on_delete: string }[]>("pragma foreign_key_list(password_resets)");
+    expect(fks.map((f) => [f.table, f.on_delete])).toEqual([["users", "CASCADE"]]);
+    const m10 = await import("@/migrations/20261202000010_auth_hardening");
+    await db("users").insert({ id: "u-m10", email: "m10@example.com", name: "M", password_hash: "x", created_at: 1 });
+    await db.transaction(async (trx) => {
+      await m10.down(trx);
+      await trx("sessions").insert({ id: "s-m10", user_id: "u-m10", expires_at: 2_000_000_000 });
+      const before = Date.now();
+      await m10.up(trx);
+      const row = await trx("sessions").where({ id: "s-m10" }).first();
+      expect(row.created_at).toBeGreaterThanOrEqual(before);
+      await trx("sessions").where({ id: "s-m10" }).delete();
+    });
+    await db("users").where({ id: "u-m10" }).delete();
   });
 
   it("shares one migrations table with the knex CLI (file names match)", () => {

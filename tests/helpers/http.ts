@@ -1,13 +1,18 @@
 import { inject } from "vitest";
 
-/** A tiny HTTP client for route tests: keeps the session cookie, sends a same-origin Origin on writes. */
+/**
+ * A tiny HTTP client for route tests: keeps the session cookie (`cookie`) and the known-device cookie (`device`,
+ * lib/known-device.ts), sends a same-origin Origin on writes.
+ */
 export class Client {
   cookie = "";
+  device = "";
   constructor(readonly baseUrl: string = inject("baseUrl")) {}
 
   async req(method: string, path: string, body?: unknown, init: { headers?: Record<string, string>; raw?: BodyInit } = {}) {
     const headers: Record<string, string> = { ...(init.headers ?? {}) };
-    if (this.cookie) headers.cookie = this.cookie;
+    const jar = [this.cookie, this.device].filter(Boolean).join("; ");
+    if (jar && !("cookie" in headers)) headers.cookie = jar;
     if (method !== "GET" && method !== "HEAD" && !("origin" in headers)) headers.origin = this.baseUrl;
     let payload: BodyInit | undefined = init.raw;
     if (body !== undefined) {
@@ -19,6 +24,7 @@ export class Client {
     for (const c of set) {
       const [pair] = c.split(";");
       if (pair?.startsWith("plateau_session=")) this.cookie = pair.endsWith("=") ? "" : pair;
+      if (pair?.startsWith("plateau_device=")) this.device = pair.endsWith("=") ? "" : pair;
     }
     const text = await res.text();
     let json: any = undefined;

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { hashPassword, passwordProblem, verifyPassword } from "@/lib/password";
+import { COMMON_PASSWORDS_TEXT } from "@/lib/common-passwords";
+import { COMMON_PASSWORD, hashPassword, isCommonPassword, passwordProblem, verifyPassword } from "@/lib/password";
 import { signUpSchema } from "@/lib/validation/auth";
 
 describe("hashPassword / verifyPassword", () => {
@@ -51,7 +52,21 @@ describe("passwordProblem", () => {
   it("refuses the e-mail address itself (any case) and accepts a reasonable password", () => {
     expect(passwordProblem("Ann@Example.com", "ann@example.com")).toMatch(/e-mail/);
     expect(passwordProblem("copper wires 7", "ann@example.com")).toBeNull();
-    expect(passwordProblem("1234567890")).toBeNull();
+    expect(passwordProblem("granite river 2031")).toBeNull();
+  });
+
+  // OWASP ASVS 4.0.3 2.1.7: passwords are checked against a set of breached/common passwords. The list is zxcvbn's
+  // top-30,000 (Burnett's 10M corpus) via Debian python3-zxcvbn, entries of 10+ characters (lib/common-passwords.ts).
+  it.each(["1234567890", "qwertyuiop", "Password123", " 1q2w3e4r5t ", "QWERTY123456", "manchester"])("refuses the common password %j", (pw) => {
+    expect(passwordProblem(pw)).toBe(COMMON_PASSWORD);
+    expect(isCommonPassword(pw)).toBe(true);
+  });
+
+  it("accepts passwords that are not on the list, and the list has the size its source says", () => {
+    expect(isCommonPassword("copper wires 7")).toBe(false);
+    expect(isCommonPassword("1234567890x")).toBe(false);
+    expect(COMMON_PASSWORDS_TEXT.split("\n")).toHaveLength(1090);
+    expect(COMMON_PASSWORDS_TEXT.split("\n").every((p) => p.length >= 10 && p === p.toLowerCase())).toBe(true);
   });
 });
 

@@ -38,15 +38,16 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
     else {
       const intro = (
         <p className="text-sm text-ink">
-          You are invited to join <strong>{team.name}</strong> as {ROLE_WORDS[invite.role]}. The invite was sent to <strong>{invite.email}</strong>.
+          You are invited to join <strong>{team.name}</strong> as {ROLE_WORDS[invite.role]}.
         </p>
       );
       if (!user) {
-        const q = `?next=${encodeURIComponent(here)}&email=${encodeURIComponent(invite.email)}`;
+        // The invited address is not shown or filled in: a forwarded link must not reveal it (issue 12 finding 8).
+        const q = `?next=${encodeURIComponent(here)}`;
         body = (
           <div className="space-y-4">
             {intro}
-            <p className="text-sm text-muted">Sign in, or create an account with that address, then come back here to accept.</p>
+            <p className="text-sm text-muted">Sign in, or create an account, with the e-mail address this invite was sent to, then come back here to accept.</p>
             <div className="flex gap-2">
               <ButtonLink href={`/sign-up${q}`}>Create account</ButtonLink>
               <ButtonLink variant="secondary" href={`/sign-in${q}`}>
@@ -67,7 +68,8 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
           <div className="space-y-4">
             {intro}
             <Notice tone="warn">
-              You are signed in as {user.email}. Sign out and sign in (or sign up) as {invite.email} to accept this invite.
+              This invite was sent to a different e-mail address than yours ({user.email}). Sign out, then sign in (or sign up) with the address the invite was
+              sent to.
             </Notice>
           </div>
         );

@@ -2,9 +2,10 @@ import { db, ready } from "@/db/client";
 import { getUserByEmail } from "@/db/queries/users";
 import { ApiError, apiRoute, readJson } from "@/lib/api";
 import { startSession } from "@/lib/auth";
-import { newId } from "@/db/ids";
+import { clientAddress } from "@/lib/client-address";
+import { knownDeviceId, rememberThisDevice } from "@/lib/known-device";
 import { dummyHash, verifyPassword } from "@/lib/password";
-import { clientAddress, lockedUntil, recordFailure, recordSuccess, throttleKeys } from "@/lib/throttle";
+import { lockedUntil, recordFailure, recordSuccess, throttleKeys, waitWords } from "@/lib/throttle";
 import { publicUser } from "@/lib/users";
 import { signInSchema } from "@/lib/validation/auth";
 
@@ -12,14 +13,8 @@ const WRONG = "E-mail or password is wrong.";
 
 function tooMany(until: number): Response {
   const seconds = Math.max(1, Math.ceil((until - Date.now()) / 1000));
-  const minutes = Math.ceil(seconds / 60);
   return Response.json(
-    {
-      error: {
-        code: "too_many_attempts",
-        message: `Too many failed sign-in attempts. Wait ${minutes} minute${minutes === 1 ? "" : "s"}, then try again.`,
-      },
-    },
+    { error: { code: "too_many_attempts", message: `Too many failed sign-in attempts. Wait ${waitWords(seconds * 1000)}, then try again.` } },
     { status: 429, headers: { "retry-after": String(seconds) } },
   );
 }
@@ -27,11 +22,11 @@ function tooMany(until: number): Response {
 export const POST = apiRoute(async (req) => {
   const input = await readJson(req, signInSchema, 16 * 1024);
   await ready();
-  // Without a forwarded address (no proxy in front) only the account key throttles.
-  const keys = throttleKeys(input.email, clientAddress(req.headers) ?? `request:${newId()}`);
+  const user = await getUserByEmail(db, input.email);
+  // A browser that signed in to this account before is throttled on its own (lib/throttle.ts, lib/known-device.ts).
+  const keys = throttleKeys(input.email, clientAddress(req.headers), await knownDeviceId(db, user?.id));
   const until = await lockedUntil(db, keys);
   if (until) return tooMany(until);
-  const user = await getUserByEmail(db, input.email);
   // Unknown e-mails still pay for one KDF run, so timing doesn't tell which addresses exist.
   const ok = await verifyPassword(input.password, user?.passwordHash ?? (await dummyHash()));
   if (!user || !ok) {
@@ -41,5 +36,6 @@ export const POST = apiRoute(async (req) => {
   }
   await recordSuccess(db, keys);
   await startSession(user.id);
+  await rememberThisDevice(db, user.id);
   return Response.json({ user: publicUser(user) });
 });

@@ -7,6 +7,7 @@ import { inviteStatus } from "@/db/queries/invites";
 import { hashInviteToken } from "@/lib/invites";
 import { acceptInviteSchema } from "@/lib/validation/team";
 
+const INVITE_OTHER_ADDRESS = "This invite was sent to a different e-mail address. Sign in with the address the invite was sent to, then open the link again.";
 const INVITE_NOT_FOUND = "This invite link is not valid. Check that you copied the whole link, or ask the team's owner for a new invite.";
 
 export const POST = apiRoute(async (req) => {
@@ -19,7 +20,8 @@ export const POST = apiRoute(async (req) => {
   if (status === "revoked") throw conflict("This invite was withdrawn by the team's owner. Ask them for a new one.");
   if (status === "expired") throw new ApiError(410, "invite_expired", "This invite has expired (invites last 7 days). Ask the team's owner to send a new one.");
   if (invite.email !== user.email) {
-    throw new ApiError(403, "invite_email_mismatch", `This invite was sent to ${invite.email}. Sign in with that address to accept it.`);
+    // Never echo the invited address: whoever holds a forwarded link learns nothing (issue 12 finding 8).
+    throw new ApiError(403, "invite_email_mismatch", INVITE_OTHER_ADDRESS);
   }
   if (await getMembershipRole(invite.teamId, user.id)) throw conflict("You are already a member of this team.");
   const joined = await acceptInvite(db, { inviteId: invite.id, userId: user.id });

@@ -27,7 +27,7 @@ export const POST = apiRoute<{ id: string }>(async (req, { id }) => {
     expiresInDays: input.expiresInDays,
     reason: `e-mail to ${to.length} address${to.length === 1 ? "" : "es"}`,
   });
-  const url = shareUrl(req, token);
+  const url = shareUrl(token);
   const mail = reportEmail({
     title: report.title,
     audienceNote: report.audienceNote,

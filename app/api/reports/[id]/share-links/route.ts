@@ -21,5 +21,5 @@ export const POST = apiRoute<{ id: string }>(async (req, { id }) => {
   const hasBody = req.headers.get("content-type") !== null;
   const input = hasBody ? await readJson(req, createShareLinkSchema, 4 * 1024) : createShareLinkSchema.parse(undefined);
   const { link, token } = await createShareLink(db, { reportId: id, teamId, userId: user.id, expiresInDays: input.expiresInDays });
-  return Response.json({ link, url: shareUrl(req, token) }, { status: 201 });
+  return Response.json({ link, url: shareUrl(token) }, { status: 201 });
 });

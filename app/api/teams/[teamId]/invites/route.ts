@@ -32,7 +32,7 @@ export const POST = apiRoute<P>(async (req, { teamId }) => {
     expiresAt: now + INVITE_TTL_MS,
     now,
   });
-  const link = `${publicBaseUrl(req)}/invite/${token}`;
+  const link = `${publicBaseUrl()}/invite/${token}`;
   const mail = await sendMail({
     teamId,
     kind: "invite",
