@@ -1,5 +1,6 @@
 "use client";
 import type { ClassComparison, ClassResult, Evaluation } from "@/lib/scaling";
+import { countChange } from "@/lib/figures";
 import { fmt, fmtRatio, U } from "./units";
 
 // Per-length units: Ω/µm = 1e6 Ω/m, fF/µm = 1e-9 F/m; repeated delay per mm: ps/mm = 1e-9 s/m.
@@ -15,6 +16,8 @@ type Col = {
   /** null = not applicable (shown as —). */
   get: (r: ClassResult) => number | null;
   ratio?: (c: ClassComparison) => number;
+  /** For counts: the change as text (a difference), shown in the ratio row instead of a ratio. */
+  change?: (c: ClassComparison) => string;
   concern?: "capacitance" | "resistivity" | "delay" | "repeaters";
   title?: string;
 };
@@ -70,11 +73,12 @@ const COLS: Col[] = [
   {
     key: "n",
     label: "Repeaters",
-    unit: "",
+    unit: "inserted",
     get: (r) => r.repeaterCount,
-    ratio: (c) => c.ratio.repeaters,
+    // a count's change is a difference (0 → 1 is "+1"; lib/figures.ts), not the engine's ratio of stages
+    change: (c) => countChange(c.baseline.repeaterCount, c.scenario.repeaterCount),
     concern: "repeaters",
-    title: "Inserted repeaters on a net of the typical length: real driver → repeaters → real load (0 = driver only)",
+    title: "Inserted repeaters on a net of the typical length: real driver → repeaters → real load (0 = driver only); the change row gives the difference",
   },
   {
     key: "h",
@@ -206,9 +210,15 @@ function ClassRows({ cc }: { cc: ClassComparison }) {
         <td className="pr-2 text-muted">Ratio</td>
         {COLS.map((c) => {
           const r = c.ratio?.(cc);
+          const d = c.change?.(cc);
           return (
             <td key={c.key} className="px-1.5 py-0.5 text-right" data-ratio={c.key}>
               {r !== undefined ? <span className={`tabular rounded px-1 ${tone(r)}`}>{fmtRatio(r)}</span> : null}
+              {d !== undefined ? (
+                <span className={`tabular rounded px-1 ${d === "±0" ? "text-muted" : d.startsWith("+") ? "bg-bad-soft text-bad" : "bg-good-soft text-good"}`}>
+                  {d}
+                </span>
+              ) : null}
             </td>
           );
         })}

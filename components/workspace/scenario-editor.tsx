@@ -20,6 +20,7 @@ import { RevisionHistory } from "./revision-history";
 import { LEVEL_LABEL, SettingsPanel } from "./settings-panel";
 import { SweepPanel, type SweepView } from "./sweep-panel";
 import { fmt, U } from "./units";
+import { countChange, FIGURE_DEFINITION, FIGURE_LABEL, worstClassDelay } from "@/lib/figures";
 import { ConfirmDelete } from "@/components/ui/confirm-delete";
 
 // Charts (visx) and the field check load in the browser after the first paint: the settings and the results
@@ -370,27 +371,37 @@ export function ScenarioEditor(props: {
   );
 }
 
+/** The headline figures, with the report's definitions (lib/figures.ts): worst-class delay, inserted repeaters, power. */
 function Totals({ e }: { e: Evaluation }) {
   const b = e.totals.baseline;
   const s = e.totals.scenario;
+  const wb = worstClassDelay(e.classes.map((c) => c.baseline));
+  const ws = worstClassDelay(e.classes.map((c) => c.scenario));
   const items = [
-    { label: "Worst delay", b: b.worstDelayS, s: s.worstDelayS, u: U.ps, unit: "ps" },
-    { label: "Repeaters (all nets)", b: b.repeaters, s: s.repeaters, u: U.none, unit: "", count: true },
-    { label: "Switching power", b: b.powerW, s: s.powerW, u: { label: "mW", unitSI: 1e-3, base: "W" as const, suffix: "mW" }, unit: "mW" },
+    {
+      label: `${FIGURE_LABEL.worstClassDelay} (${ws.name})`,
+      title: `${FIGURE_LABEL.worstClassDelay}: ${FIGURE_DEFINITION.worstClassDelay}`,
+      b: wb.delayS,
+      s: ws.delayS,
+      u: U.ps,
+      unit: "ps",
+    },
+    { label: `${FIGURE_LABEL.repeaters}, all nets`, title: FIGURE_DEFINITION.repeaters, b: b.repeaters, s: s.repeaters, u: U.none, unit: "", count: true },
+    { label: "Switching power", title: undefined, b: b.powerW, s: s.powerW, u: { label: "mW", unitSI: 1e-3, base: "W" as const, suffix: "mW" }, unit: "mW" },
   ];
   return (
-    <dl className="mb-3 grid grid-cols-3 gap-3 text-xs">
+    <dl className="mb-3 grid gap-3 text-xs sm:grid-cols-3">
       {items.map((i) => {
         const r = i.b > 0 ? i.s / i.b : NaN;
         const show = (v: number) => ("count" in i ? Math.round(v).toLocaleString("en") : fmt(v, i.u));
         return (
-          <div key={i.label} className="rounded border border-rule px-2 py-1.5">
+          <div key={i.label} className="rounded border border-rule px-2 py-1.5" title={i.title} data-testid="total">
             <dt className="text-muted">{i.label}</dt>
             <dd className="tabular text-sm font-semibold text-ink">
               {show(i.s)} {i.unit}{" "}
               <span className={`text-xs font-normal ${r < 0.995 ? "text-good" : r > 1.005 ? "text-bad" : "text-muted"}`}>
                 (baseline {show(i.b)}
-                {Number.isFinite(r) ? `, ${r.toFixed(2)}×` : ""})
+                {"count" in i ? `, ${countChange(i.b, i.s)}` : Number.isFinite(r) ? `, ${r.toFixed(2)}×` : ""})
               </span>
             </dd>
           </div>
