@@ -322,9 +322,11 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
       {f.sweeps.length > 0 ? (
         <Section id="sweeps" title="Where delay stops improving: delay against S" breakBefore>
           <p className="mb-3 max-w-3xl text-xs text-muted">
-            Each curve shrinks the cross-section further (larger S, same wire lengths) with the option&apos;s other choices kept; the marker is where the option
-            sits. Where a curve bends upward, resistance grows faster than capacitance falls and a further shrink stops paying off. The grey dashed line is
-            Option A without size effects: the gap to Option A is what electron scattering at surfaces and grain boundaries costs.
+            Each curve shrinks the cross-section further (larger S) with the option&apos;s other choices kept; wire lengths follow the class&apos;s rule (they
+            shrink with S where the option scales lengths with the section, or for local and intermediate wires; otherwise they are kept), as each figure says.
+            The marker is where the option sits; a triangle marks each curve&apos;s minimum. Where a curve bends upward, resistance grows faster than
+            capacitance falls and a further shrink stops paying off. The grey dashed line is Option A without size effects: the gap to Option A is what electron
+            scattering at surfaces and grain boundaries costs.
           </p>
           <div className="grid gap-6 lg:grid-cols-2 print:grid-cols-1">
             {f.sweeps.map((s) => (

@@ -80,6 +80,8 @@ export function SweepPanel({
         spacing: "log",
         classNames: selected,
         lengthMode: view.length,
+        // each curve adds one effect to the previous: the ideal line gets the same driver, load and vias
+        idealWithDevices: true,
         referenceX: 1,
       })
       .then((r) => {
@@ -240,9 +242,10 @@ export function SweepPanel({
         <div className="mt-2 flex flex-wrap items-center justify-between gap-2">
           <LevelLegend outsideRange={anyOutside} />
           <p className="text-[11px] text-muted">
-            {relative ? "Each curve ÷ its own value at S = 1 (this scenario's options, no shrink). " : ""}Log axes. Dashed line: this scenario&apos;s S; a
-            dashed amber band marks where a model is outside its validity range. The gap between two curves is what that effect adds; copper is the full model.
-            Ideal scaling is the bare line (no driver or load): flat when the length follows S, growing as S² when it is fixed.
+            {relative ? "Each curve ÷ its own value at S = 1 (this scenario's options, no shrink). " : ""}Log S axis; the delay axis fits the curves (log only
+            when they span more than 4×). Dashed line: this scenario&apos;s S; ▲ each curve&apos;s minimum; a dashed amber band marks where a model is outside
+            its validity range. Every curve has the same driver, load and vias, and each adds one effect to the one before (ideal plate and bulk resistivity → +
+            fringing → + coupling → + size effects), so the gap between two curves is what that effect adds; copper is the full model.
           </p>
         </div>
         {readings.length > 0 ? (
