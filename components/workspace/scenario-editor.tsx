@@ -20,6 +20,7 @@ import { RevisionHistory } from "./revision-history";
 import { LEVEL_LABEL, SettingsPanel } from "./settings-panel";
 import { SweepPanel, type SweepView } from "./sweep-panel";
 import { fmt, U } from "./units";
+import { explainEngineError } from "@/lib/workspace/engine-errors";
 import { countChange, FIGURE_DEFINITION, FIGURE_LABEL, worstClassDelay } from "@/lib/figures";
 import { ConfirmDelete } from "@/components/ui/confirm-delete";
 
@@ -203,6 +204,14 @@ export function ScenarioEditor(props: {
     }
   }
 
+  // an engine error in the user's words, with the fields it is about marked (lib/workspace/engine-errors.ts)
+  const explained = evalResult.ok ? null : explainEngineError(evalResult.message, draft.settings);
+  const shownErrors = useMemo(() => {
+    if (!explained) return fieldErrors;
+    const out = { ...fieldErrors };
+    for (const [k, v] of Object.entries(explained.fields)) out[k] = [...(out[k] ?? []), ...v];
+    return out;
+  }, [explained, fieldErrors]);
   const setSettings = (settings: ScenarioSettings) => setDraft((d) => ({ ...d, settings }));
   const evaluation = evalResult.ok ? evalResult.e : null;
   // The table is urgent; the secondary charts follow when the main thread is free (a slider drag stays smooth).
@@ -287,7 +296,7 @@ export function ScenarioEditor(props: {
       <div className="grid gap-4 lg:grid-cols-[19rem_minmax(0,1fr)]">
         <aside className="space-y-4">
           <Card title="Scale factors and options">
-            {readOnly ? <ReadOnlySettings settings={s} /> : <SettingsPanel settings={s} onChange={setSettings} classes={classes} errors={fieldErrors} />}
+            {readOnly ? <ReadOnlySettings settings={s} /> : <SettingsPanel settings={s} onChange={setSettings} classes={classes} errors={shownErrors} />}
           </Card>
           <Card title="Notes">
             {readOnly ? (
@@ -345,12 +354,14 @@ export function ScenarioEditor(props: {
                 <ResultsTable evaluation={evaluation} dataKey={settingsKey} />
               </>
             ) : (
-              <Notice tone="bad">These settings cannot be evaluated: {evalResult.ok ? "" : evalResult.message}</Notice>
+              <Notice tone="bad">
+                <span data-testid="engine-error">These settings cannot be evaluated. {explained?.text}</span>
+              </Notice>
             )}
             <Caution className="mt-3" />
           </Card>
           <Card title="Per-class overrides">
-            <ClassOverrides settings={s} onChange={setSettings} classes={classes} readOnly={readOnly} errors={fieldErrors} />
+            <ClassOverrides settings={s} onChange={setSettings} classes={classes} readOnly={readOnly} errors={shownErrors} />
           </Card>
           <Card title="Sweep — metric against S">
             {evaluation ? (

@@ -4,6 +4,7 @@ import { useEffect, useMemo, useRef, useState } from "react";
 import type { ModelLevel, ScenarioSettings, SweepCurve, SweepMetric, SweepPoint, Technology, WireClass } from "@/lib/scaling";
 import { LevelLegend, SWEEP_METRIC } from "@/components/charts/sweep-meta";
 import { inputClass } from "@/components/ui/field";
+import { explainEngineError } from "@/lib/workspace/engine-errors";
 import { readSweep, type SweepReading } from "@/lib/workspace/sweep-reading";
 import { SWEEP_LENGTHS, type SweepLength, type SweepScale } from "@/lib/workspace/sweep-view";
 import { EngineWorker, Superseded } from "./engine-client";
@@ -217,7 +218,7 @@ export function SweepPanel({
         </fieldset>
       </div>
       {!rangeOk ? <p className="text-xs text-bad">The sweep range needs 0 &lt; from &lt; to.</p> : null}
-      {error ? <p className="text-xs text-bad">Sweep failed: {error}</p> : null}
+      {error ? <p className="text-xs text-bad">The sweep could not be computed: {explainEngineError(error, settings).text}</p> : null}
       <div ref={ref} className="w-full" data-sweep-key={curves?.key === key ? settingsKey : "pending"} data-testid="sweep">
         <div className="grid gap-4" style={{ gridTemplateColumns: `repeat(${cols}, minmax(0, 1fr))` }}>
           {selected.map((n) => {
