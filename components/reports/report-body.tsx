@@ -247,7 +247,7 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
             <caption className="sr-only">Per class: baseline and each option, with the change against the baseline</caption>
             <thead>
               <tr className="border-b border-rule-strong text-left text-xs text-muted">
-                <th scope="col" className="py-1.5 pr-3 font-medium">
+                <th scope="col" className="sticky left-0 z-10 bg-panel py-1.5 pr-3 font-medium print:static">
                   Class · quantity (unit)
                 </th>
                 <th scope="col" className="px-2 py-1.5 text-right font-medium">
@@ -274,7 +274,7 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
                 <tbody key={name} className="border-b border-rule">
                   <tr>
                     <th scope="rowgroup" colSpan={2 + 2 * f.options.length} className="bg-ground/70 px-1 py-1 text-left text-xs font-semibold text-ink">
-                      {name}{" "}
+                      <span className="sticky left-1">{name}</span>{" "}
                       <span className="font-normal text-muted">
                         · {base.tier} ·{" "}
                         {materialWords(
@@ -286,7 +286,7 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
                   </tr>
                   {rows.map((m) => (
                     <tr key={m.label} className="border-t border-rule/60">
-                      <th scope="row" className="py-1 pr-3 pl-3 text-left text-xs font-normal text-muted">
+                      <th scope="row" className="sticky left-0 z-10 bg-panel py-1 pr-3 pl-3 text-left text-xs font-normal text-muted print:static">
                         {m.label}
                         {m.unit ? ` (${m.unit})` : ""}
                         {m.atTemperature && base.temperatureC !== undefined ? ` at ${plain(base.temperatureC, 4)} °C` : ""}

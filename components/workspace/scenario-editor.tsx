@@ -222,7 +222,7 @@ export function ScenarioEditor(props: {
   return (
     <div className="space-y-4">
       <header className="flex flex-wrap items-start justify-between gap-3">
-        <div className="min-w-0">
+        <div className="min-w-0 flex-1">
           <p className="text-xs text-muted">
             <Link href={`/teams/${teamId}/scenarios`} className="hover:underline">
               Scenarios
@@ -245,7 +245,8 @@ export function ScenarioEditor(props: {
             <label className="mt-1 block">
               <span className="sr-only">Scenario name</span>
               <input
-                className="w-full min-w-[18rem] rounded border border-transparent bg-transparent px-1 text-xl font-semibold text-ink hover:border-rule focus:border-copper focus:outline-none"
+                className="w-full min-w-0 rounded border border-transparent bg-transparent px-1 text-xl font-semibold text-ink hover:border-rule focus:border-copper focus:outline-none"
+                title={draft.name}
                 value={draft.name}
                 name="scenario-name"
                 onChange={(e) => setDraft((d) => ({ ...d, name: e.target.value }))}
@@ -293,8 +294,23 @@ export function ScenarioEditor(props: {
       ) : null}
       {message ? <Notice tone={message.tone}>{message.text}</Notice> : null}
 
+      <nav aria-label="On this page" className="no-print -mt-2 flex flex-wrap gap-x-3 text-xs">
+        <a href="#results" className="text-copper-dark hover:underline">
+          Results
+        </a>
+        <a href="#overrides" className="text-copper-dark hover:underline">
+          Per-class overrides
+        </a>
+        <a href="#sweep" className="text-copper-dark hover:underline" data-testid="skip-to-sweep">
+          Sweep
+        </a>
+        <a href="#settings" className="text-copper-dark hover:underline">
+          Settings
+        </a>
+      </nav>
+      {/* On a phone the results come first, then the settings (visual order; the links above jump to each part) */}
       <div className="grid gap-4 lg:grid-cols-[19rem_minmax(0,1fr)]">
-        <aside className="space-y-4">
+        <aside id="settings" className="order-2 space-y-4 lg:order-1">
           <Card title="Scale factors and options">
             {readOnly ? <ReadOnlySettings settings={s} /> : <SettingsPanel settings={s} onChange={setSettings} classes={classes} errors={shownErrors} />}
           </Card>
@@ -330,7 +346,8 @@ export function ScenarioEditor(props: {
           </Card>
         </aside>
 
-        <div className="min-w-0 space-y-4">
+        <div className="order-1 min-w-0 space-y-4 lg:order-2">
+          <div id="results" className="scroll-mt-16" />
           <Card
             title={`Results — ${LEVEL_LABEL[s.level]}`}
             actions={
@@ -361,8 +378,24 @@ export function ScenarioEditor(props: {
             <Caution className="mt-3" />
           </Card>
           <Card title="Per-class overrides">
-            <ClassOverrides settings={s} onChange={setSettings} classes={classes} readOnly={readOnly} errors={shownErrors} />
+            {/* collapsed while no class has an override (one summary tab stop instead of 56 inputs before the sweep) */}
+            <details
+              id="overrides"
+              className="scroll-mt-16"
+              open={Object.keys(s.overrides).length > 0 || Object.keys(shownErrors).some((k) => k.startsWith("settings.overrides.")) || undefined}
+              data-testid="overrides"
+            >
+              <summary className="cursor-pointer select-none text-xs text-muted">
+                {Object.keys(s.overrides).length === 0
+                  ? "No class overrides: every class follows the settings. Show the table"
+                  : `${Object.keys(s.overrides).length} class${Object.keys(s.overrides).length === 1 ? "" : "es"} with overrides: ${Object.keys(s.overrides).join(", ")}`}
+              </summary>
+              <div className="mt-2">
+                <ClassOverrides settings={s} onChange={setSettings} classes={classes} readOnly={readOnly} errors={shownErrors} />
+              </div>
+            </details>
           </Card>
+          <div id="sweep" className="scroll-mt-16" tabIndex={-1} />
           <Card title="Sweep — metric against S">
             {evaluation ? (
               <SweepPanel classes={classes} technology={baseline.technology} settings={s} view={view} onView={setView} settingsKey={settingsKey} />
