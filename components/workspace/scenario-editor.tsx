@@ -222,7 +222,7 @@ export function ScenarioEditor(props: {
   return (
     <div className="space-y-4">
       <header className="flex flex-wrap items-start justify-between gap-3">
-        <div className="min-w-0 flex-1">
+        <div className="w-full min-w-0 sm:w-auto sm:flex-1">
           <p className="text-xs text-muted">
             <Link href={`/teams/${teamId}/scenarios`} className="hover:underline">
               Scenarios

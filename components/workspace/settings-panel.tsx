@@ -230,7 +230,7 @@ export function SliderField(p: {
             <span aria-hidden>{p.max}</span>
           </div>
         </div>
-        <NumberField label={`${p.label} value`} compact value={p.value} onChange={p.onChange} check={p.check} className="w-24" name={p.name} />
+        <NumberField label={`${p.label} value`} compact value={p.value} onChange={p.onChange} check={p.check} className="w-28" name={p.name} />
       </div>
       {p.hint ? (
         <p id={`${id}-hint`} className="mt-0.5 text-[11px] text-muted">

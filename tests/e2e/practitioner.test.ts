@@ -58,6 +58,8 @@ describe("S and its slider", () => {
     await page.getByRole("button", { name: "Use S = 1/0.7 = 1.43" }).click();
     await hint.waitFor({ state: "detached" });
     expect(await sBox(page).inputValue()).toBe("1.428571429");
+    // and the box shows it whole (item 12)
+    expect(await sBox(page).evaluate((i) => i.scrollWidth <= i.clientWidth)).toBe(true);
     await page.context().close();
   });
 
@@ -133,6 +135,9 @@ describe("fit", () => {
     const results = await page.getByTestId("results-table").evaluate((t) => t.getBoundingClientRect().top);
     const settings = await page.getByRole("heading", { name: "Scale factors and options" }).evaluate((h) => h.getBoundingClientRect().top);
     expect(results).toBeLessThan(settings);
+    // the scenario's name takes the whole row on a phone
+    const title = page.locator("input[name=scenario-name]");
+    expect(await title.evaluate((i) => i.scrollWidth <= i.clientWidth)).toBe(true);
     await page.screenshot({ path: `${SHOTS}/editor-390.png` });
     await page.context().close();
   });
