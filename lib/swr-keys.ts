@@ -14,6 +14,8 @@ export const swrKeys = {
   baseline: (baselineId: string) => `/api/baselines/${seg(baselineId)}`,
   /** `{ baseline, role }` with each class's (coarsened) length histogram, as the scenario editor evaluates it. */
   baselineWithHistograms: (baselineId: string) => `/api/baselines/${seg(baselineId)}?histograms=1`,
+  /** `{ warnings }`: the open warnings imports left on a baseline (DELETE `<key>/<warningId>` dismisses one). */
+  baselineWarnings: (baselineId: string) => `/api/baselines/${seg(baselineId)}/warnings`,
   /** `{ revisions }` of a baseline; the version makes a new key after every save, so the list reloads. */
   baselineRevisions: (baselineId: string, version: number) => `/api/baselines/${seg(baselineId)}/revisions?v=${version}`,
   /** `{ scenario, role }`. */

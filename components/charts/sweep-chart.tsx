@@ -55,6 +55,7 @@ export function SweepChart({
 }: SweepChartProps) {
   const m = relative ? { ...SWEEP_METRIC[metric], unit: "×", scale: 1 } : SWEEP_METRIC[metric];
   const yLabel = relative ? `${m.label} ÷ value at S = 1` : `${m.label} (${m.unit})`;
+  const unitLabel = m.unit;
   const series = useMemo(
     () =>
       data.curves.map((c) => ({
@@ -66,20 +67,36 @@ export function SweepChart({
     [data, m.scale],
   );
   const outside = useMemo(() => series.flatMap((s) => outsideRuns(s.points).map((points, i) => ({ key: `${OUT_KEY}${s.level}:${i}`, points }))), [series]);
-  const { xDomain, yDomain } = useMemo(() => {
+  const { xDomain, yDomain, useLogY } = useMemo(() => {
     const xs = series.flatMap((s) => s.points.map((p) => p.x));
     const ys = series.flatMap((s) => s.points.map((p) => p.y));
-    if (xs.length === 0) return { xDomain: [0.5, 4] as [number, number], yDomain: [1, 10] as [number, number] };
+    if (xs.length === 0) return { xDomain: [0.5, 4] as [number, number], yDomain: [1, 10] as [number, number], useLogY: logY };
     // Relative curves all pass through 1: keep 1 on the axis so the S = 1 reference line always shows.
     const yLo = relative ? Math.min(1, ...ys) : Math.min(...ys);
     const yHi = relative ? Math.max(1, ...ys) : Math.max(...ys);
+    // The range comes from the data: a log axis only when the curves span more than 4×; otherwise a linear axis
+    // fitted to them (not from 0), so a shallow minimum takes the chart's height instead of a few pixels.
+    const log = logY && yHi / yLo > 4;
+    const pad = (yHi - yLo) * 0.08 || yHi * 0.02;
     return {
       xDomain: [Math.min(...xs), Math.max(...xs)] as [number, number],
-      yDomain: (logY ? [yLo / 1.15, yHi * 1.15] : [0, yHi * 1.08]) as [number, number],
+      yDomain: (log ? [yLo / 1.12, yHi * 1.12] : [Math.max(0, yLo - pad), yHi + pad]) as [number, number],
+      useLogY: log,
     };
   }, [series, logY, relative]);
   const xTicks = scaleTicks(xDomain[0], xDomain[1], Math.max(3, Math.floor(width / 70)));
-  const yTicks = logY ? logTicks(yDomain[0], yDomain[1], Math.max(3, Math.floor(height / 40))) : undefined;
+  const yTicks = useLogY ? logTicks(yDomain[0], yDomain[1], Math.max(3, Math.floor(height / 40))) : undefined;
+  // each curve's lowest point: marked on the chart and named under it
+  const minima = useMemo(
+    () =>
+      series
+        .filter((s) => s.points.length > 0)
+        .map((s) => {
+          const m = s.points.reduce((a, b) => (b.y < a.y ? b : a));
+          return { ...m, interior: m !== s.points[0] && m !== s.points[s.points.length - 1] };
+        }),
+    [series],
+  );
   const marker = markerX !== undefined && markerX >= xDomain[0] && markerX <= xDomain[1] ? markerX : undefined;
   const markerPoints = marker !== undefined && markerDots ? series.map((s) => nearest(s.points, marker)).filter((p): p is Datum => !!p) : [];
 
@@ -98,7 +115,7 @@ export function SweepChart({
         theme={chartTheme}
         margin={{ top: 8, right: 14, bottom: 40, left: 62 }}
         xScale={logX ? { type: "log", domain: xDomain } : { type: "linear", domain: xDomain, zero: false }}
-        yScale={logY ? { type: "log", domain: yDomain } : { type: "linear", domain: yDomain, zero: true }}
+        yScale={useLogY ? { type: "log", domain: yDomain } : { type: "linear", domain: yDomain, zero: false }}
         accessibilityLabel={`${m.label} of ${data.className} against ${xLabel}`}
       >
         {yTicks ? <GridRowsAt values={yTicks} color={CHART.grid} /> : <Grid columns={false} numTicks={4} lineStyle={{ stroke: CHART.grid }} />}
@@ -131,6 +148,14 @@ export function SweepChart({
             strokeWidth={LEVEL_STYLE[s.level].width}
           />
         ))}
+        <GlyphSeries
+          dataKey="Minimum"
+          data={minima}
+          xAccessor={xAcc}
+          yAccessor={yAcc}
+          colorAccessor={(d: Datum) => LEVEL_STYLE[d.level].color}
+          renderGlyph={({ x, y, color }) => <path d={`M${x - 5},${y + 10}L${x + 5},${y + 10}L${x},${y + 3}Z`} fill={color} data-minimum="" />}
+        />
         {markerPoints.length > 0 ? (
           <GlyphSeries
             dataKey="Current scenario"
@@ -147,7 +172,9 @@ export function SweepChart({
           showSeriesGlyphs
           verticalCrosshairStyle={{ stroke: CHART.rule, strokeDasharray: "3 3" }}
           renderGlyph={({ key, x, y, color, size }) =>
-            key.startsWith(OUT_KEY) ? null : <circle cx={x} cy={y} r={size} fill={color} stroke="#fff" strokeWidth={1.5} paintOrder="fill" />
+            key.startsWith(OUT_KEY) || key === "Minimum" ? null : (
+              <circle cx={x} cy={y} r={size} fill={color} stroke="#fff" strokeWidth={1.5} paintOrder="fill" />
+            )
           }
           renderTooltip={({ tooltipData }) => {
             const near = tooltipData?.nearestDatum?.datum;
@@ -158,7 +185,7 @@ export function SweepChart({
                   {data.className} at S = {tick(near.x)}
                 </div>
                 {Object.entries(tooltipData?.datumByKey ?? {})
-                  .filter(([k]) => k !== "Current scenario" && !k.startsWith(OUT_KEY))
+                  .filter(([k]) => k !== "Current scenario" && k !== "Minimum" && !k.startsWith(OUT_KEY))
                   .map(([k, v]) => (
                     <div key={k} className="flex justify-between gap-3">
                       <span style={{ color: LEVEL_STYLE[(v.datum as Datum).level].color }}>{k}</span>
@@ -173,6 +200,16 @@ export function SweepChart({
           }}
         />
       </XYChart>
+      <p className="mt-0.5 text-[10px] leading-snug text-muted" data-testid="sweep-minima">
+        ▲ lowest:{" "}
+        {minima.map((m, i) => (
+          <span key={m.level} style={{ color: LEVEL_STYLE[m.level].color }}>
+            {i > 0 ? "; " : ""}
+            {LEVEL_STYLE[m.level].label} {relative ? `${tick(m.y)}×` : `${tick(m.y)} ${unitLabel}`} at S = {tick(m.x)}
+            {m.interior ? "" : " (range end)"}
+          </span>
+        ))}
+      </p>
       {legend ? <LevelLegend outsideRange={outside.length > 0} /> : null}
     </figure>
   );

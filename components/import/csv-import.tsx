@@ -2,6 +2,7 @@
 
 import Link from "next/link";
 import { useRouter } from "next/navigation";
+import { useSWRConfig } from "swr";
 import { useCallback, useEffect, useId, useRef, useState, type DragEvent } from "react";
 import { Button, buttonClass } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
@@ -10,6 +11,7 @@ import { TextField } from "@/components/ui/field";
 import { TableHead } from "@/components/ui/table";
 import { ApiRequestError, apiUpload, errorMessage, isAbortError } from "@/lib/api-client";
 import { csvLine } from "@/lib/csv-safe";
+import { swrKeys } from "@/lib/swr-keys";
 import type { ImportIssue } from "@/lib/import/types";
 import type { ClassTotalRow, ImportKind, WorkerMessage, WorkerRequest } from "./protocol";
 
@@ -213,6 +215,7 @@ export function CsvImport({
   templateHref: string;
 }) {
   const router = useRouter();
+  const { mutate } = useSWRConfig();
   const kind: ImportKind = target.kind === "histograms" ? "histograms" : "classes";
   const [state, setState] = useState<State>({ step: "pick" });
   const [mode, setMode] = useState<"replace" | "merge" | null>(null);
@@ -286,13 +289,19 @@ export function CsvImport({
     uploadRef.current = ctl;
     setState({ step: "uploading", file, preview, sent: 0, total: file.size });
     try {
-      const body = await apiUpload<{ baseline?: { id: string }; rows?: number } | undefined>(uploadUrl(), file, {
+      const body = await apiUpload<{ baseline?: { id: string }; rows?: number; warnings?: string[] } | undefined>(uploadUrl(), file, {
         contentType: "text/csv",
         signal: ctl.signal,
         onProgress: (sent, total) => setState((s) => (s.step === "uploading" ? { ...s, sent, total } : s)),
       });
       const href = target.kind === "new-baseline" && body?.baseline ? `/teams/${target.teamId}/baselines/${body.baseline.id}` : doneHref;
-      setState({ step: "done", message: `Stored ${nf.format(body?.rows ?? preview.rows)} rows.` });
+      const warned = body?.warnings?.length ?? 0;
+      setState({
+        step: "done",
+        message: `Stored ${nf.format(body?.rows ?? preview.rows)} rows.${warned ? ` ${warned === 1 ? "1 warning is" : `${warned} warnings are`} kept on the baseline until dismissed.` : ""}`,
+      });
+      // the baseline page lists the stored warnings: drop any copy SWR cached on an earlier visit
+      if (target.kind !== "new-baseline") await mutate(swrKeys.baselineWarnings(target.baselineId));
       if (href) {
         router.push(href);
         router.refresh();

@@ -2,6 +2,7 @@ import type { ReactNode } from "react";
 import { Caution } from "@/components/caution";
 import { TableHead } from "@/components/ui/table";
 import { optionAssumptions, levelWords } from "@/lib/reports/assumptions";
+import { countChange, FIGURE_LABEL } from "@/lib/figures";
 import { count, dateTime, eng, fixed, plain } from "@/lib/reports/format";
 import { materialSources, modelsUsed, technologyWords, validityFlags } from "@/lib/reports/models";
 import { signedPct, type Change, type ReportSummary } from "@/lib/reports/summary";
@@ -21,8 +22,8 @@ interface MetricRow {
   unit: string;
   value: (r: FrozenClassResult) => number;
   format: (v: number) => string;
-  /** "context": geometry, no better/worse tone; "points": a share, its change in percentage points. */
-  kind?: "context" | "points";
+  /** "context": geometry, no better/worse tone; "points": a share, its change in percentage points; "count": a count, its change a difference. */
+  kind?: "context" | "points" | "count";
   /** Depends on the operating temperature: the label names it (when the frozen result carries it). */
   atTemperature?: boolean;
 }
@@ -43,8 +44,8 @@ const METRIC_ROWS: Record<ReportMetric, MetricRow[]> = {
     { label: "Wire capacitance", unit: "fF", value: (r) => r.cF, format: (v) => fixed(v, FF) },
   ],
   repeaters: [
-    { label: "Repeater stages per net", unit: "", value: (r) => r.repeaters.count, format: (v) => count(v) },
-    { label: "Inserted repeaters per net", unit: "", value: (r) => since2(r.repeaterCount), format: (v) => count(v) },
+    // one meaning (lib/figures.ts): repeaters inserted on the net; reports frozen by engine 1.x carry stages = inserted + 1
+    { label: `${FIGURE_LABEL.repeaters} per net`, unit: "", value: (r) => r.repeaterCount ?? r.repeaters.count - 1, format: (v) => count(v), kind: "count" },
     {
       label: "Repeater size",
       unit: "× minimum",
@@ -86,6 +87,10 @@ function Delta({ c, className = "" }: { c: number | null; className?: string }) 
 
 function CellDelta({ m, base, value }: { m: MetricRow; base: number; value: number }) {
   if (!Number.isFinite(base) || !Number.isFinite(value)) return <span className="tabular whitespace-nowrap text-muted">n/a</span>;
+  if (m.kind === "count") {
+    const text = countChange(base, value);
+    return <span className={`tabular whitespace-nowrap ${text === "±0" ? "text-muted" : value < base ? "text-good" : "text-bad"}`}>{text}</span>;
+  }
   if (m.kind === "points") {
     const d = value - base;
     const text = Math.abs(d) < 0.005 ? "±0 pt" : `${d < 0 ? "−" : "+"}${plain(Math.abs(d), 2)} pt`;
@@ -94,6 +99,15 @@ function CellDelta({ m, base, value }: { m: MetricRow; base: number; value: numb
   const c = base !== 0 ? value / base - 1 : null;
   if (m.kind === "context") return <span className="tabular whitespace-nowrap text-muted">{signedPct(c)}</span>;
   return <Delta c={c} />;
+}
+
+/** "Cu, k 2.7" when the baseline and every option share them, else "baseline Cu, k 2.7 · A Ru, k 2.2 · B Cu, k 2.2". */
+function materialWords(base: FrozenClassResult, options: { key: string; r: FrozenClassResult | undefined }[]): string {
+  const words = (r: FrozenClassResult) => `${r.metal}, k ${plain(r.k)}`;
+  const b = words(base);
+  const own = options.filter((o): o is { key: string; r: FrozenClassResult } => o.r !== undefined).map((o) => ({ key: o.key, w: words(o.r) }));
+  if (own.every((o) => o.w === b)) return b;
+  return [`baseline ${b}`, ...own.map((o) => `${o.key} ${o.w}`)].join(" · ");
 }
 
 function Section({ id, title, children, breakBefore = false }: { id: string; title: string; children: ReactNode; breakBefore?: boolean }) {
@@ -190,7 +204,7 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
         ) : null}
       </Section>
 
-      <Section id="headlines" title="Headline figures per option (whole design, all classes)" breakBefore>
+      <Section id="headlines" title="Headline figures per option (whole design, all classes)">
         <p className="mb-3 text-xs text-muted">
           Changes are against the baseline ({first.evaluation.level === "ideal" ? "ideal model" : `model level “${first.evaluation.level}”`}
           ): worst-class delay {fixed(summary.headlines[0]!.worstDelay.baseline, PS)} ps ({summary.headlines[0]!.worstDelay.baselineClass}), mean net delay{" "}
@@ -206,11 +220,16 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
               </h3>
               <p className="mt-1 text-xs text-ink">{h.sentence}</p>
               <dl className="mt-2">
-                <Figure label={`Worst-class delay (${h.worstDelay.scenarioClass})`} change={h.worstDelay} value={fixed(h.worstDelay.scenario, PS)} unit="ps" />
-                <Figure label="Mean delay of all nets (length-weighted)" change={h.meanDelay} value={fixed(h.meanDelay.scenario, PS)} unit="ps" />
+                <Figure
+                  label={`${FIGURE_LABEL.worstClassDelay} (${h.worstDelay.scenarioClass}, at mean length)`}
+                  change={h.worstDelay}
+                  value={fixed(h.worstDelay.scenario, PS)}
+                  unit="ps"
+                />
+                <Figure label={FIGURE_LABEL.meanNetDelay} change={h.meanDelay} value={fixed(h.meanDelay.scenario, PS)} unit="ps" />
                 <Figure label="Total wire capacitance" change={h.capacitance} value={eng(h.capacitance.scenario, "F")} />
                 <Figure label="Switching energy, all nets once" change={h.energy} value={eng(h.energy.scenario, "J")} />
-                <Figure label="Repeaters inserted" change={h.repeaters} value={count(h.repeaters.scenario)} />
+                <Figure label={`${FIGURE_LABEL.repeaters}, all nets`} change={h.repeaters} value={count(h.repeaters.scenario)} />
               </dl>
               <ClassRatioChart
                 title="Delay per class against the baseline (1×)"
@@ -229,7 +248,7 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
             <caption className="sr-only">Per class: baseline and each option, with the change against the baseline</caption>
             <thead>
               <tr className="border-b border-rule-strong text-left text-xs text-muted">
-                <th scope="col" className="py-1.5 pr-3 font-medium">
+                <th scope="col" className="sticky left-0 z-10 bg-panel py-1.5 pr-3 font-medium print:static">
                   Class · quantity (unit)
                 </th>
                 <th scope="col" className="px-2 py-1.5 text-right font-medium">
@@ -256,15 +275,19 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
                 <tbody key={name} className="border-b border-rule">
                   <tr>
                     <th scope="rowgroup" colSpan={2 + 2 * f.options.length} className="bg-ground/70 px-1 py-1 text-left text-xs font-semibold text-ink">
-                      {name}{" "}
+                      <span className="sticky left-1">{name}</span>{" "}
                       <span className="font-normal text-muted">
-                        · {base.tier} · {base.metal}, k {plain(base.k)}
+                        · {base.tier} ·{" "}
+                        {materialWords(
+                          base,
+                          f.options.map((o) => ({ key: o.key, r: o.evaluation.classes.find((x) => x.name === name)?.scenario })),
+                        )}
                       </span>
                     </th>
                   </tr>
                   {rows.map((m) => (
                     <tr key={m.label} className="border-t border-rule/60">
-                      <th scope="row" className="py-1 pr-3 pl-3 text-left text-xs font-normal text-muted">
+                      <th scope="row" className="sticky left-0 z-10 bg-panel py-1 pr-3 pl-3 text-left text-xs font-normal text-muted print:static">
                         {m.label}
                         {m.unit ? ` (${m.unit})` : ""}
                         {m.atTemperature && base.temperatureC !== undefined ? ` at ${plain(base.temperatureC, 4)} °C` : ""}
@@ -300,9 +323,11 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
       {f.sweeps.length > 0 ? (
         <Section id="sweeps" title="Where delay stops improving: delay against S" breakBefore>
           <p className="mb-3 max-w-3xl text-xs text-muted">
-            Each curve shrinks the cross-section further (larger S, same wire lengths) with the option&apos;s other choices kept; the marker is where the option
-            sits. Where a curve bends upward, resistance grows faster than capacitance falls and a further shrink stops paying off. The grey dashed line is
-            Option A without size effects: the gap to Option A is what electron scattering at surfaces and grain boundaries costs.
+            Each curve shrinks the cross-section further (larger S) with the option&apos;s other choices kept; wire lengths follow the class&apos;s rule (they
+            shrink with S where the option scales lengths with the section, or for local and intermediate wires; otherwise they are kept), as each figure says.
+            The marker is where the option sits; a triangle marks each curve&apos;s minimum. Where a curve bends upward, resistance grows faster than
+            capacitance falls and a further shrink stops paying off. The grey dashed line is Option A without size effects: the gap to Option A is what electron
+            scattering at surfaces and grain boundaries costs.
           </p>
           <div className="grid gap-6 lg:grid-cols-2 print:grid-cols-1">
             {f.sweeps.map((s) => (
@@ -334,7 +359,7 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
         </div>
         <p className="mt-2 text-xs text-muted">
           Technology (same for all): supply {plain(f.baseline.technology.supplyV)} V, clock {eng(f.baseline.technology.clockHz, "Hz")}, minimum repeater R0{" "}
-          {eng(f.baseline.technology.repeaterR0Ohm, "Ω")} and C0 {eng(f.baseline.technology.repeaterC0F, "F")}, delay budget{" "}
+          {eng(f.baseline.technology.repeaterR0Ohm, "Ω")} and C0 {fixed(f.baseline.technology.repeaterC0F, FF)} fF, delay budget{" "}
           {eng(f.baseline.technology.delayBudgetS, "s")}; {technologyWords(f)}.
         </p>
       </Section>

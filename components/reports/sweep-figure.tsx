@@ -47,12 +47,23 @@ function Marker({ kind, x, y, color }: { kind: string; x: number; y: number; col
 export function SweepFigure({ sweep, optionNames }: { sweep: FrozenSweep; optionNames: Record<string, string> }) {
   const PS = 1e-12;
   const all = sweep.series.flatMap((s) => s.points).concat(sweep.marks.map((m) => ({ x: m.x, y: m.y })));
-  const yMax = Math.max(...all.map((p) => p.y / PS), 1e-9);
-  const yTicks = ticks(0, yMax * 1.05, 5);
-  const yTop = Math.max(yTicks[yTicks.length - 1] ?? yMax, yMax);
+  // the y range comes from the data (not from 0), so a shallow minimum is not squashed into a few pixels
+  const ys = all.map((p) => p.y / PS).filter((v) => Number.isFinite(v));
+  const dataMin = ys.length ? Math.min(...ys) : 0;
+  const dataMax = ys.length ? Math.max(...ys) : 1;
+  const pad = Math.max((dataMax - dataMin) * 0.08, dataMax * 0.01, 1e-9);
+  const yTicks = ticks(Math.max(0, dataMin - pad), dataMax + pad, 5);
+  const yBottom = Math.min(yTicks[0] ?? dataMin, Math.max(0, dataMin - pad));
+  const yTop = Math.max(yTicks[yTicks.length - 1] ?? dataMax, dataMax + pad);
   const xTicks = ticks(sweep.from, sweep.to, 6);
   const sx = (x: number) => M.l + ((x - sweep.from) / (sweep.to - sweep.from)) * (W - M.l - M.r);
-  const sy = (yPs: number) => H - M.b - (yPs / yTop) * (H - M.t - M.b);
+  const sy = (yPs: number) => H - M.b - ((yPs - yBottom) / (yTop - yBottom)) * (H - M.t - M.b);
+  // each curve's lowest point, marked and labelled (an interior minimum is where shrinking stops paying off)
+  const minima = sweep.series.map((s) => {
+    const m = s.points.reduce((a, b) => (b.y < a.y ? b : a), s.points[0] ?? { x: NaN, y: NaN });
+    const interior = s.points.length > 2 && m !== s.points[0] && m !== s.points[s.points.length - 1];
+    return { key: s.key, x: m.x, y: m.y, interior };
+  });
   const path = (pts: { x: number; y: number }[]) => pts.map((p, i) => `${i === 0 ? "M" : "L"}${sx(p.x).toFixed(1)},${sy(p.y / PS).toFixed(1)}`).join("");
   const title = `Delay of class ${sweep.className} against the cross-section factor S`;
   // Stretches where a model is outside its validity range (engine 2 stores the flags on every point; older reports have none).
@@ -113,6 +124,22 @@ export function SweepFigure({ sweep, optionNames }: { sweep: FrozenSweep; option
             </path>
           );
         })}
+        {minima
+          .filter((m) => Number.isFinite(m.y))
+          .map((m, i) => {
+            const st = SERIES_STYLE[m.key] ?? SERIES_STYLE.reference!;
+            const x = sx(m.x);
+            const y = sy(m.y / PS);
+            return (
+              <g key={`min${m.key}`} data-minimum={m.key}>
+                <line x1={x} x2={x} y1={y + 3} y2={H - M.b} stroke={st.color} strokeWidth={0.8} strokeDasharray="2 2" />
+                <path d={`M${x - 5},${y + 9}L${x + 5},${y + 9}L${x},${y + 3}Z`} fill={st.color} />
+                <text x={Math.min(W - M.r - 4, Math.max(M.l + 4, x))} y={y + 20 + 11 * i} textAnchor="middle" fontSize={9.5} fill={st.color}>
+                  {m.key === "reference" ? "ref." : m.key} min{m.interior ? "" : " (at the end)"} S = {plain(m.x, 3)}, {plain(m.y / PS, 3)} ps
+                </text>
+              </g>
+            );
+          })}
         {sweep.marks.map((m) => {
           const st = SERIES_STYLE[m.key] ?? SERIES_STYLE.A!;
           return (
@@ -141,7 +168,14 @@ export function SweepFigure({ sweep, optionNames }: { sweep: FrozenSweep; option
             {OUTSIDE.label}
           </span>
         ) : null}
-        <span>Markers: each option at its own S.</span>
+        <span>
+          Markers: each option at its own S; triangles: each curve&apos;s minimum.{" "}
+          {sweep.lengthRule === "follow"
+            ? "Wire lengths shrink with S (S_L = S)."
+            : sweep.lengthRule === "fixed"
+              ? "Wire lengths kept (S_L = 1)."
+              : "Wire lengths at each option's S_L."}
+        </span>
       </figcaption>
     </figure>
   );

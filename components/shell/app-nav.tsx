@@ -19,6 +19,7 @@ const SECTIONS = [
 function Menu({ label, buttonLabel, children, align = "left" }: { label: string; buttonLabel: ReactNode; children: ReactNode; align?: "left" | "right" }) {
   const [open, setOpen] = useState(false);
   const ref = useRef<HTMLDivElement>(null);
+  const buttonRef = useRef<HTMLButtonElement>(null);
   // Navigation closes the menu (adjusted while rendering, not in an effect).
   const pathname = usePathname();
   const [shownOn, setShownOn] = useState(pathname);
@@ -28,7 +29,12 @@ function Menu({ label, buttonLabel, children, align = "left" }: { label: string;
   }
   useEffect(() => {
     if (!open) return;
-    const onKey = (e: KeyboardEvent) => e.key === "Escape" && setOpen(false);
+    // Escape closes and gives focus back to the button (focus inside the menu would otherwise drop to the page body)
+    const onKey = (e: KeyboardEvent) => {
+      if (e.key !== "Escape") return;
+      setOpen(false);
+      buttonRef.current?.focus();
+    };
     const onClick = (e: MouseEvent) => ref.current && !ref.current.contains(e.target as Node) && setOpen(false);
     document.addEventListener("keydown", onKey);
     document.addEventListener("mousedown", onClick);
@@ -40,6 +46,7 @@ function Menu({ label, buttonLabel, children, align = "left" }: { label: string;
   return (
     <div ref={ref} className="relative">
       <button
+        ref={buttonRef}
         type="button"
         aria-haspopup="true"
         aria-expanded={open}

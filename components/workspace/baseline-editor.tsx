@@ -3,7 +3,7 @@ import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useMemo, useState } from "react";
 import useSWR from "swr";
-import type { BaselineRevision, BaselineWithClasses } from "@/db/queries/baselines";
+import type { BaselineRevision, BaselineWarning, BaselineWithClasses } from "@/db/queries/baselines";
 import type { StoredWireClass } from "@/db/queries/wire-classes";
 import type { Role } from "@/lib/access";
 import Decimal from "decimal.js";
@@ -25,6 +25,7 @@ import { swrKeys } from "@/lib/swr-keys";
 import { Button, ButtonLink } from "@/components/ui/button";
 import { Badge, Card, Notice } from "@/components/ui/card";
 import { inputClass } from "@/components/ui/field";
+import { BaselineWarnings } from "./baseline-warnings";
 import { MaterialsPanel } from "./materials-panel";
 import { NumberField } from "./number-field";
 import { CAPACITANCE_CHOICE_LABEL, U, formatValue, parseValue, type DisplayUnit } from "./units";
@@ -171,11 +172,13 @@ export function BaselineEditor({
   role,
   userId,
   scenarios,
+  warnings,
 }: {
   initial: BaselineWithClasses;
   role: Role;
   userId: string;
   scenarios: { id: string; name: string }[];
+  warnings: BaselineWarning[];
 }) {
   const router = useRouter();
   const url = swrKeys.baseline(initial.id);
@@ -393,6 +396,7 @@ export function BaselineEditor({
         </div>
       </header>
       <CsvLinks teamId={b.teamId} baselineId={b.id} canImport={!readOnly} />
+      <BaselineWarnings baselineId={b.id} initial={warnings} canDismiss={!readOnly} />
       {stale !== null ? (
         <Notice tone="warn" role="alert">
           <p className="font-medium">Someone saved this baseline while you were editing (now version {stale}). Nothing was overwritten.</p>

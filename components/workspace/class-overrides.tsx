@@ -90,6 +90,7 @@ export function ClassOverrides({
                   <td key={k} className="px-1 py-0.5">
                     <OptionalNumber
                       label={`${k === "s" ? "S" : "S_L"} for ${c.name}`}
+                      fit
                       value={o[k]}
                       onChange={(v) => setO(c.name, { [k]: v })}
                       check={CHECK[k]}
@@ -252,7 +253,10 @@ function OptionalNumber({
   unit = U.none,
   className = "w-16",
   placeholder = "—",
+  fit = false,
 }: {
+  /** Grow with the text (at least the class's width), so a derived 1.428571429 shows whole instead of "1.4285". */
+  fit?: boolean;
   unit?: DisplayUnit;
   className?: string;
   placeholder?: string;
@@ -276,9 +280,12 @@ function OptionalNumber({
   }
   const all = [...(msg ? [msg] : []), ...(errors ?? [])];
   return (
-    <div className={className}>
+    <div className={fit ? "min-w-16" : className}>
       <input
         aria-label={label}
+        title={text || undefined}
+        // the width in the input's own ch (its font), so a derived value shows whole
+        style={fit ? { width: `calc(${Math.max(5, text.length) + 1}ch + 1rem)` } : undefined}
         inputMode="decimal"
         value={text}
         placeholder={placeholder}

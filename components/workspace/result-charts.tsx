@@ -27,15 +27,16 @@ export const RatioCharts = memo(function RatioCharts({ e }: { e: Evaluation }) {
               { label: "C", ratio: c.ratio.cFPerM },
               { label: "RC", ratio: c.ratio.rcS },
               { label: "Delay", ratio: c.ratio.delayS },
-              { label: "Rep.", ratio: c.ratio.repeaters },
+              // the engine's ratio of repeater stages (inserted + 1): labelled as such (lib/figures.ts)
+              { label: "Stages", ratio: c.ratio.repeaters },
               { label: "Energy", ratio: c.ratio.energyJ },
             ]}
           />
         ))}
       </div>
       <p className="mt-1 text-[11px] text-muted">
-        Per-length R and C; RC, delay and energy at each class&apos;s typical length. Bars: scenario ÷ baseline (dashed line = 1×, the baseline). Green: better
-        than the baseline, red: worse, grey: within ±0.5%.
+        Per-length R and C; RC, delay and energy at each class&apos;s typical length. Stages: repeater stages per net (inserted repeaters + 1). Bars: scenario ÷
+        baseline (dashed line = 1×, the baseline). Green: better than the baseline, red: worse, grey: within ±0.5%.
       </p>
     </Card>
   );

@@ -1,5 +1,7 @@
 "use client";
+import { useState } from "react";
 import type { ClassComparison, ClassResult, Evaluation } from "@/lib/scaling";
+import { countChange } from "@/lib/figures";
 import { fmt, fmtRatio, U } from "./units";
 
 // Per-length units: Ω/µm = 1e6 Ω/m, fF/µm = 1e-9 F/m; repeated delay per mm: ps/mm = 1e-9 s/m.
@@ -15,8 +17,12 @@ type Col = {
   /** null = not applicable (shown as —). */
   get: (r: ClassResult) => number | null;
   ratio?: (c: ClassComparison) => number;
+  /** For counts: the change as text (a difference), shown in the ratio row instead of a ratio. */
+  change?: (c: ClassComparison) => string;
   concern?: "capacitance" | "resistivity" | "delay" | "repeaters";
   title?: string;
+  /** A breakdown column: shown from 1280 px (xl) or on request, so the key columns fit at 1024 px without scrolling. */
+  detail?: boolean;
 };
 
 const COLS: Col[] = [
@@ -38,6 +44,7 @@ const COLS: Col[] = [
   },
   {
     key: "ca",
+    detail: true,
     label: "area",
     unit: "fF/µm",
     get: (r) => Number(fmtRaw(r.capacitance.areaFPerM, FF_PER_UM.unitSI)),
@@ -45,6 +52,7 @@ const COLS: Col[] = [
   },
   {
     key: "cf",
+    detail: true,
     label: "fringe",
     unit: "fF/µm",
     get: (r) => Number(fmtRaw(r.capacitance.fringeFPerM, FF_PER_UM.unitSI)),
@@ -52,6 +60,7 @@ const COLS: Col[] = [
   },
   {
     key: "cc",
+    detail: true,
     label: "coupling",
     unit: "fF/µm",
     get: (r) => Number(fmtRaw(r.capacitance.couplingMillerFPerM, FF_PER_UM.unitSI)),
@@ -70,14 +79,16 @@ const COLS: Col[] = [
   {
     key: "n",
     label: "Repeaters",
-    unit: "",
+    unit: "inserted",
     get: (r) => r.repeaterCount,
-    ratio: (c) => c.ratio.repeaters,
+    // a count's change is a difference (0 → 1 is "+1"; lib/figures.ts), not the engine's ratio of stages
+    change: (c) => countChange(c.baseline.repeaterCount, c.scenario.repeaterCount),
     concern: "repeaters",
-    title: "Inserted repeaters on a net of the typical length: real driver → repeaters → real load (0 = driver only)",
+    title: "Inserted repeaters on a net of the typical length: real driver → repeaters → real load (0 = driver only); the change row gives the difference",
   },
   {
     key: "h",
+    detail: true,
     label: "Rep. size",
     unit: "× min",
     get: (r) => (r.repeaterCount > 0 ? r.repeaterSize : null),
@@ -85,6 +96,7 @@ const COLS: Col[] = [
   },
   {
     key: "ra",
+    detail: true,
     label: "Rep. area",
     unit: "µm²",
     get: (r) => Number(fmtRaw(r.repeaterAreaM2, 1e-12)),
@@ -92,6 +104,7 @@ const COLS: Col[] = [
   },
   {
     key: "rp",
+    detail: true,
     label: "Rep. power",
     unit: "% of class",
     get: (r) => (r.powerW > 0 ? (100 * r.repeaterPowerW) / r.powerW : null),
@@ -133,18 +146,29 @@ function tone(r: number): string {
 export function ResultsTable({ evaluation, dataKey }: { evaluation: Evaluation; dataKey?: string }) {
   // One operating temperature per evaluation (the baseline's technology): resistance is at it.
   const temperatureC = evaluation.classes[0]?.scenario.temperatureC;
+  const [all, setAll] = useState(false);
+  const cell = (c: Col) => (c.detail && !all ? "hidden xl:table-cell" : "");
   return (
     <div className="overflow-x-auto" data-results-key={dataKey}>
+      <button
+        type="button"
+        className="no-print mb-1 text-[11px] text-copper-dark hover:underline xl:hidden"
+        aria-pressed={all}
+        onClick={() => setAll((a) => !a)}
+        data-testid="all-columns"
+      >
+        {all ? "Key columns only" : "Show all columns (capacitance parts, repeater size, area and power)"}
+      </button>
       <table className="num w-full border-collapse text-xs" data-testid="results-table">
         <caption className="sr-only">Results per wire class: baseline, scenario and scenario/baseline ratio</caption>
         <thead>
           <tr className="border-b border-rule-strong text-muted">
-            <th scope="col" className="py-1.5 pr-2 text-left font-medium">
+            <th scope="col" className="sticky left-0 z-10 bg-panel py-1.5 pr-2 text-left font-medium">
               Class
             </th>
             <th scope="col" className="pr-2 text-left font-medium" />
             {COLS.map((c) => (
-              <th key={c.key} scope="col" className="px-1.5 text-right font-medium" title={c.title}>
+              <th key={c.key} scope="col" className={`px-1.5 text-right font-medium ${cell(c)}`} title={c.title}>
                 {c.label}
                 {c.unit ? <span className="block text-[10px] font-normal text-faint">{c.unit}</span> : <span className="block text-[10px]">&nbsp;</span>}
                 {c.key === "r" && temperatureC !== undefined ? (
@@ -157,20 +181,20 @@ export function ResultsTable({ evaluation, dataKey }: { evaluation: Evaluation; 
           </tr>
         </thead>
         {evaluation.classes.map((cc) => (
-          <ClassRows key={cc.name} cc={cc} />
+          <ClassRows key={cc.name} cc={cc} cell={cell} />
         ))}
       </table>
     </div>
   );
 }
 
-function ClassRows({ cc }: { cc: ClassComparison }) {
+function ClassRows({ cc, cell }: { cc: ClassComparison; cell: (c: Col) => string }) {
   const s = cc.scenario;
   const flags = s.validity;
   return (
     <tbody className="border-b border-rule" data-class={cc.name}>
       <tr>
-        <th scope="rowgroup" rowSpan={3} className="py-1 pr-2 text-left align-top">
+        <th scope="rowgroup" rowSpan={3} className="sticky left-0 z-10 max-w-[9rem] bg-panel py-1 pr-2 text-left align-top">
           <div className="font-semibold text-ink">{cc.name}</div>
           {s.tier !== cc.name ? <div className="font-normal text-muted">{s.tier}</div> : null}
           <div className="font-normal text-muted">
@@ -184,7 +208,7 @@ function ClassRows({ cc }: { cc: ClassComparison }) {
         </th>
         <td className="pr-2 text-muted">Baseline</td>
         {COLS.map((c) => (
-          <td key={c.key} className="tabular px-1.5 py-0.5 text-right text-muted">
+          <td key={c.key} className={`tabular px-1.5 py-0.5 text-right text-muted ${cell(c)}`}>
             {show(c.get(cc.baseline))}
           </td>
         ))}
@@ -192,7 +216,7 @@ function ClassRows({ cc }: { cc: ClassComparison }) {
       <tr>
         <td className="pr-2 font-medium text-ink">Scenario</td>
         {COLS.map((c) => (
-          <td key={c.key} className="tabular px-1.5 py-0.5 text-right font-medium text-ink" data-col={c.key}>
+          <td key={c.key} className={`tabular px-1.5 py-0.5 text-right font-medium text-ink ${cell(c)}`} data-col={c.key}>
             {show(c.get(s))}
             {c.concern && s.accuracy[c.concern] ? (
               <sup className="ml-0.5 cursor-help text-faint" title={`Accuracy: ${s.accuracy[c.concern]}`} aria-label={`accuracy: ${s.accuracy[c.concern]}`}>
@@ -206,9 +230,15 @@ function ClassRows({ cc }: { cc: ClassComparison }) {
         <td className="pr-2 text-muted">Ratio</td>
         {COLS.map((c) => {
           const r = c.ratio?.(cc);
+          const d = c.change?.(cc);
           return (
-            <td key={c.key} className="px-1.5 py-0.5 text-right" data-ratio={c.key}>
+            <td key={c.key} className={`px-1.5 py-0.5 text-right ${cell(c)}`} data-ratio={c.key}>
               {r !== undefined ? <span className={`tabular rounded px-1 ${tone(r)}`}>{fmtRatio(r)}</span> : null}
+              {d !== undefined ? (
+                <span className={`tabular rounded px-1 ${d === "±0" ? "text-muted" : d.startsWith("+") ? "bg-bad-soft text-bad" : "bg-good-soft text-good"}`}>
+                  {d}
+                </span>
+              ) : null}
             </td>
           );
         })}

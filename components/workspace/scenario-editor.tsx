@@ -22,6 +22,8 @@ import { SweepPanel, type SweepView } from "./sweep-panel";
 import { fmt, U } from "./units";
 import { keyOf } from "./settings-key";
 import { useEvaluation, type EvaluationState } from "./use-evaluation";
+import { explainEngineError } from "@/lib/workspace/engine-errors";
+import { countChange, FIGURE_DEFINITION, FIGURE_LABEL, worstClassDelay } from "@/lib/figures";
 import { ConfirmDelete } from "@/components/ui/confirm-delete";
 
 // Charts (visx) and the field check load in the browser after the first paint: the settings and the results
@@ -192,6 +194,14 @@ export function ScenarioEditor(props: {
     }
   }
 
+  // an engine error in the user's words, with the fields it is about marked (lib/workspace/engine-errors.ts)
+  const explained = evalResult.ok ? null : explainEngineError(evalResult.message, draft.settings);
+  const shownErrors = useMemo(() => {
+    if (!explained) return fieldErrors;
+    const out = { ...fieldErrors };
+    for (const [k, v] of Object.entries(explained.fields)) out[k] = [...(out[k] ?? []), ...v];
+    return out;
+  }, [explained, fieldErrors]);
   const setSettings = (settings: ScenarioSettings) => setDraft((d) => ({ ...d, settings }));
   const evaluation = evalResult.ok ? evalResult.e : null;
   // The table is urgent; the secondary charts follow when the main thread is free (a slider drag stays smooth).
@@ -202,7 +212,7 @@ export function ScenarioEditor(props: {
   return (
     <div className="space-y-4">
       <header className="flex flex-wrap items-start justify-between gap-3">
-        <div className="min-w-0">
+        <div className="w-full min-w-0 sm:w-auto sm:flex-1">
           <p className="text-xs text-muted">
             <Link href={`/teams/${teamId}/scenarios`} className="hover:underline">
               Scenarios
@@ -225,7 +235,8 @@ export function ScenarioEditor(props: {
             <label className="mt-1 block">
               <span className="sr-only">Scenario name</span>
               <input
-                className="w-full min-w-[18rem] rounded border border-transparent bg-transparent px-1 text-xl font-semibold text-ink hover:border-rule focus:border-copper focus:outline-none"
+                className="w-full min-w-0 rounded border border-transparent bg-transparent px-1 text-xl font-semibold text-ink hover:border-rule focus:border-copper focus:outline-none"
+                title={draft.name}
                 value={draft.name}
                 name="scenario-name"
                 onChange={(e) => setDraft((d) => ({ ...d, name: e.target.value }))}
@@ -273,10 +284,25 @@ export function ScenarioEditor(props: {
       ) : null}
       {message ? <Notice tone={message.tone}>{message.text}</Notice> : null}
 
+      <nav aria-label="On this page" className="no-print -mt-2 flex flex-wrap gap-x-3 text-xs">
+        <a href="#results" className="text-copper-dark hover:underline">
+          Results
+        </a>
+        <a href="#overrides" className="text-copper-dark hover:underline">
+          Per-class overrides
+        </a>
+        <a href="#sweep" className="text-copper-dark hover:underline" data-testid="skip-to-sweep">
+          Sweep
+        </a>
+        <a href="#settings" className="text-copper-dark hover:underline">
+          Settings
+        </a>
+      </nav>
+      {/* On a phone the results come first, then the settings (visual order; the links above jump to each part) */}
       <div className="grid gap-4 lg:grid-cols-[19rem_minmax(0,1fr)]">
-        <aside className="space-y-4">
+        <aside id="settings" className="order-2 space-y-4 lg:order-1">
           <Card title="Scale factors and options">
-            {readOnly ? <ReadOnlySettings settings={s} /> : <SettingsPanel settings={s} onChange={setSettings} classes={classes} errors={fieldErrors} />}
+            {readOnly ? <ReadOnlySettings settings={s} /> : <SettingsPanel settings={s} onChange={setSettings} classes={classes} errors={shownErrors} />}
           </Card>
           <Card title="Notes">
             {readOnly ? (
@@ -312,7 +338,8 @@ export function ScenarioEditor(props: {
           </Card>
         </aside>
 
-        <div className="min-w-0 space-y-4">
+        <div className="order-1 min-w-0 space-y-4 lg:order-2">
+          <div id="results" className="scroll-mt-16" />
           <Card
             title={`Results — ${LEVEL_LABEL[s.level]}`}
             actions={
@@ -336,13 +363,31 @@ export function ScenarioEditor(props: {
                 <ResultsTable evaluation={evaluation} dataKey={evalResult.key} />
               </>
             ) : (
-              <Notice tone="bad">These settings cannot be evaluated: {evalResult.ok ? "" : evalResult.message}</Notice>
+              <Notice tone="bad">
+                <span data-testid="engine-error">These settings cannot be evaluated. {explained?.text}</span>
+              </Notice>
             )}
             <Caution className="mt-3" />
           </Card>
           <Card title="Per-class overrides">
-            <ClassOverrides settings={s} onChange={setSettings} classes={classes} readOnly={readOnly} errors={fieldErrors} />
+            {/* collapsed while no class has an override (one summary tab stop instead of 56 inputs before the sweep) */}
+            <details
+              id="overrides"
+              className="scroll-mt-16"
+              open={Object.keys(s.overrides).length > 0 || Object.keys(shownErrors).some((k) => k.startsWith("settings.overrides.")) || undefined}
+              data-testid="overrides"
+            >
+              <summary className="cursor-pointer select-none text-xs text-muted">
+                {Object.keys(s.overrides).length === 0
+                  ? "No class overrides: every class follows the settings. Show the table"
+                  : `${Object.keys(s.overrides).length} class${Object.keys(s.overrides).length === 1 ? "" : "es"} with overrides: ${Object.keys(s.overrides).join(", ")}`}
+              </summary>
+              <div className="mt-2">
+                <ClassOverrides settings={s} onChange={setSettings} classes={classes} readOnly={readOnly} errors={shownErrors} />
+              </div>
+            </details>
           </Card>
+          <div id="sweep" className="scroll-mt-16" tabIndex={-1} />
           <Card title="Sweep — metric against S">
             {evaluation ? (
               <SweepPanel classes={classes} technology={baseline.technology} settings={s} view={view} onView={setView} settingsKey={settingsKey} />
@@ -362,27 +407,37 @@ export function ScenarioEditor(props: {
   );
 }
 
+/** The headline figures, with the report's definitions (lib/figures.ts): worst-class delay, inserted repeaters, power. */
 function Totals({ e }: { e: Evaluation }) {
   const b = e.totals.baseline;
   const s = e.totals.scenario;
+  const wb = worstClassDelay(e.classes.map((c) => c.baseline));
+  const ws = worstClassDelay(e.classes.map((c) => c.scenario));
   const items = [
-    { label: "Worst delay", b: b.worstDelayS, s: s.worstDelayS, u: U.ps, unit: "ps" },
-    { label: "Repeaters (all nets)", b: b.repeaters, s: s.repeaters, u: U.none, unit: "", count: true },
-    { label: "Switching power", b: b.powerW, s: s.powerW, u: { label: "mW", unitSI: 1e-3, base: "W" as const, suffix: "mW" }, unit: "mW" },
+    {
+      label: `${FIGURE_LABEL.worstClassDelay} (${ws.name})`,
+      title: `${FIGURE_LABEL.worstClassDelay}: ${FIGURE_DEFINITION.worstClassDelay}`,
+      b: wb.delayS,
+      s: ws.delayS,
+      u: U.ps,
+      unit: "ps",
+    },
+    { label: `${FIGURE_LABEL.repeaters}, all nets`, title: FIGURE_DEFINITION.repeaters, b: b.repeaters, s: s.repeaters, u: U.none, unit: "", count: true },
+    { label: "Switching power", title: undefined, b: b.powerW, s: s.powerW, u: { label: "mW", unitSI: 1e-3, base: "W" as const, suffix: "mW" }, unit: "mW" },
   ];
   return (
-    <dl className="mb-3 grid grid-cols-3 gap-3 text-xs">
+    <dl className="mb-3 grid gap-3 text-xs sm:grid-cols-3">
       {items.map((i) => {
         const r = i.b > 0 ? i.s / i.b : NaN;
         const show = (v: number) => ("count" in i ? Math.round(v).toLocaleString("en") : fmt(v, i.u));
         return (
-          <div key={i.label} className="rounded border border-rule px-2 py-1.5">
+          <div key={i.label} className="rounded border border-rule px-2 py-1.5" title={i.title} data-testid="total">
             <dt className="text-muted">{i.label}</dt>
             <dd className="tabular text-sm font-semibold text-ink">
               {show(i.s)} {i.unit}{" "}
               <span className={`text-xs font-normal ${r < 0.995 ? "text-good" : r > 1.005 ? "text-bad" : "text-muted"}`}>
                 (baseline {show(i.b)}
-                {Number.isFinite(r) ? `, ${r.toFixed(2)}×` : ""})
+                {"count" in i ? `, ${countChange(i.b, i.s)}` : Number.isFinite(r) ? `, ${r.toFixed(2)}×` : ""})
               </span>
             </dd>
           </div>

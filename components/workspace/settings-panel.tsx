@@ -1,7 +1,9 @@
 "use client";
+import Decimal from "decimal.js";
 import { useId, useState } from "react";
-import { DIELECTRICS, METALS, MODEL_LEVELS, sFromTargetPitch, type AirGap, type ModelLevel, type ScenarioSettings, type WireClass } from "@/lib/scaling/client";
+import { DIELECTRICS, METALS, MODEL_LEVELS, type AirGap, type ModelLevel, type ScenarioSettings, type WireClass } from "@/lib/scaling/client";
 import { inputClass } from "@/components/ui/field";
+import { pitchExact, sFromPitchExact } from "@/lib/workspace/pitch";
 import { NumberField } from "./number-field";
 import { U, formatValue, parseValue } from "./units";
 
@@ -48,7 +50,7 @@ export function SettingsPanel({ settings, onChange, classes, errors }: Props) {
     <div className="space-y-4">
       <SliderField
         label="S — cross-section factor"
-        hint="W, T, spacing and ILD ÷ S"
+        hint="S = old ÷ new size: width, thickness, spacing and ILD are divided by S. S > 1 shrinks the wires (a 0.7× pitch is S = 1/0.7 = 1.43); S < 1 makes them grow."
         min={0.5}
         max={4}
         step={0.01}
@@ -58,10 +60,11 @@ export function SettingsPanel({ settings, onChange, classes, errors }: Props) {
         errors={err("s")}
         name="s"
       />
+      {settings.s < 1 && settings.s > 0 ? <GrowthHint s={settings.s} onUse={(v) => set("s", v)} /> : null}
       <PitchDerive classes={classes} onS={(s) => set("s", s)} />
       <SliderField
         label="S_L — length factor"
-        hint="wire lengths ÷ S_L"
+        hint="wire lengths ÷ S_L (S_L > 1: shorter wires)"
         min={0.5}
         max={4}
         step={0.01}
@@ -201,16 +204,88 @@ export function SliderField(p: {
             data-testid={`${p.name}-slider`}
             min={p.min}
             max={p.max}
-            step={p.step}
+            // "any": the browser never snaps the current value (a derived 1.55556 stays 1.55556); drags round to `step`
+            step="any"
             value={Math.min(p.max, Math.max(p.min, p.value))}
-            onChange={(e) => p.onChange(Number(e.target.value))}
+            aria-valuetext={formatValue(p.value, U.none)}
+            aria-describedby={`${id}-range${p.hint ? ` ${id}-hint` : ""}`}
+            onChange={(e) => {
+              const v = roundToStep(Number(e.target.value), p.step);
+              if (p.check?.(v) === undefined) p.onChange(v);
+            }}
+            onKeyDown={(e) => {
+              const v = sliderKey(e.key, p.value, p);
+              if (v === null) return;
+              e.preventDefault();
+              if (v !== p.value && p.check?.(v) === undefined) p.onChange(v);
+            }}
             className="w-full accent-[var(--color-copper)]"
           />
+          <div
+            id={`${id}-range`}
+            className="flex justify-between text-[10px] text-faint"
+            aria-label={`Slider range ${p.min} to ${p.max}; type any other value in the box`}
+          >
+            <span aria-hidden>{p.min}</span>
+            <span aria-hidden>{p.max}</span>
+          </div>
         </div>
-        <NumberField label={`${p.label} value`} compact value={p.value} onChange={p.onChange} check={p.check} className="w-20" name={p.name} />
+        <NumberField label={`${p.label} value`} compact value={p.value} onChange={p.onChange} check={p.check} className="w-28" name={p.name} />
       </div>
-      {p.hint ? <p className="mt-0.5 text-[11px] text-muted">{p.hint}</p> : null}
+      {p.hint ? (
+        <p id={`${id}-hint`} className="mt-0.5 text-[11px] text-muted">
+          {p.hint}
+        </p>
+      ) : null}
       {p.errors?.length ? <p className="text-xs text-bad">{p.errors.join(" ")}</p> : null}
+    </div>
+  );
+}
+
+/** `v` rounded to the step's decimals (exact in decimal: 1.5 + 0.01 is 1.51, not 1.5100000000000002). */
+function roundToStep(v: number, step: number): number {
+  return new Decimal(v).toNearest(step).toNumber();
+}
+
+/**
+ * The value a key gives on a slider, stepping from the current value (not from the nearest slider notch): arrows ± step,
+ * Page Up/Down ± 10 steps, Home/End the slider's labelled ends. Null: not a slider key. Exact in decimal.
+ */
+export function sliderKey(key: string, value: number, p: { min: number; max: number; step: number }): number | null {
+  const d = new Decimal(value);
+  switch (key) {
+    case "ArrowRight":
+    case "ArrowUp":
+      return d.plus(p.step).toNumber();
+    case "ArrowLeft":
+    case "ArrowDown":
+      return d.minus(p.step).toNumber();
+    case "PageUp":
+      return d.plus(new Decimal(p.step).times(10)).toNumber();
+    case "PageDown":
+      return d.minus(new Decimal(p.step).times(10)).toNumber();
+    case "Home":
+      return p.min;
+    case "End":
+      return p.max;
+    default:
+      return null;
+  }
+}
+
+/** S < 1 makes every wire grow: say so, with the reciprocal most people meant (a pitch factor typed as S). */
+function GrowthHint({ s, onUse }: { s: number; onUse: (s: number) => void }) {
+  const inverse = new Decimal(1).div(new Decimal(s).toSignificantDigits(15));
+  const shown = inverse.toSignificantDigits(3).toFixed();
+  const typed = formatValue(s, U.none);
+  return (
+    <div role="status" className="rounded-md border border-warn/30 bg-warn-soft px-2 py-1.5 text-xs text-warn" data-testid="s-growth-hint">
+      <p>
+        S = {typed} &lt; 1 — wires grow: did you mean S = 1/{typed} = {shown}?
+      </p>
+      <button type="button" className="mt-1 font-medium underline" onClick={() => onUse(inverse.toNumber())}>
+        Use S = 1/{typed} = {shown}
+      </button>
     </div>
   );
 }
@@ -317,7 +392,7 @@ export function DielectricField({
   );
 }
 
-/** Derive S from a target pitch for one class: S = (W + spacing) / target pitch. */
+/** Derive S from a target pitch for one class: S = (W + spacing) / target pitch (the engine's in decimal). */
 function PitchDerive({ classes, onS }: { classes: WireClass[]; onS: (s: number) => void }) {
   const [cls, setCls] = useState(classes[0]?.name ?? "");
   const [text, setText] = useState("");
@@ -326,22 +401,23 @@ function PitchDerive({ classes, onS }: { classes: WireClass[]; onS: (s: number) 
   return (
     <details className="rounded border border-rule px-2 py-1.5 text-xs">
       <summary className="cursor-pointer text-muted">Derive S from a target pitch</summary>
+      <label className="mt-2 block">
+        <span className="mb-1 block">Class (its pitch today)</span>
+        <select className={`${inputClass} px-1 py-1 text-xs`} value={cls} onChange={(e) => setCls(e.target.value)} name="pitch-class">
+          {classes.map((c) => (
+            <option key={c.name} value={c.name}>
+              {c.name} — pitch {formatValue(pitchExact(c), U.nm)} nm
+            </option>
+          ))}
+        </select>
+      </label>
       <div className="mt-2 flex items-end gap-2">
         <label className="flex-1">
-          <span className="mb-1 block">Class</span>
-          <select className={`${inputClass} px-1 py-1 text-xs`} value={cls} onChange={(e) => setCls(e.target.value)}>
-            {classes.map((c) => (
-              <option key={c.name} value={c.name}>
-                {c.name} (pitch {formatValue(c.widthM + c.spacingM, U.nm)} nm)
-              </option>
-            ))}
-          </select>
-        </label>
-        <label className="w-24">
           <span className="mb-1 block">Target pitch (nm)</span>
           <input
             className={`${inputClass} px-1 py-1 text-right text-xs`}
             value={text}
+            name="target-pitch"
             onChange={(e) => setText(e.target.value)}
             aria-invalid={msg ? true : undefined}
           />
@@ -354,7 +430,8 @@ function PitchDerive({ classes, onS }: { classes: WireClass[]; onS: (s: number) 
             if (!p.ok) return setMsg(p.message);
             if (p.value <= 0 || !wc) return setMsg("Target pitch must be greater than 0.");
             setMsg(undefined);
-            onS(Number(sFromTargetPitch({ wireClass: wc, targetPitchM: p.value }).toPrecision(6)));
+            // exact in decimal and not rounded: the scaled pitch is the target (18 nm, never 17.9999 nm)
+            onS(sFromPitchExact(wc, p.value));
           }}
         >
           Set S

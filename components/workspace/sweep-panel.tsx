@@ -4,6 +4,7 @@ import { useEffect, useMemo, useRef, useState } from "react";
 import type { ModelLevel, ScenarioSettings, SweepCurve, SweepMetric, SweepPoint, Technology, WireClass } from "@/lib/scaling";
 import { LevelLegend, SWEEP_METRIC } from "@/components/charts/sweep-meta";
 import { inputClass } from "@/components/ui/field";
+import { explainEngineError } from "@/lib/workspace/engine-errors";
 import { readSweep, type SweepReading } from "@/lib/workspace/sweep-reading";
 import { SWEEP_LENGTHS, type SweepLength, type SweepScale } from "@/lib/workspace/sweep-view";
 import { EngineWorker, Superseded } from "./engine-client";
@@ -80,6 +81,8 @@ export function SweepPanel({
         spacing: "log",
         classNames: selected,
         lengthMode: view.length,
+        // each curve adds one effect to the previous: the ideal line gets the same driver, load and vias
+        idealWithDevices: true,
         referenceX: 1,
       })
       .then((r) => {
@@ -215,7 +218,7 @@ export function SweepPanel({
         </fieldset>
       </div>
       {!rangeOk ? <p className="text-xs text-bad">The sweep range needs 0 &lt; from &lt; to.</p> : null}
-      {error ? <p className="text-xs text-bad">Sweep failed: {error}</p> : null}
+      {error ? <p className="text-xs text-bad">The sweep could not be computed: {explainEngineError(error, settings).text}</p> : null}
       <div ref={ref} className="w-full" data-sweep-key={curves?.key === key ? settingsKey : "pending"} data-testid="sweep">
         <div className="grid gap-4" style={{ gridTemplateColumns: `repeat(${cols}, minmax(0, 1fr))` }}>
           {selected.map((n) => {
@@ -240,9 +243,10 @@ export function SweepPanel({
         <div className="mt-2 flex flex-wrap items-center justify-between gap-2">
           <LevelLegend outsideRange={anyOutside} />
           <p className="text-[11px] text-muted">
-            {relative ? "Each curve ÷ its own value at S = 1 (this scenario's options, no shrink). " : ""}Log axes. Dashed line: this scenario&apos;s S; a
-            dashed amber band marks where a model is outside its validity range. The gap between two curves is what that effect adds; copper is the full model.
-            Ideal scaling is the bare line (no driver or load): flat when the length follows S, growing as S² when it is fixed.
+            {relative ? "Each curve ÷ its own value at S = 1 (this scenario's options, no shrink). " : ""}Log S axis; the delay axis fits the curves (log only
+            when they span more than 4×). Dashed line: this scenario&apos;s S; ▲ each curve&apos;s minimum; a dashed amber band marks where a model is outside
+            its validity range. Every curve has the same driver, load and vias, and each adds one effect to the one before (ideal plate and bulk resistivity → +
+            fringing → + coupling → + size effects), so the gap between two curves is what that effect adds; copper is the full model.
           </p>
         </div>
         {readings.length > 0 ? (

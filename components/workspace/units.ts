@@ -44,6 +44,10 @@ export type ParseResult = { ok: true; value: number } | { ok: false; message: st
 export function parseValue(text: string, u: DisplayUnit): ParseResult {
   const t = text.trim();
   if (t === "") return { ok: false, message: "Required." };
+  // a decimal comma ("1,55"): say so, with the fix (issue 13 item 8)
+  if (/^[+-]?\d*,\d+\s*[a-zA-Zµμ]*$/.test(t)) {
+    return { ok: false, message: `Use a decimal point: ${t.replace(",", ".")}, not ${t} (and no thousands separators).` };
+  }
   try {
     const v = BARE.test(t) ? parseQuantity(u.suffix ? `${t} ${u.suffix}` : t, u.base) : parseQuantity(t, u.base);
     return { ok: true, value: v };

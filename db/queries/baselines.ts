@@ -141,3 +141,22 @@ export async function listBaselineRevisions(db: Q, id: string): Promise<Baseline
     summary: r.summary,
   }));
 }
+
+/** A warning an import answered, kept on the baseline until dismissed (`baseline_warnings`). */
+export interface BaselineWarning {
+  id: string;
+  source: string;
+  className: string | null;
+  message: string;
+  createdAt: number;
+}
+
+/** The baseline's open (not dismissed) warnings, oldest first. */
+export async function listOpenWarnings(db: Q, baselineId: string): Promise<BaselineWarning[]> {
+  const rows: { id: string; source: string; class_name: string | null; message: string; created_at: number }[] = await db("baseline_warnings")
+    .where({ baseline_id: baselineId })
+    .whereNull("dismissed_at")
+    .orderBy([{ column: "created_at" }, { column: "rowid" }])
+    .select("id", "source", "class_name", "message", "created_at");
+  return rows.map((r) => ({ id: r.id, source: r.source, className: r.class_name, message: r.message, createdAt: r.created_at }));
+}

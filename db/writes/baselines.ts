@@ -481,6 +481,8 @@ export async function importHistograms(
     histograms: readonly ClassBinsInput[];
     summary: string;
     detail: unknown;
+    /** Warnings the import answers; stored on the baseline until dismissed (they supersede earlier histogram warnings of the same classes). */
+    warnings?: readonly ImportWarningInput[];
   },
 ): Promise<{ version: number; inserted: number }> {
   const encoded = p.histograms.map((h) => ({ classIndex: h.classIndex, columns: encodeHistogram(h.lengthsM, h.counts) }));
@@ -537,6 +539,7 @@ async function writeHistograms(
     classNames: readonly string[];
     summary: string;
     detail: unknown;
+    warnings?: readonly ImportWarningInput[];
   },
   encoded: { classIndex: number; columns: HistogramColumns }[],
 ): Promise<{ version: number; inserted: number }> {
@@ -564,14 +567,61 @@ async function writeHistograms(
     }
     const version = await bumpVersion(trx, p.baselineId, p.teamId, p.userId);
     await writeRevision(trx, p.baselineId, version, p.userId, p.summary);
+    // the file's histograms supersede the earlier histogram warnings of the classes they replace
+    const now = Date.now();
+    const superseded = trx("baseline_warnings").where({ baseline_id: p.baselineId, source: HISTOGRAM_WARNING_SOURCE }).whereNull("dismissed_at");
+    if (p.mode === "merge") superseded.whereIn("class_name", [...new Set(encoded.map((e) => p.classNames[e.classIndex]!))]);
+    await superseded.update({ dismissed_at: now, dismissed_by: p.userId });
+    for (const w of p.warnings ?? []) {
+      await trx("baseline_warnings").insert({
+        id: randomUUID(),
+        baseline_id: p.baselineId,
+        source: HISTOGRAM_WARNING_SOURCE,
+        class_name: w.className,
+        message: w.message,
+        created_at: now,
+        created_by: p.userId,
+      });
+    }
     await writeAudit(trx, {
       teamId: p.teamId,
       userId: p.userId,
       action: "baseline.histograms_imported",
       entityType: "baseline",
       entityId: p.baselineId,
-      detail: p.detail,
+      detail: p.warnings?.length ? { ...(p.detail as object), warnings: p.warnings.length } : p.detail,
     });
     return { version, inserted };
+  });
+}
+
+/** `baseline_warnings.source` of the warnings a histogram import answers. */
+export const HISTOGRAM_WARNING_SOURCE = "histogram-import";
+
+/** One warning an import answered, as stored on the baseline (`className` null: about the whole baseline). */
+export interface ImportWarningInput {
+  className: string | null;
+  message: string;
+}
+
+/**
+ * Dismiss one open warning of a baseline (editor or owner; the route checks the role). A warning that is not
+ * the baseline's, or already dismissed, is NotFoundError (404), so a second click changes nothing.
+ */
+export async function dismissBaselineWarning(conn: Knex, p: { baselineId: string; teamId: string; userId: string; warningId: string }): Promise<void> {
+  await conn.transaction(async (trx) => {
+    const n = await trx("baseline_warnings")
+      .where({ id: p.warningId, baseline_id: p.baselineId })
+      .whereNull("dismissed_at")
+      .update({ dismissed_at: Date.now(), dismissed_by: p.userId });
+    if (n === 0) throw new NotFoundError("Warning", "This warning is not open on this baseline (already dismissed?).");
+    await writeAudit(trx, {
+      teamId: p.teamId,
+      userId: p.userId,
+      action: "baseline.warning_dismissed",
+      entityType: "baseline",
+      entityId: p.baselineId,
+      detail: { warningId: p.warningId },
+    });
   });
 }

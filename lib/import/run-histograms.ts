@@ -35,12 +35,13 @@ export async function runHistogramImport(db: Knex, p: BaselineImportRequest) {
       maxLengthUm: Number(formatScaled(t.maxLengthM, -6)),
       classNetCount: netCount.get(t.name) ?? null,
     }));
-    const warnings = perClass
+    const warningItems = perClass
       .filter((c) => c.classNetCount !== null && c.classNetCount !== c.nets)
-      .map(
-        (c) =>
-          `Class "${c.name}": the histogram holds ${c.nets.toLocaleString("en-US")} nets, the class table says ${c.classNetCount!.toLocaleString("en-US")}; distribution results use the histogram.`,
-      );
+      .map((c) => ({
+        className: c.name,
+        message: `Class "${c.name}": the histogram holds ${c.nets.toLocaleString("en-US")} nets, the class table says ${c.classNetCount!.toLocaleString("en-US")}; distribution results use the histogram.`,
+      }));
+    const warnings = warningItems.map((w) => w.message);
     const summaryBody = { mode: p.mode, rows: parsed.rows, bytes: parsed.bytes, delimiter: parsed.delimiter, classes: perClass, warnings };
     if (p.dryRun) return { ok: true as const, dryRun: true, stored: false as const, ...summaryBody };
     const summary = `Imported length histograms from CSV (${p.mode}): ${parsed.rows.toLocaleString("en-US")} bins in ${perClass.length} class${perClass.length === 1 ? "" : "es"}`;
@@ -52,6 +53,7 @@ export async function runHistogramImport(db: Knex, p: BaselineImportRequest) {
       classNames: names,
       histograms: acc.classIndices().map((classIndex) => ({ classIndex, ...acc.sorted(classIndex) })),
       summary,
+      warnings: warningItems,
       detail: { mode: p.mode, rows: parsed.rows, bytes: parsed.bytes, classes: perClass.map((c) => c.name) },
     });
     return { ok: true as const, dryRun: false, stored: true as const, version: r.version, ...summaryBody };

@@ -1,4 +1,5 @@
 import { csvLine, header } from "@/lib/csv-safe";
+import { worstClassDelay } from "@/lib/figures";
 import type { FrozenClassResult, FrozenReport } from "@/lib/validation/report";
 import { change } from "./summary";
 
@@ -26,7 +27,8 @@ const COLUMNS = [
   header("delay", "ps"),
   header("delay_change", "pct"),
   header("elmore", "ps"),
-  header("repeaters"),
+  // stages = inserted repeaters + 1 (lib/figures.ts); the inserted count is repeater_count
+  header("repeater_stages"),
   header("energy", "fj"),
   header("energy_change", "pct"),
   header("class_power", "uw"),
@@ -99,6 +101,7 @@ export function reportCsv(title: string, report: FrozenReport): string {
     header("option"),
     header("scenario"),
     header("report"),
+    // lib/figures.ts: worst-class delay (the slowest class at its mean length), mean over nets weighted by net count, inserted repeaters
     header("worst_class_delay", "ps"),
     header("mean_net_delay", "ps"),
     header("total_wire_capacitance", "pf"),
@@ -118,11 +121,11 @@ export function reportCsv(title: string, report: FrozenReport): string {
     sig(t.repeaters),
   ];
   if (first) {
-    const worstB = Math.max(...first.evaluation.classes.map((c) => c.baseline.delayS));
+    const worstB = worstClassDelay(first.evaluation.classes.map((c) => c.baseline)).delayS;
     out += csvLine(totalsRow("Baseline", report.baseline.name, first.evaluation.totals.baseline, worstB));
   }
   for (const o of report.options) {
-    const worst = Math.max(...o.evaluation.classes.map((c) => c.scenario.delayS));
+    const worst = worstClassDelay(o.evaluation.classes.map((c) => c.scenario)).delayS;
     out += csvLine(totalsRow(`Option ${o.key}`, o.name, o.evaluation.totals.scenario, worst));
   }
   return out;

@@ -101,51 +101,72 @@ function trimBins(e: Evaluation): Evaluation {
 }
 
 /**
- * Delay against S for each chosen class: one curve per option at its own model level, each option marked at
- * its own S. When the first option uses the full model, the same option without size effects (bulk
- * resistivity, a barrier that thins with S) is the grey reference: the gap between the two is what the
- * size effects cost, and where the option's curve bends up, shrinking stops paying off.
+ * The length rule of a class's sweep (issue 13 item 6), from the first option: "follow" when its S_L equals its S
+ * (lengths shrink with the section), "fixed" when S_L = 1; any other S_L follows the tier (local and intermediate
+ * wires shrink with the cell, semi-global and global wires keep their length).
  */
-function freezeSweeps(input: FreezeInput, classNames: string[], evaluations: Evaluation[]): FrozenSweep[] {
+export function sweepLengthRule(settings: ScenarioSettings, wc: Pick<WireClass, "name" | "tier">): "follow" | "fixed" {
+  const s = settings.overrides[wc.name]?.s ?? settings.s;
+  const sL = settings.overrides[wc.name]?.sL ?? settings.sL;
+  if (Math.abs(sL - s) <= 1e-9 * s) return "follow";
+  if (sL === 1) return "fixed";
+  return wc.tier === "local" || wc.tier === "intermediate" ? "follow" : "fixed";
+}
+
+/**
+ * Delay against S for each chosen class: one curve per option at its own model level, each option marked at
+ * its own S on its curve. The wire length follows the class's length rule (sweepLengthRule), so a class whose
+ * lengths shrink with the section shows where shrinking stops paying off. When the first option uses the full
+ * model, the same option without size effects (bulk resistivity, a barrier that thins with S) is the grey
+ * reference: the gap between the two is what the size effects cost.
+ */
+function freezeSweeps(input: FreezeInput, classNames: string[], _evaluations: Evaluation[]): FrozenSweep[] {
   if (classNames.length === 0) return [];
   const { baseline, scenarios } = input;
   const maxS = Math.max(...scenarios.flatMap((s) => [s.settings.s, ...Object.values(s.settings.overrides).map((o) => o.s ?? s.settings.s)]));
   const from = 1;
   const to = Math.max(2, Math.ceil(maxS * 1.3 * 4) / 4);
   const classes = baseline.classes.map(({ histogram: _h, ...c }) => c);
-  const byClass = new Map<string, FrozenSweep>(classNames.map((n) => [n, { className: n, metric: "delay", variable: "s", from, to, series: [], marks: [] }]));
+  const first = scenarios[0]!.settings;
+  const rules = new Map(classes.map((c) => [c.name, sweepLengthRule(first, c)]));
+  const byClass = new Map<string, FrozenSweep>(
+    classNames.map((n) => [n, { className: n, metric: "delay", variable: "s", from, to, series: [], marks: [], lengthRule: rules.get(n) ?? "fixed" }]),
+  );
   scenarios.forEach((s, i) => {
     const key = OPTION_KEYS[i]!;
     const withReference = i === 0 && s.settings.level === "full";
-    const curves = sweep({
-      classes,
-      technology: baseline.technology,
-      settings: s.settings,
-      variable: "s",
-      metric: "delay",
-      from,
-      to,
-      points: SWEEP_POINTS,
-      levels: withReference ? ["full", "coupled"] : [s.settings.level],
-      classNames,
-    });
-    for (const c of curves) {
-      const target = byClass.get(c.className);
-      if (!target) continue;
-      if (c.level === s.settings.level) target.series.push({ key, label: `Option ${key}`, level: c.level, points: c.points });
-      else
-        target.series.push({
-          key: "reference",
-          label: `Option ${key} without size effects (bulk resistivity, barrier thins with S)`,
-          level: c.level,
-          points: c.points,
-        });
-    }
-    for (const cc of evaluations[i]!.classes) {
-      const target = byClass.get(cc.name);
-      if (!target) continue;
-      const sHere = s.settings.overrides[cc.name]?.s ?? s.settings.s;
-      target.marks.push({ key, x: sHere, y: cc.scenario.delayS });
+    for (const lengthMode of ["follow", "fixed"] as const) {
+      const names = classNames.filter((n) => rules.get(n) === lengthMode);
+      if (names.length === 0) continue;
+      const common = {
+        classes,
+        technology: baseline.technology,
+        settings: s.settings,
+        variable: "s" as const,
+        metric: "delay" as const,
+        classNames: names,
+        lengthMode,
+      };
+      const curves = sweep({ ...common, from, to, points: SWEEP_POINTS, levels: withReference ? ["full", "coupled"] : [s.settings.level] });
+      for (const c of curves) {
+        const target = byClass.get(c.className);
+        if (!target) continue;
+        if (c.level === s.settings.level) target.series.push({ key, label: `Option ${key}`, level: c.level, points: c.points });
+        else
+          target.series.push({
+            key: "reference",
+            label: `Option ${key} without size effects (bulk resistivity, barrier thins with S)`,
+            level: c.level,
+            points: c.points,
+          });
+      }
+      // each option's mark on its own curve: the same length rule at its own S
+      for (const n of names) {
+        const target = byClass.get(n)!;
+        const sHere = s.settings.overrides[n]?.s ?? s.settings.s;
+        const at = sweep({ ...common, classNames: [n], from: sHere, to: sHere, points: 1, levels: [s.settings.level] })[0]?.points[0];
+        if (at) target.marks.push({ key, x: sHere, y: at.y });
+      }
     }
   });
   const order = (k: string) => (k === "reference" ? "Z" : k);

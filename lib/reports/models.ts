@@ -107,6 +107,27 @@ const REPEATERS = {
 };
 
 /**
+ * The separate statements of one accuracy text: split at "; " outside parentheses, so "one plane: within 6% …; two planes
+ * (H2/H ≤ 2, S/H ≤ 4): …" prints as two items. The text of each statement is kept as the engine froze it.
+ */
+export function accuracyStatements(text: string): string[] {
+  const out: string[] = [];
+  let depth = 0;
+  let start = 0;
+  for (let i = 0; i < text.length; i++) {
+    const ch = text[i];
+    if (ch === "(") depth++;
+    else if (ch === ")") depth = Math.max(0, depth - 1);
+    else if (ch === ";" && depth === 0 && text[i + 1] === " ") {
+      out.push(text.slice(start, i).trim());
+      start = i + 2;
+    }
+  }
+  out.push(text.slice(start).trim());
+  return out.filter((x) => x.length > 0);
+}
+
+/**
  * The models behind the report's figures, per quantity, with their published sources and the accuracy
  * statements the engine froze with each result. Grouped so that options sharing a model share a row.
  */
@@ -115,7 +136,8 @@ export function modelsUsed(report: FrozenReport): ModelUse[] {
   const add = (quantity: string, m: { model: string; sources: string[] }, accuracy: string | undefined, who: string, className: string) => {
     const id = `${quantity}|${m.model}`;
     const row = rows.get(id) ?? { quantity, model: m.model, sources: m.sources, accuracy: [], usedBy: [], classesByOption: {} };
-    if (accuracy && !row.accuracy.includes(accuracy)) row.accuracy.push(accuracy);
+    // each statement of an accuracy text is its own item (one plane; two planes; …), listed once per row
+    for (const a of accuracy ? accuracyStatements(accuracy) : []) if (!row.accuracy.includes(a)) row.accuracy.push(a);
     if (!row.usedBy.includes(who)) row.usedBy.push(who);
     const list = (row.classesByOption[who] ??= []);
     if (!list.includes(className)) list.push(className);

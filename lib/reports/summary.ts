@@ -1,3 +1,4 @@
+import { leaders, listWords, optionsWords, worstClassDelay } from "@/lib/figures";
 import type { FrozenClassResult, FrozenOption, FrozenReport } from "@/lib/validation/report";
 
 /** A before/after pair with its relative change (scenario / baseline − 1; null when the baseline is 0). */
@@ -10,7 +11,7 @@ export interface Change {
 export interface OptionHeadline {
   key: string;
   name: string;
-  /** The slowest class at its mean length, before and after. */
+  /** The worst-class delay (lib/figures.ts): the slowest class at its mean length, before and after. */
   worstDelay: Change & { baselineClass: string; scenarioClass: string };
   /** Net-count-weighted mean delay over every net (histogram lengths where the class has one). */
   meanDelay: Change;
@@ -70,10 +71,10 @@ export function tierWords(tier: string): string {
   return tier === "semi-global" ? "semi-global" : tier;
 }
 
+/** The worst-class delay (lib/figures.ts) with the class's tier. */
 function worstClass(results: FrozenClassResult[]): { name: string; tier: string; delayS: number } {
-  let best = { name: "", tier: "", delayS: 0 };
-  for (const r of results) if (r.delayS > best.delayS) best = { name: r.name, tier: r.tier, delayS: r.delayS };
-  return best;
+  const w = worstClassDelay(results);
+  return { ...w, tier: results.find((r) => r.name === w.name)?.tier ?? "" };
 }
 
 export function optionHeadline(o: FrozenOption): OptionHeadline {
@@ -118,8 +119,8 @@ export function classVerdict(report: FrozenReport, className: string): ClassVerd
   const others = rest.map((r) => `Option ${r.key}: ${dir(r.change)} the baseline`).join("; ");
   // "Intermediate wires (M3):" — or just "Intermediate wires:" when the class is named after its tier.
   const who = className.toLowerCase() === tier ? `${capitalize(tierWords(tier))} wires` : `${capitalize(tierWords(tier))} wires (${className})`;
-  // Options within 0.1% of the fastest are a tie: naming one of them "fastest" would mislead a manager.
-  const tied = ranking.filter((r) => r.delayS - win!.delayS <= Math.abs(win!.delayS) * 1e-3);
+  // One rule for ties (lib/figures.ts): options within 0.1% of the fastest share the lead, and all of them are named.
+  const tied = leaders(ranking, (r) => r.delayS);
   const rest2 = ranking.filter((r) => !tied.includes(r));
   const others2 = rest2.map((r) => `Option ${r.key}: ${dir(r.change)} the baseline`).join("; ");
   const sentence =
@@ -128,9 +129,20 @@ export function classVerdict(report: FrozenReport, className: string): ClassVerd
       : tied.length === ranking.length
         ? `${who}: all options about the same, delay ${dir(win!.change)} the baseline.`
         : tied.length > 1
-          ? `${who}: Options ${tied.map((r) => r.key).join(" and ")} are equally fastest, delay ${dir(win!.change)} the baseline${others2 ? ` (${others2})` : ""}.`
+          ? `${who}: ${optionsWords(
+              inOptionOrder(
+                report,
+                tied.map((r) => r.key),
+              ),
+            )} are equally fastest, delay ${dir(win!.change)} the baseline${others2 ? ` (${others2})` : ""}.`
           : `${who}: Option ${win!.key} is fastest, delay ${dir(win!.change)} the baseline${others ? ` (${others})` : ""}.`;
   return { className, tier, ranking, sentence };
+}
+
+/** Option keys in the report's order (a tie lists A, B and C, not the order of their tiny differences). */
+function inOptionOrder(report: FrozenReport, keys: string[]): string[] {
+  const order = report.options.map((o) => o.key);
+  return [...keys].sort((a, b) => order.indexOf(a) - order.indexOf(b));
 }
 
 function capitalize(s: string): string {
@@ -143,11 +155,13 @@ export function summarizeReport(report: FrozenReport): ReportSummary {
   const verdicts = report.classNames.map((n) => classVerdict(report, n)).filter((v): v is ClassVerdict => v !== null);
   const overall: string[] = [];
   if (headlines.length > 1) {
-    // Best option per figure; when every option lands within 0.1% of the others, say they tie.
+    // Best option per figure, with the same tie rule as the per-class verdicts: every option within 0.1% of the best is named.
     const line = (what: string, pick: (h: OptionHeadline) => number, ch: (h: OptionHeadline) => number | null) => {
-      const best = headlines.reduce((a, b) => (pick(b) < pick(a) ? b : a));
-      const worst = headlines.reduce((a, b) => (pick(b) > pick(a) ? b : a));
-      if (pick(worst) - pick(best) <= Math.abs(pick(best)) * 1e-3) return `${what}: all options about the same, ${signedPct(ch(best))} against the baseline.`;
+      const tied = leaders(headlines, pick);
+      const best = tied[0]!;
+      if (tied.length === headlines.length) return `${what}: all options about the same, ${signedPct(ch(best))} against the baseline.`;
+      if (tied.length > 1)
+        return `${what}: ${optionsWords(tied.map((h) => h.key))} equally (${listWords(tied.map((h) => h.name))}), ${signedPct(ch(best))} against the baseline.`;
       return `${what}: Option ${best.key} (${best.name}), ${signedPct(ch(best))} against the baseline.`;
     };
     overall.push(

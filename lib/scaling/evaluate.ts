@@ -442,9 +442,17 @@ export function classMetricCore(
   metric: "delay" | "rc" | "r" | "c",
   flags: ValidityFlag[] | undefined,
   override: ClassOverride | undefined,
+  idealWithDevices = false,
 ): number {
   const e = SWEEP_SCRATCH;
   electricalInto(wc, tech, settings, e, override);
+  if (idealWithDevices && settings.level === "ideal") {
+    // the sweep's decomposition: the ideal line (plate C, bulk ρ) with the same driver, load and (bulk) vias as the
+    // other levels, so each curve adds one effect to the previous one
+    e.rd = wc.driverOhm * settings.deviceRFactor;
+    e.cl = wc.loadF * settings.deviceCFactor;
+    e.via = viasOhm(wc, e.g, e.metal, false);
+  }
   if (flags !== undefined) validityInto(settings.level, e, flags, true);
   const L = e.g.lengthM;
   const R = e.rPerM * L;

@@ -203,9 +203,29 @@ function column(columns: readonly ColumnSpec[], name: string): ColumnSpec {
 export const HISTOGRAM_LENGTH_COLUMN = column(HISTOGRAM_COLUMNS, "length_um");
 export const HISTOGRAM_COUNT_COLUMN = column(HISTOGRAM_COLUMNS, "count");
 
-/** Normalised header cell: trimmed, lower case, inner spaces as underscores ("Length um" → "length_um"). */
+/**
+ * Normalised header cell: trimmed, lower case, inner spaces as underscores ("Length um" → "length_um"); a unit in
+ * parentheses or brackets is the same unit as a suffix ("width (nm)", "Width [nm]" → "width_nm"; issue 13 item 9).
+ */
 export function normaliseHeader(cell: string): string {
-  return cell.trim().toLowerCase().replace(/\s+/g, "_");
+  return cell
+    .trim()
+    .toLowerCase()
+    .replace(/\s*[([]\s*([^()[\]]*?)\s*[)\]]\s*$/, "_$1")
+    .replace(/\s+/g, "_")
+    .replace(/_+/g, "_");
+}
+
+/** The name without its unit suffix and separators, to match a header that names a column with another unit. */
+const stem = (name: string) => name.replace(/_(nm|um|µm|mm|m|ohm|ff|pf|f|ps|ns|s|v|pct)$/, "").replace(/[^a-z0-9]/g, "");
+
+/** "did you mean width_nm?" for an unknown header cell that names a column with another unit or spelling. */
+export function suggestColumn(raw: string, columns: readonly ColumnSpec[]): string | null {
+  const n = normaliseHeader(raw);
+  const st = stem(n);
+  if (st === "") return null;
+  const hit = columns.find((c) => stem(c.name) === st) ?? columns.find((c) => c.name.replace(/[^a-z0-9]/g, "") === n.replace(/[^a-z0-9]/g, ""));
+  return hit ? hit.name : null;
 }
 
 /**
@@ -227,7 +247,11 @@ export function resolveHeader(fields: readonly string[], format: CsvFormat): { o
     const name = normaliseHeader(raw);
     if (name === "" && i === fields.length - 1 && fields.length > 1) continue; // trailing delimiter
     if (!known.has(name)) {
-      unknown.push(raw === "" ? `(empty, column ${i + 1})` : `"${raw}"`);
+      const hint = raw === "" ? null : suggestColumn(raw, columns);
+      const unit = hint ? columns.find((c) => c.name === hint)!.unit : "";
+      unknown.push(
+        raw === "" ? `(empty, column ${i + 1})` : hint ? `"${raw}" (did you mean ${hint}?${unit ? ` Give the values in ${unit}.` : ""})` : `"${raw}"`,
+      );
       continue;
     }
     if (index.has(name)) return { ok: false, issue: { line: 1, column: name, value: raw, message: `Column "${name}" appears twice in the header. ${tail}` } };

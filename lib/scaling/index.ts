@@ -77,6 +77,7 @@ export {
   HISTOGRAM_LENGTH_COLUMN,
   HISTOGRAM_COUNT_COLUMN,
   normaliseHeader,
+  suggestColumn,
   resolveHeader,
   parseCell,
   validateWireClassRow,

@@ -217,6 +217,12 @@ export function sweep(p: {
    * S_L = 1 (global-style wires that keep their length). Ignored for S_L and k sweeps.
    */
   lengthMode?: "scenario" | "follow" | "fixed";
+  /**
+   * true: the ideal curve keeps the class's driver, load and vias (bulk), like the other levels, so each curve adds one
+   * effect to the previous one (plate → + fringing → + coupling → + size effects). false (default): the ideal level
+   * as evaluateScenario defines it, the bare line.
+   */
+  idealWithDevices?: boolean;
 }): SweepCurve[] {
   checkTechnology(p.technology);
   checkSettings(p.settings);
@@ -274,7 +280,7 @@ export function sweep(p: {
         const j = li * nc + i;
         try {
           while (scratch.length !== 0) scratch.pop();
-          const y = classMetricCore(wc, p.technology, bases[li]!, p.metric, scratch, o);
+          const y = classMetricCore(wc, p.technology, bases[li]!, p.metric, scratch, o, p.idealWithDevices === true);
           points[j]!.push(new Point(x, y, scratch.length === 0 ? NO_FLAGS : internFlags(CACHES[j]!, scratch)));
         } catch (e) {
           if (!(e instanceof RangeError)) throw e;

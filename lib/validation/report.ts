@@ -462,6 +462,11 @@ export const frozenSweepSchema = z.object({
   series: z.array(sweepSeriesSchema),
   /** Where each option sits on the curve (its own S and result). */
   marks: z.array(z.object({ key: z.string(), x: num, y: num })),
+  /**
+   * What the wire length does while S moves (issue 13 item 6): "follow" (S_L = S, the class's lengths shrink with the
+   * section) or "fixed" (S_L = 1). Absent in reports frozen before: those kept the scenario's S_L.
+   */
+  lengthRule: z.enum(["follow", "fixed"]).optional(),
 });
 
 export const frozenOptionSchema = z.object({

@@ -12,7 +12,7 @@ export const HEADER =
 export const ROW_LOCAL = "local,local,24,48,24,30,30,2,Cu,2.7,1200000,4,8000,0.4,0.15";
 export const ROW_GLOBAL = "global,global,400,800,400,400,,5,Cu,3.0,4000,1500,300,5.0,0.1";
 
-const TABLES = ["baselines", "wire_classes", "class_histograms", "baseline_revisions", "audit_log"] as const;
+const TABLES = ["baselines", "wire_classes", "class_histograms", "baseline_revisions", "baseline_warnings", "audit_log"] as const;
 
 /** Row counts and a content checksum of the tables an import touches. */
 export function dbState(): { counts: Record<string, number>; checksum: string } {

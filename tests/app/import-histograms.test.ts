@@ -125,6 +125,50 @@ describe("POST /api/baselines/[id]/histograms", () => {
     expect((await postCsv(editor, url, TEMPLATE_HISTOGRAMS)).status).toBe(200);
   });
 
+  it("keeps every warning it answers on the baseline until dismissed; a later import of the class supersedes it (issue 13 item 2)", async () => {
+    const o = await ownerWithBaseline();
+    // 699,999 nets in the histogram of a class whose table says 700,000 (the template's intermediate class count is replaced below)
+    const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=merge`, `${H}\nglobal,100,3999\nlocal,2,5\n`);
+    expect(r.status).toBe(200);
+    expect(r.json.warnings).toHaveLength(2);
+    const list = await o.client.get(`/api/baselines/${o.baselineId}/warnings`);
+    expect(list.status).toBe(200);
+    // stored in the order the import answered them (the class table's order)
+    expect(list.json.warnings.map((w: { message: string }) => w.message)).toEqual(r.json.warnings);
+    expect(list.json.warnings.map((w: { className: string }) => w.className)).toEqual(["local", "global"]);
+    expect(list.json.warnings[1].message).toMatch(/^Class "global": the histogram holds 3,999 nets, the class table says 4,000/);
+    // a viewer reads them but cannot dismiss; another team sees nothing; signed out 401
+    const viewer = await memberClient(o.teamId, "viewer");
+    expect((await viewer.get(`/api/baselines/${o.baselineId}/warnings`)).json.warnings).toHaveLength(2);
+    const [l, g] = list.json.warnings as { id: string }[];
+    const before = dbState();
+    expect((await viewer.del(`/api/baselines/${o.baselineId}/warnings/${g!.id}`)).status).toBe(403);
+    expect((await (await userWithTeam()).client.del(`/api/baselines/${o.baselineId}/warnings/${g!.id}`)).status).toBe(404);
+    expect((await new Client().get(`/api/baselines/${o.baselineId}/warnings`)).status).toBe(401);
+    expect(dbState()).toEqual(before);
+    // dismiss one: gone from the list, a second dismiss is 404 and changes nothing
+    expect((await o.client.del(`/api/baselines/${o.baselineId}/warnings/${g!.id}`)).status).toBe(204);
+    expect((await o.client.get(`/api/baselines/${o.baselineId}/warnings`)).json.warnings.map((w: { id: string }) => w.id)).toEqual([l!.id]);
+    const after = dbState();
+    const again = await o.client.del(`/api/baselines/${o.baselineId}/warnings/${g!.id}`);
+    expect([again.status, again.json.error.code]).toEqual([404, "not_found"]);
+    expect(dbState()).toEqual(after);
+    // a merge of "local" whose counts now match supersedes the local warning; nothing new is stored
+    const localNets = sql<{ net_count: number }>("select net_count from wire_classes where baseline_id = ? and name = 'local'", o.baselineId)[0]!.net_count;
+    const ok = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=merge`, `${H}\nlocal,2,${localNets}\n`);
+    expect([ok.status, ok.json.warnings]).toEqual([200, []]);
+    expect((await o.client.get(`/api/baselines/${o.baselineId}/warnings`)).json.warnings).toEqual([]);
+  });
+
+  it("an invalid histogram file stores no warning", async () => {
+    const o = await ownerWithBaseline();
+    const before = dbState();
+    const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=merge`, `${H}\nglobal,100,3999\nM42,1,2\n`);
+    expect(r.status).toBe(400);
+    expect(sql("select * from baseline_warnings where baseline_id = ?", o.baselineId)).toEqual([]);
+    expect(dbState()).toEqual(before);
+  });
+
   const bad: BadCsvCase[] = [
     [
       "an unknown class",

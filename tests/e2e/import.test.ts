@@ -5,6 +5,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import type { Browser, BrowserContext } from "playwright-core";
 import { launchBrowser, signedInContext } from "../helpers/browser";
 import { userWithTeam, type Client } from "../helpers/http";
+import { postCsv, TEMPLATE_CLASSES } from "../app/import-helpers";
 
 const SHOTS = process.env.PLATEAU_SHOTS_DIR ?? "/tmp/plateau-import-shots";
 let browser: Browser;
@@ -82,6 +83,42 @@ describe("CSV import in the browser", () => {
     await cdp.send("Network.emulateNetworkConditions", { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
     const bins = await owner.client.get(`/api/baselines/${baselineUrl.split("/").pop()}/histograms`);
     expect(bins.json.classes.map((c: { bins: unknown[] }) => c.bins.length)).toEqual([37_500, 37_500, 37_500, 37_500]);
+    await page.close();
+  });
+
+  it("shows every warning a histogram import returns on the baseline, keeps it across reloads and dismisses it (issue 13 item 2)", async () => {
+    const made = await postCsv(
+      owner.client,
+      `/api/teams/${owner.teamId}/baselines/import?name=${encodeURIComponent("Warnings (import e2e)")}`,
+      TEMPLATE_CLASSES,
+    );
+    expect(made.status, made.text).toBe(201);
+    const baselineId = made.json.baseline.id as string;
+    const file = path.join(tmp, "short-histograms.csv");
+    // the template's global class has 4,000 nets; this histogram holds 3,999
+    fs.writeFileSync(file, "class,length_um,count\nglobal,1000,3999\n");
+    const page = await ctx.newPage();
+    const baselineUrl = `${baseUrl}/teams/${owner.teamId}/baselines/${baselineId}`;
+    await page.goto(`${baselineUrl}/import?kind=histograms`);
+    await page.getByTestId("file-input").setInputFiles(file);
+    await page.getByTestId("import-preview").waitFor();
+    await page.getByLabel(/^Merge/).check();
+    await page.getByRole("button", { name: "Import 1 rows" }).click();
+    await page.waitForURL(baselineUrl, { timeout: 30_000 });
+    const text = 'Class "global": the histogram holds 3,999 nets, the class table says 4,000; distribution results use the histogram.';
+    const box = page.getByTestId("baseline-warnings");
+    await box.waitFor();
+    expect(await box.innerText()).toContain(text);
+    await page.screenshot({ path: `${SHOTS}/05-baseline-warning.png`, fullPage: false });
+    await page.reload();
+    await box.waitFor();
+    expect(await page.getByTestId("baseline-warning").count()).toBe(1);
+    await page.getByRole("button", { name: `Dismiss: ${text}` }).click();
+    await box.waitFor({ state: "detached" });
+    await page.reload();
+    await page.getByRole("heading", { name: /Technology/ }).waitFor();
+    expect(await page.getByTestId("baseline-warnings").count()).toBe(0);
+    expect((await owner.client.get(`/api/baselines/${baselineId}/warnings`)).json.warnings).toEqual([]);
     await page.close();
   });
 

@@ -7,6 +7,7 @@ import {
   HISTOGRAM_FORMAT,
   parseCell,
   resolveHeader,
+  suggestColumn,
   validateHistogramRow,
   validateWireClassRow,
   WIRE_CLASS_COLUMNS,
@@ -320,5 +321,44 @@ describe("one reader: command line and web give identical results", () => {
     const local = r.bins["local"]!.reduce((s, b) => s + b.count, 0);
     expect(local / 1.2e6).toBeGreaterThan(0.95); // invented data: histogram totals within ±5% of net_count
     expect(local / 1.2e6).toBeLessThan(1.05);
+  });
+});
+
+describe("header unit variants (issue 13 item 9)", () => {
+  const header = (cells: string[]) =>
+    resolveHeader(
+      [
+        "class",
+        "tier",
+        ...cells,
+        "thickness_nm",
+        "spacing_nm",
+        "ild_below_nm",
+        "ild_above_nm",
+        "barrier_nm",
+        "metal",
+        "k",
+        "net_count",
+        "mean_length_um",
+        "driver_ohm",
+        "load_ff",
+        "activity",
+      ],
+      WIRE_CLASS_FORMAT,
+    );
+  it("accepts the same unit in parentheses or brackets and any case", () => {
+    for (const h of ["width (nm)", "Width_NM", "WIDTH [nm]", "width nm"]) {
+      const r = header([h]);
+      expect(r.ok, h).toBe(true);
+      if (r.ok) expect(r.index.get("width_nm")).toBe(2);
+    }
+  });
+  it("names the column it probably is for another unit or spelling", () => {
+    const r = header(["width_um"]);
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.issue.message).toMatch(/^Unknown column "width_um" \(did you mean width_nm\? Give the values in nm\.\)\. Expected columns/);
+    expect(suggestColumn("Width (µm)", WIRE_CLASS_COLUMNS)).toBe("width_nm");
+    expect(suggestColumn("netcount", WIRE_CLASS_COLUMNS)).toBe("net_count");
+    expect(suggestColumn("colour", WIRE_CLASS_COLUMNS)).toBeNull();
   });
 });

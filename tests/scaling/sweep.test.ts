@@ -2,6 +2,8 @@ import { describe, expect, it } from "vitest";
 import { baselineSettings } from "@/lib/scaling/evaluate";
 import { DEFAULT_TECHNOLOGY } from "@/lib/scaling/technology";
 import { linspace, logspace, sweep } from "@/lib/scaling/sweep";
+import { evaluateClass } from "@/lib/scaling/evaluate";
+import { lineDelay } from "@/lib/scaling/delay";
 import { expectClose } from "./close";
 import { testClass } from "./fixtures";
 
@@ -148,5 +150,51 @@ describe("engine 2: validity along sweeps", () => {
       ),
       { numRuns: Number(process.env.PROP_RUNS ?? 100) },
     );
+  });
+});
+
+describe("sweep idealWithDevices (issue 13 item 6: each curve adds one effect to the previous)", () => {
+  const wc = testClass({ viasPerNet: 2 });
+  const settings = baselineSettings("full", tech);
+  const common = {
+    classes: [wc],
+    technology: tech,
+    settings,
+    variable: "s" as const,
+    metric: "delay" as const,
+    from: 1,
+    to: 3,
+    points: 5,
+    lengthMode: "follow" as const,
+  };
+  const honest = sweep({ ...common, idealWithDevices: true });
+  const bare = sweep(common);
+
+  it("the ideal curve is the exact 50% delay of the ideal line (plate C, bulk ρ) with the class's driver and load and bulk vias (closed form, delay.ts lineDelay)", () => {
+    const ideal = honest.find((c) => c.level === "ideal")!;
+    for (const p of ideal.points) {
+      const s = { ...settings, level: "ideal" as const, s: p.x, sL: p.x, barrierScales: true };
+      const r = evaluateClass({ wireClass: wc, technology: tech, settings: s });
+      // the via resistance at bulk resistivity is the fringe level's (vias carry no plate or fringe capacitance)
+      const viaOhm = evaluateClass({ wireClass: wc, technology: tech, settings: { ...s, level: "fringe" } }).viaOhm;
+      expect(viaOhm).toBeGreaterThan(0);
+      const d = lineDelay({ rOhm: r.rOhm, cF: r.cF, driverOhm: wc.driverOhm + viaOhm, loadF: wc.loadF });
+      expectClose(p.y, d.t50S, 1e-9);
+    }
+  });
+
+  it("leaves the other levels and the default (bare) ideal curve as they were", () => {
+    for (const level of ["fringe", "coupled", "full"] as const)
+      expect(honest.find((c) => c.level === level)!.points.map((p) => p.y)).toEqual(bare.find((c) => c.level === level)!.points.map((p) => p.y));
+    const bareIdeal = bare.find((c) => c.level === "ideal")!;
+    const r = evaluateClass({ wireClass: wc, technology: tech, settings: { ...settings, level: "ideal", barrierScales: true } });
+    expectClose(bareIdeal.points[0]!.y, r.delayS, 1e-12);
+    // with a driver and a load the ideal line is slower than the bare one, and below the + fringing curve
+    const ideal = honest.find((c) => c.level === "ideal")!;
+    const fringe = honest.find((c) => c.level === "fringe")!;
+    ideal.points.forEach((p, i) => {
+      expect(p.y).toBeGreaterThan(bareIdeal.points[i]!.y);
+      expect(p.y).toBeLessThan(fringe.points[i]!.y);
+    });
   });
 });

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { cache } from "react";
 import { db } from "@/db/client";
-import { getBaselineWithClasses } from "@/db/queries/baselines";
+import { getBaselineWithClasses, listOpenWarnings } from "@/db/queries/baselines";
 import { listScenarios } from "@/db/queries/scenarios";
 import { BaselineEditor } from "@/components/workspace/baseline-editor";
 import { getTeamContext } from "@/lib/team-context";
@@ -22,6 +22,14 @@ export default async function BaselinePage({ params }: { params: Promise<{ teamI
   const ctx = await getTeamContext(teamId);
   const baseline = await loadBaseline(baselineId);
   if (!baseline || baseline.teamId !== teamId) notFound();
-  const scenarios = await listScenarios(db, teamId, baselineId);
-  return <BaselineEditor initial={baseline} role={ctx.role} userId={ctx.user.id} scenarios={scenarios.map((s) => ({ id: s.id, name: s.name }))} />;
+  const [scenarios, warnings] = await Promise.all([listScenarios(db, teamId, baselineId), listOpenWarnings(db, baselineId)]);
+  return (
+    <BaselineEditor
+      initial={baseline}
+      role={ctx.role}
+      userId={ctx.user.id}
+      scenarios={scenarios.map((s) => ({ id: s.id, name: s.name }))}
+      warnings={warnings}
+    />
+  );
 }
