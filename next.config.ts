@@ -4,6 +4,11 @@ const nextConfig: NextConfig = {
   // knex would otherwise be bundled and fail looking for drivers we never use.
   serverExternalPackages: ["knex", "better-sqlite3", "playwright-core", "smtp-server", "nodemailer"],
   poweredByHeader: false,
+  // The build's static files (scripts, styles, fonts, worker scripts) skip proxy.ts, which sets every other answer's
+  // security headers; they get nosniff here.
+  async headers() {
+    return [{ source: "/_next/static/:path*", headers: [{ key: "X-Content-Type-Options", value: "nosniff" }] }];
+  },
   // Separate build folders let parallel test runs (and developers) build without clobbering each other.
   distDir: process.env.PLATEAU_DIST_DIR || ".next",
   // Types are checked by `npm test` (tsc --noEmit) before the suite runs, once for the whole tree.
