@@ -4,6 +4,7 @@ import * as m2 from "../migrations/20261201000002_workspace";
 import * as m3 from "../migrations/20261201000003_reports";
 import * as m4 from "../migrations/20261201000004_vias";
 import * as m5 from "../migrations/20261202000005_air_gaps";
+import * as m20 from "../migrations/20261202000020_email_verification";
 
 // Static index of the migrations so the bundled server can run them; keyed by file name
 // (with .ts) so the knex CLI and the app share one knex_migrations table.
@@ -13,6 +14,7 @@ const MIGRATIONS: Record<string, Knex.Migration> = {
   "20261201000003_reports.ts": m3,
   "20261201000004_vias.ts": m4,
   "20261202000005_air_gaps.ts": m5,
+  "20261202000020_email_verification.ts": m20,
 };
 
 const source: Knex.MigrationSource<string> = {

@@ -13,6 +13,8 @@ export class ApiError extends Error {
     readonly code: string,
     message: string,
     readonly fields?: Record<string, string[]>,
+    /** Extra response headers, e.g. Retry-After on a 429. */
+    readonly headers?: Record<string, string>,
   ) {
     super(message);
   }
@@ -23,10 +25,13 @@ export const forbidden = (message = "Your role in this team does not allow this.
 export const notFound = (what = "Resource") => new ApiError(404, "not_found", `${what} not found.`);
 export const conflict = (message: string, fields?: Record<string, string[]>) => new ApiError(409, "conflict", message, fields);
 export const badRequest = (message: string, fields?: Record<string, string[]>) => new ApiError(400, "invalid_input", message, fields);
+/** 429 with Retry-After (whole seconds, at least 1). */
+export const tooManyRequests = (code: string, message: string, retryAfterSeconds: number) =>
+  new ApiError(429, code, message, undefined, { "retry-after": String(Math.max(1, Math.ceil(retryAfterSeconds))) });
 
 export function errorResponse(e: ApiError): Response {
   const body: ApiErrorBody = { error: { code: e.code, message: e.message, ...(e.fields ? { fields: e.fields } : {}) } };
-  return Response.json(body, { status: e.status });
+  return Response.json(body, { status: e.status, ...(e.headers ? { headers: e.headers } : {}) });
 }
 
 /** zod issues → `{ "a.b": ["message"] }`, keyed by the dotted path ("" for the root). */

@@ -8,7 +8,8 @@ import { cache } from "react";
 import { databasePath } from "@/db/path";
 import { ready } from "@/db/client";
 
-const g = globalThis as unknown as { __plateauLucia?: Lucia<Record<never, never>, { email: string; name: string }> };
+type UserAttributes = { email: string; name: string; emailVerified: boolean };
+const g = globalThis as unknown as { __plateauLucia?: Lucia<Record<never, never>, UserAttributes> };
 
 function createLucia() {
   const raw = new Database(databasePath());
@@ -26,7 +27,11 @@ function createLucia() {
         sameSite: "lax",
       },
     },
-    getUserAttributes: (attributes) => ({ email: attributes.email, name: attributes.name }),
+    getUserAttributes: (attributes): UserAttributes => ({
+      email: attributes.email,
+      name: attributes.name,
+      emailVerified: attributes.email_verified_at !== null && attributes.email_verified_at !== undefined,
+    }),
   });
 }
 
@@ -37,7 +42,7 @@ export function lucia() {
 declare module "lucia" {
   interface Register {
     Lucia: ReturnType<typeof createLucia>;
-    DatabaseUserAttributes: { email: string; name: string };
+    DatabaseUserAttributes: { email: string; name: string; email_verified_at: number | null };
   }
 }
 

@@ -31,3 +31,14 @@ export const signInSchema = z.object({
   password: z.string({ error: "Enter your password." }).min(1, "Enter your password.").max(PASSWORD_MAX, `Passwords have at most ${PASSWORD_MAX} characters.`),
 });
 export type SignInInput = z.infer<typeof signInSchema>;
+
+/** POST /api/auth/verify-email: the token from the confirmation link. */
+export const verifyEmailSchema = z
+  .object({
+    token: z
+      .string({ error: "The confirmation token is missing." })
+      .trim()
+      .min(1, "The confirmation token is missing.")
+      .max(200, "The confirmation token is not valid."),
+  })
+  .strict();
