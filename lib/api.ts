@@ -3,6 +3,7 @@ import { type z } from "zod";
 import { ConflictError, InvalidInputError, NotFoundError, StaleVersionError } from "@/db/errors";
 import { InvalidCsvError, UploadInterruptedError } from "@/lib/import/errors";
 import { ImportFatalError, type ImportIssue } from "@/lib/import/types";
+import { securityHeaders, servedOverHttps } from "@/lib/security-headers";
 
 /** Error body of every API answer: `{ error: { code, message, fields? } }`. */
 export type ApiErrorBody = { error: { code: string; message: string; fields?: Record<string, string[]> } };
@@ -172,12 +173,30 @@ export function apiRoute<P = Record<string, string>>(fn: (req: Request, params: 
     try {
       checkOrigin(req);
       const params = ctx?.params ? await ctx.params : ({} as P);
-      return await fn(req, params);
+      return withTransportSecurity(await fn(req, params));
     } catch (e) {
       const known = knownErrorResponse(e);
-      if (known) return known;
+      if (known) return withTransportSecurity(known);
       console.error(`[api] ${req.method} ${new URL(req.url).pathname} failed`, e);
-      return errorResponse(new ApiError(500, "internal", "Something went wrong on our side. The error was logged."));
+      return withTransportSecurity(errorResponse(new ApiError(500, "internal", "Something went wrong on our side. The error was logged.")));
     }
   };
+}
+
+/**
+ * Strict-Transport-Security on an API answer in production over HTTPS (the other API headers are static, from
+ * next.config.ts; HSTS depends on PLATEAU_PUBLIC_URL at run time).
+ */
+export function withTransportSecurity(res: Response): Response {
+  if (!servedOverHttps(process.env)) return res;
+  const hsts = securityHeaders({ kind: "api", dev: false, https: true })["strict-transport-security"]!;
+  try {
+    res.headers.set("strict-transport-security", hsts);
+    return res;
+  } catch {
+    // An answer with immutable headers: copy it.
+    const copy = new Response(res.body, res);
+    copy.headers.set("strict-transport-security", hsts);
+    return copy;
+  }
 }

@@ -125,7 +125,8 @@ describe("security headers in production over HTTPS (PLATEAU_PUBLIC_URL https://
 
   it("adds Strict-Transport-Security (one year, subdomains) to pages and API answers, and upgrade-insecure-requests to the page policy", async () => {
     const page = await fetch(`${https.baseUrl}/sign-in`);
-    const api = await fetch(`${https.baseUrl}/api/health`);
+    const api = await fetch(`${https.baseUrl}/api/me`); // 401 through apiRoute
+    expect(api.status).toBe(401);
     for (const r of [page, api]) expect(r.headers.get("strict-transport-security")).toBe("max-age=31536000; includeSubDomains"); // ASVS 14.4.5
     expect(page.headers.get("content-security-policy")).toContain("upgrade-insecure-requests");
     expect(api.headers.get("content-security-policy")).not.toContain("upgrade-insecure-requests");
