@@ -5,6 +5,7 @@ import * as m3 from "../migrations/20261201000003_reports";
 import * as m4 from "../migrations/20261201000004_vias";
 import * as m5 from "../migrations/20261202000005_air_gaps";
 import * as m10 from "../migrations/20261202000010_auth_hardening";
+import * as m20 from "../migrations/20261202000020_email_verification";
 import * as m40 from "../migrations/20261202000040_baseline_warnings";
 
 // Static index of the migrations so the bundled server can run them; keyed by file name
@@ -16,6 +17,7 @@ const MIGRATIONS: Record<string, Knex.Migration> = {
   "20261201000004_vias.ts": m4,
   "20261202000005_air_gaps.ts": m5,
   "20261202000010_auth_hardening.ts": m10,
+  "20261202000020_email_verification.ts": m20,
   "20261202000040_baseline_warnings.ts": m40,
 };
 

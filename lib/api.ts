@@ -4,6 +4,7 @@ import { ConflictError, InvalidInputError, NotFoundError, StaleVersionError } fr
 import { InvalidCsvError, UploadInterruptedError } from "@/lib/import/errors";
 import { ImportFatalError, type ImportIssue } from "@/lib/import/types";
 import { expectedOrigin } from "@/lib/public-url";
+import { securityHeaders, servedOverHttps } from "@/lib/security-headers";
 
 /** Error body of every API answer: `{ error: { code, message, fields? } }`. */
 export type ApiErrorBody = { error: { code: string; message: string; fields?: Record<string, string[]> } };
@@ -14,6 +15,8 @@ export class ApiError extends Error {
     readonly code: string,
     message: string,
     readonly fields?: Record<string, string[]>,
+    /** Extra response headers, e.g. Retry-After on a 429. */
+    readonly headers?: Record<string, string>,
   ) {
     super(message);
   }
@@ -24,10 +27,13 @@ export const forbidden = (message = "Your role in this team does not allow this.
 export const notFound = (what = "Resource") => new ApiError(404, "not_found", `${what} not found.`);
 export const conflict = (message: string, fields?: Record<string, string[]>) => new ApiError(409, "conflict", message, fields);
 export const badRequest = (message: string, fields?: Record<string, string[]>) => new ApiError(400, "invalid_input", message, fields);
+/** 429 with Retry-After (whole seconds, at least 1). */
+export const tooManyRequests = (code: string, message: string, retryAfterSeconds: number) =>
+  new ApiError(429, code, message, undefined, { "retry-after": String(Math.max(1, Math.ceil(retryAfterSeconds))) });
 
 export function errorResponse(e: ApiError): Response {
   const body: ApiErrorBody = { error: { code: e.code, message: e.message, ...(e.fields ? { fields: e.fields } : {}) } };
-  return Response.json(body, { status: e.status });
+  return Response.json(body, { status: e.status, ...(e.headers ? { headers: e.headers } : {}) });
 }
 
 /** zod issues → `{ "a.b": ["message"] }`, keyed by the dotted path ("" for the root). */
@@ -170,12 +176,30 @@ export function apiRoute<P = Record<string, string>>(fn: (req: Request, params: 
     try {
       checkOrigin(req);
       const params = ctx?.params ? await ctx.params : ({} as P);
-      return await fn(req, params);
+      return withTransportSecurity(await fn(req, params));
     } catch (e) {
       const known = knownErrorResponse(e);
-      if (known) return known;
+      if (known) return withTransportSecurity(known);
       console.error(`[api] ${req.method} ${new URL(req.url).pathname} failed`, e);
-      return errorResponse(new ApiError(500, "internal", "Something went wrong on our side. The error was logged."));
+      return withTransportSecurity(errorResponse(new ApiError(500, "internal", "Something went wrong on our side. The error was logged.")));
     }
   };
+}
+
+/**
+ * Strict-Transport-Security on an API answer in production over HTTPS (the other API headers are static, from
+ * next.config.ts; HSTS depends on PLATEAU_PUBLIC_URL at run time).
+ */
+export function withTransportSecurity(res: Response): Response {
+  if (!servedOverHttps(process.env)) return res;
+  const hsts = securityHeaders({ kind: "api", dev: false, https: true })["strict-transport-security"]!;
+  try {
+    res.headers.set("strict-transport-security", hsts);
+    return res;
+  } catch {
+    // An answer with immutable headers: copy it.
+    const copy = new Response(res.body, res);
+    copy.headers.set("strict-transport-security", hsts);
+    return copy;
+  }
 }

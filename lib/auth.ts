@@ -17,7 +17,8 @@ import { AbsoluteLifetimeAdapter } from "@/db/session-adapter";
 export const SESSION_IDLE_MS = 7 * 24 * 60 * 60 * 1000;
 export const SESSION_ABSOLUTE_MS = 30 * 24 * 60 * 60 * 1000;
 
-const g = globalThis as unknown as { __plateauLucia?: Lucia<{ createdAt: number }, { email: string; name: string }> };
+type UserAttributes = { email: string; name: string; emailVerified: boolean };
+const g = globalThis as unknown as { __plateauLucia?: Lucia<{ createdAt: number }, UserAttributes> };
 
 function createLucia() {
   const raw = new Database(databasePath());
@@ -36,7 +37,11 @@ function createLucia() {
       },
     },
     getSessionAttributes: (attributes) => ({ createdAt: attributes.created_at }),
-    getUserAttributes: (attributes) => ({ email: attributes.email, name: attributes.name }),
+    getUserAttributes: (attributes): UserAttributes => ({
+      email: attributes.email,
+      name: attributes.name,
+      emailVerified: attributes.email_verified_at !== null && attributes.email_verified_at !== undefined,
+    }),
   });
 }
 
@@ -47,7 +52,7 @@ export function lucia() {
 declare module "lucia" {
   interface Register {
     Lucia: ReturnType<typeof createLucia>;
-    DatabaseUserAttributes: { email: string; name: string };
+    DatabaseUserAttributes: { email: string; name: string; email_verified_at: number | null };
     DatabaseSessionAttributes: { created_at: number };
   }
 }

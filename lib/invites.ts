@@ -1,6 +1,7 @@
 import "server-only";
 import { createHash, randomBytes } from "node:crypto";
 import { inviteStatus, type Invite } from "@/db/queries/invites";
+import { mailSafeName } from "@/lib/mail/rules";
 
 export const INVITE_TTL_MS = 7 * 24 * 60 * 60 * 1000;
 
@@ -32,11 +33,14 @@ export function publicInvite(i: Invite, now = Date.now()) {
 
 const ROLE_WORDS = { owner: "an owner", editor: "an editor", viewer: "a viewer" } as const;
 
+/** The invite e-mail. Its subject is fixed wording with only the (sanitised) team name quoted in it. */
 export function inviteMail(p: { teamName: string; inviterName: string; role: Invite["role"]; link: string; expiresAt: number }) {
   const until = new Date(p.expiresAt).toUTCString();
-  const subject = `${p.inviterName} invited you to ${p.teamName} on Plateau`;
+  const team = mailSafeName(p.teamName);
+  const inviter = mailSafeName(p.inviterName);
+  const subject = `Invitation to join the team "${team}" on Plateau`;
   const text = [
-    `${p.inviterName} invited you to join the team "${p.teamName}" on Plateau as ${ROLE_WORDS[p.role]}.`,
+    `${inviter} invited you to join the team "${team}" on Plateau as ${ROLE_WORDS[p.role]}.`,
     "",
     "Open this link to accept (sign in or create an account first, with this e-mail address):",
     p.link,

@@ -1,13 +1,14 @@
 import "server-only";
 import { teamsOfUser } from "@/lib/access";
+import { outboxEnabled } from "@/lib/mail/rules";
 
 /**
- * Who may read the outbox page: everyone signed in outside production (all mail), and in production
- * only owners of a demo team (that team's mail). null = no access. Answers from the request's one
- * teams-of-user read (the shell asks on every page).
+ * What the signed-in user may read on the outbox page: the mail of every team they own, and every message they
+ * caused themselves (their account's confirmation links, the reports they sent). null = no page. Answers from the
+ * request's one teams-of-user read (the shell asks on every page).
  */
-export async function outboxScope(userId: string): Promise<{ teamIds?: string[] } | null> {
-  if (process.env.NODE_ENV !== "production") return {};
-  const teamIds = (await teamsOfUser(userId)).filter((t) => t.role === "owner" && t.isDemo).map((t) => t.id);
-  return teamIds.length ? { teamIds } : null;
+export async function outboxScope(userId: string): Promise<{ teamIds: string[]; userId: string } | null> {
+  if (!outboxEnabled(process.env)) return null;
+  const teamIds = (await teamsOfUser(userId)).filter((t) => t.role === "owner").map((t) => t.id);
+  return { teamIds, userId };
 }

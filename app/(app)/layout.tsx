@@ -1,6 +1,7 @@
 import Link from "next/link";
 import type { ReactNode } from "react";
 import { AccountMenu, SectionNav, TeamSwitcher } from "@/components/shell/app-nav";
+import { VerifyEmailBanner } from "@/components/shell/verify-email-banner";
 import { Wordmark } from "@/components/shell/wordmark";
 import { teamsOfUser } from "@/lib/access";
 import { outboxScope } from "@/lib/outbox-access";
@@ -34,6 +35,7 @@ export default async function AppLayout({ children }: { children: ReactNode }) {
           </div>
         </div>
       </header>
+      {user.emailVerified ? null : <VerifyEmailBanner email={user.email} showOutbox={scope !== null} />}
       <main id="main" className="mx-auto w-full max-w-7xl flex-1 px-4 py-6">
         {children}
       </main>

@@ -19,10 +19,11 @@ export interface OutboxEntry {
 
 export async function insertOutbox(
   q: Q,
-  m: { teamId: string | null; kind: string; to: string[]; subject: string; text: string; html?: string | null },
+  m: { teamId: string | null; userId: string | null; kind: string; to: string[]; subject: string; text: string; html?: string | null },
 ): Promise<number> {
   const [id] = await q("outbox").insert({
     team_id: m.teamId,
+    user_id: m.userId,
     kind: m.kind,
     to_addresses: m.to.join(", "),
     subject: m.subject,
@@ -60,12 +61,30 @@ export async function insertCapturedMail(
   });
 }
 
-/** Latest outbox rows (all, or only those of `teamIds`) with what the fake SMTP server captured. */
-export async function listOutbox(q: Q, opts: { teamIds?: string[]; limit?: number } = {}): Promise<OutboxEntry[]> {
+/**
+ * When messages of `kinds` were queued since `since` (ms), oldest first: by one user (`userId`) or from one team
+ * (`teamId`). The sending limits (lib/mail/quota.ts) count these.
+ */
+export async function mailSendTimes(q: Q, by: { userId: string } | { teamId: string }, kinds: readonly string[], since: number): Promise<number[]> {
+  const rows: { created_at: number }[] = await q("outbox")
+    .where("userId" in by ? { user_id: by.userId } : { team_id: by.teamId })
+    .whereIn("kind", kinds)
+    .andWhere("created_at", ">", since)
+    .orderBy("created_at", "asc")
+    .select("created_at");
+  return rows.map((r) => r.created_at);
+}
+
+/**
+ * Latest outbox rows with what the fake SMTP server captured: all of them, or those of the teams `teamIds` plus
+ * every message `userId` caused (their own account mail, the reports they sent).
+ */
+export async function listOutbox(q: Q, opts: { scope?: { teamIds: string[]; userId: string }; limit?: number } = {}): Promise<OutboxEntry[]> {
   let query = q("outbox")
     .orderBy("id", "desc")
     .limit(opts.limit ?? 100);
-  if (opts.teamIds) query = query.whereIn("team_id", opts.teamIds);
+  const scope = opts.scope;
+  if (scope) query = query.where((w) => w.whereIn("team_id", scope.teamIds).orWhere("user_id", scope.userId));
   const rows = await query.select();
   const ids = rows.map((r: { id: number }) => r.id);
   const captured = ids.length ? await q("captured_mail").whereIn("outbox_id", ids).orderBy("id").select("id", "outbox_id", "raw", "received_at") : [];

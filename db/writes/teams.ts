@@ -222,13 +222,16 @@ export async function acceptInvite(conn: Conn, p: { inviteId: string; userId: st
     if (await trx("memberships").where({ team_id: row.team_id, user_id: p.userId }).first("role"))
       throw new ConflictError("You are already a member of this team.");
     await insertMembership(trx, { teamId: row.team_id, userId: p.userId, role: row.role, now });
+    // The invite's link was mailed to this address and only that address accepts it: that proves the address,
+    // as a verification link would.
+    const verified = await trx("users").where({ id: p.userId, email: row.email }).whereNull("email_verified_at").update({ email_verified_at: now });
     await writeAudit(trx, {
       teamId: row.team_id,
       userId: p.userId,
       action: "invite.accept",
       entityType: "invite",
       entityId: p.inviteId,
-      detail: { role: row.role },
+      detail: { role: row.role, ...(verified ? { emailVerified: true } : {}) },
       at: now,
     });
     const team = await getTeam(trx, row.team_id);

@@ -56,9 +56,10 @@ function run(): void {
         process.exit(build.status ?? 1);
       }
       printDetails(s);
+      // PLATEAU_DEMO=1: the Outbox page shows each owner their team's captured mail (a plain `next start` has none).
       const server = spawn(process.execPath, [nextBin, "start", "-p", port], {
         stdio: "inherit",
-        env: { ...process.env, NODE_ENV: "production" },
+        env: { ...process.env, NODE_ENV: "production", PLATEAU_DEMO: "1" },
       });
       for (const sig of ["SIGINT", "SIGTERM", "SIGHUP"] as const) {
         process.on(sig, () => {

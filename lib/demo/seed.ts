@@ -44,7 +44,8 @@ export async function seedDemo(db: Knex): Promise<DemoSeedResult> {
     for (const u of DEMO_USERS) {
       const found = await getUserByEmail(db, u.email);
       const hash = hashes.get(u.email);
-      const rec = found ?? (hash ? await signUpUser(db, { email: u.email, name: u.name, passwordHash: hash, detail: { demo: true } }) : undefined);
+      const rec =
+        found ?? (hash ? await signUpUser(db, { email: u.email, name: u.name, passwordHash: hash, detail: { demo: true }, emailVerified: true }) : undefined);
       if (!rec) throw new Error(`demo user ${u.email} vanished during seeding; run the demo again`);
       users.push({ role: u.role, email: u.email, password: u.password, userId: rec.id, created: !found });
     }

@@ -7,7 +7,9 @@ import { MAIL_FROM, currentTransport } from "./transport";
 
 export interface MailInput {
   teamId: string | null;
-  /** What the mail is for, e.g. "invite", "report". */
+  /** Who caused the message (the inviter, the report's sender, the account being verified): the per-user limit counts it. */
+  userId: string | null;
+  /** What the mail is for, e.g. "invite", "report", "verify_email". */
   kind: string;
   to: string | string[];
   subject: string;
@@ -17,22 +19,36 @@ export interface MailInput {
 
 export type MailResult = { outboxId: number; status: "sent" } | { outboxId: number; status: "failed"; error: string };
 
-/**
- * Record the message in the outbox (queued), send it, then mark it sent or failed.
- * Never throws for a delivery failure: the caller's own work (an invite, a report) stays done,
- * and the outbox row says what happened.
- */
-export async function sendMail(m: MailInput): Promise<MailResult> {
+function recipients(m: MailInput): string[] {
+  return Array.isArray(m.to) ? m.to : [m.to];
+}
+
+/** Record the message in the outbox (queued) without sending it yet; deliverMail sends it. */
+export async function queueMail(m: MailInput): Promise<number> {
   await ready();
-  const to = Array.isArray(m.to) ? m.to : [m.to];
-  const outboxId = await insertOutbox(db, { teamId: m.teamId, kind: m.kind, to, subject: m.subject, text: m.text, html: m.html ?? null });
+  return insertOutbox(db, {
+    teamId: m.teamId,
+    userId: m.userId,
+    kind: m.kind,
+    to: recipients(m),
+    subject: m.subject,
+    text: m.text,
+    html: m.html ?? null,
+  });
+}
+
+/**
+ * Send a queued message, then mark its outbox row sent or failed. Never throws for a delivery failure: the caller's
+ * own work (an invite, a report) stays done, and the outbox row says what happened.
+ */
+export async function deliverMail(outboxId: number, m: MailInput): Promise<MailResult> {
   try {
     await startMailIfNeeded();
     const t = currentTransport();
     if (!t) throw new Error("mail transport is not configured");
     const info = await t.transport.sendMail({
       from: MAIL_FROM,
-      to,
+      to: recipients(m),
       subject: m.subject,
       text: m.text,
       ...(m.html ? { html: m.html } : {}),
@@ -46,4 +62,9 @@ export async function sendMail(m: MailInput): Promise<MailResult> {
     await markOutboxFailed(db, outboxId, error);
     return { outboxId, status: "failed", error };
   }
+}
+
+/** Record the message in the outbox (queued), send it, then mark it sent or failed (queueMail + deliverMail). */
+export async function sendMail(m: MailInput): Promise<MailResult> {
+  return deliverMail(await queueMail(m), m);
 }

@@ -56,3 +56,14 @@ export const passwordResetSchema = z.object({
     .regex(/^[A-Za-z0-9_-]{43}$/, "The reset link is incomplete. Open the whole link from the e-mail."),
   password: newPassword("Choose a new password."),
 });
+
+/** POST /api/auth/verify-email: the token from the confirmation link. */
+export const verifyEmailSchema = z
+  .object({
+    token: z
+      .string({ error: "The confirmation token is missing." })
+      .trim()
+      .min(1, "The confirmation token is missing.")
+      .max(200, "The confirmation token is not valid."),
+  })
+  .strict();

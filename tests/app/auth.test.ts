@@ -20,7 +20,7 @@ describe("POST /api/auth/sign-up", () => {
     const email = uniqueEmail("MixedCase").replace("MixedCase", "Mixed.Case");
     const r = await c.post("/api/auth/sign-up", { email: `  ${email.toUpperCase()} `, password: GOOD_PASSWORD, name: "Ada Lane" });
     expect(r.status).toBe(201);
-    expect(r.json.user).toEqual({ id: expect.any(String), email: email.toLowerCase(), name: "Ada Lane" });
+    expect(r.json.user).toEqual({ id: expect.any(String), email: email.toLowerCase(), name: "Ada Lane", emailVerified: false });
     expect(r.headers.get("set-cookie")).toMatch(/plateau_session=[^;]+;.*HttpOnly/i);
     expect(r.headers.get("set-cookie")).toMatch(/SameSite=Lax/i);
     const me = await c.get("/api/me");
@@ -154,7 +154,7 @@ describe("POST /api/auth/sign-in", () => {
     const c = new Client();
     const r = await c.req("POST", "/api/auth/sign-in", { email: email.toUpperCase(), password: GOOD_PASSWORD }, { headers: { "x-forwarded-for": freshIp() } });
     expect(r.status).toBe(200);
-    expect(r.json.user).toEqual({ id: userId, email, name: "Sam" });
+    expect(r.json.user).toEqual({ id: userId, email, name: "Sam", emailVerified: true });
     expect((await c.get("/api/me")).json.user.id).toBe(userId);
   });
 

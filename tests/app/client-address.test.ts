@@ -3,11 +3,11 @@ import Database from "better-sqlite3";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { makeWorkspace } from "../helpers/reports";
 import { Client, GOOD_PASSWORD, uniqueEmail } from "../helpers/http";
-import { startServer, type StartedServer } from "../helpers/server-setup";
+import { startServer, type RunningServer } from "../helpers/next-server";
 
 // A second server of its own, as a deployment WITHOUT a proxy in front runs: no PLATEAU_TRUSTED_PROXIES and no
 // PLATEAU_PUBLIC_URL. (The shared test server trusts the loopback test client as its proxy.)
-let server: StartedServer;
+let server: RunningServer;
 beforeAll(async () => {
   server = await startServer({ PLATEAU_TRUSTED_PROXIES: undefined, PLATEAU_PUBLIC_URL: undefined });
 }, 120_000);

@@ -43,7 +43,7 @@ describe("POST /api/teams/[teamId]/invites", () => {
 
     const outbox = db.prepare("select * from outbox where id = ?").get(r.json.mail.outboxId) as Record<string, unknown>;
     expect(outbox).toMatchObject({ team_id: o.teamId, kind: "invite", to_addresses: email, status: "sent" });
-    expect(outbox.subject).toBe("Test User invited you to Harbour Wiring on Plateau");
+    expect(outbox.subject).toBe('Invitation to join the team "Harbour Wiring" on Plateau');
     const captured = db.prepare("select * from captured_mail where outbox_id = ?").all(r.json.mail.outboxId) as Record<string, string>[];
     expect(captured).toHaveLength(1);
     expect(captured[0]!.envelope_to).toBe(email);

@@ -38,6 +38,21 @@ function inviteLinkFor(to: string): string {
   }
 }
 
+/** The newest confirmation link mailed to `to`, from the captured copy of the local mail catcher. */
+function confirmationLinkFor(to: string): string {
+  const db = new Database(inject("dbPath"), { readonly: true });
+  try {
+    const row = db
+      .prepare("select c.raw from captured_mail c join outbox o on o.id = c.outbox_id where o.kind = 'verify_email' and o.to_addresses = ? order by o.id desc")
+      .get(to) as { raw: string } | undefined;
+    const link = row?.raw.replace(/=\r?\n/g, "").match(/https?:\/\/\S+?\/verify-email\/[A-Za-z0-9_-]{43}/)?.[0];
+    expect(link).toBeTruthy();
+    return link!;
+  } finally {
+    db.close();
+  }
+}
+
 describe("platform in the browser", () => {
   it("sign up, create a team, invite a member by e-mail, accept in another browser, and the viewer sees read-only settings", async () => {
     const baseUrl = inject("baseUrl");
@@ -63,9 +78,24 @@ describe("platform in the browser", () => {
     await expect.poll(() => owner.getByRole("heading", { level: 1 }).textContent()).toBe("Lamina Labs");
     expect(await owner.getByText("No baselines yet").isVisible()).toBe(true);
 
-    // Invite a viewer from the settings page.
+    // A new account must confirm its address before it can invite (issue 12, finding 6): the notice says so, the
+    // invite is refused, and the link from the confirmation mail (as the local catcher received it) confirms it.
+    const notice = owner.getByRole("region", { name: "Confirm your e-mail address" });
+    await notice.waitFor();
     await owner.getByRole("navigation", { name: "Team sections" }).getByRole("link", { name: "Settings" }).click();
     await owner.waitForURL(/\/settings$/);
+    const early = owner.getByRole("form", { name: "Invite a member" });
+    await early.getByLabel("E-mail").fill(viewerEmail);
+    await early.getByRole("button", { name: "Send invite" }).click();
+    await owner.getByText(`Confirm your e-mail address (${ownerEmail}) before sending invites`).first().waitFor();
+    await owner.goto(confirmationLinkFor(ownerEmail));
+    await owner.getByRole("button", { name: "Confirm my address" }).click();
+    await owner.getByText(`${ownerEmail} is confirmed.`).first().waitFor();
+    await owner.goto(`${teamPath}/settings`);
+    await owner.getByRole("form", { name: "Invite a member" }).waitFor();
+    expect(await notice.count()).toBe(0);
+
+    // Invite a viewer from the settings page.
     const inviteForm = owner.getByRole("form", { name: "Invite a member" });
     await inviteForm.getByLabel("E-mail").fill(viewerEmail);
     await inviteForm.getByLabel("Role").selectOption("viewer");

@@ -1,9 +1,9 @@
 import Database from "better-sqlite3";
 import { inject } from "vitest";
 
-/** Read-write access to the running test server's SQLite file (for checking what was stored). */
-export function openTestDb(): Database.Database {
-  const db = new Database(inject("dbPath"));
+/** Read-write access to the running test server's SQLite file (for checking what was stored), or to `dbPath`'s. */
+export function openTestDb(dbPath: string = inject("dbPath")): Database.Database {
+  const db = new Database(dbPath);
   db.pragma("busy_timeout = 5000");
   return db;
 }

@@ -1,4 +1,5 @@
 import { inject } from "vitest";
+import { openTestDb } from "./db-file";
 
 /**
  * A tiny HTTP client for route tests: keeps the session cookie (`cookie`) and the known-device cookie (`device`,
@@ -62,18 +63,48 @@ export function uniqueEmail(prefix = "user"): string {
 
 export const GOOD_PASSWORD = "correct horse battery staple 42";
 
-/** Sign up a fresh user (signed in afterwards) and return the client. */
-export async function signedUpClient(name = "Test User"): Promise<{ client: Client; email: string; userId: string }> {
+/**
+ * The newest confirmation link mailed to `email`, as the local mail catcher received it (captured_mail; quoted-printable
+ * soft line breaks undone). `dbPath` defaults to the shared test server's database.
+ */
+export function verificationTokenFor(email: string, dbPath?: string): string {
+  const db = openTestDb(dbPath);
+  try {
+    const row = db
+      .prepare(
+        "select c.raw from captured_mail c join outbox o on o.id = c.outbox_id where o.kind = 'verify_email' and o.to_addresses = ? order by o.id desc limit 1",
+      )
+      .get(email) as { raw: string } | undefined;
+    const token = row?.raw.replace(/=\r?\n/g, "").match(/\/verify-email\/([A-Za-z0-9_-]{43})\b/)?.[1];
+    if (!token) throw new Error(`no confirmation link was mailed to ${email}`);
+    return token;
+  } finally {
+    db.close();
+  }
+}
+
+/** Confirm the client's address the way its owner would: the link from the captured mail, posted by the page's button. */
+export async function verifyEmail(client: Client, email: string, dbPath?: string): Promise<void> {
+  const r = await client.post("/api/auth/verify-email", { token: verificationTokenFor(email, dbPath) });
+  if (r.status !== 200) throw new Error(`e-mail verification failed: ${r.status} ${r.text}`);
+}
+
+/**
+ * Sign up a fresh user (signed in afterwards) and return the client. The address is confirmed through the mailed
+ * link (as its owner would), unless `verify: false`.
+ */
+export async function signedUpClient(name = "Test User", opts: { verify?: boolean } = {}): Promise<{ client: Client; email: string; userId: string }> {
   const client = new Client();
   const email = uniqueEmail();
   const r = await client.post("/api/auth/sign-up", { email, password: GOOD_PASSWORD, name });
   if (r.status !== 201 && r.status !== 200) throw new Error(`sign-up failed: ${r.status} ${r.text}`);
+  if (opts.verify !== false) await verifyEmail(client, email);
   return { client, email, userId: r.json.user.id };
 }
 
 /** A user with a fresh team: returns the client and the team id. */
-export async function userWithTeam(teamName = "Test Team") {
-  const u = await signedUpClient();
+export async function userWithTeam(teamName = "Test Team", opts: { verify?: boolean } = {}) {
+  const u = await signedUpClient("Test User", opts);
   const t = await u.client.post("/api/teams", { name: teamName });
   if (t.status !== 201) throw new Error(`team create failed: ${t.status} ${t.text}`);
   return { ...u, teamId: t.json.team.id as string };

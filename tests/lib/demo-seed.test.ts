@@ -28,11 +28,13 @@ describe("seedDemo", () => {
     const roles = await db("memberships as m")
       .join("users as u", "u.id", "m.user_id")
       .where("m.team_id", r.teamId)
-      .select("u.email", "m.role", "u.password_hash");
+      .select("u.email", "m.role", "u.password_hash", "u.email_verified_at");
     expect(roles.map((x: { email: string; role: string }) => [x.email, x.role]).sort()).toEqual(DEMO_USERS.map((u) => [u.email, u.role]).sort());
     for (const u of DEMO_USERS) {
       const row = roles.find((x: { email: string }) => x.email === u.email)!;
       expect(await verifyPassword(u.password, row.password_hash)).toBe(true);
+      // Verified from the start (issue 12, finding 6): the demo owner can send invites and report e-mails at once.
+      expect(row.email_verified_at).toBeGreaterThan(0);
     }
     expect(r.baselineId).toBeTruthy();
     expect(r.scenarioIds?.length).toBe(3);

@@ -14,16 +14,17 @@ export default async function OutboxPage() {
   const user = await requirePageUser("/dev/outbox");
   const scope = await outboxScope(user.id);
   if (!scope) notFound();
-  const rows = await listOutbox(db, { teamIds: scope.teamIds, limit: 100 });
+  const rows = await listOutbox(db, { scope, limit: 100 });
   return (
     <div className="space-y-4">
       <h1 className="text-xl font-semibold text-ink">Outbox</h1>
       <Notice>
-        {scope.teamIds ? "Mail sent from the demo team you own. " : "Every message the app sent (development only). "}
-        Unless PLATEAU_SMTP_URL is set, mail goes to Plateau&apos;s local catcher and never leaves this machine; the captured copy is shown under each message.
+        Mail of the teams you own and the messages you caused yourself (such as your address&apos;s confirmation link), as this development or demo server sent
+        them. Unless PLATEAU_SMTP_URL is set, mail goes to Plateau&apos;s local catcher and never leaves this machine; the captured copy is shown under each
+        message.
       </Notice>
       {rows.length === 0 ? (
-        <EmptyState title="No mail yet">Invites and shared reports appear here once sent.</EmptyState>
+        <EmptyState title="No mail yet">Confirmation links, invites and shared reports appear here once sent.</EmptyState>
       ) : (
         rows.map((m) => (
           <Card

@@ -23,7 +23,7 @@ export const POST = apiRoute(async (req) => {
     await createPasswordReset(db, { userId: user.id, tokenHash, ttlMs: RESET_TTL_MS });
     // The token travels in the query of a page that sends no Referer (app/(auth)/reset-password).
     const link = `${publicBaseUrl()}/reset-password?token=${token}`;
-    await sendMail({ teamId: null, kind: "password_reset", to: user.email, ...resetMail({ name: user.name, link }) });
+    await sendMail({ teamId: null, userId: user.id, kind: "password_reset", to: user.email, ...resetMail({ name: user.name, link }) });
   }
   return Response.json({ ok: true, message: SENT }, { status: 202 });
 });

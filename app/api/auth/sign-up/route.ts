@@ -7,6 +7,7 @@ import { signUpUser } from "@/db/writes/users";
 import { accountExistsMail } from "@/lib/account-mail";
 import { apiRoute, readJson } from "@/lib/api";
 import { startSession } from "@/lib/auth";
+import { sendVerificationLink } from "@/lib/email-verification";
 import { rememberThisDevice } from "@/lib/known-device";
 import { sendMail } from "@/lib/mail/send";
 import { hashPassword } from "@/lib/password";
@@ -27,12 +28,13 @@ async function answerTaken(existing: UserRecord, input: SignUpInput): Promise<Re
     const base = publicBaseUrl();
     await sendMail({
       teamId: null,
+      userId: existing.id,
       kind: "account_exists",
       to: existing.email,
       ...accountExistsMail({ name: existing.name, signInUrl: `${base}/sign-in`, resetUrl: `${base}/forgot-password` }),
     });
   }
-  return Response.json({ user: { id: newId(), email: input.email, name: input.name } }, { status: 201 });
+  return Response.json({ user: { id: newId(), email: input.email, name: input.name, emailVerified: false } }, { status: 201 });
 }
 
 export const POST = apiRoute(async (req) => {
@@ -53,5 +55,7 @@ export const POST = apiRoute(async (req) => {
   }
   await startSession(user.id);
   await rememberThisDevice(db, user.id);
+  // The account works at once; invites and report e-mails wait until the address is confirmed through this link.
+  await sendVerificationLink(user);
   return Response.json({ user: publicUser(user) }, { status: 201 });
 });
