@@ -46,7 +46,8 @@ describe("POST /api/auth/sign-up", () => {
     expect(taken.status).toBe(201);
     expect(Object.keys(taken.json)).toEqual(Object.keys(fresh.json));
     expect(Object.keys(taken.json.user).sort()).toEqual(Object.keys(fresh.json.user).sort());
-    expect(taken.json.user).toEqual({ id: expect.stringMatching(/^[a-z2-7]{20}$/), email, name: "Second" });
+    expect(taken.json.user).toEqual({ id: expect.stringMatching(/^[a-z2-7]{20}$/), email, name: "Second", emailVerified: false });
+    expect(fresh.json.user.emailVerified).toBe(false);
     expect(taken.json.user.id).not.toBe(userId);
     expect(taken.text).not.toMatch(/exist/i);
     // No account, no session for the taken address; the owner's password is unchanged.

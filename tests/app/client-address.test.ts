@@ -2,7 +2,7 @@ import http from "node:http";
 import Database from "better-sqlite3";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { makeWorkspace } from "../helpers/reports";
-import { Client, GOOD_PASSWORD, uniqueEmail } from "../helpers/http";
+import { Client, GOOD_PASSWORD, uniqueEmail, verifyEmail } from "../helpers/http";
 import { startServer, type RunningServer } from "../helpers/next-server";
 
 // A second server of its own, as a deployment WITHOUT a proxy in front runs: no PLATEAU_TRUSTED_PROXIES and no
@@ -42,7 +42,10 @@ describe("issue 12 finding 1: the client address comes from the socket unless a 
 describe("issue 12 finding 7 / issue 13 item 1: without PLATEAU_PUBLIC_URL links use the listen address, never the Host header", () => {
   it("an invite and a share link made with a forged Host and X-Forwarded-Host carry the listen address", async () => {
     const owner = new Client(server.baseUrl);
-    expect((await owner.post("/api/auth/sign-up", { email: uniqueEmail("own"), password: GOOD_PASSWORD, name: "O" })).status).toBe(201);
+    const ownerEmail = uniqueEmail("own");
+    expect((await owner.post("/api/auth/sign-up", { email: ownerEmail, password: GOOD_PASSWORD, name: "O" })).status).toBe(201);
+    // invites need a confirmed address (issue 12 finding 6): confirmed through the link this server mailed
+    await verifyEmail(owner, ownerEmail, server.dbPath);
     const t = await owner.post("/api/teams", { name: "Link Team" });
     expect(t.status).toBe(201);
     const teamId = t.json.team.id as string;
