@@ -1,6 +1,16 @@
 "use client";
 import { useId, useState } from "react";
-import { DIELECTRICS, METALS, MODEL_LEVELS, sFromTargetPitch, type AirGap, type ModelLevel, type ScenarioSettings, type WireClass } from "@/lib/scaling";
+import {
+  DIELECTRICS,
+  getDielectric,
+  METALS,
+  MODEL_LEVELS,
+  sFromTargetPitch,
+  type AirGap,
+  type ModelLevel,
+  type ScenarioSettings,
+  type WireClass,
+} from "@/lib/scaling";
 import { inputClass } from "@/components/ui/field";
 import { NumberField } from "./number-field";
 import { U, formatValue, parseValue } from "./units";
@@ -292,7 +302,7 @@ export function DielectricField({
             className={`${inputClass} ${compact ? "px-1 py-1 text-xs" : ""}`}
             value={preset}
             onChange={(e) => {
-              const d = DIELECTRICS[e.target.value];
+              const d = getDielectric(e.target.value);
               onChange(e.target.value === "" ? null : d ? d.k : (value ?? 2.7));
             }}
           >

@@ -1,4 +1,14 @@
-import { ENGINE_VERSION, MODEL_LEVELS, evaluateScenario, sweep, type Evaluation, type ScenarioSettings, type Technology, type WireClass } from "@/lib/scaling";
+import {
+  ENGINE_VERSION,
+  MODEL_LEVELS,
+  evaluateScenario,
+  ownEntry,
+  sweep,
+  type Evaluation,
+  type ScenarioSettings,
+  type Technology,
+  type WireClass,
+} from "@/lib/scaling";
 import {
   DEFAULT_REPORT_METRICS,
   FROZEN_SCHEMA_VERSION,
@@ -144,7 +154,7 @@ function freezeSweeps(input: FreezeInput, classNames: string[], evaluations: Eva
     for (const cc of evaluations[i]!.classes) {
       const target = byClass.get(cc.name);
       if (!target) continue;
-      const sHere = s.settings.overrides[cc.name]?.s ?? s.settings.s;
+      const sHere = ownEntry(s.settings.overrides, cc.name)?.s ?? s.settings.s;
       target.marks.push({ key, x: sHere, y: cc.scenario.delayS });
     }
   });

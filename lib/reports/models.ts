@@ -1,4 +1,12 @@
-import { DEFAULT_MIN_REPEATER_GAIN, DEFAULT_OUTPUT_C_RATIO, DEFAULT_REPEATER_AREA_M2, DEFAULT_TEMPERATURE_C, METAL_PARAMETERS, METALS } from "@/lib/scaling";
+import {
+  DEFAULT_MIN_REPEATER_GAIN,
+  DEFAULT_OUTPUT_C_RATIO,
+  DEFAULT_REPEATER_AREA_M2,
+  DEFAULT_TEMPERATURE_C,
+  METAL_PARAMETERS,
+  METALS,
+  ownEntry,
+} from "@/lib/scaling";
 import type { FrozenReport } from "@/lib/validation/report";
 
 export interface ModelUse {
@@ -89,7 +97,7 @@ export function modelsUsed(report: FrozenReport): ModelUse[] {
       const acc = c.scenario.accuracy;
       // the model each class used: an air-gapped class takes the accurate tables at levels coupled and full
       const cap = c.scenario.capacitance.model === "accurate" ? "accurate" : level === "full" ? "coupled" : level;
-      add("Capacitance", CAPACITANCE[cap] ?? CAPACITANCE.coupled!, acc.capacitance, who);
+      add("Capacitance", ownEntry(CAPACITANCE, cap) ?? CAPACITANCE.coupled!, acc.capacitance, who);
       add("Resistance", level === "full" ? RESISTIVITY.size : RESISTIVITY.bulk, acc.resistivity, who);
       add("Delay", level === "ideal" ? DELAY.ideal : DELAY.other, acc.delay, who);
       add("Repeaters", REPEATERS, acc.repeaters, who);
@@ -114,10 +122,10 @@ export function materialSources(
     }
   const materials = report.baseline.technology.materials ?? {};
   return [...ids]
-    .map((id) => METALS[id])
+    .map((id) => ownEntry(METALS, id))
     .filter((m): m is NonNullable<typeof m> => Boolean(m))
     .map((m) => {
-      const o = materials[m.id];
+      const o = ownEntry(materials, m.id);
       const parts = o
         ? METAL_PARAMETERS.filter((q) => o[q.key] !== undefined).map(
             (q) =>
