@@ -50,6 +50,7 @@ export async function runWireClassImport(db: Knex, p: BaselineImportRequest) {
     teamId: p.teamId,
     userId: p.userId,
     mode: p.mode,
+    version: p.version,
     classes: parsed.classes,
     maxClasses: MAX_CLASSES,
     summary: `Imported wire classes from CSV (${p.mode}): ${parts.join("; ")}`,

@@ -49,6 +49,7 @@ export async function runHistogramImport(db: Knex, p: BaselineImportRequest) {
       teamId: p.teamId,
       userId: p.userId,
       mode: p.mode,
+      version: p.version,
       classNames: names,
       histograms: acc.classIndices().map((classIndex) => ({ classIndex, ...acc.sorted(classIndex) })),
       summary,
