@@ -4,6 +4,18 @@ import { apiRoute, databaseUnavailable, DATABASE_RETRY_AFTER_S } from "@/lib/api
 
 export const dynamic = "force-dynamic";
 
+/** One write probe per second at most, shared by the health checks that arrive meanwhile (a probe takes the write lock). */
+const PROBE_MS = 1000;
+const g = globalThis as unknown as { __plateauHealthProbe?: { at: number; result: Promise<void> } };
+function probe(): Promise<void> {
+  const last = g.__plateauHealthProbe;
+  if (last && Date.now() - last.at < PROBE_MS) return last.result;
+  const result = probeWritable(db);
+  result.catch(() => undefined); // reported to each caller; never an unhandled rejection
+  g.__plateauHealthProbe = { at: Date.now(), result };
+  return result;
+}
+
 /**
  * Health and readiness: 200 `{ ok: true, database: { migrated: true, writable: true } }` when the database is
  * migrated and can be written now; otherwise 503 with Retry-After and `{ ok: false, database: { migrated, writable,
@@ -12,7 +24,7 @@ export const dynamic = "force-dynamic";
  */
 export const GET = apiRoute(async () => {
   try {
-    await probeWritable(db);
+    await probe();
   } catch (e) {
     const unavailable = databaseUnavailable(e);
     if (!unavailable) throw e;
