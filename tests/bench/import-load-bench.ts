@@ -96,6 +96,40 @@ async function must(status: number, p: Promise<{ status: number; json: any }>, w
 
 const fmt = (n: number, d = 1) => n.toFixed(d);
 
+/** The next-server process: `next start` itself or the child it forks (Linux /proc; the spawned pid elsewhere). */
+function serverPid(pid: number): number {
+  try {
+    for (const t of fs.readdirSync(`/proc/${pid}/task`)) {
+      const kids = fs.readFileSync(`/proc/${pid}/task/${t}/children`, "utf8").trim();
+      if (kids) return serverPid(Number(kids.split(/\s+/)[0]));
+    }
+  } catch {
+    /* not Linux */
+  }
+  return pid;
+}
+
+/**
+ * CPU time (ms, user + system) of the server's main thread (the event loop: its thread id is the process id) and of
+ * all its threads. Less sensitive to other load on the machine than latency: it shows where the import work runs.
+ */
+function threadCpuMs(pid: number): { main: number; all: number } {
+  let main = 0;
+  let all = 0;
+  try {
+    for (const t of fs.readdirSync(`/proc/${pid}/task`)) {
+      const stat = fs.readFileSync(`/proc/${pid}/task/${t}/stat`, "utf8");
+      const f = stat.slice(stat.lastIndexOf(")") + 2).split(" ");
+      const ms = (Number(f[11]) + Number(f[12])) * 10; // utime, stime in USER_HZ = 100
+      all += ms;
+      if (Number(t) === pid) main += ms;
+    }
+  } catch {
+    /* gone, or not Linux */
+  }
+  return { main, all };
+}
+
 try {
   for (let i = 0; ; i++) {
     try {
@@ -151,7 +185,10 @@ try {
   // warm-up: every route's code loaded once, one import through the thread
   await must(200, call("POST", `/api/baselines/${targets[0]}/histograms?mode=replace&dryRun=1`, csvBytes, "text/csv"), "warm-up import");
   await measure();
+  const pid = serverPid(server.pid!);
+  const idle0 = threadCpuMs(pid);
   const idle = await measure();
+  const idle1 = threadCpuMs(pid);
 
   let stop = false;
   let imports = 0;
@@ -167,7 +204,11 @@ try {
   };
   const running = targets.map((id) => importer(id));
   await new Promise((r) => setTimeout(r, 1000)); // the four imports under way
+  const load0 = threadCpuMs(pid);
+  const imports0 = imports;
   const loaded = await measure();
+  const load1 = threadCpuMs(pid);
+  const importsDuring = imports - imports0;
   stop = true;
   await Promise.all(running);
 
@@ -189,7 +230,15 @@ try {
     );
     if (bad) process.exitCode = 1;
   }
-  console.log(`  imports finished while measuring: ${imports} (mean ${fmt(importMs / Math.max(1, imports), 0)} ms each, upload to stored)`);
+  console.log(
+    `  imports finished: ${imports} (mean ${fmt(importMs / Math.max(1, imports), 0)} ms each, upload to stored), ${importsDuring} of them while measuring`,
+  );
+  const extraMain = load1.main - load0.main - (idle1.main - idle0.main);
+  const extraAll = load1.all - load0.all - (idle1.all - idle0.all);
+  console.log(
+    `  server CPU, measuring window under load minus idle window: event-loop thread +${fmt(extraMain, 0)} ms, all threads +${fmt(extraAll, 0)} ms` +
+      (importsDuring ? ` (${fmt(extraMain / importsDuring, 0)} / ${fmt(extraAll / importsDuring, 0)} ms per import)` : ""),
+  );
   console.log(`  Aim: p99 under load ≤ 2× idle p99 — worst ratio ${fmt(worst, 2)} ×.`);
 } finally {
   server.kill("SIGTERM");
