@@ -66,6 +66,8 @@ export async function renderPdf(url: string, footerTitle: string, opts: { userId
   const { userId, signal } = opts;
   if (signal?.aborted) throw abortError();
   const now = Date.now();
+  // forget people whose last PDF is older than the window, so the map stays as small as the recent users
+  if (state.recent.size > 1000) for (const [u, times] of state.recent) if (now - (times.at(-1) ?? 0) >= WINDOW_MS) state.recent.delete(u);
   const recent = (state.recent.get(userId) ?? []).filter((t) => now - t < WINDOW_MS);
   state.recent.set(userId, recent);
   if (recent.length >= PDF_PER_USER_PER_WINDOW)
