@@ -15,7 +15,13 @@ export async function register() {
   const warning = publicUrlWarning();
   if (warning) console.warn(`[plateau] ${warning}`);
   const { ready } = await import("@/db/client");
-  await ready();
+  try {
+    await ready();
+  } catch {
+    // A database that cannot be migrated now (read-only, locked…) must not stop the server: every API request
+    // retries (db/client.ts ready) and answers 503 until it succeeds; /api/health says why.
+    return;
+  }
   const { startMailIfNeeded } = await import("@/lib/mail/start");
   await startMailIfNeeded();
 }

@@ -53,3 +53,19 @@ export class InvalidInputError extends Error {
 export function fieldError(field: string, message: string): Record<string, string[]> {
   return { [field]: [message] };
 }
+
+/**
+ * The database cannot be opened, migrated or written right now (a read-only or missing file, a full disk…): 503
+ * database_unavailable with Retry-After. db/client.ts throws it while the migrations have not yet succeeded.
+ */
+export class DatabaseUnavailableError extends Error {
+  // by name too: the server's bundles (instrumentation, each route) may each hold their own copy of this class, and
+  // db/client.ts shares one migration attempt between them through globalThis
+  override readonly name = "DatabaseUnavailableError";
+  constructor(
+    message: string,
+    override readonly cause?: unknown,
+  ) {
+    super(message);
+  }
+}

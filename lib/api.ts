@@ -1,10 +1,12 @@
 import "server-only";
 import { type z } from "zod";
-import { ConflictError, InvalidInputError, NotFoundError, StaleVersionError } from "@/db/errors";
+import { ready } from "@/db/client";
+import { ConflictError, DatabaseUnavailableError, InvalidInputError, NotFoundError, StaleVersionError } from "@/db/errors";
 import { InvalidCsvError, UploadInterruptedError } from "@/lib/import/errors";
 import { ImportFatalError, type ImportIssue } from "@/lib/import/types";
 import { expectedOrigin } from "@/lib/public-url";
 import { securityHeaders, servedOverHttps } from "@/lib/security-headers";
+import { RetryLaterError } from "@/lib/retry-later";
 
 /** Error body of every API answer: `{ error: { code, message, fields? } }`. */
 export type ApiErrorBody = { error: { code: string; message: string; fields?: Record<string, string[]> } };
@@ -98,8 +100,43 @@ export function knownErrorResponse(e: unknown): Response | undefined {
     return invalidCsvResponse(csv);
   }
   if (e instanceof UploadInterruptedError) return errorResponse(new ApiError(400, "upload_incomplete", e.message));
+  if (e instanceof RetryLaterError) return errorResponse(new ApiError(e.status, e.code, e.message, undefined, { "retry-after": String(e.retryAfterS) }));
+  const db = databaseUnavailable(e);
+  if (db) return errorResponse(db);
+  // the client went away (request.signal): nobody reads this answer, and it is not a fault to log
+  if (e instanceof DOMException && e.name === "AbortError") return errorResponse(new ApiError(499, "client_closed_request", "The request was cancelled."));
   return undefined;
 }
+
+/** SQLite result codes that mean "the database cannot be used right now", not "this request is wrong". */
+const UNAVAILABLE = /^SQLITE_(READONLY|BUSY|LOCKED|CANTOPEN|IOERR|FULL|PERM|NOMEM|PROTOCOL|NOLFS)(_|$)/;
+/** Seconds a client should wait before retrying a request that hit an unavailable database. */
+export const DATABASE_RETRY_AFTER_S = 5;
+
+/**
+ * A database failure as a 503 with Retry-After (the JSON body as every error; never the driver's text): the file
+ * cannot be written (SQLITE_READONLY, SQLITE_PERM, SQLITE_CANTOPEN), is locked past the busy timeout (SQLITE_BUSY,
+ * SQLITE_LOCKED), or the disk fails or is full (SQLITE_IOERR_*, SQLITE_FULL). Undefined for anything else. The
+ * driver's error (better-sqlite3's SqliteError, through Knex) carries the code; the migration gate of db/client.ts
+ * throws DatabaseUnavailableError.
+ */
+export function databaseUnavailable(e: unknown): ApiError | undefined {
+  if (e instanceof DatabaseUnavailableError || (e instanceof Error && e.name === "DatabaseUnavailableError")) return unavailable(e.message);
+  const code = typeof e === "object" && e !== null && "code" in e ? (e as { code: unknown }).code : undefined;
+  if (typeof code === "string" && UNAVAILABLE.test(code)) {
+    console.error(`[api] database unavailable: ${code}`);
+    return unavailable(
+      /READONLY|PERM|CANTOPEN/.test(code)
+        ? "The database cannot be written right now; nothing was stored. Try again shortly."
+        : /BUSY|LOCKED/.test(code)
+          ? "The database is busy; nothing was stored. Try again shortly."
+          : "The database is not available right now; nothing was stored. Try again shortly.",
+    );
+  }
+  return undefined;
+}
+
+const unavailable = (message: string) => new ApiError(503, "database_unavailable", message, undefined, { "retry-after": String(DATABASE_RETRY_AFTER_S) });
 
 const STATE_CHANGING = new Set(["POST", "PUT", "PATCH", "DELETE"]);
 
@@ -175,6 +212,7 @@ export function apiRoute<P = Record<string, string>>(fn: (req: Request, params: 
   return async (req: Request, ctx: Ctx<P>): Promise<Response> => {
     try {
       checkOrigin(req);
+      await ready(); // the migrations: 503 database_unavailable while they cannot run (retried on each request)
       const params = ctx?.params ? await ctx.params : ({} as P);
       return withTransportSecurity(await fn(req, params));
     } catch (e) {

@@ -15,7 +15,11 @@ import { swrKeys } from "@/lib/swr-keys";
 import type { ImportIssue } from "@/lib/import/types";
 import type { ClassTotalRow, ImportKind, WorkerMessage, WorkerRequest } from "./protocol";
 
-type Target = { kind: "classes"; baselineId: string } | { kind: "histograms"; baselineId: string } | { kind: "new-baseline"; teamId: string };
+/** Where the file goes; an existing baseline's `version` (as loaded) is sent with the upload: a newer one answers 409. */
+type Target =
+  | { kind: "classes"; baselineId: string; version: number }
+  | { kind: "histograms"; baselineId: string; version: number }
+  | { kind: "new-baseline"; teamId: string };
 
 type Preview = Extract<WorkerMessage, { type: "done" }>;
 
@@ -279,7 +283,7 @@ export function CsvImport({
   const uploadUrl = (): string => {
     if (target.kind === "new-baseline") return `/api/teams/${target.teamId}/baselines/import?name=${encodeURIComponent(name.trim())}`;
     const path = target.kind === "classes" ? "import" : "histograms";
-    return `/api/baselines/${target.baselineId}/${path}?mode=${mode}`;
+    return `/api/baselines/${target.baselineId}/${path}?mode=${mode}&version=${target.version}`;
   };
 
   const upload = async () => {

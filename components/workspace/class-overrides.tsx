@@ -1,6 +1,6 @@
 "use client";
 import { useState } from "react";
-import { METALS, type AirGap, type ClassOverride, type ScenarioSettings, type WireClass } from "@/lib/scaling/client";
+import { METALS, ownEntry, type AirGap, type ClassOverride, type ScenarioSettings, type WireClass } from "@/lib/scaling/client";
 import { inputClass } from "@/components/ui/field";
 import { DEFAULT_AIR_GAP, DielectricField, gapFractionCheck, kGapCheck } from "./settings-panel";
 import { formatValue, parseValue, U, type DisplayUnit } from "./units";
@@ -29,7 +29,7 @@ export function ClassOverrides({
   errors: Record<string, string[]>;
 }) {
   const setO = (name: string, patch: Partial<ClassOverride>) => {
-    const next: ClassOverride = { ...(settings.overrides[name] ?? {}), ...patch };
+    const next: ClassOverride = { ...(ownEntry(settings.overrides, name) ?? {}), ...patch };
     for (const k of Object.keys(next) as (keyof ClassOverride)[]) if (next[k] === undefined) delete next[k];
     const overrides = { ...settings.overrides };
     if (Object.keys(next).length === 0) delete overrides[name];
@@ -62,7 +62,7 @@ export function ClassOverrides({
         </thead>
         <tbody>
           {classes.map((c) => {
-            const o = settings.overrides[c.name] ?? {};
+            const o = ownEntry(settings.overrides, c.name) ?? {};
             const e = (k: string) => errors[`settings.overrides.${c.name}.${k}`];
             if (readOnly)
               return (

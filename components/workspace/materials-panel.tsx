@@ -1,7 +1,18 @@
 "use client";
 import Decimal from "decimal.js";
 import { useId, useState } from "react";
-import { DEFAULT_TEMPERATURE_C, METAL_PARAMETERS, METALS, metalAt, type MetalOverride, type Technology, type WireClass } from "@/lib/scaling/client";
+import {
+  DEFAULT_TEMPERATURE_C,
+  getMetal,
+  isMetalId,
+  METAL_PARAMETERS,
+  METALS,
+  metalAt,
+  ownEntry,
+  type MetalOverride,
+  type Technology,
+  type WireClass,
+} from "@/lib/scaling/client";
 import type { SizeEffectFit } from "@/lib/scaling";
 import { ApiRequestError, apiSend, errorMessage } from "@/lib/api-client";
 import { Button } from "@/components/ui/button";
@@ -17,7 +28,7 @@ const show = (si: number, unitSI: number, digits = 6) => formatValue(si, { label
 /** Metals the baseline uses (in class order), then any metal that only has overrides. */
 function metalsOf(classes: WireClass[], technology: Technology): string[] {
   const ids: string[] = [];
-  for (const c of classes) if (METALS[c.metal] && !ids.includes(c.metal)) ids.push(c.metal);
+  for (const c of classes) if (isMetalId(c.metal) && !ids.includes(c.metal)) ids.push(c.metal);
   for (const id of Object.keys(technology.materials ?? {})) if (!ids.includes(id)) ids.push(id);
   return ids;
 }
@@ -41,7 +52,7 @@ export function MaterialsPanel(p: {
   const tC = p.technology.temperatureC ?? DEFAULT_TEMPERATURE_C;
   const materials = p.technology.materials ?? {};
   const setParam = (id: string, key: Param, v: number | undefined) => {
-    const cur = { ...(materials[id] ?? {}) };
+    const cur = { ...(ownEntry(materials, id) ?? {}) };
     if (v === undefined) delete cur[key];
     else cur[key] = v;
     const next = { ...materials };
@@ -59,7 +70,7 @@ export function MaterialsPanel(p: {
       {ids.length === 0 ? <p className="text-sm text-muted">No classes yet: the materials of their metals show here.</p> : null}
       <div className="grid gap-4 xl:grid-cols-2">
         {ids.map((id) => (
-          <MetalTable key={id} id={id} override={materials[id]} temperatureC={tC} readOnly={p.readOnly} onParam={setParam} errors={p.errors} />
+          <MetalTable key={id} id={id} override={ownEntry(materials, id)} temperatureC={tC} readOnly={p.readOnly} onParam={setParam} errors={p.errors} />
         ))}
       </div>
       <SourceField technology={p.technology} onChange={p.onChange} readOnly={p.readOnly} errors={p.errors["technology.materialsSource"]} />
@@ -102,7 +113,7 @@ function MetalTable(p: {
   onParam: (id: string, key: Param, v: number | undefined) => void;
   errors: Record<string, string[]>;
 }) {
-  const cat = METALS[p.id]!;
+  const cat = getMetal(p.id);
   const at = metalAt({ metal: p.id, temperatureC: p.temperatureC, override: p.override });
   return (
     <div className="overflow-x-auto rounded border border-rule" data-testid={`materials-${p.id}`}>
@@ -444,7 +455,7 @@ function FitToMeasured(p: {
                 <strong>{id}</strong>:{" "}
                 {o.specularity !== undefined
                   ? `p ${show(o.specularity, 1, 3)}, R ${show(o.grainReflection ?? 0, 1, 3)}`
-                  : `ρ0 at 20 °C ${show(o.resistivityOhmM ?? 0, 1e-8, 4)} µΩ·cm (one line: catalogue ρ0 × ${show((o.resistivityOhmM ?? 0) / (METALS[id]?.resistivityOhmM ?? 1), 1, 4)})`}
+                  : `ρ0 at 20 °C ${show(o.resistivityOhmM ?? 0, 1e-8, 4)} µΩ·cm (one line: catalogue ρ0 × ${show((o.resistivityOhmM ?? 0) / (ownEntry(METALS, id)?.resistivityOhmM ?? 1), 1, 4)})`}
               </li>
             ))}
           </ul>

@@ -1,7 +1,7 @@
 "use client";
 import Decimal from "decimal.js";
 import { useId, useState } from "react";
-import { DIELECTRICS, METALS, MODEL_LEVELS, type AirGap, type ModelLevel, type ScenarioSettings, type WireClass } from "@/lib/scaling/client";
+import { DIELECTRICS, getDielectric, METALS, MODEL_LEVELS, type AirGap, type ModelLevel, type ScenarioSettings, type WireClass } from "@/lib/scaling/client";
 import { inputClass } from "@/components/ui/field";
 import { pitchExact, sFromPitchExact } from "@/lib/workspace/pitch";
 import { NumberField } from "./number-field";
@@ -367,7 +367,7 @@ export function DielectricField({
             className={`${inputClass} ${compact ? "px-1 py-1 text-xs" : ""}`}
             value={preset}
             onChange={(e) => {
-              const d = DIELECTRICS[e.target.value];
+              const d = getDielectric(e.target.value);
               onChange(e.target.value === "" ? null : d ? d.k : (value ?? 2.7));
             }}
           >

@@ -1,7 +1,8 @@
 "use client";
 import dynamic from "next/dynamic";
 import { useEffect, useMemo, useRef, useState } from "react";
-import type { ModelLevel, ScenarioSettings, SweepCurve, SweepMetric, SweepPoint, Technology, WireClass } from "@/lib/scaling";
+import { ownEntry } from "@/lib/scaling/client";
+import { type ModelLevel, type ScenarioSettings, type SweepCurve, type SweepMetric, type SweepPoint, type Technology, type WireClass } from "@/lib/scaling";
 import { LevelLegend, SWEEP_METRIC } from "@/components/charts/sweep-meta";
 import { inputClass } from "@/components/ui/field";
 import { explainEngineError } from "@/lib/workspace/engine-errors";
@@ -112,7 +113,7 @@ export function SweepPanel({
     }
     return m;
   }, [curves]);
-  const sOf = (n: string) => settings.overrides[n]?.s ?? settings.s;
+  const sOf = (n: string) => ownEntry(settings.overrides, n)?.s ?? settings.s;
   const readings = useMemo(() => {
     const out: SweepReading[] = [];
     for (const n of selected) {
@@ -142,7 +143,7 @@ export function SweepPanel({
       : d;
   // Dots on the curves only where they are this scenario's own (same S_L rule); otherwise just a line at its S.
   const dotsFor = (n: string) => {
-    const sL = settings.overrides[n]?.sL ?? settings.sL;
+    const sL = ownEntry(settings.overrides, n)?.sL ?? settings.sL;
     return view.length === "scenario" || (view.length === "fixed" && sL === 1) || (view.length === "follow" && Math.abs(sL - sOf(n)) < 1e-9);
   };
   const xLabel = view.length === "follow" ? "S = S_L (section and length)" : view.length === "fixed" ? "S (S_L = 1, length kept)" : "S (scenario's S_L)";

@@ -59,7 +59,8 @@ async function insertBaselineRow(
 
 /**
  * Bump the version. With `expected`, only if the stored version still equals it (else StaleVersionError,
- * version 0 when the row is gone); without (imports, which carry no version), unconditionally.
+ * version 0 when the row is gone); without (scripts: the demo seeder, benchmarks), unconditionally. The import
+ * routes always pass the version the client loaded (`?version=N`).
  */
 async function bumpVersion(
   trx: Knex.Transaction,
@@ -425,6 +426,8 @@ export async function importWireClasses(
     summary: string;
     detail: unknown;
     maxClasses: number;
+    /** The baseline version the client loaded: StaleVersionError when it moved on (absent only for scripts). */
+    version?: number;
   },
 ): Promise<{ version: number; classCount: number }> {
   return conn.transaction(async (trx) => {
@@ -441,7 +444,7 @@ export async function importWireClasses(
       for (const c of p.classes) if (incoming.has(c.name.toLowerCase())) list.push({ ...c });
     }
     if (list.length > p.maxClasses) throw new ImportConflictError(`A baseline holds at most ${p.maxClasses} classes; this import would make ${list.length}.`);
-    const version = await bumpVersion(trx, p.baselineId, p.teamId, p.userId);
+    const version = await bumpVersion(trx, p.baselineId, p.teamId, p.userId, p.version);
     await replaceClasses(trx, p.baselineId, list);
     await writeRevision(trx, p.baselineId, version, p.userId, p.summary);
     await writeAudit(trx, {
@@ -483,6 +486,8 @@ export async function importHistograms(
     detail: unknown;
     /** Warnings the import answers; stored on the baseline until dismissed (they supersede earlier histogram warnings of the same classes). */
     warnings?: readonly ImportWarningInput[];
+    /** The baseline version the client loaded: StaleVersionError when it moved on (absent only for scripts). */
+    version?: number;
   },
 ): Promise<{ version: number; inserted: number }> {
   const encoded = p.histograms.map((h) => ({ classIndex: h.classIndex, columns: encodeHistogram(h.lengthsM, h.counts) }));
@@ -540,10 +545,13 @@ async function writeHistograms(
     summary: string;
     detail: unknown;
     warnings?: readonly ImportWarningInput[];
+    version?: number;
   },
   encoded: { classIndex: number; columns: HistogramColumns }[],
 ): Promise<{ version: number; inserted: number }> {
   return conn.transaction(async (trx) => {
+    // the version first: a stale import fails before it deletes or writes a single bin
+    const version = await bumpVersion(trx, p.baselineId, p.teamId, p.userId, p.version);
     const current: { id: string; name: string }[] = await trx("wire_classes").where({ baseline_id: p.baselineId }).select("id", "name");
     const idByName = new Map(current.map((c) => [c.name, c.id]));
     const ids = p.classNames.map((n) => idByName.get(n));
@@ -565,7 +573,6 @@ async function writeHistograms(
       await trx("class_histograms").insert({ class_id: ids[e.classIndex]!, ...e.columns });
       inserted += e.columns.bin_count;
     }
-    const version = await bumpVersion(trx, p.baselineId, p.teamId, p.userId);
     await writeRevision(trx, p.baselineId, version, p.userId, p.summary);
     // the file's histograms supersede the earlier histogram warnings of the classes they replace
     const now = Date.now();

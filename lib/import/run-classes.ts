@@ -7,7 +7,8 @@ import { MAX_CLASSES } from "@/lib/validation/wire-class";
 import { InvalidCsvError } from "./errors";
 import type { BaselineImportRequest } from "./types";
 import { MAX_IMPORT_BYTES } from "./limits";
-import { parseWireClassStream, type ImportedClass } from "./wire-classes";
+import { parseWireClassesOffThread } from "./off-thread";
+import type { ImportedClass } from "./wire-classes";
 
 function summaryOf(classes: ImportedClass[]) {
   return classes.map((c) => ({ name: c.name, tier: c.tier, netCount: c.netCount }));
@@ -23,7 +24,7 @@ export type NewBaselineImportResult = Awaited<ReturnType<typeof runNewBaselineIm
  * nothing is stored), then, unless it is a dry run, one transaction (db/writes/baselines.ts).
  */
 export async function runWireClassImport(db: Knex, p: BaselineImportRequest) {
-  const parsed = await parseWireClassStream(p.source, { maxBytes: p.maxBytes ?? MAX_IMPORT_BYTES });
+  const parsed = await parseWireClassesOffThread(p.source, p.maxBytes ?? MAX_IMPORT_BYTES);
   if (!parsed.ok) throw new InvalidCsvError(parsed.errors, parsed.errorCount, parsed.rows);
   const existing = await listClasses(db, p.baselineId);
   const existingNames = new Set(existing.map((c) => c.name.toLowerCase()));
@@ -50,6 +51,7 @@ export async function runWireClassImport(db: Knex, p: BaselineImportRequest) {
     teamId: p.teamId,
     userId: p.userId,
     mode: p.mode,
+    version: p.version,
     classes: parsed.classes,
     maxClasses: MAX_CLASSES,
     summary: `Imported wire classes from CSV (${p.mode}): ${parts.join("; ")}`,
@@ -71,7 +73,7 @@ export async function runNewBaselineImport(
     maxBytes?: number;
   },
 ) {
-  const parsed = await parseWireClassStream(p.source, { maxBytes: p.maxBytes ?? MAX_IMPORT_BYTES });
+  const parsed = await parseWireClassesOffThread(p.source, p.maxBytes ?? MAX_IMPORT_BYTES);
   if (!parsed.ok) throw new InvalidCsvError(parsed.errors, parsed.errorCount, parsed.rows);
   const body = { rows: parsed.rows, bytes: parsed.bytes, delimiter: parsed.delimiter, classes: summaryOf(parsed.classes) };
   if (p.dryRun) return { ok: true as const, dryRun: true, stored: false as const, ...body };

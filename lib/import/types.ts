@@ -37,6 +37,8 @@ export type BaselineImportRequest = {
   userId: string;
   mode: ImportMode;
   dryRun: boolean;
+  /** The baseline version the client loaded (required unless dryRun): a newer stored version → 409 stale_version. */
+  version?: number;
   source: AsyncIterable<Uint8Array>;
   maxBytes?: number;
 };

@@ -1,4 +1,4 @@
-import { DIELECTRICS, METALS, NM } from "@/lib/scaling/client";
+import { DIELECTRICS, METALS, NM, ownEntry } from "@/lib/scaling/client";
 import type { FrozenOption, FrozenReport } from "@/lib/validation/report";
 import { fixed, plain } from "./format";
 
@@ -10,11 +10,11 @@ const LEVEL_WORDS: Record<string, string> = {
 };
 
 export function levelWords(level: string): string {
-  return LEVEL_WORDS[level] ?? level;
+  return ownEntry(LEVEL_WORDS, level) ?? level;
 }
 
 function metalWords(id: string): string {
-  const m = METALS[id];
+  const m = ownEntry(METALS, id);
   return m ? `${m.name} (${m.id})` : id;
 }
 

@@ -1,4 +1,14 @@
-import { ENGINE_VERSION, MODEL_LEVELS, evaluateScenario, sweep, type Evaluation, type ScenarioSettings, type Technology, type WireClass } from "@/lib/scaling";
+import {
+  ENGINE_VERSION,
+  MODEL_LEVELS,
+  evaluateScenario,
+  ownEntry,
+  sweep,
+  type Evaluation,
+  type ScenarioSettings,
+  type Technology,
+  type WireClass,
+} from "@/lib/scaling";
 import {
   DEFAULT_REPORT_METRICS,
   FROZEN_SCHEMA_VERSION,
@@ -7,6 +17,7 @@ import {
   type FrozenSweep,
   type ReportMetric,
 } from "@/lib/validation/report";
+import { scopeToChosenClasses } from "./scope";
 
 /** Everything a report is computed from, as loaded from the team's baseline and scenarios. */
 export interface FreezeInput {
@@ -45,14 +56,21 @@ export function freezeReport(input: FreezeInput, now = Date.now()): FrozenReport
   // Table order follows the baseline, whatever order the classes were picked in.
   const classNames = input.classNames ? baseline.classes.map((c) => c.name).filter((n) => input.classNames!.includes(n)) : [...known];
   const metrics = input.metrics ? REPORT_METRIC_ORDER.filter((m) => input.metrics!.includes(m)) : [...DEFAULT_REPORT_METRICS];
+  // The report is about the chosen classes only: the engine evaluates just those (totals, worst class and flags are
+  // theirs), and nothing of the other classes is stored, so no view of the report (a share link above all) shows them.
+  const chosen = new Set(classNames);
+  const classes = baseline.classes.filter((c) => chosen.has(c.name));
+  const onlyChosen = (s: ScenarioSettings): ScenarioSettings => ({
+    ...s,
+    overrides: Object.fromEntries(Object.entries(s.overrides).filter(([name]) => chosen.has(name))),
+  });
+  const scoped: FreezeInput = { ...input, baseline: { ...baseline, classes }, scenarios: scenarios.map((s) => ({ ...s, settings: onlyChosen(s.settings) })) };
 
-  const evaluations: Evaluation[] = scenarios.map((s) =>
-    evaluateScenario({ classes: baseline.classes, technology: baseline.technology, settings: s.settings }),
-  );
+  const evaluations: Evaluation[] = scoped.scenarios.map((s) => evaluateScenario({ classes, technology: baseline.technology, settings: s.settings }));
 
-  const totalBins = baseline.classes.reduce((n, c) => n + (c.histogram?.length ?? 0), 0);
+  const totalBins = classes.reduce((n, c) => n + (c.histogram?.length ?? 0), 0);
   const binsTrimmed = totalBins > MAX_FROZEN_BINS;
-  const options = scenarios.map((s, i) => ({
+  const options = scoped.scenarios.map((s, i) => ({
     key: OPTION_KEYS[i]!,
     scenarioId: s.id,
     name: s.name,
@@ -73,7 +91,7 @@ export function freezeReport(input: FreezeInput, now = Date.now()): FrozenReport
       description: baseline.description,
       version: baseline.version,
       technology: baseline.technology,
-      classes: baseline.classes.map((c) => {
+      classes: classes.map((c) => {
         const bins = c.histogram?.length ?? 0;
         const { histogram, ...rest } = c;
         return binsTrimmed || bins === 0 ? { ...rest, histogramBins: bins } : { ...rest, histogram, histogramBins: bins };
@@ -82,11 +100,11 @@ export function freezeReport(input: FreezeInput, now = Date.now()): FrozenReport
     options,
     classNames,
     metrics,
-    sweeps: freezeSweeps(input, classNames.slice(0, MAX_SWEEP_CLASSES), evaluations),
+    sweeps: freezeSweeps(scoped, classNames.slice(0, MAX_SWEEP_CLASSES), evaluations),
     binsTrimmed,
   } satisfies FrozenReport;
   // Round-trip through JSON and the schema: what is stored is exactly what every later read will accept.
-  return frozenReportSchema.parse(JSON.parse(JSON.stringify(doc, finiteOrNull)));
+  return scopeToChosenClasses(frozenReportSchema.parse(JSON.parse(JSON.stringify(doc, finiteOrNull))));
 }
 
 export const REPORT_METRIC_ORDER: ReportMetric[] = ["delay", "rc", "resistance", "capacitance", "repeaters", "energy", "power", "overBudget"];
@@ -163,7 +181,7 @@ function freezeSweeps(input: FreezeInput, classNames: string[], _evaluations: Ev
       // each option's mark on its own curve: the same length rule at its own S
       for (const n of names) {
         const target = byClass.get(n)!;
-        const sHere = s.settings.overrides[n]?.s ?? s.settings.s;
+        const sHere = ownEntry(s.settings.overrides, n)?.s ?? s.settings.s;
         const at = sweep({ ...common, classNames: [n], from: sHere, to: sHere, points: 1, levels: [s.settings.level] })[0]?.points[0];
         if (at) target.marks.push({ key, x: sHere, y: at.y });
       }

@@ -5,6 +5,7 @@ import {
   DEFAULT_TEMPERATURE_C,
   METAL_PARAMETERS,
   METALS,
+  ownEntry,
 } from "@/lib/scaling/client";
 import type { FrozenReport } from "@/lib/validation/report";
 
@@ -176,10 +177,10 @@ export function materialSources(
     }
   const materials = report.baseline.technology.materials ?? {};
   return [...ids]
-    .map((id) => METALS[id])
+    .map((id) => ownEntry(METALS, id))
     .filter((m): m is NonNullable<typeof m> => Boolean(m))
     .map((m) => {
-      const o = materials[m.id];
+      const o = ownEntry(materials, m.id);
       const parts = o
         ? METAL_PARAMETERS.filter((q) => o[q.key] !== undefined).map(
             (q) =>

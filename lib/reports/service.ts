@@ -8,6 +8,7 @@ import type { ScenarioSettings, Technology } from "@/lib/scaling";
 import { frozenReportSchema, settingsSnapshotSchema, technologySnapshotSchema, type ComposeReport, type FrozenReport } from "@/lib/validation/report";
 import { defaultScenarioSettings } from "@/lib/workspace/settings";
 import { freezeReport, UnknownClassError, type FreezeInput } from "./freeze";
+import { scopeToChosenClasses } from "./scope";
 
 /**
  * Reports between the routes (or the demo seeder) and the database: load and check the inputs, freeze,
@@ -110,7 +111,8 @@ export async function findReport(conn: Knex, id: string): Promise<StoredReport |
   if (!r) return undefined;
   const checked = frozenReportSchema.safeParse(r.frozen);
   if (!checked.success) throw new Error(`report ${id}: frozen document does not match the schema: ${checked.error.message.slice(0, 500)}`);
-  return { ...r, frozen: checked.data };
+  // Only the classes the report was composed for (documents frozen before that rule held every class).
+  return { ...r, frozen: scopeToChosenClasses(checked.data) };
 }
 
 /** findReport, or NotFoundError("Report"). */

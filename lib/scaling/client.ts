@@ -29,7 +29,8 @@ export {
   type BaseUnit,
   type NumberCheck,
 } from "./units";
-export { METALS, METAL_PARAMETERS, DIELECTRICS, getMetal, type Metal, type Dielectric } from "./materials";
+export { METALS, METAL_PARAMETERS, DIELECTRICS, getMetal, getDielectric, isMetalId, type Metal, type Dielectric } from "./materials";
+export { hasOwnKey, ownEntry } from "./own";
 export {
   WIRE_CLASS_COLUMNS,
   HISTOGRAM_COLUMNS,

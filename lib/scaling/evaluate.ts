@@ -2,6 +2,7 @@
  * Evaluation of wire classes under a scenario: geometry → capacitance → resistance → delay, repeaters,
  * energy and the length distribution, with validity flags and accuracy statements. SI units.
  */
+import { ownEntry } from "./own";
 import { getMetal, type Metal } from "./materials";
 import { accurateCapacitanceInto } from "./cap-accurate";
 import { ACCURATE_ACCURACY_AIR_GAP, ACCURATE_ACCURACY_HOMOGENEOUS, CAPACITANCE_ACCURACY, closedForm, closedFormFlags, type Split } from "./capacitance";
@@ -480,7 +481,7 @@ export function evaluateClassCore(
   const level = settings.level;
   const validity: ValidityFlag[] = [];
   const e = CLASS_SCRATCH;
-  electricalInto(wc, tech, settings, e, settings.overrides[wc.name]);
+  electricalInto(wc, tech, settings, e, ownEntry(settings.overrides, wc.name));
   validityInto(level, e, validity, false);
   const g = e.g;
   const sp = e.split;

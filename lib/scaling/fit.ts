@@ -2,6 +2,7 @@
  * Calibration of the size-effect model to measured line resistance (ours; least squares on the published model of
  * resistance.ts). SI units: Ω/m, m, °C.
  */
+import { ownEntry } from "./own";
 import { getMetal } from "./materials";
 import { DEFAULT_TEMPERATURE_C, metalAtInto, newMetal, sizeEffectFactor } from "./resistance";
 import type { MetalOverride, Technology, WireClass } from "./types";
@@ -86,7 +87,7 @@ export function fitSizeEffect(p: { classes: WireClass[]; measured: MeasuredResis
     if (!(w > 0 && h > 0))
       throw new RangeError(`${name}: the barrier fills the line (width ${cls.widthM}, thickness ${cls.thicknessM}, barrier ${cls.barrierM})`);
     const id = getMetal(cls.metal).id;
-    const metal = metalAtInto(getMetal(id), p.technology?.materials?.[id], t, newMetal());
+    const metal = metalAtInto(getMetal(id), ownEntry(p.technology?.materials, id), t, newMetal());
     const bulk = metal.resistivityOhmM / (w * h);
     if (m.rOhmPerM < bulk) {
       throw new FitInputError(
@@ -105,7 +106,7 @@ export function fitSizeEffect(p: { classes: WireClass[]; measured: MeasuredResis
   const points: FitPoint[] = new Array(p.measured.length);
   const scratch = newMetal();
   for (const [id, pts] of groups) {
-    const base = p.technology?.materials?.[id] ?? {};
+    const base = ownEntry(p.technology?.materials, id) ?? {};
     const predict = (pt: Pt, o: MetalOverride) => {
       const m = metalAtInto(getMetal(id), { ...base, ...o }, pt.t, scratch);
       return (m.resistivityOhmM * sizeEffectFactor(m, pt.w, pt.h)) / (pt.w * pt.h);

@@ -1,3 +1,5 @@
+import { hasOwnKey, ownEntry } from "./own";
+
 /**
  * Materials catalogue of the scaling engine: metals and dielectrics, each value with its source.
  * Provenance words follow docs/models.md: "from memory" = recalled, not confirmed in a stored
@@ -194,12 +196,22 @@ export const DIELECTRICS: Readonly<Record<string, Dielectric>> = {
   air: { id: "air", name: "air / vacuum", k: 1.0, source: "definition (vacuum k = 1; air 1.0006 is taken as 1)" },
 };
 
+/** True when `id` is exactly the id of a catalogue metal (own entries only: "constructor" or "__proto__" are not metals). */
+export function isMetalId(id: string): boolean {
+  return hasOwnKey(METALS, id);
+}
+
+/** A dielectric of the catalogue by id, or undefined (own entries only). */
+export function getDielectric(id: string): Dielectric | undefined {
+  return ownEntry(DIELECTRICS, id);
+}
+
 /**
  * Looks up a metal by id (case-insensitive: "cu" and "Cu" both work).
  * Throws RangeError naming the known ids when the metal is unknown.
  */
 export function getMetal(id: string): Metal {
-  const direct = METALS[id];
+  const direct = ownEntry(METALS, id);
   if (direct) return direct;
   const lower = id.toLowerCase();
   for (const m of Object.values(METALS)) if (m.id.toLowerCase() === lower || m.name === lower) return m;

@@ -3,6 +3,7 @@
  * globally or per class, with options (aspect ratio, barrier that scales or keeps its thickness, absolute
  * barrier, k, metal, Miller factor). Pure, SI units.
  */
+import { ownEntry } from "./own";
 import { positive } from "./check";
 import type { ClassOverride, ScenarioSettings, WireClass } from "./types";
 
@@ -59,7 +60,7 @@ export function newScaledClass(): ScaledClass {
  * rules: scaleClass and the evaluation and sweep hot paths (evaluate.ts) all call it (through scaleClassWith).
  */
 export function scaleClassInto(wc: WireClass, settings: ScenarioSettings, out: ScaledClass): ScaledClass {
-  return scaleClassWith(wc, settings, settings.overrides[wc.name], out);
+  return scaleClassWith(wc, settings, ownEntry(settings.overrides, wc.name), out);
 }
 
 /**

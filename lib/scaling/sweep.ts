@@ -1,6 +1,7 @@
 /**
  * Sweeps: a metric of each class against S, S_L or k, one curve per model level, so the plateau shows.
  */
+import { ownEntry } from "./own";
 import { positive } from "./check";
 import { classMetricCore } from "./evaluate";
 import type {
@@ -244,7 +245,7 @@ export function sweep(p: {
   }
   const scratch: ValidityFlag[] = [];
   const nc = classes.length;
-  const classOverrides = classes.map((wc) => overrides[wc.name]);
+  const classOverrides = classes.map((wc) => ownEntry(overrides, wc.name));
   const nl = levels.length;
   const bases: ScenarioSettings[] = levels.map((level) => ({
     ...p.settings,

@@ -3,6 +3,7 @@
  * decimal.js, and exact formatting to engineering units (20 nm, never 19.999999 nm).
  * Inside the engine everything is in SI base units.
  */
+import { hasOwnKey } from "./own";
 import Decimal from "decimal.js";
 
 export const NM = 1e-9;
@@ -117,14 +118,14 @@ export function parseQuantity(text: string, unit: BaseUnit): number {
     for (const alias of UNIT_ALIASES[unit]) {
       if (rest.endsWith(alias)) {
         const prefix = rest.slice(0, rest.length - alias.length).trim();
-        if (prefix in PREFIX_EXP) {
+        if (hasOwnKey(PREFIX_EXP, prefix)) {
           exp = PREFIX_EXP[prefix];
           break;
         }
       }
     }
     // bare prefix without the unit, e.g. "20n" or "2k" (but never a lone unit-less "m" for metre quantities: "20m" is 20 m)
-    if (exp === undefined && rest in PREFIX_EXP && !(unit === "m" && rest === "m")) exp = PREFIX_EXP[rest];
+    if (exp === undefined && hasOwnKey(PREFIX_EXP, rest) && !(unit === "m" && rest === "m")) exp = PREFIX_EXP[rest];
   }
   if (exp === undefined) throw new RangeError(`"${text}" is not ${expected}`);
   const value = num.times(new Decimal(10).pow(exp)).toNumber();

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { PASSWORD_MAX, passwordProblem } from "@/lib/password";
+import { cleanText } from "./text";
 
 export const emailSchema = z
   .string({ error: "Enter your e-mail address." })
@@ -16,7 +17,7 @@ export const signUpSchema = z
       const problem = passwordProblem(p);
       if (problem) ctx.addIssue({ code: "custom", message: problem });
     }),
-    name: z.string({ error: "Enter your name." }).trim().min(1, "Enter your name.").max(100, "Use at most 100 characters."),
+    name: cleanText(z.string({ error: "Enter your name." }).trim().min(1, "Enter your name.").max(100, "Use at most 100 characters."), "Name"),
   })
   .superRefine((v, ctx) => {
     const problem = passwordProblem(v.password, v.email);

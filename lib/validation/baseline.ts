@@ -10,6 +10,7 @@ import {
   type Technology,
 } from "@/lib/scaling/client";
 import { mirrorOf } from "./mirror";
+import { cleanText, withoutProtoKey } from "./text";
 import { quantity, wireClassListSchema } from "./wire-class";
 
 export const capacitanceModelSchema = z.enum(CAPACITANCE_CHOICES as [CapacitanceChoice, ...CapacitanceChoice[]], {
@@ -43,7 +44,7 @@ export const metalOverrideSchema = mirrorOf<MetalOverride>()(
     .strict(),
 );
 
-export const materialsSchema = z.record(z.string(), metalOverrideSchema).superRefine((m, ctx) => {
+export const materialsSchema = withoutProtoKey(z.record(z.string(), metalOverrideSchema), "Materials").superRefine((m, ctx) => {
   for (const id of Object.keys(m)) {
     try {
       getMetal(id);
@@ -81,18 +82,22 @@ export const technologySchema = mirrorOf<Technology>()(
     repeaterAreaM2: quantity("Repeater area", "", { min: 0, max: 1e-6, maxHint: "Repeater area must be at most 1 mm² (1e-6 m²)." }).optional(),
     repeaterLeakageW: quantity("Repeater leakage", "W", { min: 0, max: 1, maxHint: "Repeater leakage must be at most 1 W." }).optional(),
     materials: materialsSchema.optional(),
-    materialsSource: z
-      .string({ error: "Materials source must be text." })
-      .trim()
-      .max(300, "Materials source must be at most 300 characters.")
+    materialsSource: cleanText(
+      z.string({ error: "Materials source must be text." }).trim().max(300, "Materials source must be at most 300 characters."),
+      "Materials source",
+      { multiline: true },
+    )
       .optional()
       .transform((v) => (v === "" ? undefined : v)),
   }),
 );
 export type TechnologyInput = z.infer<typeof technologySchema>;
 
-export const baselineNameSchema = z.string({ error: "Name is required." }).trim().min(1, "Name is required.").max(100, "Name must be at most 100 characters.");
-const descriptionSchema = z.string().trim().max(2000, "Description must be at most 2000 characters.");
+export const baselineNameSchema = cleanText(
+  z.string({ error: "Name is required." }).trim().min(1, "Name is required.").max(100, "Name must be at most 100 characters."),
+  "Name",
+);
+const descriptionSchema = cleanText(z.string().trim().max(2000, "Description must be at most 2000 characters."), "Description", { multiline: true });
 const versionSchema = z.number({ error: "version is required (the version you loaded)." }).int().min(1);
 
 export const baselineCreateSchema = z.object({

@@ -10,8 +10,25 @@ const flag = z
   .optional()
   .transform((v) => v === "1" || v === "true");
 
-/** Query of POST /api/baselines/[id]/import and /histograms. */
-export const importQuerySchema = z.object({ mode: importModeSchema, dryRun: flag });
+/**
+ * Query of POST /api/baselines/[id]/import and /histograms. The body is the CSV, so the baseline version the client
+ * loaded travels in the query like mode and dryRun: `version` is required unless dryRun (a dry run stores nothing),
+ * and a stale one answers 409 stale_version with currentVersion, like every other write to a baseline.
+ */
+export const importQuerySchema = z
+  .object({
+    mode: importModeSchema,
+    dryRun: flag,
+    version: z
+      .string()
+      .regex(/^[1-9][0-9]{0,14}$/, "version must be the baseline version you loaded (a whole number ≥ 1).")
+      .transform(Number)
+      .optional(),
+  })
+  .superRefine((q, ctx) => {
+    if (!q.dryRun && q.version === undefined)
+      ctx.addIssue({ code: "custom", path: ["version"], message: "version is required (the baseline version you loaded): add ?version=N." });
+  });
 export type ImportQuery = z.infer<typeof importQuerySchema>;
 
 /** Query of POST /api/teams/[teamId]/baselines/import. */

@@ -30,6 +30,8 @@ import {
   type WireClass,
 } from "@/lib/scaling/types";
 import { mirrorOf, type NullableFields, type OptionalFields, type Same } from "./mirror";
+import { cleanText } from "./text";
+import { classNameSchema } from "./wire-class";
 
 /** Metrics a report can put in its tables (the compose form's "which metrics matter"). */
 export const REPORT_METRICS = ["delay", "rc", "resistance", "capacitance", "repeaters", "energy", "power", "overBudget"] as const;
@@ -43,12 +45,15 @@ const idSchema = (what: string) =>
     .min(1, `${what} is required.`)
     .max(64, `${what} is not valid.`);
 
-export const reportTitleSchema = z
-  .string({ error: "Title is required." })
-  .trim()
-  .min(1, "Title is required.")
-  .max(200, "Title must be at most 200 characters.");
-export const audienceNoteSchema = z.string({ error: "Audience note must be text." }).trim().max(2000, "Audience note must be at most 2000 characters.");
+export const reportTitleSchema = cleanText(
+  z.string({ error: "Title is required." }).trim().min(1, "Title is required.").max(200, "Title must be at most 200 characters."),
+  "Title",
+);
+export const audienceNoteSchema = cleanText(
+  z.string({ error: "Audience note must be text." }).trim().max(2000, "Audience note must be at most 2000 characters."),
+  "Audience note",
+  { multiline: true },
+);
 
 /** POST /api/teams/[teamId]/reports: compose and freeze a report. */
 export const composeReportSchema = z
@@ -62,7 +67,7 @@ export const composeReportSchema = z
     title: reportTitleSchema,
     audienceNote: audienceNoteSchema.optional().default(""),
     classNames: z
-      .array(z.string().trim().min(1, "Class name is required.").max(60, "Class name must be at most 60 characters."))
+      .array(classNameSchema)
       .min(1, "Pick at least one class, or leave the choice out for all classes.")
       .max(50, "Pick at most 50 classes.")
       .refine((n) => new Set(n).size === n.length, "Each class can appear only once.")
@@ -109,7 +114,7 @@ export const emailReportSchema = z
       )
       .min(1, "Add at least one address.")
       .max(EMAIL_MAX_RECIPIENTS, `Send to at most ${EMAIL_MAX_RECIPIENTS} addresses at a time.`),
-    message: z.string().trim().max(1000, "The message must be at most 1000 characters.").optional().default(""),
+    message: cleanText(z.string().trim().max(1000, "The message must be at most 1000 characters."), "Message", { multiline: true }).optional().default(""),
     expiresInDays: expiresInDaysSchema.optional().default(SHARE_LINK_DEFAULT_DAYS),
   })
   .strict();

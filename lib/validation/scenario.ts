@@ -1,7 +1,8 @@
 import { z } from "zod";
 import { MODEL_LEVELS, type AirGap, type ClassOverride, type ModelLevel, type ScenarioSettings } from "@/lib/scaling/client";
 import { mirrorOf, type OptionalFields } from "./mirror";
-import { airGapKSchema, gapFractionSchema, kSchema, metalIdSchema, quantity } from "./wire-class";
+import { cleanText, withoutProtoKey } from "./text";
+import { airGapKSchema, classNameSchema, gapFractionSchema, kSchema, metalIdSchema, quantity } from "./wire-class";
 
 const sSchema = (label: string) =>
   quantity(label, "", {
@@ -80,14 +81,17 @@ export const scenarioSettingsSchema = mirrorOf<OptionalFields<ScenarioSettings, 
       k: kSchema.nullable().default(null),
       metal: metalIdSchema.nullable().default(null),
       airGap: airGapSchema.nullable().optional(),
-      overrides: z.record(z.string().max(60), classOverrideSchema).default({}),
+      overrides: withoutProtoKey(z.record(classNameSchema, classOverrideSchema), "Overrides").default({}),
     })
     .strict(),
 );
 export type ScenarioSettingsInput = z.infer<typeof scenarioSettingsSchema>;
 
-const nameSchema = z.string({ error: "Name is required." }).trim().min(1, "Name is required.").max(100, "Name must be at most 100 characters.");
-const notesSchema = z.string().max(10_000, "Notes must be at most 10 000 characters.");
+const nameSchema = cleanText(
+  z.string({ error: "Name is required." }).trim().min(1, "Name is required.").max(100, "Name must be at most 100 characters."),
+  "Name",
+);
+const notesSchema = cleanText(z.string().max(10_000, "Notes must be at most 10 000 characters."), "Notes", { multiline: true });
 const versionSchema = z.number({ error: "version is required (the version you loaded)." }).int().min(1);
 
 export const scenarioCreateSchema = z.object({

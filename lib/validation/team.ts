@@ -1,9 +1,13 @@
 import { z } from "zod";
 import { emailSchema } from "./auth";
+import { cleanText } from "./text";
 
 export const roleSchema = z.enum(["owner", "editor", "viewer"], { error: "Choose owner, editor or viewer." });
 
-export const teamNameSchema = z.string({ error: "Enter a team name." }).trim().min(1, "Enter a team name.").max(80, "Use at most 80 characters.");
+export const teamNameSchema = cleanText(
+  z.string({ error: "Enter a team name." }).trim().min(1, "Enter a team name.").max(80, "Use at most 80 characters."),
+  "Team name",
+);
 
 export const teamSchema = z.object({ name: teamNameSchema });
 export type TeamInput = z.infer<typeof teamSchema>;

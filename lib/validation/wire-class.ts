@@ -1,6 +1,7 @@
 import { z } from "zod";
-import { METALS, parseQuantity, TIERS, type BaseUnit, type Tier, type WireClass } from "@/lib/scaling/client";
+import { isMetalId, METALS, parseQuantity, TIERS, type BaseUnit, type Tier, type WireClass } from "@/lib/scaling/client";
 import { mirrorOf } from "./mirror";
+import { cleanText } from "./text";
 
 /**
  * A physical quantity at the API edge: a number in SI base units (2e-8) or a string with an
@@ -68,7 +69,10 @@ const size = (label: string) =>
   });
 const optionalSize = (label: string) => size(label).nullable();
 
-export const metalIdSchema = z.string().refine((m) => m in METALS, { message: `Metal must be one of ${Object.keys(METALS).join(", ")}.` });
+/** A metal id of the catalogue, exactly (own entries only: "constructor", "toString" or "__proto__" are not metals). */
+export const metalIdSchema = z
+  .string({ error: `Metal must be one of ${Object.keys(METALS).join(", ")}.` })
+  .refine((m) => isMetalId(m), { message: `Metal must be one of ${Object.keys(METALS).join(", ")}.` });
 export const tierSchema = z.enum(TIERS as [Tier, ...Tier[]], { error: `Tier must be one of ${TIERS.join(", ")}.` });
 export const kSchema = quantity("k", "", {
   min: 1,
@@ -90,11 +94,16 @@ export const gapFractionSchema = quantity("Gap fraction", "", {
   max: 1,
   maxHint: "Gap fraction must be between 0 and 1.",
 });
-export const classNameSchema = z
-  .string({ error: "Class name is required." })
-  .trim()
-  .min(1, "Class name is required.")
-  .max(60, "Class name must be at most 60 characters.");
+export const classNameSchema = cleanText(
+  z
+    .string({ error: "Class name is required." })
+    .trim()
+    .min(1, "Class name is required.")
+    .max(60, "Class name must be at most 60 characters.")
+    // classes are keys of the scenario's overrides: "__proto__" cannot be one (assigning it replaces the prototype)
+    .refine((n) => n !== "__proto__", 'Class name "__proto__" is reserved.'),
+  "Class name",
+);
 
 /**
  * One wire class as the API accepts it (SI numbers or strings with units): the engine's WireClass field for field,

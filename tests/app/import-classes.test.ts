@@ -13,6 +13,7 @@ import {
   ROW_LOCAL,
   sql,
   TEMPLATE_CLASSES,
+  withVersion,
 } from "./import-helpers";
 
 const enc = new TextEncoder();
@@ -106,7 +107,7 @@ describe("POST /api/baselines/[id]/import (wire classes)", () => {
     const form = new FormData();
     form.append("note", "ignored");
     form.append("file", new Blob([`${HEADER}\r\n${ROW_LOCAL.replace(/^local/, "from-form")}\r\n`], { type: "text/csv" }), "classes.csv");
-    const m = await o.client.req("POST", `/api/baselines/${o.baselineId}/import?mode=merge`, undefined, { raw: form });
+    const m = await o.client.req("POST", await withVersion(o.client, `/api/baselines/${o.baselineId}/import?mode=merge`), undefined, { raw: form });
     expect(m.status).toBe(200);
     expect(m.json.added).toEqual(["from-form"]);
   });
@@ -189,7 +190,7 @@ describe("POST /api/baselines/[id]/import (wire classes)", () => {
     const before = dbState();
     const t = await postCsv(o.client, `/api/baselines/${o.baselineId}/import?mode=replace`, TEMPLATE_CLASSES, "application/json");
     expect(t.status).toBe(415);
-    const url = new URL(`${o.client.baseUrl}/api/baselines/${o.baselineId}/import?mode=replace`);
+    const url = new URL(o.client.baseUrl + (await withVersion(o.client, `/api/baselines/${o.baselineId}/import?mode=replace`)));
     // Send `totalBytes` of rows and then hold the request open until the server answers. Writing on after the
     // answer races the server's close (EPIPE, or an RST that discards the answer), so the client never does.
     const send = (headers: Record<string, string>, totalBytes: number) =>

@@ -4,7 +4,18 @@ import os from "node:os";
 import { describe, expect, it } from "vitest";
 import { Client, userWithTeam } from "../helpers/http";
 import { decodeHistogram } from "@/db/histogram-blob";
-import { type BadCsvCase, dbState, expectFirstIssue, rawCsvPost, memberClient, ownerWithBaseline, postCsv, sql, TEMPLATE_HISTOGRAMS } from "./import-helpers";
+import {
+  type BadCsvCase,
+  dbState,
+  expectFirstIssue,
+  rawCsvPost,
+  memberClient,
+  ownerWithBaseline,
+  postCsv,
+  sql,
+  TEMPLATE_HISTOGRAMS,
+  withVersion,
+} from "./import-helpers";
 
 const H = "class,length_um,count";
 
@@ -245,7 +256,7 @@ describe("POST /api/baselines/[id]/histograms", () => {
     await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace`, TEMPLATE_HISTOGRAMS);
     const before = dbState();
     const spoolsBefore = spoolDirs();
-    const url = new URL(`${o.client.baseUrl}/api/baselines/${o.baselineId}/histograms?mode=replace`);
+    const url = new URL(o.client.baseUrl + (await withVersion(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace`)));
     let line = "";
     for (let i = 1; i <= 2000; i++) line += `local,${i},${i}\n`;
     const chunk = Buffer.from(line); // ~25 kB per write

@@ -52,8 +52,9 @@ describe("POST /api/teams/[teamId]/reports (compose and freeze)", () => {
     // Table order follows the baseline, metrics a fixed order, whatever order they were picked in.
     expect(rep.frozen.classNames).toEqual([classNames[1], classNames[2]]);
     expect(rep.frozen.metrics).toEqual(["delay", "energy"]);
-    expect(rep.frozen.baseline.classes).toHaveLength(3);
-    expect(rep.frozen.options[0].evaluation.classes).toHaveLength(3);
+    // Only the chosen classes are frozen (issue 12 finding 12: a share link must show no more than the report).
+    expect(rep.frozen.baseline.classes.map((c: { name: string }) => c.name)).toEqual([classNames[1], classNames[2]]);
+    expect(rep.frozen.options[0].evaluation.classes.map((c: { name: string }) => c.name)).toEqual([classNames[1], classNames[2]]);
     // Sweeps of the chosen classes: one curve per option plus option A without size effects, each option marked at its S.
     expect(rep.frozen.sweeps.map((s: { className: string }) => s.className)).toEqual([classNames[1], classNames[2]]);
     const sw = rep.frozen.sweeps[0];

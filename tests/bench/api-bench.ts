@@ -147,7 +147,11 @@ try {
     "baseline import",
   );
   const baselineId = created.baseline.id;
-  await expect(200, call("POST", `/api/baselines/${baselineId}/histograms?mode=replace`, examples("skua-histograms.csv"), "text/csv"), "histogram import");
+  await expect(
+    200,
+    call("POST", `/api/baselines/${baselineId}/histograms?mode=replace&version=1`, examples("skua-histograms.csv"), "text/csv"),
+    "histogram import",
+  );
   const demo = (JSON.parse(examples("skua-scenarios.json")) as { name: string; notes: string; settings: unknown }[])[0]!;
   const { scenario } = await expect<{ scenario: { id: string } }>(
     201,

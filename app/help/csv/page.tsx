@@ -247,8 +247,8 @@ export default function CsvHelpPage() {
         Send the file as the body (<code>content-type: text/csv</code>) or as a multipart form with a <code>file</code> field. Editor or owner role; answers are
         JSON.
       </p>
-      <pre className="mt-2 overflow-x-auto rounded-md border border-rule bg-panel p-3 font-mono text-xs leading-relaxed">{`POST /api/baselines/{id}/import?mode=replace|merge[&dryRun=1]       wire classes
-POST /api/baselines/{id}/histograms?mode=replace|merge[&dryRun=1]   length histograms
+      <pre className="mt-2 overflow-x-auto rounded-md border border-rule bg-panel p-3 font-mono text-xs leading-relaxed">{`POST /api/baselines/{id}/import?mode=replace|merge&version=N[&dryRun=1]       wire classes
+POST /api/baselines/{id}/histograms?mode=replace|merge&version=N[&dryRun=1]   length histograms
 POST /api/teams/{teamId}/baselines/import?name=…[&dryRun=1]        new baseline from classes
 GET  /api/baselines/{id}/export.csv                                  classes (viewer or better)
 GET  /api/baselines/{id}/histograms            (JSON) · /histograms/export.csv
@@ -258,7 +258,9 @@ curl -X POST -H 'content-type: text/csv' --data-binary @classes.csv \\
   -b 'plateau_session=…' 'https://…/api/baselines/{id}/import?mode=merge&dryRun=1'`}</pre>
       <p className="mt-2 text-sm text-muted">
         An invalid file answers 400 <code>{`{ error: { code: "invalid_csv", message, errors: [{ line, column, value, message }], errorCount } }`}</code>; too
-        large 413; a wrong content type 415.
+        large 413; a wrong content type 415. <code>version</code> is the baseline version you loaded (<code>GET /api/baselines/{"{id}"}</code>), required unless{" "}
+        <code>dryRun=1</code>: if someone saved the baseline since, nothing is stored and the answer is 409{" "}
+        <code>{`{ error: { code: "stale_version", message, currentVersion } }`}</code>.
       </p>
     </main>
   );

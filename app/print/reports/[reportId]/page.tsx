@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { cache } from "react";
 import { db, ready } from "@/db/client";
-import { getReport } from "@/db/queries/reports";
+import { findReport } from "@/lib/reports/service";
 import { ReportBody } from "@/components/reports/report-body";
 import { PrintButton } from "@/components/reports/print-button";
 import { getMembershipRole } from "@/lib/access";
@@ -18,7 +18,7 @@ export const dynamic = "force-dynamic";
  */
 const printableReport = cache(async (reportId: string, t: string | undefined) => {
   await ready();
-  const report = await getReport(db, reportId);
+  const report = await findReport(db, reportId);
   if (!report) return null;
   if (verifyPrintToken(reportId, t)) return report;
   const { user } = await validateRequest();

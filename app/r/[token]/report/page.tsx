@@ -1,12 +1,12 @@
 import type { Metadata } from "next";
 import { notFound, redirect } from "next/navigation";
 import { db, ready } from "@/db/client";
-import { getReport } from "@/db/queries/reports";
+
 import { resolveShareToken } from "@/db/queries/share-links";
 import { ReportBody } from "@/components/reports/report-body";
 import { PrintButton } from "@/components/reports/print-button";
 import { date } from "@/lib/reports/format";
-import { publicReport } from "@/lib/reports/service";
+import { findReport, publicReport } from "@/lib/reports/service";
 import { summarizeReport } from "@/lib/reports/summary";
 
 export const dynamic = "force-dynamic";
@@ -20,7 +20,7 @@ export default async function SharedReportPage({ params }: { params: Promise<{ t
   // The link's own address answers 410 for an expired link (a page cannot).
   if (r.status === "expired") redirect(`/r/${encodeURIComponent(token)}`);
   if (r.status !== "ok") notFound();
-  const stored = await getReport(db, r.reportId);
+  const stored = await findReport(db, r.reportId);
   if (!stored) notFound();
   const view = publicReport(stored);
   return (

@@ -3,7 +3,8 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { cache } from "react";
 import { db, ready } from "@/db/client";
-import { getReport, listReportVersions } from "@/db/queries/reports";
+import { listReportVersions } from "@/db/queries/reports";
+import { findReport } from "@/lib/reports/service";
 import { listShareLinks } from "@/db/queries/share-links";
 import { ReportActions } from "@/components/reports/report-actions";
 import { ReportBody } from "@/components/reports/report-body";
@@ -16,7 +17,7 @@ export const dynamic = "force-dynamic";
 // Metadata and page share one read (and one check of the frozen document) per request.
 const loadReport = cache(async (id: string) => {
   await ready();
-  return getReport(db, id);
+  return findReport(db, id);
 });
 
 export async function generateMetadata({ params }: { params: Promise<{ teamId: string; reportId: string }> }): Promise<Metadata> {

@@ -90,7 +90,7 @@ export default async function BaselineImportPage({
       ) : (
         <CsvImport
           key={kind}
-          target={{ kind, baselineId }}
+          target={{ kind, baselineId, version: baseline.version }}
           classNames={classes.map((c) => c.name)}
           existingClassCount={classes.length}
           doneHref={base}
