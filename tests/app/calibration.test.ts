@@ -61,7 +61,9 @@ describe("POST /api/baselines/[id]/fit: calibration to measured lines", () => {
     expect(ev.json.evaluation.classes[0].baseline.rOhmPerM).toBe(mine.classes[0]!.baseline.rOhmPerM);
     // at the baseline geometry, the calibrated full model gives the measured line back (× Ω/m per Ω/µm)
     expect(Math.abs(ev.json.evaluation.classes[0].baseline.rOhmPerM / 1e6 / 109.73 - 1)).toBeLessThan(1e-3);
-  });
+    // a guard against a hang, not a speed check: four members signing up (scrypt) and confirming their addresses
+    // through mailed links take seconds on a busy machine
+  }, 90_000);
 
   it.each([
     [{ measured: [{ class: "M1", rOhmPerUm: 0 }] }, "measured.0.rOhmPerUm", /greater than 0/],
