@@ -1,6 +1,6 @@
 import Papa from "papaparse";
 import { isDecimalComma, resolveHeader, type CsvFormat } from "@/lib/scaling/client";
-import { detectDelimiter, type Delimiter } from "./csv-stream";
+import { detectDelimiter } from "./csv-stream";
 import type { ImportIssue } from "./types";
 
 /**
@@ -16,10 +16,15 @@ export interface DecimalCommaFinding {
   cells: number;
   /** Rows of a comma-separated file with more fields than the header, explained by decimal commas. */
   splitRows: number;
-  /** The first cell or split row found. */
+  /** The first cell written with a decimal comma (else the first split row's first reading). */
   first: { line: number; column: string | null; value: string };
   /** The file can be rewritten exactly (convertDecimalCommas): every decimal comma is inside a cell, none split a row. */
   convertible: boolean;
+  /**
+   * The first split row: its line, its field count, the header's, up to three readings ("4,8000", "0,4"), and whether
+   * the row without its extra last fields is valid as well (a field too many at the end is then as likely).
+   */
+  firstSplit?: { line: number; fields: number; width: number; values: string[]; orExtra: boolean };
 }
 
 const INTEGER_PART = /^\s*[+-]?\d+$/;
@@ -28,21 +33,23 @@ const FRACTION_PART = /^\d+(?:[eE][+-]?\d+)?\s*$/;
 export class DecimalCommas {
   private cells = 0;
   private splitRows = 0;
-  private first: DecimalCommaFinding["first"] | null = null;
+  private firstCell: DecimalCommaFinding["first"] | null = null;
+  private firstSplit: NonNullable<DecimalCommaFinding["firstSplit"]> | null = null;
 
   /** An issue of a number cell: true (and counted) when its value is written with a decimal comma. */
   cell(issue: ImportIssue): boolean {
     if (issue.value === null || issue.line === null || !isDecimalComma(issue.value)) return false;
     this.cells += 1;
-    if (!this.first || issue.line < this.first.line) this.first = { line: issue.line, column: issue.column, value: issue.value.trim() };
+    if (!this.firstCell || issue.line < this.firstCell.line) this.firstCell = { line: issue.line, column: issue.column, value: issue.value.trim() };
     return true;
   }
 
   /**
-   * A row with more fields than the header (`width` cells): true (and counted) when decimal commas explain the extra
-   * fields — when joining as many places as there are extra fields, each an integer followed by a field of digits
-   * ("1" "55" → "1.55"), gives a row that `valid` accepts (the format's row rules). Rows split for any other reason
-   * (an unquoted text comma, a stray column) are left to the caller's "has N fields" error.
+   * A row with more fields than the header (`width` cells): true (and counted) when decimal commas can explain the
+   * extra fields — when joining as many places as there are extra fields, each an integer followed by a field of
+   * digits ("1" "55" → "1.55"), gives a row that `valid` accepts (the format's row rules). Which places is not always
+   * certain: up to three readings are kept for the message ("4,8000" or "0,4"). Rows that no join makes valid (an
+   * unquoted text comma, a stray column of text) are left to the caller's "has N fields" error.
    */
   splitRow(fields: readonly string[], width: number, line: number, valid: (fields: string[]) => boolean): boolean {
     let n = fields.length;
@@ -53,9 +60,10 @@ export class DecimalCommas {
     const pairs: number[] = [];
     for (let i = 0; i + 1 < n; i++) if (INTEGER_PART.test(cells[i]!) && FRACTION_PART.test(cells[i + 1]!)) pairs.push(i);
     if (pairs.length < extra) return false;
+    const readings: string[] = [];
     let tries = 0;
     // choose `extra` non-overlapping pairs (ascending), join them, and ask the format whether the row is then valid
-    const pick = (from: number, chosen: number[]): number[] | null => {
+    const pick = (from: number, chosen: number[]): void => {
       if (chosen.length === extra) {
         tries += 1;
         const set = new Set(chosen);
@@ -66,59 +74,72 @@ export class DecimalCommas {
             i += 1;
           } else joined.push(cells[i]!);
         }
-        return valid(joined) ? chosen : null;
+        if (valid(joined)) readings.push(chosen.map((i) => `${cells[i]!.trim()},${cells[i + 1]!.trim()}`).join(" and "));
+        return;
       }
-      for (let k = from; k < pairs.length && tries < 500; k++) {
+      for (let k = from; k < pairs.length && tries < 500 && readings.length < 3; k++) {
         const last = chosen[chosen.length - 1];
         if (last !== undefined && pairs[k]! <= last + 1) continue;
-        const hit = pick(k + 1, [...chosen, pairs[k]!]);
-        if (hit) return hit;
+        pick(k + 1, [...chosen, pairs[k]!]);
       }
-      return null;
     };
-    const hit = pick(0, []);
-    if (!hit) return false;
+    pick(0, []);
+    if (readings.length === 0) return false;
     this.splitRows += 1;
-    if (!this.first || line < this.first.line) {
-      const i = hit[0]!;
-      this.first = { line, column: null, value: `${cells[i]!.trim()},${cells[i + 1]!.trim()}` };
+    if (!this.firstSplit || line < this.firstSplit.line) {
+      // the row without its last fields may be valid too: then the file may simply have a field too many
+      this.firstSplit = { line, fields: fields.length, width, values: readings, orExtra: valid(cells.slice(0, width)) };
     }
     return true;
   }
 
   finding(): DecimalCommaFinding | null {
-    if (!this.first) return null;
-    return { cells: this.cells, splitRows: this.splitRows, first: this.first, convertible: this.splitRows === 0 };
+    const first = this.firstCell ?? (this.firstSplit && { line: this.firstSplit.line, column: null, value: this.firstSplit.values[0]!.split(" and ")[0]! });
+    if (!first) return null;
+    return {
+      cells: this.cells,
+      splitRows: this.splitRows,
+      first,
+      convertible: this.splitRows === 0,
+      ...(this.firstSplit ? { firstSplit: this.firstSplit } : {}),
+    };
   }
 
   /** The one issue for the file (line null: it is about the whole file), or null when no decimal comma was found. */
-  issue(delimiter: Delimiter): ImportIssue | null {
+  issue(): ImportIssue | null {
     const f = this.finding();
-    return f ? decimalCommaIssue(f, delimiter) : null;
+    return f ? decimalCommaIssue(f) : null;
   }
 }
 
 const plural = (n: number, one: string, many: string) => `${n.toLocaleString("en-US")} ${n === 1 ? one : many}`;
+const quoted = (values: readonly string[]) => values.map((v) => `"${v}"`).join(" or ");
 
 /** The one message for a file with decimal commas: what was found, where first, and how to fix it. */
-export function decimalCommaIssue(f: DecimalCommaFinding, delimiter: Delimiter): ImportIssue {
-  const where = `line ${f.first.line}${f.first.column ? `, ${f.first.column}` : ""}`;
-  const dot = f.first.value.replace(",", ".");
+export function decimalCommaIssue(f: DecimalCommaFinding): ImportIssue {
   const parts: string[] = [];
   if (f.cells > 0) {
+    const c = f.first;
     parts.push(
-      `The file writes numbers with a decimal comma: ${plural(f.cells, "cell", "cells")} such as "${f.splitRows === 0 ? f.first.value : "1,55"}"${f.splitRows === 0 ? ` (${where})` : ""}.`,
+      `The file writes numbers with a decimal comma: ${plural(f.cells, "cell", "cells")} such as "${c.value}" (line ${c.line}${c.column ? `, ${c.column}` : ""}).`,
     );
   }
-  if (f.splitRows > 0) {
+  const s = f.firstSplit;
+  if (s) {
+    const row = `line ${s.line} has ${s.fields} fields, the header has ${s.width}`;
     parts.push(
-      `${plural(f.splitRows, "row has", "rows have")} more fields than the header because a number written with a decimal comma (such as "${f.first.value}" on line ${f.first.line}) splits into two fields in a comma-separated file.`,
+      f.splitRows === 1
+        ? `Line ${s.line} has ${s.fields} fields, the header has ${s.width}: probably a number written with a decimal comma (${quoted(s.values)}), split into two fields in a comma-separated file${s.orExtra ? `, or ${s.fields - s.width === 1 ? "a field" : "fields"} too many at the end` : ""}.`
+        : `${plural(f.splitRows, "row has", "rows have")} more fields than the header: probably numbers written with a decimal comma, split into two fields in a comma-separated file (the first: ${row}; ${quoted(s.values)}).`,
     );
   }
+  // the example of the fix: the cell or the one reading found; a generic one when a row can be read several ways
+  const v = f.cells > 0 || (s && s.values.length === 1) ? f.first.value : "1,55";
+  const dot = v.replace(",", ".");
   const fix = f.convertible
-    ? `Plateau reads numbers with a decimal point (${dot}, not ${f.first.value}). Convert the file in the import preview ("Convert to decimal points" rewrites it comma-separated with decimal points, exactly), or save it from your spreadsheet with "." as the decimal separator.`
-    : `Plateau reads numbers with a decimal point (${dot}, not ${f.first.value}): save the file from your spreadsheet with "." as the decimal separator${delimiter === "," ? "" : " and upload it again"}, or write the numbers with a decimal point.`;
-  return { line: null, column: f.first.column, value: f.first.value, message: `${parts.join(" ")} ${fix}` };
+    ? `Plateau reads numbers with a decimal point (${dot}, not ${v}). Convert the file in the import preview ("Convert to decimal points" rewrites it comma-separated with decimal points, exactly), or save it from your spreadsheet with "." as the decimal separator.`
+    : `Plateau reads numbers with a decimal point (${dot}, not ${v}): write them so, or save the file from your spreadsheet with "." as the decimal separator.`;
+  return { line: null, column: f.cells > 0 ? f.first.column : null, value: v, message: `${parts.join(" ")} ${fix}` };
 }
 
 /**

@@ -292,7 +292,7 @@ function histogramPipeline<S extends HistogramSink>(
         });
       }
     }
-    const commaIssue = commas.issue(res.delimiter);
+    const commaIssue = commas.issue();
     if (commaIssue) issues.addFirst(commaIssue);
     const ok = issues.ok;
     issues.items.sort((a, b) => (a.line ?? 0) - (b.line ?? 0));

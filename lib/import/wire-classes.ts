@@ -80,7 +80,11 @@ function wireClassPipeline(maxErrors: number): { consumer: CsvConsumer; finish(r
     },
     row(f, line) {
       if (f.length !== width && !(f.length === width + 1 && f[width] === "")) {
-        if (commas.splitRow(f, width, line, (g) => validateWireClassRow(recordOf(g), line, exp10).errors.length === 0)) return;
+        const valid = (g: string[]) => {
+          const w = validateWireClassRow(recordOf(g), line, exp10).wireClass;
+          return w !== null && wireClassSchema.safeParse(w).success;
+        };
+        if (commas.splitRow(f, width, line, valid)) return;
         issues.add({ line, column: null, value: null, message: `has ${f.length} fields, the header has ${width}` });
         return;
       }
@@ -122,7 +126,7 @@ function wireClassPipeline(maxErrors: number): { consumer: CsvConsumer; finish(r
     if (res.rows === 0 && issues.total === 0) {
       throw new ImportFatalError({ line: 2, column: null, value: null, message: "The file has a header but no wire classes." });
     }
-    const commaIssue = commas.issue(res.delimiter);
+    const commaIssue = commas.issue();
     if (commaIssue) issues.addFirst(commaIssue);
     issues.items.sort((a, b) => (a.line ?? 0) - (b.line ?? 0));
     return {

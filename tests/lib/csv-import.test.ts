@@ -488,15 +488,22 @@ describe("decimal commas (issue 13 item 8)", () => {
   it("a stray decimal comma splitting a comma-separated row: one issue instead of 'has 16 fields'", async () => {
     const r = await classes(`${HEADER}\n${ROW_LOCAL.replace(",2.7,", ",2,7,")}\n${ROW_GLOBAL.replace(",5.0,", ",5,0,")}\n`);
     expect(r.errorCount).toBe(1);
-    expect(r.errors[0]!.message).not.toMatch(/has 16 fields/);
+    expect(r.errors.some((e) => e.message === "has 16 fields, the header has 15")).toBe(false);
     expect(r.errors[0]).toMatchObject({ line: null, column: null, value: "2,7" });
     expect(r.errors[0]!.message).toBe(
-      '2 rows have more fields than the header because a number written with a decimal comma (such as "2,7" on line 2) splits into two fields in a comma-separated file. Plateau reads numbers with a decimal point (2.7, not 2,7): save the file from your spreadsheet with "." as the decimal separator, or write the numbers with a decimal point.',
+      '2 rows have more fields than the header: probably numbers written with a decimal comma, split into two fields in a comma-separated file (the first: line 2 has 16 fields, the header has 15; "2,7"). Plateau reads numbers with a decimal point (2.7, not 2,7): write them so, or save the file from your spreadsheet with "." as the decimal separator.',
     );
     expect(r.decimalCommas).toMatchObject({ splitRows: 2, cells: 0, convertible: false });
     const h = await hist("class,length_um,count\nlocal,0,5,10\nlocal,1,25,3\n");
     expect(h.errorCount).toBe(1);
     expect(h.errors[0]).toMatchObject({ line: null, value: "0,5" });
+    expect(h.errors[0]!.message).toMatch(/^2 rows have more fields than the header: .* \(the first: line 2 has 4 fields, the header has 3; "0,5"\)\. Plateau reads numbers with a decimal point \(0\.5, not 0,5\)/);
+    // a row that also reads as one field too many says so
+    const extra = await classes(`${HEADER}\n${ROW_LOCAL},1\n`);
+    expect(extra.errors).toHaveLength(1);
+    expect(extra.errors[0]!.message).toMatch(
+      /^Line 2 has 16 fields, the header has 15: probably a number written with a decimal comma \("4,8000"\), split into two fields in a comma-separated file, or a field too many at the end\. /,
+    );
   });
 
   it("other errors stay listed after the one decimal-comma issue; rows split for other reasons keep their message", async () => {
