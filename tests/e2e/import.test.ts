@@ -189,7 +189,7 @@ describe("CSV import in the browser", () => {
     expect(await page.getByTestId("import-errors").count()).toBe(0);
     expect(await page.getByText("comma ,").count()).toBe(1);
     expect(await page.getByTestId("preview-rows").innerText()).toBe("4");
-    expect(await page.getByText("skua-decimal-commas-decimal-points.csv").count()).toBe(1);
+    expect(await page.getByText("2. Preview of skua-decimal-commas-decimal-points.csv").count()).toBe(1);
     expect(await page.getByRole("button", { name: "Convert to decimal points" }).count()).toBe(0);
     // the converted file, downloaded: exactly the template (digit for digit: "3.0" stays "3.0", "1.0" stays "1.0")
     const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Download it" }).click()]);
