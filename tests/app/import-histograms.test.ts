@@ -234,9 +234,7 @@ describe("POST /api/baselines/[id]/histograms", () => {
     const split = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace`, `${H}\nlocal,0,5,10\nlocal,1,3\n`);
     expect(split.status).toBe(400);
     expect(split.json.error.errors).toHaveLength(1);
-    expect(split.json.error.message).toMatch(
-      /^Line 2 has 4 fields, the header has 3: probably a number written with a decimal comma \("0,5"\)/,
-    );
+    expect(split.json.error.message).toMatch(/^Line 2 has 4 fields, the header has 3: probably a number written with a decimal comma \("0,5"\)/);
     expect(dbState()).toEqual(before);
     // the template in nm (each length written as 0.317e3 nm for 0.317 µm): exactly the bins the µm file stored
     const stored = () =>

@@ -497,7 +497,9 @@ describe("decimal commas (issue 13 item 8)", () => {
     const h = await hist("class,length_um,count\nlocal,0,5,10\nlocal,1,25,3\n");
     expect(h.errorCount).toBe(1);
     expect(h.errors[0]).toMatchObject({ line: null, value: "0,5" });
-    expect(h.errors[0]!.message).toMatch(/^2 rows have more fields than the header: .* \(the first: line 2 has 4 fields, the header has 3; "0,5"\)\. Plateau reads numbers with a decimal point \(0\.5, not 0,5\)/);
+    expect(h.errors[0]!.message).toMatch(
+      /^2 rows have more fields than the header: .* \(the first: line 2 has 4 fields, the header has 3; "0,5"\)\. Plateau reads numbers with a decimal point \(0\.5, not 0,5\)/,
+    );
     // a row that also reads as one field too many says so
     const extra = await classes(`${HEADER}\n${ROW_LOCAL},1\n`);
     expect(extra.errors).toHaveLength(1);
