@@ -60,6 +60,15 @@ function ProgressBar({ label, value, max }: { label: string; value: number; max:
   );
 }
 
+function downloadFile(file: File) {
+  const url = URL.createObjectURL(file);
+  const a = document.createElement("a");
+  a.href = url;
+  a.download = file.name;
+  a.click();
+  setTimeout(() => URL.revokeObjectURL(url), 1000);
+}
+
 function ErrorTable({ errors, total, fileName }: { errors: ImportIssue[]; total: number; fileName: string }) {
   const download = () => {
     let text = csvLine(["line", "column", "value", "message"]);
@@ -242,7 +251,7 @@ export function CsvImport({
   );
 
   const start = useCallback(
-    (file: File) => {
+    (file: File, convertDecimalCommas = false) => {
       stopWorker();
       setState({ step: "parsing", file, bytes: 0 });
       if (target.kind === "new-baseline" && !name) setName(file.name.replace(/\.csv$/i, "").slice(0, 100));
@@ -253,7 +262,8 @@ export function CsvImport({
         if (m.type === "progress") setState((s) => (s.step === "parsing" ? { ...s, bytes: m.bytes } : s));
         else if (m.type === "done") {
           stopWorker();
-          setState({ step: "preview", file, preview: m });
+          // a converted file replaces the chosen one: it is what the preview shows and what gets uploaded
+          setState({ step: "preview", file: m.converted ?? file, preview: m });
         } else {
           stopWorker();
           setState({ step: "fatal", file, issue: m.issue });
@@ -267,7 +277,7 @@ export function CsvImport({
           issue: { line: null, column: null, value: null, message: `The file could not be read in the browser (${e.message}).` },
         });
       };
-      const req: WorkerRequest = { kind, file, classNames };
+      const req: WorkerRequest = { kind, file, classNames, convertDecimalCommas };
       w.postMessage(req);
     },
     [kind, classNames, target.kind, name],
@@ -424,7 +434,31 @@ export function CsvImport({
           }
         >
           <div className="space-y-4" data-testid="import-preview">
+            {state.preview.converted ? (
+              <Notice tone="good">
+                Converted to comma-separated with decimal points: <span className="font-mono text-xs">{state.file.name}</span> is the file that will be
+                uploaded.{" "}
+                <button type="button" className="text-copper-dark underline" onClick={() => downloadFile(state.file)}>
+                  Download it
+                </button>{" "}
+                to keep a copy.
+              </Notice>
+            ) : null}
             <PreviewTables preview={state.preview} kind={kind} />
+            {state.step === "preview" && state.preview.decimalCommas?.convertible && !state.preview.converted ? (
+              <div
+                className="flex flex-wrap items-center gap-3 rounded-md border border-rule bg-ground/60 px-3 py-2 text-sm"
+                data-testid="decimal-comma-convert"
+              >
+                <span className="min-w-0 flex-1">
+                  The numbers in this file use decimal commas ({state.preview.decimalCommas.first.value}). Plateau can rewrite it comma-separated with decimal
+                  points — digit for digit, nothing rounded — and check it again.
+                </span>
+                <Button variant="secondary" onClick={() => start(state.file, true)}>
+                  Convert to decimal points
+                </Button>
+              </div>
+            ) : null}
             {state.preview.errorCount > 0 ? <ErrorTable errors={state.preview.errors} total={state.preview.errorCount} fileName={state.file.name} /> : null}
           </div>
         </Card>

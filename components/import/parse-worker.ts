@@ -2,6 +2,8 @@
 // Parses the chosen CSV off the main thread with the same pipelines as the server and the command line
 // (lib/import's one reader; column definitions, header rules and row validation from lib/scaling/formats.ts),
 // so the preview shows exactly the errors the upload would get.
+import { HISTOGRAM_FORMAT, WIRE_CLASS_FORMAT } from "@/lib/scaling/client";
+import { convertDecimalCommas } from "@/lib/import/decimal-comma";
 import { HistogramAccumulator } from "@/lib/import/histogram-accumulator";
 import { parseHistogramCsv } from "@/lib/import/histograms";
 import { MAX_IMPORT_BYTES, MAX_LISTED_ERRORS } from "@/lib/import/limits";
@@ -14,7 +16,9 @@ const PREVIEW_ROWS = 8;
 const post = (m: WorkerMessage) => (self as unknown as DedicatedWorkerGlobalScope).postMessage(m);
 
 self.onmessage = async (ev: MessageEvent<WorkerRequest>) => {
-  const { kind, file, classNames } = ev.data;
+  const { kind, classNames } = ev.data;
+  let file = ev.data.file;
+  let converted: File | undefined;
   let header: string[] = [];
   const preview: { line: number; cells: string[] }[] = [];
   let last = 0;
@@ -45,6 +49,12 @@ self.onmessage = async (ev: MessageEvent<WorkerRequest>) => {
     },
   };
   try {
+    if (ev.data.convertDecimalCommas) {
+      // string rewriting of the cells (no number is parsed, so nothing is rounded), then the converted file is checked
+      const text = convertDecimalCommas(await file.text(), kind === "histograms" ? HISTOGRAM_FORMAT : WIRE_CLASS_FORMAT);
+      converted = new File([text], file.name.replace(/(\.csv)?$/i, "-decimal-points.csv"), { type: "text/csv" });
+      file = converted;
+    }
     if (kind === "histograms") {
       // the same collector as the server (20 bytes per bin), so repeats in unsorted files are found here too
       const acc = new HistogramAccumulator(classNames.length);
@@ -60,6 +70,8 @@ self.onmessage = async (ev: MessageEvent<WorkerRequest>) => {
         errors: r.errors,
         errorCount: r.errorCount,
         totals: r.perClass.map((c) => ({ name: c.name, bins: c.bins, nets: c.nets, minLengthM: c.minLengthM, maxLengthM: c.maxLengthM })),
+        decimalCommas: r.decimalCommas,
+        converted,
       });
     } else {
       const r = await parseWireClassStream(bytes(), opts);
@@ -73,6 +85,8 @@ self.onmessage = async (ev: MessageEvent<WorkerRequest>) => {
         errors: r.errors,
         errorCount: r.errorCount,
         totals: r.classes.map((c) => ({ name: c.name, tier: c.tier, nets: c.netCount })),
+        decimalCommas: r.decimalCommas,
+        converted,
       });
     }
   } catch (e) {

@@ -1,5 +1,6 @@
 import { formatScaled, HISTOGRAM_FORMAT, validateHistogramRow, type LengthBin } from "@/lib/scaling/client";
 import { readCsv, readCsvSync, type CsvConsumer, type CsvReadOptions, type CsvReadResult, type Delimiter } from "./csv-stream";
+import { DecimalCommas, type DecimalCommaFinding } from "./decimal-comma";
 import { resolveHeader, unneutralise } from "./header";
 import { HistogramAccumulator } from "./histogram-accumulator";
 import { MAX_IMPORT_BYTES, MAX_LISTED_ERRORS } from "./limits";
@@ -33,6 +34,8 @@ export interface HistogramParse<S extends HistogramSink = HistogramSink> {
   perClass: ClassTotal[];
   /** The sink holding the validated rows (only when ok). */
   sink: S | null;
+  /** Decimal commas found (reported as one issue instead of one per cell or row), or null. */
+  decimalCommas: DecimalCommaFinding | null;
 }
 
 const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
@@ -144,6 +147,13 @@ function histogramPipeline<S extends HistogramSink>(
   let colLen = 1;
   let colCnt = 2;
   let width = 3;
+  /** Power of ten of the length unit the header gives (length_um: -6; length_nm, length_mm… are converted exactly). */
+  let lenExp = -6;
+  const commas = new DecimalCommas();
+  /** Issues of a row, except decimal commas (counted, for one issue about the whole file). */
+  const addRowIssue = (e: ImportIssue) => {
+    if (!(e.column !== null && e.column !== "class" && commas.cell(e))) issues.add(e);
+  };
   // the class cell usually repeats row after row: remember the last known one
   let lastRawName: string | null = null;
   let lastCi = -1;
@@ -172,7 +182,8 @@ function histogramPipeline<S extends HistogramSink>(
 
   const consumer: CsvConsumer = {
     header(h) {
-      const idx = resolveHeader(h.fields, HISTOGRAM_FORMAT);
+      const { index: idx, exp10 } = resolveHeader(h.fields, HISTOGRAM_FORMAT);
+      lenExp = exp10.get("length_um") ?? -6;
       colCls = idx.get("class")!;
       colLen = idx.get("length_um")!;
       colCnt = idx.get("count")!;
@@ -184,6 +195,15 @@ function histogramPipeline<S extends HistogramSink>(
     },
     row(f, line) {
       if (f.length !== width && !(f.length === width + 1 && f[width] === "")) {
+        if (
+          commas.splitRow(
+            f,
+            width,
+            line,
+            (g) => validateHistogramRow({ class: g[colCls]!, length_um: g[colLen]!, count: g[colCnt]! }, line, lenExp).errors.length === 0,
+          )
+        )
+          return;
         issues.add({ line, column: null, value: null, message: `has ${f.length} fields, the header has ${width}` });
         return;
       }
@@ -202,7 +222,7 @@ function histogramPipeline<S extends HistogramSink>(
       }
       if (ci !== undefined) {
         // fast path: exactly parseCell's values for plain decimals (tests/lib/csv-import.test.ts)
-        const lengthM = fastScaled(lenText, -6);
+        const lengthM = fastScaled(lenText, lenExp);
         const count = fastScaled(cntText, 0);
         if (lengthM > 0 && Number.isInteger(count)) {
           take(ci, lengthM, count, line, lenText);
@@ -210,7 +230,7 @@ function histogramPipeline<S extends HistogramSink>(
         }
       }
       // general path: the format's row rules and messages
-      const r = validateHistogramRow({ class: unneutralise(rawName.trim()), length_um: lenText, count: cntText }, line);
+      const r = validateHistogramRow({ class: unneutralise(rawName.trim()), length_um: lenText, count: cntText }, line, lenExp);
       if (ci === undefined && r.className !== "") {
         const near = lowerIndex.get(r.className.toLowerCase());
         const known = classNames.length
@@ -225,7 +245,7 @@ function histogramPipeline<S extends HistogramSink>(
             : `is not a class of this baseline; known classes: ${known}`,
         });
       }
-      for (const e of r.errors) issues.add(e);
+      for (const e of r.errors) addRowIssue(e);
       if (ci === undefined || r.bin === null) return;
       take(ci, r.bin.lengthM, r.bin.count, line, lenText);
     },
@@ -247,7 +267,8 @@ function histogramPipeline<S extends HistogramSink>(
       const ce = colCls === 0 ? d1 : colCls === 1 ? d2 : e3;
       if (lastRawName === null || ce - cs !== lastRawName.length || !text.startsWith(lastRawName, cs)) return false;
       const ci = lastCi;
-      const lengthM = colLen === 0 ? fastScaledAt(text, start, d1, -6) : colLen === 1 ? fastScaledAt(text, d1 + 1, d2, -6) : fastScaledAt(text, d2 + 1, e3, -6);
+      const lengthM =
+        colLen === 0 ? fastScaledAt(text, start, d1, lenExp) : colLen === 1 ? fastScaledAt(text, d1 + 1, d2, lenExp) : fastScaledAt(text, d2 + 1, e3, lenExp);
       if (!(lengthM > 0) || lengthM === lastLength[ci]) return false;
       const count = colCnt === 0 ? fastScaledAt(text, start, d1, 0) : colCnt === 1 ? fastScaledAt(text, d1 + 1, d2, 0) : fastScaledAt(text, d2 + 1, e3, 0);
       if (!Number.isInteger(count)) return false;
@@ -260,7 +281,7 @@ function histogramPipeline<S extends HistogramSink>(
     if (res.rows === 0 && issues.total === 0) {
       throw new ImportFatalError({ line: 2, column: null, value: null, message: "The file has a header but no data rows." });
     }
-    if (unsorted.size > 0 && sink.findRepeats) findUnsortedDuplicates(sink, unsorted, classNames, issues);
+    if (unsorted.size > 0 && sink.findRepeats) findUnsortedDuplicates(sink, unsorted, classNames, issues, lenExp);
     for (let i = 0; i < classNames.length; i++) {
       if (nets[i]! > Number.MAX_SAFE_INTEGER) {
         issues.add({
@@ -271,6 +292,8 @@ function histogramPipeline<S extends HistogramSink>(
         });
       }
     }
+    const commaIssue = commas.issue();
+    if (commaIssue) issues.addFirst(commaIssue);
     const ok = issues.ok;
     issues.items.sort((a, b) => (a.line ?? 0) - (b.line ?? 0));
     return {
@@ -284,13 +307,14 @@ function histogramPipeline<S extends HistogramSink>(
         .map((name, i) => ({ name, bins: bins[i]!, nets: nets[i]!, minLengthM: minLength[i]!, maxLengthM: maxLength[i]! }))
         .filter((t) => t.bins > 0),
       sink: ok ? sink : null,
+      decimalCommas: commas.finding(),
     };
   };
   return { consumer, finish };
 }
 
 /** Repeats in classes whose lengths did not ascend, added in line order (as a pass over the file would). */
-function findUnsortedDuplicates(sink: HistogramSink, unsorted: Set<number>, classNames: readonly string[], issues: IssueList): void {
+function findUnsortedDuplicates(sink: HistogramSink, unsorted: Set<number>, classNames: readonly string[], issues: IssueList, lenExp: number): void {
   const found: { line: number; first: number; ci: number; lengthM: number }[] = [];
   for (const ci of unsorted) sink.findRepeats!(ci, (line, first, lengthM) => found.push({ line, first, ci, lengthM }));
   found.sort((a, b) => a.line - b.line);
@@ -298,7 +322,7 @@ function findUnsortedDuplicates(sink: HistogramSink, unsorted: Set<number>, clas
     issues.add({
       line: r.line,
       column: "length_um",
-      value: formatScaled(r.lengthM, -6),
+      value: formatScaled(r.lengthM, lenExp),
       message: `repeats the bin of class "${classNames[r.ci]}" at this length from line ${r.first} (one row per class and length)`,
     });
   }

@@ -25,6 +25,12 @@ export class IssueList {
     this.total += 1;
     if (this.items.length < this.cap) this.items.push(issue);
   }
+  /** Adds an issue at the head of the list (a file-level issue that must not be cut by the cap). */
+  addFirst(issue: ImportIssue): void {
+    this.total += 1;
+    this.items.unshift(issue);
+    if (this.items.length > this.cap) this.items.pop();
+  }
   get ok(): boolean {
     return this.total === 0;
   }

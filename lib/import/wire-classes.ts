@@ -1,6 +1,7 @@
 import { validateWireClassRow, WIRE_CLASS_FORMAT } from "@/lib/scaling/client";
 import { MAX_CLASSES, wireClassSchema, type WireClassInput } from "@/lib/validation/wire-class";
 import { readCsv, readCsvSync, type CsvConsumer, type CsvReadOptions, type CsvReadResult, type Delimiter } from "./csv-stream";
+import { DecimalCommas, type DecimalCommaFinding } from "./decimal-comma";
 import { resolveHeader, unneutralise } from "./header";
 import { MAX_IMPORT_BYTES, MAX_LISTED_ERRORS } from "./limits";
 import { ImportFatalError, IssueList, type ImportIssue } from "./types";
@@ -42,6 +43,8 @@ export interface WireClassParse {
   bytes: number;
   delimiter: Delimiter;
   classes: ImportedClass[];
+  /** Decimal commas found (reported as one issue instead of one per cell or row), or null. */
+  decimalCommas: DecimalCommaFinding | null;
 }
 
 export type WireClassParseOptions = CsvReadOptions & { maxErrors?: number };
@@ -58,11 +61,18 @@ function wireClassPipeline(maxErrors: number): { consumer: CsvConsumer; finish(r
   const issues = new IssueList(maxErrors);
   const classes: ImportedClass[] = [];
   const seen = new Map<string, number>();
+  const commas = new DecimalCommas();
   let index = new Map<string, number>();
+  let exp10: ReadonlyMap<string, number> = new Map();
   let width = 0;
+  const recordOf = (f: readonly string[]): Record<string, string> => {
+    const record: Record<string, string> = {};
+    for (const [name, i] of index) record[name] = TEXT_COLUMNS.has(name) ? unneutralise((f[i] ?? "").trim()) : (f[i] ?? "");
+    return record;
+  };
   const consumer: CsvConsumer = {
     header(h) {
-      index = resolveHeader(h.fields, WIRE_CLASS_FORMAT);
+      ({ index, exp10 } = resolveHeader(h.fields, WIRE_CLASS_FORMAT));
       width = h.fields.length;
     },
     malformed(line, message) {
@@ -70,14 +80,19 @@ function wireClassPipeline(maxErrors: number): { consumer: CsvConsumer; finish(r
     },
     row(f, line) {
       if (f.length !== width && !(f.length === width + 1 && f[width] === "")) {
+        const valid = (g: string[]) => {
+          const w = validateWireClassRow(recordOf(g), line, exp10).wireClass;
+          return w !== null && wireClassSchema.safeParse(w).success;
+        };
+        if (commas.splitRow(f, width, line, valid)) return;
         issues.add({ line, column: null, value: null, message: `has ${f.length} fields, the header has ${width}` });
         return;
       }
-      const record: Record<string, string> = {};
-      for (const [name, i] of index) record[name] = TEXT_COLUMNS.has(name) ? unneutralise((f[i] ?? "").trim()) : (f[i] ?? "");
-      const r = validateWireClassRow(record, line);
+      const record = recordOf(f);
+      const r = validateWireClassRow(record, line, exp10);
       for (const e of r.errors)
-        issues.add(e.column === "metal" && e.message.startsWith("must be one of") ? { ...e, message: `${e.message}; ${METAL_HINT}` } : e);
+        if (!(e.column !== null && !TEXT_COLUMNS.has(e.column) && commas.cell(e)))
+          issues.add(e.column === "metal" && e.message.startsWith("must be one of") ? { ...e, message: `${e.message}; ${METAL_HINT}` } : e);
       if (!r.wireClass) return;
       const z = wireClassSchema.safeParse(r.wireClass);
       if (!z.success) {
@@ -111,6 +126,8 @@ function wireClassPipeline(maxErrors: number): { consumer: CsvConsumer; finish(r
     if (res.rows === 0 && issues.total === 0) {
       throw new ImportFatalError({ line: 2, column: null, value: null, message: "The file has a header but no wire classes." });
     }
+    const commaIssue = commas.issue();
+    if (commaIssue) issues.addFirst(commaIssue);
     issues.items.sort((a, b) => (a.line ?? 0) - (b.line ?? 0));
     return {
       ok: issues.ok,
@@ -120,6 +137,7 @@ function wireClassPipeline(maxErrors: number): { consumer: CsvConsumer; finish(r
       bytes: res.bytes,
       delimiter: res.delimiter,
       classes: issues.ok ? classes : [],
+      decimalCommas: commas.finding(),
     };
   };
   return { consumer, finish };

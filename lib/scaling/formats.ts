@@ -216,8 +216,47 @@ export function normaliseHeader(cell: string): string {
     .replace(/_+/g, "_");
 }
 
+/**
+ * Units a header may give instead of the column's own (issue 13 item 9), by the column's unit family, each with its
+ * power of ten: the cells are then read in that unit and converted to SI exactly — parseScaled shifts the decimal
+ * exponent in the text, so 0.018 in a µm column and 18 in an nm column give the same double. Only prefixes of the
+ * same unit (a power of ten) are accepted; "mohm" is left out (milli or mega? header case is ignored).
+ */
+const UNIT_FAMILIES: Readonly<Record<string, Readonly<Record<string, number>>>> = {
+  length: { pm: -12, "\u00e5": -10, angstrom: -10, nm: -9, um: -6, "\u00b5m": -6, "\u03bcm": -6, micron: -6, microns: -6, mm: -3, cm: -2, m: 0 },
+  resistance: { ohm: 0, ohms: 0, "\u03c9": 0, kohm: 3, kohms: 3, "k\u03c9": 3 },
+  capacitance: { af: -18, ff: -15, pf: -12, nf: -9, f: 0 },
+};
+const FAMILY_OF_UNIT: Readonly<Record<string, string>> = { nm: "length", µm: "length", Ω: "resistance", fF: "capacitance" };
+const SUFFIX_OF_UNIT: Readonly<Record<string, string>> = { nm: "nm", µm: "um", Ω: "ohm", fF: "ff" };
+
+/** The unit spellings a column's header may use, with the power of ten of each (empty for text and unit-less columns). */
+export function headerUnits(col: ColumnSpec): Readonly<Record<string, number>> {
+  const family = FAMILY_OF_UNIT[col.unit];
+  return family && col.exp10 !== null && col.name.endsWith(`_${SUFFIX_OF_UNIT[col.unit]}`) ? UNIT_FAMILIES[family]! : {};
+}
+
+/** The column name without its unit suffix ("width_nm" → "width"); the whole name for a column without a unit family. */
+function baseName(col: ColumnSpec): string {
+  const suffix = SUFFIX_OF_UNIT[col.unit];
+  return suffix && col.name.endsWith(`_${suffix}`) ? col.name.slice(0, -suffix.length - 1) : col.name;
+}
+
+/**
+ * A normalised header cell that names `col` in another unit of its family ("width_um", "width_µm", "driver_kohm",
+ * "load_af"): the power of ten of that unit, or null.
+ */
+function unitVariant(name: string, col: ColumnSpec): number | null {
+  const units = headerUnits(col);
+  const base = baseName(col);
+  if (!name.startsWith(`${base}_`)) return null;
+  const exp = units[name.slice(base.length + 1)];
+  return exp === undefined ? null : exp;
+}
+
 /** The name without its unit suffix and separators, to match a header that names a column with another unit. */
-const stem = (name: string) => name.replace(/_(nm|um|µm|mm|m|ohm|ff|pf|f|ps|ns|s|v|pct)$/, "").replace(/[^a-z0-9]/g, "");
+const stem = (name: string) =>
+  name.replace(/_(nm|um|µm|μm|mm|cm|m|mil|mils|in|inch|ohm|ohms|mohm|kohm|ω|kω|mω|ff|pf|af|nf|f|ps|ns|s|v|pct)$/, "").replace(/[^a-z0-9]/g, "");
 
 /** "did you mean width_nm?" for an unknown header cell that names a column with another unit or spelling. */
 export function suggestColumn(raw: string, columns: readonly ColumnSpec[]): string | null {
@@ -228,34 +267,62 @@ export function suggestColumn(raw: string, columns: readonly ColumnSpec[]): stri
   return hit ? hit.name : null;
 }
 
+/** A header accepted by resolveHeader: where each column is, and the power of ten its cells are written in. */
+export interface ResolvedHeader {
+  ok: true;
+  /** Index of each column present in the file's rows (absent optional columns are missing). */
+  index: Map<string, number>;
+  /**
+   * Power of ten of the unit each numeric column present is written in: the column's own (exp10), or the one its
+   * header names ("width_um" → -6 for width_nm). Every reader converts with this (parseCell's third argument).
+   */
+  exp10: Map<string, number>;
+}
+
 /**
- * The header rules of both formats: columns by name in any order; an unknown, repeated or missing required column
- * rejects the file with a message listing the expected columns. One empty cell after the last column (a trailing
- * delimiter) is allowed.
+ * The header rules of both formats: columns by name in any order, in the column's unit or another unit of its family
+ * (headerUnits: converted exactly); an unknown, repeated or missing required column rejects the file with a message
+ * listing the expected columns, and a column named with a unit that cannot be converted exactly gets "did you mean
+ * …?". One empty cell after the last column (a trailing delimiter) is allowed.
  * @param fields header cells as read (BOM removed)
- * @returns the index of each column present in the file's rows, or the issue that rejects the file
+ * @returns the index and unit of each column present in the file's rows, or the issue that rejects the file
  */
-export function resolveHeader(fields: readonly string[], format: CsvFormat): { ok: true; index: Map<string, number> } | { ok: false; issue: FormatIssue } {
+export function resolveHeader(fields: readonly string[], format: CsvFormat): ResolvedHeader | { ok: false; issue: FormatIssue } {
   const columns = format.columns;
   const expected = columns.map((c) => (c.required ? c.name : `${c.name} (optional)`)).join(", ");
   const tail = `Expected columns for ${format.title}: ${expected}.`;
-  const known = new Set(columns.map((c) => c.name));
+  const byName = new Map(columns.map((c) => [c.name, c]));
   const index = new Map<string, number>();
+  const exp10 = new Map<string, number>();
   const unknown: string[] = [];
   for (let i = 0; i < fields.length; i++) {
     const raw = fields[i]!;
-    const name = normaliseHeader(raw);
-    if (name === "" && i === fields.length - 1 && fields.length > 1) continue; // trailing delimiter
-    if (!known.has(name)) {
+    const norm = normaliseHeader(raw);
+    if (norm === "" && i === fields.length - 1 && fields.length > 1) continue; // trailing delimiter
+    let col = byName.get(norm);
+    let exp = col?.exp10 ?? null;
+    if (!col) {
+      for (const c of columns) {
+        const e = unitVariant(norm, c);
+        if (e !== null) {
+          col = c;
+          exp = e;
+          break;
+        }
+      }
+    }
+    if (!col) {
       const hint = raw === "" ? null : suggestColumn(raw, columns);
-      const unit = hint ? columns.find((c) => c.name === hint)!.unit : "";
+      const unit = hint ? byName.get(hint)!.unit : "";
       unknown.push(
         raw === "" ? `(empty, column ${i + 1})` : hint ? `"${raw}" (did you mean ${hint}?${unit ? ` Give the values in ${unit}.` : ""})` : `"${raw}"`,
       );
       continue;
     }
+    const name = col.name;
     if (index.has(name)) return { ok: false, issue: { line: 1, column: name, value: raw, message: `Column "${name}" appears twice in the header. ${tail}` } };
     index.set(name, i);
+    if (exp !== null) exp10.set(name, exp);
   }
   if (unknown.length > 0) {
     const tabHint = fields.length === 1 && fields[0]!.includes("\t") ? " Columns must be separated by commas (or semicolons), not tabs." : "";
@@ -269,15 +336,16 @@ export function resolveHeader(fields: readonly string[], format: CsvFormat): { o
       issue: { line: 1, column: null, value: null, message: `Missing required column${missing.length > 1 ? "s" : ""} ${missing.join(", ")}. ${tail}` },
     };
   }
-  return { ok: true, index };
+  return { ok: true, index, exp10 };
 }
 
 /**
- * A numeric cell of `col`: exact SI value (parseScaled), then the column's rule. Reasons are phrases that follow the
+ * A numeric cell of `col`, written in the unit of power of ten `exp10` (the column's own unless the header named
+ * another: ResolvedHeader.exp10): exact SI value (parseScaled), then the column's rule. Reasons are phrases that follow the
  * column name ("must be > 0", "is not a number: use a decimal point, not a comma").
  */
-export function parseCell(col: ColumnSpec, text: string): NumberCheck {
-  const r = parseScaled(text, col.exp10 ?? 0);
+export function parseCell(col: ColumnSpec, text: string, exp10: number = col.exp10 ?? 0): NumberCheck {
+  const r = parseScaled(text, exp10);
   const rule = col.rule;
   if (!r.ok || !rule) return r;
   const v = r.value;
@@ -292,16 +360,21 @@ const WC = new Map(WIRE_CLASS_COLUMNS.map((c) => [c.name, c]));
 /**
  * Validates one wire-class record (keys = column names, values = cell text) and converts it to SI units exactly.
  * Text cells are trimmed; tier and metal are matched ignoring case. Returns the class when the row is valid, and
- * every problem found, each naming line, column, cell text and reason.
+ * every problem found, each naming line, column, cell text and reason. `exp10`: the unit of each numeric column as the
+ * header gave it (ResolvedHeader.exp10; the column's own unit when missing).
  */
-export function validateWireClassRow(record: Readonly<Record<string, string>>, line: number): { wireClass: WireClass | null; errors: FormatIssue[] } {
+export function validateWireClassRow(
+  record: Readonly<Record<string, string>>,
+  line: number,
+  exp10: ReadonlyMap<string, number> = new Map(),
+): { wireClass: WireClass | null; errors: FormatIssue[] } {
   const errors: FormatIssue[] = [];
   const cell = (name: string) => record[name] ?? "";
   const num = (name: string): number | null => {
     const text = cell(name);
     const col = WC.get(name)!;
     if (!col.required && text.trim() === "") return null;
-    const r = parseCell(col, text);
+    const r = parseCell(col, text, exp10.get(name) ?? col.exp10 ?? 0);
     if (r.ok) return r.value;
     errors.push({ line, column: name, value: text, message: r.reason });
     return null;
@@ -394,15 +467,19 @@ export function validateWireClassRow(record: Readonly<Record<string, string>>, l
   return { wireClass, errors };
 }
 
-/** Validates one histogram row (class name as written, length and count cells): the bin in SI units, or every problem. */
+/**
+ * Validates one histogram row (class name as written, length and count cells): the bin in SI units, or every problem.
+ * `lengthExp10`: the power of ten of the length unit the header gave (length_um: -6; length_nm: -9; length_mm: -3).
+ */
 export function validateHistogramRow(
   cells: { class: string; length_um: string; count: string },
   line: number,
+  lengthExp10: number = HISTOGRAM_LENGTH_COLUMN.exp10 ?? -6,
 ): { className: string; bin: LengthBin | null; errors: FormatIssue[] } {
   const errors: FormatIssue[] = [];
   const className = cells.class.trim();
   if (className === "") errors.push({ line, column: "class", value: cells.class, message: "is required" });
-  const len = parseCell(HISTOGRAM_LENGTH_COLUMN, cells.length_um);
+  const len = parseCell(HISTOGRAM_LENGTH_COLUMN, cells.length_um, lengthExp10);
   if (!len.ok) errors.push({ line, column: "length_um", value: cells.length_um, message: len.reason });
   const cnt = parseCell(HISTOGRAM_COUNT_COLUMN, cells.count);
   if (!cnt.ok) errors.push({ line, column: "count", value: cells.count, message: cnt.reason });

@@ -26,6 +26,10 @@ export const toUm = (m: number): number => m / UM;
 export const fromUm = (um: number): number => scaleExact(um, -6);
 
 const DECIMAL_RE = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
+const DECIMAL_COMMA_RE = /^[+-]?\d*,\d+(?:[eE][+-]?\d+)?$/;
+
+/** A number written with a decimal comma ("1,55", "-0,5", ",25", "1,5E-3"; surrounding spaces ignored): 1.55 meant. */
+export const isDecimalComma = (text: string): boolean => DECIMAL_COMMA_RE.test(text.trim());
 
 /** A checked number cell: its SI value, or the reason it was refused (a phrase after the column name). */
 export type NumberCheck = { ok: true; value: number } | { ok: false; reason: string };
@@ -42,7 +46,7 @@ export function parseScaled(text: string, exp10: number): NumberCheck {
   const t = text.trim();
   if (t === "") return { ok: false, reason: "is required" };
   if (!DECIMAL_RE.test(t)) {
-    if (/^[+-]?\d+,\d+$/.test(t)) return { ok: false, reason: "is not a number: use a decimal point, not a comma" };
+    if (DECIMAL_COMMA_RE.test(t)) return { ok: false, reason: "is not a number: use a decimal point, not a comma" };
     if (/^[+-]?(nan|inf(inity)?)$/i.test(t)) return { ok: false, reason: "must be a finite number" };
     return { ok: false, reason: "is not a number" };
   }

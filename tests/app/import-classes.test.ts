@@ -142,7 +142,13 @@ describe("POST /api/baselines/[id]/import (wire classes)", () => {
     [
       "a decimal comma",
       `${HEADER.replace(/,/g, ";")}\n${ROW_LOCAL.replace(/,/g, ";").replace("2.7", "2,7")}\n`,
-      { line: 2, column: "k", value: "2,7", message: /decimal point/ },
+      {
+        line: null,
+        column: "k",
+        value: "2,7",
+        message:
+          /^The file writes numbers with a decimal comma: 1 cell such as "2,7" \(line 2, k\)\. Plateau reads numbers with a decimal point \(2\.7, not 2,7\)\. Convert the file/,
+      },
     ],
     [
       "an unknown metal",
@@ -171,7 +177,17 @@ describe("POST /api/baselines/[id]/import (wire classes)", () => {
       new Uint8Array([...enc.encode(`${HEADER}\n`), ...enc.encode(ROW_LOCAL).map((b) => (b === 0x43 ? 0xc3 : b)), 0x0a]),
       { line: null, column: null, message: /not valid UTF-8/ },
     ],
-    ["a row with too many fields", `${HEADER}\n${ROW_LOCAL},1\n${ROW_GLOBAL}\n`, { line: 2, column: null, message: "has 16 fields, the header has 15" }],
+    ["a row with too many fields", `${HEADER}\n${ROW_LOCAL},x\n${ROW_GLOBAL}\n`, { line: 2, column: null, message: "has 16 fields, the header has 15" }],
+    [
+      "a row with a number too many (or a decimal comma)",
+      `${HEADER}\n${ROW_LOCAL},1\n${ROW_GLOBAL}\n`,
+      {
+        line: null,
+        column: null,
+        message:
+          'Line 2 has 16 fields, the header has 15: probably a number written with a decimal comma ("4,8000"), split into two fields in a comma-separated file, or a field too many at the end. Plateau reads numbers with a decimal point (4.8000, not 4,8000): write them so, or save the file from your spreadsheet with "." as the decimal separator.',
+      },
+    ],
   ];
 
   it.each(bad)("rejects %s with line, column and reason, changing nothing", async (_name, body, expected) => {
@@ -284,6 +300,70 @@ describe("POST /api/baselines/[id]/import (wire classes)", () => {
       via_width_m: null,
       via_height_m: null,
     });
+  });
+});
+
+describe("decimal commas and header units (issue 13 items 8, 9)", () => {
+  const semicolonCommas = (text: string) => text.replace(/,/g, ";").replace(/(\d)\.(\d)/g, "$1,$2");
+
+  it("a semicolon file with decimal commas answers one clear 400 (not one error per cell) and stores nothing", async () => {
+    const o = await ownerWithBaseline();
+    const before = dbState();
+    const cells = (TEMPLATE_CLASSES.match(/\d\.\d/g) ?? []).length;
+    const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/import?mode=replace`, semicolonCommas(TEMPLATE_CLASSES));
+    expect(r.status).toBe(400);
+    expect(r.json.error.code).toBe("invalid_csv");
+    expect(r.json.error.errorCount).toBe(1);
+    expect(r.json.error.errors).toHaveLength(1);
+    expect(r.json.error.message).toBe(
+      `The file writes numbers with a decimal comma: ${cells} cells such as "2,7" (line 2, k). Plateau reads numbers with a decimal point (2.7, not 2,7). Convert the file in the import preview ("Convert to decimal points" rewrites it comma-separated with decimal points, exactly), or save it from your spreadsheet with "." as the decimal separator. Nothing was stored.`,
+    );
+    expect(dbState()).toEqual(before);
+    // the same for a new baseline from such a file: no baseline is created
+    const n = await postCsv(o.client, `/api/teams/${o.teamId}/baselines/import?name=Komma`, semicolonCommas(TEMPLATE_CLASSES));
+    expect(n.status).toBe(400);
+    expect(n.json.error.errorCount).toBe(1);
+    expect(n.json.error.message).toMatch(/^The file writes numbers with a decimal comma/);
+    expect(dbState()).toEqual(before);
+  });
+
+  it("a decimal comma splitting a comma-separated row answers one 400 naming it, instead of 'has 16 fields'", async () => {
+    const o = await ownerWithBaseline();
+    const before = dbState();
+    const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/import?mode=merge`, `${HEADER}\n${ROW_LOCAL.replace(",0.4,", ",0,4,")}\n${ROW_GLOBAL}\n`);
+    expect(r.status).toBe(400);
+    expect(r.json.error.errorCount).toBe(1);
+    expect(r.json.error.message).toBe(
+      'Line 2 has 16 fields, the header has 15: probably a number written with a decimal comma ("4,8000" or "8000,0" or "0,4"), split into two fields in a comma-separated file. Plateau reads numbers with a decimal point (1.55, not 1,55): write them so, or save the file from your spreadsheet with "." as the decimal separator. Nothing was stored.',
+    );
+    expect(dbState()).toEqual(before);
+  });
+
+  it("a header in µm, mm, kΩ and aF is converted exactly: the stored classes equal those of the nm/µm/Ω/fF file", async () => {
+    const o = await ownerWithBaseline();
+    const other =
+      "class,tier,width (µm),thickness_um,spacing_um,ild_below_um,ild_above_um,barrier_um,metal,k,net_count,mean_length_mm,driver (kΩ),load_af,activity\n" +
+      "local,local,0.018,0.048,0.024,0.03,0.03,0.002,Cu,2.7,1200000,0.004,8,400,0.15\n";
+    const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/import?mode=merge`, other);
+    expect(r.status).toBe(200);
+    const row = sql<Record<string, number>>(
+      "select width_m, thickness_m, spacing_m, ild_below_m, barrier_m, mean_length_m, driver_ohm, load_f from wire_classes where baseline_id = ? and name = 'local'",
+      o.baselineId,
+    )[0]!;
+    // 0.018 µm is 1.8e-8 m exactly (a float multiply, 0.018 * 1000 * 1e-9, would store 1.8000000000000002e-8)
+    expect(row).toEqual({
+      width_m: 1.8e-8,
+      thickness_m: 4.8e-8,
+      spacing_m: 2.4e-8,
+      ild_below_m: 3e-8,
+      barrier_m: 2e-9,
+      mean_length_m: 4e-6,
+      driver_ohm: 8000,
+      load_f: 4e-16,
+    });
+    const hint = await postCsv(o.client, `/api/baselines/${o.baselineId}/import?mode=merge`, `${HEADER.replace("driver_ohm", "driver_mohm")}\n${ROW_LOCAL}\n`);
+    expect(hint.status).toBe(400);
+    expect(hint.json.error.errors[0].message).toMatch(/^Unknown column "driver_mohm" \(did you mean driver_ohm\? Give the values in Ω\.\)\./);
   });
 });
 

@@ -229,6 +229,37 @@ describe("POST /api/baselines/[id]/histograms", () => {
     expect(dbState()).toEqual(before);
   });
 
+  it("a semicolon file with decimal commas answers one clear 400 and stores nothing; a header in nm stores the same bins as µm (issue 13 items 8, 9)", async () => {
+    const o = await ownerWithBaseline();
+    await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace`, TEMPLATE_HISTOGRAMS);
+    const before = dbState();
+    const semi = TEMPLATE_HISTOGRAMS.replace(/,/g, ";").replace(/(\d)\.(\d)/g, "$1,$2");
+    const cells = (TEMPLATE_HISTOGRAMS.match(/\d\.\d/g) ?? []).length;
+    const r = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace`, semi);
+    expect(r.status).toBe(400);
+    expect(r.json.error.errorCount).toBe(1);
+    expect(r.json.error.message).toMatch(
+      new RegExp(`^The file writes numbers with a decimal comma: ${cells} cells such as "0,317" \\(line 2, length_um\\)\\. .* Nothing was stored\\.$`),
+    );
+    expect(dbState()).toEqual(before);
+    const split = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace`, `${H}\nlocal,0,5,10\nlocal,1,3\n`);
+    expect(split.status).toBe(400);
+    expect(split.json.error.errors).toHaveLength(1);
+    expect(split.json.error.message).toMatch(/^Line 2 has 4 fields, the header has 3: probably a number written with a decimal comma \("0,5"\)/);
+    expect(dbState()).toEqual(before);
+    // the template in nm (each length written as 0.317e3 nm for 0.317 µm): exactly the bins the µm file stored
+    const stored = () =>
+      sql<{ name: string; lengths_m: Buffer; counts: Buffer }>(
+        "select c.name, h.lengths_m, h.counts from class_histograms h join wire_classes c on c.id = h.class_id where c.baseline_id = ? order by c.position",
+        o.baselineId,
+      );
+    const inUm = stored();
+    const nm = TEMPLATE_HISTOGRAMS.replace("length_um", "length (nm)").replace(/^([^,\n]+),([0-9.]+),/gm, (_m, c: string, v: string) => `${c},${v}e3,`);
+    const n = await postCsv(o.client, `/api/baselines/${o.baselineId}/histograms?mode=replace`, nm);
+    expect(n.status).toBe(200);
+    expect(stored()).toEqual(inUm);
+  });
+
   it("lists the first 200 errors with the total count", async () => {
     const o = await ownerWithBaseline();
     const before = dbState();

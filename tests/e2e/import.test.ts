@@ -168,4 +168,46 @@ describe("CSV import in the browser", () => {
     expect(fs.readFileSync(file, "utf8").split("\r\n")[0]).toBe("line,column,value,message");
     await page.close();
   });
+
+  it("says once that a semicolon file uses decimal commas, converts it exactly in the preview, and imports the converted file (issue 13 item 8)", async () => {
+    const page = await ctx.newPage();
+    const semi = path.join(tmp, "skua-decimal-commas.csv");
+    fs.writeFileSync(semi, TEMPLATE_CLASSES.replace(/,/g, ";").replace(/(\d)\.(\d)/g, "$1,$2"));
+    await page.goto(`${baseUrl}/teams/${owner.teamId}/baselines/import`);
+    await page.getByTestId("file-input").setInputFiles(semi);
+    const errors = page.getByTestId("import-errors");
+    await errors.waitFor();
+    const t = await errors.innerText();
+    expect(t).toContain("1 error");
+    expect(t.match(/decimal comma/g)).toHaveLength(1);
+    expect(t).toContain('such as "2,7" (line 2, k)');
+    expect(await page.getByText("semicolon ;").count()).toBe(1);
+    expect(await page.getByRole("button", { name: /Create baseline/ }).count()).toBe(0);
+    await page.screenshot({ path: `${SHOTS}/05-decimal-commas.png`, fullPage: true });
+    await page.getByRole("button", { name: "Convert to decimal points" }).click();
+    await page.getByText(/Converted to comma-separated with decimal points/).waitFor();
+    expect(await page.getByTestId("import-errors").count()).toBe(0);
+    expect(await page.getByText("comma ,").count()).toBe(1);
+    expect(await page.getByTestId("preview-rows").innerText()).toBe("4");
+    expect(await page.getByText("2. Preview of skua-decimal-commas-decimal-points.csv").count()).toBe(1);
+    expect(await page.getByRole("button", { name: "Convert to decimal points" }).count()).toBe(0);
+    // the converted file, downloaded: exactly the template (digit for digit: "3.0" stays "3.0", "1.0" stays "1.0")
+    const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Download it" }).click()]);
+    const converted = path.join(tmp, "converted.csv");
+    await download.saveAs(converted);
+    expect(fs.readFileSync(converted, "utf8")).toBe(TEMPLATE_CLASSES);
+    await page.screenshot({ path: `${SHOTS}/06-decimal-commas-converted.png`, fullPage: true });
+    await page.getByLabel("Name of the new baseline").fill("Skua with decimal commas");
+    await page.getByRole("button", { name: "Create baseline 4 rows" }).click();
+    await page.waitForURL(/\/teams\/[^/]+\/baselines\/[0-9a-f-]{36}$/, { timeout: 30_000 });
+    const id = page.url().split("/").pop()!;
+    // the stored classes are those of the template uploaded as it is
+    const ref = await postCsv(owner.client, `/api/teams/${owner.teamId}/baselines/import?name=${encodeURIComponent("Skua reference")}`, TEMPLATE_CLASSES);
+    expect(ref.status).toBe(201);
+    const mine = await owner.client.get(`/api/baselines/${id}/export.csv`);
+    const theirs = await owner.client.get(`/api/baselines/${ref.json.baseline.id}/export.csv`);
+    expect(mine.status).toBe(200);
+    expect(mine.text).toBe(theirs.text);
+    await page.close();
+  });
 });

@@ -4,9 +4,11 @@ import { detectDelimiter } from "@/lib/import/csv-stream";
 import { fastScaled, parseHistogramCsv } from "@/lib/import/histograms";
 import { HistogramAccumulator } from "@/lib/import/histogram-accumulator";
 import { multipartField } from "@/lib/import/request-body";
-import { formatScaled, parseScaled } from "@/lib/scaling";
+import { formatScaled, HISTOGRAM_FORMAT, parseScaled, WIRE_CLASS_FORMAT } from "@/lib/scaling";
+import { convertDecimalCommas } from "@/lib/import/decimal-comma";
+import { invalidCsvMessage } from "@/lib/import/errors";
 import { ImportFatalError, type ImportIssue } from "@/lib/import/types";
-import { parseWireClassStream } from "@/lib/import/wire-classes";
+import { parseWireClassCsv, parseWireClassStream } from "@/lib/import/wire-classes";
 import { mulberry32 } from "../helpers/prng";
 
 const enc = new TextEncoder();
@@ -441,5 +443,142 @@ describe("readCsv limits on pathological input", () => {
       message: "Line 3 starts a record longer than 1 MiB: a quote is probably not closed, or this is not a CSV file.",
     });
     expect(performance.now() - t0).toBeLessThan(5000);
+  });
+});
+
+// Issue 13 item 8: a file with decimal commas gets ONE issue naming the cause and the fix, not one per cell or row.
+describe("decimal commas (issue 13 item 8)", () => {
+  const TEMPLATE = fs.readFileSync("public/templates/wire-classes-template.csv", "utf8");
+  const HIST_TEMPLATE = fs.readFileSync("public/templates/length-histograms-template.csv", "utf8");
+  /** The file a spreadsheet in a decimal-comma locale saves: semicolons between fields, commas in numbers. */
+  const semicolonCommas = (text: string) => text.replace(/,/g, ";").replace(/(\d)\.(\d)/g, "$1,$2");
+  const decimalCells = (text: string) => (text.match(/\d\.\d/g) ?? []).length;
+
+  it("a semicolon file with decimal commas: one issue with the count, the first cell and the fix", async () => {
+    const text = semicolonCommas(TEMPLATE);
+    const r = await classes(text);
+    expect(r.ok).toBe(false);
+    expect(r.errorCount).toBe(1);
+    expect(r.errors).toHaveLength(1);
+    const cells = decimalCells(TEMPLATE);
+    expect(cells).toBeGreaterThan(5);
+    expect(r.errors[0]).toMatchObject({ line: null, column: "k", value: "2,7" });
+    expect(r.errors[0]!.message).toBe(
+      `The file writes numbers with a decimal comma: ${cells} cells such as "2,7" (line 2, k). Plateau reads numbers with a decimal point (2.7, not 2,7). Convert the file in the import preview ("Convert to decimal points" rewrites it comma-separated with decimal points, exactly), or save it from your spreadsheet with "." as the decimal separator.`,
+    );
+    expect(r.decimalCommas).toEqual({ cells, splitRows: 0, first: { line: 2, column: "k", value: "2,7" }, convertible: true });
+    // the server's 400 message is that one issue (lib/import/errors.ts)
+    expect(invalidCsvMessage(r.errors, r.errorCount)).toBe(`${r.errors[0]!.message} Nothing was stored.`);
+    // the command line's synchronous reader says the same
+    expect(parseWireClassCsv(text).errors).toEqual(r.errors);
+  });
+
+  it("histograms: a semicolon file with decimal commas gets one issue too (fast lane and papaparse path alike)", async () => {
+    const text = semicolonCommas(HIST_TEMPLATE);
+    const names = ["local", "intermediate", "semi-global", "global"];
+    for (const size of [7, 1 << 16]) {
+      const r = await hist(text, names, size);
+      expect(r.errorCount).toBe(1);
+      expect(r.errors[0]).toMatchObject({ line: null, column: "length_um", value: "0,317" });
+      expect(r.errors[0]!.message).toMatch(/^The file writes numbers with a decimal comma: \d+ cells such as "0,317" \(line 2, length_um\)\./);
+      expect(r.decimalCommas?.cells).toBe(decimalCells(HIST_TEMPLATE));
+    }
+  });
+
+  it("a stray decimal comma splitting a comma-separated row: one issue instead of 'has 16 fields'", async () => {
+    const r = await classes(`${HEADER}\n${ROW_LOCAL.replace(",2.7,", ",2,7,")}\n${ROW_GLOBAL.replace(",5.0,", ",5,0,")}\n`);
+    expect(r.errorCount).toBe(1);
+    expect(r.errors.some((e) => e.message === "has 16 fields, the header has 15")).toBe(false);
+    expect(r.errors[0]).toMatchObject({ line: null, column: null, value: "2,7" });
+    expect(r.errors[0]!.message).toBe(
+      '2 rows have more fields than the header: probably numbers written with a decimal comma, split into two fields in a comma-separated file (the first: line 2 has 16 fields, the header has 15; "2,7"). Plateau reads numbers with a decimal point (2.7, not 2,7): write them so, or save the file from your spreadsheet with "." as the decimal separator.',
+    );
+    expect(r.decimalCommas).toMatchObject({ splitRows: 2, cells: 0, convertible: false });
+    const h = await hist("class,length_um,count\nlocal,0,5,10\nlocal,1,25,3\n");
+    expect(h.errorCount).toBe(1);
+    expect(h.errors[0]).toMatchObject({ line: null, value: "0,5" });
+    expect(h.errors[0]!.message).toMatch(
+      /^2 rows have more fields than the header: .* \(the first: line 2 has 4 fields, the header has 3; "0,5"\)\. Plateau reads numbers with a decimal point \(0\.5, not 0,5\)/,
+    );
+    // a row that also reads as one field too many says so
+    const extra = await classes(`${HEADER}\n${ROW_LOCAL},1\n`);
+    expect(extra.errors).toHaveLength(1);
+    expect(extra.errors[0]!.message).toMatch(
+      /^Line 2 has 16 fields, the header has 15: probably a number written with a decimal comma \("4,8000"\), split into two fields in a comma-separated file, or a field too many at the end\. /,
+    );
+  });
+
+  it("other errors stay listed after the one decimal-comma issue; rows split for other reasons keep their message", async () => {
+    const r = await classes(
+      `${HEADER}\n${ROW_LOCAL.replace(",2.7,", ",2,7,")}\n${ROW_GLOBAL.replace(",Cu,", ",Xx,")}\n${ROW_LOCAL.replace(/^local,/, "m2,")},extra,more\n`,
+    );
+    expect(r.errorCount).toBe(3);
+    expect(r.errors.map((e) => [e.line, e.column])).toEqual([
+      [null, null],
+      [3, "metal"],
+      [4, null],
+    ]);
+    expect(r.errors[2]!.message).toBe("has 17 fields, the header has 15");
+    // a text comma is not a decimal comma: an unquoted class name with a comma keeps the field-count message
+    const t = await classes(`${HEADER}\n${ROW_LOCAL.replace(/^local,/, "m1, top,")}\n`);
+    expect(t.errors).toEqual([{ line: 2, column: null, value: null, message: "has 16 fields, the header has 15" }]);
+    expect(t.decimalCommas).toBeNull();
+  });
+
+  it("convertDecimalCommas rewrites a semicolon file exactly: comma-separated, decimal points, text quoted where needed", async () => {
+    const semi = semicolonCommas(TEMPLATE);
+    const converted = convertDecimalCommas(semi, WIRE_CLASS_FORMAT);
+    expect(converted).toBe(TEMPLATE); // the template has no text commas: exactly the original file
+    const r = await classes(converted);
+    expect(r.ok).toBe(true);
+    expect(r.classes).toEqual((await classes(TEMPLATE)).classes);
+    // strings, not floats: every digit kept, nothing rounded; text cells with commas or quotes quoted; CRLF kept
+    const odd =
+      "class;tier;width_nm;thickness_nm;spacing_nm;ild_below_nm;ild_above_nm;barrier_nm;metal;k;net_count;mean_length_um;driver_ohm;load_ff;activity\r\n" +
+      'M1, "top";local;24,000;48;24;30;30;2;Cu;2,7000000000000000000001;1200000;4;8000;0,1000000000000000055511151231257827;1,5E-1\r\n' +
+      "9,5;local;24;48;24;30;30;2;Cu;2,7;1200000;4;8000;-0,4;,15\r\n";
+    expect(convertDecimalCommas(odd, WIRE_CLASS_FORMAT)).toBe(
+      "class,tier,width_nm,thickness_nm,spacing_nm,ild_below_nm,ild_above_nm,barrier_nm,metal,k,net_count,mean_length_um,driver_ohm,load_ff,activity\r\n" +
+        '"M1, ""top""",local,24.000,48,24,30,30,2,Cu,2.7000000000000000000001,1200000,4,8000,0.1000000000000000055511151231257827,1.5E-1\r\n' +
+        '"9,5",local,24,48,24,30,30,2,Cu,2.7,1200000,4,8000,-0.4,.15\r\n',
+    );
+    // histograms, with a BOM and a header in µm's other spelling
+    expect(convertDecimalCommas("\uFEFFclass;length (µm);count\nlocal;0,317;3553\n", HISTOGRAM_FORMAT)).toBe("class,length (µm),count\nlocal,0.317,3553\n");
+  });
+});
+
+// Issue 13 item 9: headers in another unit of the column's family are read in that unit, converted exactly.
+describe("header unit variants through the reader (issue 13 item 9)", () => {
+  it("a wire-class file in µm, mm, kΩ and aF gives exactly the classes of the same file in nm, µm, Ω and fF", async () => {
+    const other =
+      "class,tier,width (µm),thickness_um,spacing_um,ild_below_um,ild_above_um,barrier_um,metal,k,net_count,mean_length_mm,driver (kΩ),load_af,activity\n" +
+      "local,local,0.024,0.048,0.024,0.03,0.03,0.002,Cu,2.7,1200000,0.004,8,400,0.15\n" +
+      "global,global,0.4,0.8,0.4,0.4,,0.005,Cu,3.0,4000,1.5,0.3,5000,0.1\n";
+    const r = await classes(other);
+    expect(r.errors).toEqual([]);
+    expect(r.classes).toEqual((await classes(`${HEADER}\n${ROW_LOCAL}\n${ROW_GLOBAL}\n`)).classes);
+    // 0.018 µm → 18 nm exactly (no float multiply: 0.018 * 1000 * 1e-9 = 1.8000000000000002e-8)
+    const w = await classes(
+      `${HEADER.replace("width_nm", "width_um")}\n${ROW_LOCAL.replace("local,local,24,", "local,local,0.018,").replace(",2,Cu,", ",0,Cu,")}\n`,
+    );
+    expect(w.classes[0]!.widthM).toBe(1.8e-8);
+  });
+
+  it("histograms in nm or mm: the same bins as in µm, on the fast lane and the papaparse path, exactly", async () => {
+    const um = "class,length_um,count\nlocal,0.317,3553\nlocal,0.354,4679\nlocal,1,7\n";
+    const nm = "class,length_nm,count\nlocal,317,3553\nlocal,354,4679\nlocal,1000,7\n";
+    const mm = 'class,"Length (mm)",count\nlocal,0.000317,3553\nlocal,3.54e-4,4679\nlocal,1e-3,7\n';
+    const bins = async (text: string, size: number) => {
+      const acc = new HistogramAccumulator(1);
+      const r = await parseHistogramCsv(chunks(text, size), ["local"], { maxBytes: 1 << 20, sink: acc });
+      expect(r.errors).toEqual([]);
+      return acc.lengthBins(0);
+    };
+    const want = await bins(um, 1 << 16);
+    expect(want.map((b) => b.lengthM)).toEqual([3.17e-7, 3.54e-7, 1e-6]);
+    for (const size of [5, 1 << 16]) {
+      expect(await bins(nm, size)).toEqual(want);
+      expect(await bins(mm, size)).toEqual(want);
+    }
   });
 });

@@ -355,12 +355,140 @@ describe("header unit variants (issue 13 item 9)", () => {
       if (r.ok) expect(r.index.get("width_nm")).toBe(2);
     }
   });
-  it("names the column it probably is for another unit or spelling", () => {
-    const r = header(["width_um"]);
-    expect(r.ok).toBe(false);
-    if (!r.ok) expect(r.issue.message).toMatch(/^Unknown column "width_um" \(did you mean width_nm\? Give the values in nm\.\)\. Expected columns/);
-    expect(suggestColumn("Width (µm)", WIRE_CLASS_COLUMNS)).toBe("width_nm");
+  it("names the column it probably is for a unit that cannot be converted exactly, or another spelling", () => {
+    for (const [h, hint] of [
+      ["width_mil", "width_nm"],
+      ["width", "width_nm"],
+    ] as const) {
+      const r = header([h]);
+      expect(r.ok, h).toBe(false);
+      if (!r.ok)
+        expect(r.issue.message).toMatch(new RegExp(`^Unknown column "${h}" \\(did you mean ${hint}\\? Give the values in nm\\.\\)\\. Expected columns`));
+    }
+    expect(suggestColumn("Width (mils)", WIRE_CLASS_COLUMNS)).toBe("width_nm");
+    expect(suggestColumn("driver_mohm", WIRE_CLASS_COLUMNS)).toBe("driver_ohm"); // milli or mega? not converted
     expect(suggestColumn("netcount", WIRE_CLASS_COLUMNS)).toBe("net_count");
     expect(suggestColumn("colour", WIRE_CLASS_COLUMNS)).toBeNull();
+  });
+  it("accepts other units of a column's family and reads the cells in that unit (issue 13 item 9)", () => {
+    for (const [h, exp] of [
+      ["width_um", -6],
+      ["width (µm)", -6],
+      ["Width [μm]", -6],
+      ["width_mm", -3],
+      ["width_pm", -12],
+      ["width (Å)", -10],
+      ["width_m", 0],
+      ["width_nm", -9],
+    ] as const) {
+      const r = header([h]);
+      expect(r.ok, h).toBe(true);
+      if (r.ok) {
+        expect(r.index.get("width_nm"), h).toBe(2);
+        expect(r.exp10.get("width_nm"), h).toBe(exp);
+      }
+    }
+    const all = resolveHeader(
+      [
+        "class",
+        "tier",
+        "width_um",
+        "thickness (µm)",
+        "spacing_um",
+        "ild_below_um",
+        "ild_above_um",
+        "barrier_um",
+        "metal",
+        "k",
+        "net_count",
+        "mean_length_mm",
+        "driver (kΩ)",
+        "load_af",
+        "activity",
+        "via_ohm",
+        "via_width_um",
+        "via_height_mm",
+      ],
+      WIRE_CLASS_FORMAT,
+    );
+    expect(all.ok).toBe(true);
+    if (all.ok) {
+      expect(Object.fromEntries(all.exp10)).toEqual({
+        width_nm: -6,
+        thickness_nm: -6,
+        spacing_nm: -6,
+        ild_below_nm: -6,
+        ild_above_nm: -6,
+        barrier_nm: -6,
+        k: 0,
+        net_count: 0,
+        mean_length_um: -3,
+        driver_ohm: 3,
+        load_ff: -18,
+        activity: 0,
+        via_ohm: 0,
+        via_width_nm: -6,
+        via_height_nm: -3,
+      });
+    }
+    expect(header(["driver_kohm"]).ok).toBe(false); // width_nm is then missing: the variant names driver_ohm…
+    const twice = resolveHeader(["class", "length_um", "length (nm)", "count"], HISTOGRAM_FORMAT);
+    expect(twice.ok).toBe(false);
+    if (!twice.ok) expect(twice.issue.message).toMatch(/^Column "length_um" appears twice in the header/);
+    const h = resolveHeader(["class", "Length (mm)", "count"], HISTOGRAM_FORMAT);
+    expect(h.ok && h.exp10.get("length_um")).toBe(-3);
+    // unit-less and text columns take no unit variants
+    expect(resolveHeader(["class", "length_um", "count_k"], HISTOGRAM_FORMAT).ok).toBe(false);
+  });
+  it("converts cells in another unit exactly: the same doubles as the column's own unit", () => {
+    // exact: the decimal exponent is shifted in the text (parseScaled), never a float multiply (µm × 1000 → nm × 1e-9
+    // would store 0.018 µm as 1.8000000000000002e-8 m)
+    expect(0.018 * 1000 * 1e-9).not.toBe(1.8e-8);
+    const inNm = validateWireClassRow(record(ROW), 2).wireClass!;
+    const inUm = validateWireClassRow(
+      {
+        ...record(ROW),
+        width_nm: "0.024",
+        thickness_nm: "0.048",
+        spacing_nm: "0.024",
+        ild_below_nm: "0.03",
+        barrier_nm: "0.002",
+        mean_length_um: "0.004",
+        driver_ohm: "8",
+        load_ff: "400",
+      },
+      2,
+      new Map([
+        ["width_nm", -6],
+        ["thickness_nm", -6],
+        ["spacing_nm", -6],
+        ["ild_below_nm", -6],
+        ["barrier_nm", -6],
+        ["mean_length_um", -3],
+        ["driver_ohm", 3],
+        ["load_ff", -18],
+      ]),
+    ).wireClass!;
+    expect(inUm).toEqual(inNm);
+    expect(validateWireClassRow({ ...record(ROW), width_nm: "0.018" }, 2, new Map([["width_nm", -6]])).wireClass!.widthM).toBe(
+      validateWireClassRow({ ...record(ROW), width_nm: "18" }, 2).wireClass!.widthM,
+    );
+    expect(validateWireClassRow({ ...record(ROW), width_nm: "0.018" }, 2, new Map([["width_nm", -6]])).wireClass!.widthM).toBe(1.8e-8);
+    // 1e-3 mm = 1 µm exactly; 317 nm = 0.317 µm exactly
+    expect(validateHistogramRow({ class: "a", length_um: "1e-3", count: "1" }, 2, -3).bin).toEqual({ lengthM: 1e-6, count: 1 });
+    expect(validateHistogramRow({ class: "a", length_um: "317", count: "1" }, 2, -9).bin).toEqual(
+      validateHistogramRow({ class: "a", length_um: "0.317", count: "1" }, 2).bin,
+    );
+    expect(
+      parseCell(
+        WIRE_CLASS_COLUMNS.find((c) => c.name === "width_nm")!,
+        "0.3",
+        -6,
+      ),
+    ).toEqual({ ok: true, value: 3e-7 });
+    // rules apply to the SI value, whatever the unit: 0 µm is still not > 0
+    expect(validateWireClassRow({ ...record(ROW), width_nm: "0" }, 4, new Map([["width_nm", -6]])).errors).toEqual([
+      { line: 4, column: "width_nm", value: "0", message: "must be > 0" },
+    ]);
   });
 });

@@ -121,15 +121,25 @@ export default function CsvHelpPage() {
           UTF-8 text. A byte-order mark (BOM) is accepted; other encodings and binary files (for example a workbook saved as .xlsx) are rejected — save as
           &quot;CSV UTF-8&quot;.
         </li>
+        <li id="units">
+          The unit is part of each column name. Another unit of the same kind is accepted and converted exactly — the decimal exponent is shifted, so{" "}
+          <code>0.018</code> in <code>width_um</code> is stored exactly as <code>18</code> in <code>width_nm</code>: every length column in pm, Å (angstrom),
+          nm, µm (um, micron), mm, cm or m (e.g. <code>width_um</code>, <code>width (µm)</code>, <code>mean_length_mm</code>, <code>length_nm</code>); the
+          resistances in Ω (ohm) or kΩ (kohm), e.g. <code>driver_kohm</code>; the load in aF, fF, pF, nF or F, e.g. <code>load_af</code>. Other units (
+          <code>width_mil</code>, the ambiguous <code>driver_mohm</code>) are rejected with &quot;did you mean width_nm? Give the values in nm.&quot;
+        </li>
         <li>
-          The first line is the header. Column names are matched ignoring case and surrounding spaces (a space inside may stand for the underscore), in any
-          order. Unknown columns, a column named twice and missing required columns are rejected, with the list of expected columns — everywhere the formats are
-          read: the upload, the preview in the browser and the command line (<code>npm run scaling -- evaluate --baseline classes.csv</code>) use one reader
-          with one set of rules, so a file gets the same verdict in each.
+          The first line is the header. Column names are matched ignoring case and surrounding spaces (a space inside may stand for the underscore, and the unit
+          may stand in parentheses or brackets: <code>width (nm)</code>), in any order. Unknown columns, a column named twice and missing required columns are
+          rejected, with the list of expected columns — everywhere the formats are read: the upload, the preview in the browser and the command line (
+          <code>npm run scaling -- evaluate --baseline classes.csv</code>) use one reader with one set of rules, so a file gets the same verdict in each.
         </li>
         <li>
           Commas separate fields; a semicolon is used instead when the header clearly uses semicolons (as spreadsheets in some locales save). Numbers always use
-          a decimal point: <code>2,7</code> is rejected with a hint.
+          a decimal point. A file written with decimal commas (<code>2,7</code> in a semicolon file, or a stray <code>2,7</code> that splits a comma-separated
+          row into one field too many) gets one message that says so, not an error per cell; the import preview offers{" "}
+          <strong>Convert to decimal points</strong>, which rewrites the file comma-separated with decimal points digit for digit (<code>1,550</code> →{" "}
+          <code>1.550</code>, nothing rounded), checks it again and uploads the converted file.
         </li>
         <li>
           Quoted fields (<code>&quot;a, b&quot;</code>, with <code>&quot;&quot;</code> for a quote), Windows (CRLF) or Unix line ends, blank lines and a
