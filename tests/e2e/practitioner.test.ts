@@ -136,7 +136,7 @@ describe("fit", () => {
     const settings = await page.getByRole("heading", { name: "Scale factors and options" }).evaluate((h) => h.getBoundingClientRect().top);
     expect(results).toBeLessThan(settings);
     // the scenario's name takes the whole row on a phone
-    const title = page.locator("input[name=scenario-name]");
+    const title = page.locator("[name=scenario-name]");
     expect(await title.evaluate((i) => i.scrollWidth <= i.clientWidth)).toBe(true);
     await page.screenshot({ path: `${SHOTS}/editor-390.png` });
     await page.context().close();
@@ -153,7 +153,7 @@ describe("fit", () => {
     const select = page.locator("select[name=pitch-class]");
     expect(await select.evaluate((s) => s.scrollWidth <= s.clientWidth + 1)).toBe(true);
     const long = "A long scenario name that a practitioner gives: 0.7x shrink, Ru on M0-M2, air gaps";
-    const title = page.locator("input[name=scenario-name]");
+    const title = page.locator("[name=scenario-name]");
     await title.fill(long);
     expect(await title.evaluate((i) => i.scrollWidth <= i.clientWidth)).toBe(true);
     await page.context().close();
