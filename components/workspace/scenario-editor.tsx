@@ -14,11 +14,9 @@ import { Caution } from "@/components/caution";
 import { Button } from "@/components/ui/button";
 import { Badge, Card, Notice } from "@/components/ui/card";
 import { inputClass } from "@/components/ui/field";
-import { ClassOverrides } from "./class-overrides";
 import { ResultsTable } from "./results-table";
-import { RevisionHistory } from "./revision-history";
 import { LEVEL_LABEL, SettingsPanel } from "./settings-panel";
-import { SweepPanel, type SweepView } from "./sweep-panel";
+import type { SweepView } from "./sweep-panel";
 import { fmt, U } from "./units";
 import { keyOf } from "./settings-key";
 import { useEvaluation, type EvaluationState } from "./use-evaluation";
@@ -37,6 +35,17 @@ const Distributions = dynamic(() => import("./result-charts").then((m) => m.Dist
 const FieldCheck = dynamic(() => import("./field-check").then((m) => m.FieldCheck), {
   ssr: false,
   loading: () => <p className="text-sm text-muted">Loading the field check…</p>,
+});
+// Also after the first paint (first-load JS, issue 13 item 14): the sweep (its curves come from the worker anyway),
+// the per-class overrides (collapsed unless a class has one) and the history (fetched by the browser).
+const SweepPanel = dynamic(() => import("./sweep-panel").then((m) => m.SweepPanel), { ssr: false, loading: chartSlot(330) });
+const ClassOverrides = dynamic(() => import("./class-overrides").then((m) => m.ClassOverrides), {
+  ssr: false,
+  loading: () => <p className="text-xs text-muted">Loading the overrides…</p>,
+});
+const RevisionHistory = dynamic(() => import("./revision-history").then((m) => m.RevisionHistory), {
+  ssr: false,
+  loading: () => <p className="text-xs text-muted">Loading history…</p>,
 });
 
 type Draft = { name: string; notes: string; settings: ScenarioSettings };
@@ -419,8 +428,8 @@ export function ScenarioEditor(props: {
               <p className="text-sm text-muted">Fix the settings to see the sweep.</p>
             )}
           </Card>
-          {/* below the fold: skipped by layout and paint while off-screen (content-visibility) */}
-          <div className="space-y-4 [contain-intrinsic-size:auto_900px] [content-visibility:auto]">
+          {/* layout and paint of the secondary charts stay inside this box (contain) */}
+          <div className="space-y-4 [contain:content]">
             {deferredEval ? <RatioCharts e={deferredEval} /> : null}
             {deferredEval ? <Distributions e={deferredEval} budgetS={baseline.technology.delayBudgetS} /> : null}
             <Card title="Field check">{fieldResults ? <FieldCheck results={fieldResults} /> : null}</Card>
