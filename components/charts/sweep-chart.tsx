@@ -1,6 +1,6 @@
 "use client";
-import { useMemo } from "react";
-import { Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart } from "@visx/xychart";
+import { createContext, memo, useContext, useMemo } from "react";
+import { Axis, DataContext, GlyphSeries, Grid, LineSeries, Tooltip, XYChart } from "@visx/xychart";
 import type { ModelLevel, SweepMetric, SweepPoint } from "@/lib/scaling";
 import { GridRowsAt, RefLine } from "./ref-line";
 import { CHART, LEVEL_STYLE, chartTheme, logTicks, scaleTicks, tick } from "./chart-theme";
@@ -39,20 +39,33 @@ const OUT_KEY = "outside:";
 const xAcc = (d: Datum) => d.x;
 const yAcc = (d: Datum) => d.y;
 
-/** A metric against the scale factor for one class, one curve per model level: where the copper curve flattens, scaling stops paying. */
-export function SweepChart({
+/** The scenario's S on the chart: read only by the marker layer, so moving S re-renders the line and dots, not the curves. */
+const MarkerContext = createContext<{ markerX?: number; markerDots: boolean }>({ markerDots: true });
+
+/**
+ * A metric against the scale factor for one class, one curve per model level: where the copper curve flattens, scaling stops paying.
+ * While S is dragged only the marker changes: the curves, axes and tooltip (a memoised body) are not rendered again.
+ */
+export function SweepChart({ markerX, markerDots = true, ...rest }: SweepChartProps) {
+  const marker = useMemo(() => ({ markerX, markerDots }), [markerX, markerDots]);
+  return (
+    <MarkerContext.Provider value={marker}>
+      <SweepChartBody {...rest} />
+    </MarkerContext.Provider>
+  );
+}
+
+const SweepChartBody = memo(function SweepChartBody({
   data,
   width,
   height,
   metric,
   xLabel = "S (cross-section factor)",
-  markerX,
-  markerDots = true,
   relative = false,
   logX = true,
   logY = true,
   legend = false,
-}: SweepChartProps) {
+}: Omit<SweepChartProps, "markerX" | "markerDots">) {
   const m = relative ? { ...SWEEP_METRIC[metric], unit: "×", scale: 1 } : SWEEP_METRIC[metric];
   const yLabel = relative ? `${m.label} ÷ value at S = 1` : `${m.label} (${m.unit})`;
   const unitLabel = m.unit;
@@ -97,8 +110,6 @@ export function SweepChart({
         }),
     [series],
   );
-  const marker = markerX !== undefined && markerX >= xDomain[0] && markerX <= xDomain[1] ? markerX : undefined;
-  const markerPoints = marker !== undefined && markerDots ? series.map((s) => nearest(s.points, marker)).filter((p): p is Datum => !!p) : [];
 
   return (
     <figure className="sweep-chart m-0" data-class={data.className}>
@@ -121,7 +132,7 @@ export function SweepChart({
         {yTicks ? <GridRowsAt values={yTicks} color={CHART.grid} /> : <Grid columns={false} numTicks={4} lineStyle={{ stroke: CHART.grid }} />}
         <Axis orientation="bottom" label={xLabel} tickValues={xTicks} tickFormat={(v) => tick(Number(v))} labelOffset={12} />
         <Axis orientation="left" label={yLabel} tickValues={yTicks} numTicks={4} tickFormat={(v) => tick(Number(v))} labelOffset={34} />
-        {marker !== undefined ? <RefLine x={marker} color={CHART.muted} dash="3 3" label={`S = ${tick(marker)}`} labelAt="top" /> : null}
+        <Marker series={series} xDomain={xDomain} />
         {outside.map((o) => (
           <LineSeries
             key={o.key}
@@ -156,16 +167,6 @@ export function SweepChart({
           colorAccessor={(d: Datum) => LEVEL_STYLE[d.level].color}
           renderGlyph={({ x, y, color }) => <path d={`M${x - 5},${y + 10}L${x + 5},${y + 10}L${x},${y + 3}Z`} fill={color} data-minimum="" />}
         />
-        {markerPoints.length > 0 ? (
-          <GlyphSeries
-            dataKey="Current scenario"
-            data={markerPoints}
-            xAccessor={xAcc}
-            yAccessor={yAcc}
-            colorAccessor={(d: Datum) => LEVEL_STYLE[d.level].color}
-            size={6}
-          />
-        ) : null}
         <Tooltip<Datum>
           snapTooltipToDatumX
           showVerticalCrosshair
@@ -185,7 +186,7 @@ export function SweepChart({
                   {data.className} at S = {tick(near.x)}
                 </div>
                 {Object.entries(tooltipData?.datumByKey ?? {})
-                  .filter(([k]) => k !== "Current scenario" && k !== "Minimum" && !k.startsWith(OUT_KEY))
+                  .filter(([k]) => k !== "Minimum" && !k.startsWith(OUT_KEY))
                   .map(([k, v]) => (
                     <div key={k} className="flex justify-between gap-3">
                       <span style={{ color: LEVEL_STYLE[(v.datum as Datum).level].color }}>{k}</span>
@@ -212,6 +213,26 @@ export function SweepChart({
       </p>
       {legend ? <LevelLegend outsideRange={outside.length > 0} /> : null}
     </figure>
+  );
+});
+
+/** The scenario's S: a dashed line and (markerDots) a dot on each curve at the nearest sample, drawn with the chart's scales. */
+function Marker({ series, xDomain }: { series: { level: ModelLevel; points: Datum[] }[]; xDomain: [number, number] }) {
+  const { markerX, markerDots } = useContext(MarkerContext);
+  const { xScale, yScale } = useContext(DataContext);
+  if (markerX === undefined || markerX < xDomain[0] || markerX > xDomain[1] || !xScale || !yScale) return null;
+  const dots = markerDots ? series.map((s) => nearest(s.points, markerX)).filter((p): p is Datum => !!p) : [];
+  return (
+    <>
+      <RefLine x={markerX} color={CHART.muted} dash="3 3" label={`S = ${tick(markerX)}`} labelAt="top" />
+      <g data-testid="current-scenario">
+        {dots.map((d) => {
+          const cx = Number(xScale(d.x as never));
+          const cy = Number(yScale(d.y as never));
+          return Number.isFinite(cx) && Number.isFinite(cy) ? <circle key={d.level} cx={cx} cy={cy} r={3} fill={LEVEL_STYLE[d.level].color} /> : null;
+        })}
+      </g>
+    </>
   );
 }
 

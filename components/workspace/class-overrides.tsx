@@ -1,5 +1,5 @@
 "use client";
-import { useState } from "react";
+import { memo, useState } from "react";
 import { METALS, ownEntry, type AirGap, type ClassOverride, type ScenarioSettings, type WireClass } from "@/lib/scaling/client";
 import { inputClass } from "@/components/ui/field";
 import { DEFAULT_AIR_GAP, DielectricField, gapFractionCheck, kGapCheck } from "./settings-panel";
@@ -14,27 +14,33 @@ const CHECK: Record<NumKey, (v: number) => string | undefined> = {
   barrierM: (v) => (v < 0 ? "Barrier must not be negative." : v > 1e-6 ? "Barrier must be at most 1 µm." : undefined),
 };
 
-/** Per-class overrides of the global settings; an empty cell inherits. */
-export function ClassOverrides({
-  settings,
-  onChange,
+/**
+ * Per-class overrides of the global settings; an empty cell inherits. Memoised on the overrides and the global k: a drag
+ * of S or another global setting does not render its inputs again.
+ */
+export const ClassOverrides = memo(function ClassOverrides({
+  overrides: current,
+  globalK,
+  onOverrides,
   classes,
   readOnly,
   errors,
 }: {
-  settings: ScenarioSettings;
-  onChange: (s: ScenarioSettings) => void;
+  overrides: ScenarioSettings["overrides"];
+  globalK: ScenarioSettings["k"];
+  /** The new overrides (the rest of the settings unchanged). */
+  onOverrides: (o: ScenarioSettings["overrides"]) => void;
   classes: WireClass[];
   readOnly: boolean;
   errors: Record<string, string[]>;
 }) {
   const setO = (name: string, patch: Partial<ClassOverride>) => {
-    const next: ClassOverride = { ...(ownEntry(settings.overrides, name) ?? {}), ...patch };
+    const next: ClassOverride = { ...(ownEntry(current, name) ?? {}), ...patch };
     for (const k of Object.keys(next) as (keyof ClassOverride)[]) if (next[k] === undefined) delete next[k];
-    const overrides = { ...settings.overrides };
+    const overrides = { ...current };
     if (Object.keys(next).length === 0) delete overrides[name];
     else overrides[name] = next;
-    onChange({ ...settings, overrides });
+    onOverrides(overrides);
   };
   const show = (v: unknown) => (v === undefined ? <span className="text-faint">—</span> : String(v));
   return (
@@ -62,7 +68,7 @@ export function ClassOverrides({
         </thead>
         <tbody>
           {classes.map((c) => {
-            const o = ownEntry(settings.overrides, c.name) ?? {};
+            const o = ownEntry(current, c.name) ?? {};
             const e = (k: string) => errors[`settings.overrides.${c.name}.${k}`];
             if (readOnly)
               return (
@@ -159,7 +165,7 @@ export function ClassOverrides({
                   <AirGapOverride
                     name={c.name}
                     value={o.airGap}
-                    classK={o.k ?? settings.k ?? c.k}
+                    classK={o.k ?? globalK ?? c.k}
                     onChange={(airGap) => setO(c.name, { airGap })}
                     errors={e("airGap")}
                     fieldErrors={(k) => e(`airGap.${k}`)}
@@ -177,7 +183,7 @@ export function ClassOverrides({
       </p>
     </div>
   );
-}
+});
 
 const num = (v: number) => String(Number(v.toPrecision(6)));
 function showGap(g: AirGap | null | undefined) {

@@ -1,5 +1,5 @@
 "use client";
-import { useState } from "react";
+import { memo, useState } from "react";
 import type { ClassComparison, ClassResult, Evaluation } from "@/lib/scaling";
 import { countChange } from "@/lib/figures";
 import { fmt, fmtRatio, U } from "./units";
@@ -142,14 +142,17 @@ function tone(r: number): string {
   return "text-muted";
 }
 
-/** Baseline vs scenario per class, ratio row highlighted, validity flags and model accuracy beside the figures. */
-export function ResultsTable({ evaluation, dataKey }: { evaluation: Evaluation; dataKey?: string }) {
+/**
+ * Baseline vs scenario per class, ratio row highlighted, validity flags and model accuracy beside the figures. Memoised:
+ * it renders again only when a new evaluation arrives (not on every keystroke or slider step before it).
+ */
+export const ResultsTable = memo(function ResultsTable({ evaluation, dataKey }: { evaluation: Evaluation; dataKey?: string }) {
   // One operating temperature per evaluation (the baseline's technology): resistance is at it.
   const temperatureC = evaluation.classes[0]?.scenario.temperatureC;
   const [all, setAll] = useState(false);
   const cell = (c: Col) => (c.detail && !all ? "hidden xl:table-cell" : "");
   return (
-    <div className="overflow-x-auto" data-results-key={dataKey}>
+    <div data-results-key={dataKey}>
       <button
         type="button"
         className="no-print mb-1 text-[11px] text-copper-dark hover:underline xl:hidden"
@@ -159,32 +162,114 @@ export function ResultsTable({ evaluation, dataKey }: { evaluation: Evaluation; 
       >
         {all ? "Key columns only" : "Show all columns (capacitance parts, repeater size, area and power)"}
       </button>
-      <table className="num w-full border-collapse text-xs" data-testid="results-table">
-        <caption className="sr-only">Results per wire class: baseline, scenario and scenario/baseline ratio</caption>
-        <thead>
-          <tr className="border-b border-rule-strong text-muted">
-            <th scope="col" className="sticky left-0 z-10 bg-panel py-1.5 pr-2 text-left font-medium">
-              Class
-            </th>
-            <th scope="col" className="pr-2 text-left font-medium" />
-            {COLS.map((c) => (
-              <th key={c.key} scope="col" className={`px-1.5 text-right font-medium ${cell(c)}`} title={c.title}>
-                {c.label}
-                {c.unit ? <span className="block text-[10px] font-normal text-faint">{c.unit}</span> : <span className="block text-[10px]">&nbsp;</span>}
-                {c.key === "r" && temperatureC !== undefined ? (
-                  <span className="block whitespace-nowrap text-[10px] font-normal text-faint" data-testid="r-temperature">
-                    at {fmt(temperatureC, U.none)} °C
-                  </span>
-                ) : null}
+      {/* Phones (below 640 px): one card per class with the key columns, no sideways scrolling; the whole table on request. */}
+      <div className={all ? "hidden" : "space-y-2 sm:hidden"} data-testid="result-cards">
+        {evaluation.classes.map((cc) => (
+          <ClassCard key={cc.name} cc={cc} />
+        ))}
+      </div>
+      <div className={`overflow-x-auto ${all ? "" : "hidden sm:block"}`}>
+        <table className="num w-full border-collapse text-xs" data-testid="results-table">
+          <caption className="sr-only">Results per wire class: baseline, scenario and scenario/baseline ratio</caption>
+          <thead>
+            <tr className="border-b border-rule-strong text-muted">
+              <th scope="col" className="sticky left-0 z-10 bg-panel py-1.5 pr-2 text-left font-medium">
+                Class
               </th>
-            ))}
+              <th scope="col" className="pr-2 text-left font-medium" />
+              {COLS.map((c) => (
+                <th key={c.key} scope="col" className={`px-1.5 text-right font-medium ${cell(c)}`} title={c.title}>
+                  {c.label}
+                  {c.unit ? <span className="block text-[10px] font-normal text-faint">{c.unit}</span> : <span className="block text-[10px]">&nbsp;</span>}
+                  {c.key === "r" && temperatureC !== undefined ? (
+                    <span className="block whitespace-nowrap text-[10px] font-normal text-faint" data-testid="r-temperature">
+                      at {fmt(temperatureC, U.none)} °C
+                    </span>
+                  ) : null}
+                </th>
+              ))}
+            </tr>
+          </thead>
+          {evaluation.classes.map((cc) => (
+            <ClassRows key={cc.name} cc={cc} cell={cell} />
+          ))}
+        </table>
+      </div>
+    </div>
+  );
+});
+
+/** The key columns of a phone's card: R, C, delay and repeaters (the class is the card's heading). */
+const CARD_COLS = ["r", "c", "d", "n"].map((k) => COLS.find((c) => c.key === k)!);
+
+/** One class on a phone: baseline, scenario and the change of each key figure, in a grid that fits 390 px. */
+function ClassCard({ cc }: { cc: ClassComparison }) {
+  const s = cc.scenario;
+  const flags = s.validity;
+  return (
+    <section className="rounded border border-rule px-2 py-1.5 text-xs" data-class={cc.name} data-testid="result-card">
+      <h3 className="font-semibold text-ink">
+        {cc.name}{" "}
+        <span className="font-normal text-muted">
+          {s.tier !== cc.name ? `${s.tier} · ` : ""}
+          {fmt(s.pitchM, U.nm, 3)} nm pitch · {fmt(s.lengthM, U.um, 3)} µm
+        </span>
+      </h3>
+      <table className="num mt-1 w-full border-collapse">
+        <caption className="sr-only">{cc.name}: baseline, scenario and change of the key figures</caption>
+        <thead>
+          <tr className="text-[10px] text-faint">
+            <th scope="col" className="text-left font-normal" />
+            <th scope="col" className="px-1 text-right font-normal">
+              Baseline
+            </th>
+            <th scope="col" className="px-1 text-right font-normal">
+              Scenario
+            </th>
+            <th scope="col" className="pl-1 text-right font-normal">
+              Change
+            </th>
           </tr>
         </thead>
-        {evaluation.classes.map((cc) => (
-          <ClassRows key={cc.name} cc={cc} cell={cell} />
-        ))}
+        <tbody>
+          {CARD_COLS.map((c) => {
+            const r = c.ratio?.(cc);
+            const d = c.change?.(cc);
+            return (
+              <tr key={c.key} className="border-t border-rule/60" title={c.title}>
+                <th scope="row" className="py-0.5 pr-1 text-left font-medium text-muted">
+                  {c.label} <span className="text-[10px] font-normal text-faint">{c.unit}</span>
+                </th>
+                <td className="tabular px-1 text-right text-muted">{show(c.get(cc.baseline))}</td>
+                <td className="tabular px-1 text-right font-medium text-ink" data-card-col={c.key}>
+                  {show(c.get(s))}
+                </td>
+                <td className="pl-1 text-right">
+                  {r !== undefined ? <span className={`tabular rounded px-1 ${tone(r)}`}>{fmtRatio(r)}</span> : null}
+                  {d !== undefined ? (
+                    <span
+                      className={`tabular rounded px-1 ${d === "±0" ? "text-muted" : d.startsWith("+") ? "bg-bad-soft text-bad" : "bg-good-soft text-good"}`}
+                    >
+                      {d}
+                    </span>
+                  ) : null}
+                </td>
+              </tr>
+            );
+          })}
+        </tbody>
       </table>
-    </div>
+      {flags.length ? (
+        <ul className="mt-1 text-[11px] leading-snug text-warn">
+          {flags.map((f, i) => (
+            <li key={i}>
+              ⚠ {f.message} <span className="text-muted">({f.model})</span>
+            </li>
+          ))}
+        </ul>
+      ) : null}
+      {s.airGap ? <AirGapLine r={s} testId="card-effective-k" /> : null}
+    </section>
   );
 }
 
@@ -279,11 +364,11 @@ function ClassRows({ cc, cell }: { cc: ClassComparison; cell: (c: Col) => string
 }
 
 /** An air-gapped class: its gap, and the one uniform k that would give the same C at Miller 0, 1 and 2 (derived). */
-function AirGapLine({ r }: { r: ClassResult }) {
+function AirGapLine({ r, testId = "effective-k" }: { r: ClassResult; testId?: string }) {
   const gap = r.airGap!;
   const eff = r.capacitance.effectiveK;
   return (
-    <p className="mt-0.5 text-ink" data-testid="effective-k">
+    <p className="mt-0.5 text-ink" data-testid={testId}>
       Air gap between the lines: k<sub>gap</sub> {fmt(gap.kGap, U.none, 3)} over {fmt(100 * gap.gapFraction, U.none, 3)}% of the thickness, ILD k{" "}
       {fmt(r.k, U.none, 3)} → effective k{" "}
       <span className="tabular font-medium">

@@ -2,7 +2,7 @@
 import Link from "next/link";
 import { useRouter } from "next/navigation";
 import dynamic from "next/dynamic";
-import { useCallback, useDeferredValue, useMemo, useState } from "react";
+import { memo, useCallback, useDeferredValue, useEffect, useMemo, useState } from "react";
 import useSWR from "swr";
 import type { BaselineWithClasses } from "@/db/queries/baselines";
 import type { Role } from "@/lib/access";
@@ -14,11 +14,9 @@ import { Caution } from "@/components/caution";
 import { Button } from "@/components/ui/button";
 import { Badge, Card, Notice } from "@/components/ui/card";
 import { inputClass } from "@/components/ui/field";
-import { ClassOverrides } from "./class-overrides";
 import { ResultsTable } from "./results-table";
-import { RevisionHistory } from "./revision-history";
 import { LEVEL_LABEL, SettingsPanel } from "./settings-panel";
-import { SweepPanel, type SweepView } from "./sweep-panel";
+import type { SweepView } from "./sweep-panel";
 import { fmt, U } from "./units";
 import { keyOf } from "./settings-key";
 import { useEvaluation, type EvaluationState } from "./use-evaluation";
@@ -38,8 +36,33 @@ const FieldCheck = dynamic(() => import("./field-check").then((m) => m.FieldChec
   ssr: false,
   loading: () => <p className="text-sm text-muted">Loading the field check…</p>,
 });
+// Also after the first paint (first-load JS, issue 13 item 14): the sweep (its curves come from the worker anyway),
+// the per-class overrides (collapsed unless a class has one) and the history (fetched by the browser).
+const SweepPanel = dynamic(() => import("./sweep-panel").then((m) => m.SweepPanel), { ssr: false, loading: chartSlot(330) });
+const ClassOverrides = dynamic(() => import("./class-overrides").then((m) => m.ClassOverrides), {
+  ssr: false,
+  loading: () => <p className="text-xs text-muted">Loading the overrides…</p>,
+});
+const RevisionHistory = dynamic(() => import("./revision-history").then((m) => m.RevisionHistory), {
+  ssr: false,
+  loading: () => <p className="text-xs text-muted">Loading history…</p>,
+});
 
 type Draft = { name: string; notes: string; settings: ScenarioSettings };
+
+/** How long an evaluation must stay the newest before the secondary charts show it (a drag's steps come faster). */
+const SETTLE_MS = 200;
+
+/** `value` once it has been the newest for `ms` (the first value at once). */
+function useSettled<T>(value: T, ms: number): T {
+  const [settled, setSettled] = useState(value);
+  useEffect(() => {
+    if (Object.is(value, settled)) return;
+    const t = setTimeout(() => setSettled(value), ms);
+    return () => clearTimeout(t);
+  }, [value, settled, ms]);
+  return settled;
+}
 
 export function ScenarioEditor(props: {
   teamId: string;
@@ -202,10 +225,14 @@ export function ScenarioEditor(props: {
     for (const [k, v] of Object.entries(explained.fields)) out[k] = [...(out[k] ?? []), ...v];
     return out;
   }, [explained, fieldErrors]);
-  const setSettings = (settings: ScenarioSettings) => setDraft((d) => ({ ...d, settings }));
+  const setSettings = useCallback((settings: ScenarioSettings) => setDraft((d) => ({ ...d, settings })), []);
+  const setOverrides = useCallback((overrides: ScenarioSettings["overrides"]) => setDraft((d) => ({ ...d, settings: { ...d.settings, overrides } })), []);
   const evaluation = evalResult.ok ? evalResult.e : null;
-  // The table is urgent; the secondary charts follow when the main thread is free (a slider drag stays smooth).
-  const deferredEval = useDeferredValue(evaluation);
+  // The table and the sweep are urgent; the secondary charts (ratios, distributions, field check) follow once the
+  // hand rests (SETTLE_MS without a new evaluation), then when the main thread is free: a slider drag renders and
+  // paints only what it must (issue 13, item 14; `npm run bench:ui`).
+  const deferredEval = useDeferredValue(useSettled(evaluation, SETTLE_MS));
+  const fieldResults = useMemo(() => deferredEval?.classes.map((c) => c.scenario), [deferredEval]);
   const s = draft.settings;
   const canDelete = role === "owner" || (role === "editor" && scenario.createdBy === props.userId);
 
@@ -234,12 +261,17 @@ export function ScenarioEditor(props: {
           ) : (
             <label className="mt-1 block">
               <span className="sr-only">Scenario name</span>
-              <input
-                className="w-full min-w-0 rounded border border-transparent bg-transparent px-1 text-xl font-semibold text-ink hover:border-rule focus:border-copper focus:outline-none"
+              {/* a one-line name that wraps instead of being cut (a phone's 390 px): grows with its text, Enter adds no line */}
+              <textarea
+                className="field-sizing-content block w-full min-w-0 resize-none rounded border border-transparent bg-transparent px-1 text-xl font-semibold text-ink hover:border-rule focus:border-copper focus:outline-none"
+                rows={1}
                 title={draft.name}
                 value={draft.name}
                 name="scenario-name"
-                onChange={(e) => setDraft((d) => ({ ...d, name: e.target.value }))}
+                onKeyDown={(e) => {
+                  if (e.key === "Enter") e.preventDefault();
+                }}
+                onChange={(e) => setDraft((d) => ({ ...d, name: e.target.value.replace(/[\r\n]+/g, " ") }))}
                 aria-invalid={fieldErrors.name ? true : undefined}
               />
               {fieldErrors.name ? <span className="text-xs text-bad">{fieldErrors.name.join(" ")}</span> : null}
@@ -301,7 +333,7 @@ export function ScenarioEditor(props: {
       {/* On a phone the results come first, then the settings (visual order; the links above jump to each part) */}
       <div className="grid gap-4 lg:grid-cols-[19rem_minmax(0,1fr)]">
         <aside id="settings" className="order-2 space-y-4 lg:order-1">
-          <Card title="Scale factors and options">
+          <Card title="Scale factors and options" className="[contain:content]">
             {readOnly ? <ReadOnlySettings settings={s} /> : <SettingsPanel settings={s} onChange={setSettings} classes={classes} errors={shownErrors} />}
           </Card>
           <Card title="Notes">
@@ -341,6 +373,7 @@ export function ScenarioEditor(props: {
         <div className="order-1 min-w-0 space-y-4 lg:order-2">
           <div id="results" className="scroll-mt-16" />
           <Card
+            className="[contain:content]"
             title={`Results — ${LEVEL_LABEL[s.level]}`}
             actions={
               <span className="flex items-center gap-3 text-xs text-muted">
@@ -369,7 +402,7 @@ export function ScenarioEditor(props: {
             )}
             <Caution className="mt-3" />
           </Card>
-          <Card title="Per-class overrides">
+          <Card title="Per-class overrides" className="[contain:content]">
             {/* collapsed while no class has an override (one summary tab stop instead of 56 inputs before the sweep) */}
             <details
               id="overrides"
@@ -383,24 +416,27 @@ export function ScenarioEditor(props: {
                   : `${Object.keys(s.overrides).length} class${Object.keys(s.overrides).length === 1 ? "" : "es"} with overrides: ${Object.keys(s.overrides).join(", ")}`}
               </summary>
               <div className="mt-2">
-                <ClassOverrides settings={s} onChange={setSettings} classes={classes} readOnly={readOnly} errors={shownErrors} />
+                <ClassOverrides overrides={s.overrides} globalK={s.k} onOverrides={setOverrides} classes={classes} readOnly={readOnly} errors={shownErrors} />
               </div>
             </details>
           </Card>
           <div id="sweep" className="scroll-mt-16" tabIndex={-1} />
-          <Card title="Sweep — metric against S">
+          <Card title="Sweep — metric against S" className="[contain:content]">
             {evaluation ? (
               <SweepPanel classes={classes} technology={baseline.technology} settings={s} view={view} onView={setView} settingsKey={settingsKey} />
             ) : (
               <p className="text-sm text-muted">Fix the settings to see the sweep.</p>
             )}
           </Card>
-          {deferredEval ? <RatioCharts e={deferredEval} /> : null}
-          {deferredEval ? <Distributions e={deferredEval} budgetS={baseline.technology.delayBudgetS} /> : null}
-          <Card title="Field check">{deferredEval ? <FieldCheck results={deferredEval.classes.map((c) => c.scenario)} /> : null}</Card>
-          <Card title="History">
-            <RevisionHistory scenarioId={scenario.id} currentVersion={scenario.version} canRestore={!readOnly} onRestore={restore} busy={busy} />
-          </Card>
+          {/* layout and paint of the secondary charts stay inside this box (contain) */}
+          <div className="space-y-4 [contain:content]">
+            {deferredEval ? <RatioCharts e={deferredEval} /> : null}
+            {deferredEval ? <Distributions e={deferredEval} budgetS={baseline.technology.delayBudgetS} /> : null}
+            <Card title="Field check">{fieldResults ? <FieldCheck results={fieldResults} /> : null}</Card>
+            <Card title="History">
+              <RevisionHistory scenarioId={scenario.id} currentVersion={scenario.version} canRestore={!readOnly} onRestore={restore} busy={busy} />
+            </Card>
+          </div>
         </div>
       </div>
     </div>
@@ -408,7 +444,7 @@ export function ScenarioEditor(props: {
 }
 
 /** The headline figures, with the report's definitions (lib/figures.ts): worst-class delay, inserted repeaters, power. */
-function Totals({ e }: { e: Evaluation }) {
+const Totals = memo(function Totals({ e }: { e: Evaluation }) {
   const b = e.totals.baseline;
   const s = e.totals.scenario;
   const wb = worstClassDelay(e.classes.map((c) => c.baseline));
@@ -445,7 +481,7 @@ function Totals({ e }: { e: Evaluation }) {
       })}
     </dl>
   );
-}
+});
 
 function ReadOnlySettings({ settings: s }: { settings: ScenarioSettings }) {
   const n = (v: number) => String(Number(v.toPrecision(6)));

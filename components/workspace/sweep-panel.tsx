@@ -2,13 +2,15 @@
 import dynamic from "next/dynamic";
 import { useEffect, useMemo, useRef, useState } from "react";
 import { ownEntry } from "@/lib/scaling/client";
-import { type ModelLevel, type ScenarioSettings, type SweepCurve, type SweepMetric, type SweepPoint, type Technology, type WireClass } from "@/lib/scaling";
+import type { ModelLevel, ScenarioSettings, SweepCurve, SweepMetric, SweepPoint, Technology, WireClass } from "@/lib/scaling";
+import type { SweepChartData } from "@/components/charts/sweep-chart";
 import { LevelLegend, SWEEP_METRIC } from "@/components/charts/sweep-meta";
 import { inputClass } from "@/components/ui/field";
 import { explainEngineError } from "@/lib/workspace/engine-errors";
 import { readSweep, type SweepReading } from "@/lib/workspace/sweep-reading";
 import { SWEEP_LENGTHS, type SweepLength, type SweepScale } from "@/lib/workspace/sweep-view";
 import { EngineWorker, Superseded } from "./engine-client";
+import { keyOf } from "./settings-key";
 import { useWidth } from "./use-width";
 
 // visx is loaded only in the browser, after the first paint: the table and the controls come without it.
@@ -62,7 +64,11 @@ export function SweepPanel({
   const [ref, width] = useWidth<HTMLDivElement>(800);
   const selected = view.classes.length ? view.classes.filter((n) => classes.some((c) => c.name === n)) : classes.slice(0, 4).map((c) => c.name);
   const rangeOk = view.from > 0 && view.to > view.from;
-  const key = `${settingsKey}|${view.metric}|${view.from}|${view.to}|${view.length}|${selected.join(",")}`;
+  // The curves do not depend on the scenario's S (the sweep sets S, and per-class S overrides, at every point): a new S
+  // only moves the marker, so dragging S recomputes nothing and the charts follow the hand in the same frame.
+  const curveSettings = useMemo(() => withoutS(settings), [settings]);
+  const curveKey = keyOf(curveSettings);
+  const key = `${curveKey}|${view.metric}|${view.from}|${view.to}|${view.length}|${selected.join(",")}`;
 
   useEffect(() => () => worker.current?.terminate(), []);
   useEffect(() => {
@@ -73,7 +79,7 @@ export function SweepPanel({
       .sweepWithReference({
         classes,
         technology,
-        settings,
+        settings: curveSettings,
         variable: "s",
         metric: view.metric,
         from: view.from,
@@ -132,15 +138,23 @@ export function SweepPanel({
   const relative = view.scale === "relative";
   // any drawn point where a model is outside its validity range (engine 2 flags every sweep point)
   const anyOutside = selected.some((n) => byClass.get(n)?.curves.some((c) => c.points.some((p) => (p.flags?.length ?? 0) > 0)));
-  const chartData = (d: ClassCurves) =>
-    relative
-      ? {
-          className: d.className,
-          curves: d.curves
-            .filter((c) => (d.at1[c.level] ?? 0) > 0)
-            .map((c) => ({ level: c.level, points: c.points.map((p) => ({ ...p, y: p.y / d.at1[c.level]! })) })),
-        }
-      : d;
+  // one object per class and curves (the charts are memoised: a new S must not hand them new data)
+  const chartData = useMemo(() => {
+    const m = new Map<string, SweepChartData>();
+    for (const [n, d] of byClass)
+      m.set(
+        n,
+        relative
+          ? {
+              className: d.className,
+              curves: d.curves
+                .filter((c) => (d.at1[c.level] ?? 0) > 0)
+                .map((c) => ({ level: c.level, points: c.points.map((p) => ({ ...p, y: p.y / d.at1[c.level]! })) })),
+            }
+          : d,
+      );
+    return m;
+  }, [byClass, relative]);
   // Dots on the curves only where they are this scenario's own (same S_L rule); otherwise just a line at its S.
   const dotsFor = (n: string) => {
     const sL = ownEntry(settings.overrides, n)?.sL ?? settings.sL;
@@ -223,11 +237,11 @@ export function SweepPanel({
       <div ref={ref} className="w-full" data-sweep-key={curves?.key === key ? settingsKey : "pending"} data-testid="sweep">
         <div className="grid gap-4" style={{ gridTemplateColumns: `repeat(${cols}, minmax(0, 1fr))` }}>
           {selected.map((n) => {
-            const d = byClass.get(n);
+            const d = chartData.get(n);
             return d ? (
               <SweepChart
                 key={n}
-                data={chartData(d)}
+                data={d}
                 width={chartW}
                 height={220}
                 metric={view.metric}
@@ -265,6 +279,16 @@ export function SweepPanel({
       </div>
     </div>
   );
+}
+
+/** The settings a sweep of S depends on: S itself (global and per class) left out. */
+function withoutS(s: ScenarioSettings): ScenarioSettings {
+  const overrides: ScenarioSettings["overrides"] = {};
+  for (const [n, o] of Object.entries(s.overrides)) {
+    const { s: _s, ...rest } = o;
+    overrides[n] = rest;
+  }
+  return { ...s, s: 1, overrides };
 }
 
 function RangeInput({ label, value, onChange }: { label: string; value: number; onChange: (v: number) => void }) {

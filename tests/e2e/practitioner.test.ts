@@ -10,6 +10,8 @@ import { type Client, userWithTeam } from "../helpers/http";
 // Issue 13 items 3, 10, 11, 12: the practitioner's path in the browser (S < 1 hint, keyboard, fit at 1024 px, fields whole).
 
 const SHOTS = process.env.PLATEAU_SHOTS_DIR ?? "/tmp/plateau-practitioner-shots";
+// the phone and laptop views of the results (issue 13, item 10), looked at by people
+const LIVE_SHOTS = process.env.PLATEAU_LIVE_SHOTS_DIR ?? "/tmp/live-shots";
 let browser: Browser;
 let baseUrl: string;
 let owner: { client: Client; teamId: string; userId: string };
@@ -39,7 +41,8 @@ async function editor(width: number, scenario = 0): Promise<Page> {
   const ctx = await signedInContext(browser, owner.client, baseUrl, { width, height: 900 });
   const page = await ctx.newPage();
   await page.goto(`${baseUrl}/teams/${owner.teamId}/scenarios/${scenarioIds[scenario]}`);
-  await page.getByTestId("results-table").waitFor();
+  // attached, not visible: on a phone the table is hidden behind the per-class cards
+  await page.getByTestId("results-table").waitFor({ state: "attached" });
   return page;
 }
 
@@ -115,6 +118,11 @@ describe("fit", () => {
   it("at 1024 px the results table's key columns and the report's table need no sideways scrolling (item 10)", async () => {
     const page = await editor(1024, 1);
     await page.screenshot({ path: `${SHOTS}/editor-1024.png`, fullPage: true });
+    fs.mkdirSync(LIVE_SHOTS, { recursive: true });
+    await page.screenshot({ path: `${LIVE_SHOTS}/editor-1024-full.png`, fullPage: true });
+    await page.screenshot({ path: `${LIVE_SHOTS}/editor-1024.png` });
+    // no phone cards at 1024 px: the table
+    expect(await page.getByTestId("result-cards").isVisible()).toBe(false);
     const table = page.getByTestId("results-table");
     const fits = await table.evaluate((t) => ({ table: t.scrollWidth, box: t.parentElement!.clientWidth }));
     expect(fits.table).toBeLessThanOrEqual(fits.box);
@@ -130,15 +138,55 @@ describe("fit", () => {
     await page.context().close();
   });
 
-  it("at 390 px the results come before the settings (item 10)", async () => {
-    const page = await editor(390);
-    const results = await page.getByTestId("results-table").evaluate((t) => t.getBoundingClientRect().top);
+  it("at 390 px the results come before the settings, the key columns need no sideways scrolling and the demo's long name shows whole (item 10)", async () => {
+    // the demo's air-gap scenario: the longest demo name ("0.7× shrink + air gaps on intermediate")
+    const page = await editor(390, 1);
+    const cards = page.getByTestId("result-cards");
+    const results = await cards.evaluate((t) => t.getBoundingClientRect().top);
     const settings = await page.getByRole("heading", { name: "Scale factors and options" }).evaluate((h) => h.getBoundingClientRect().top);
     expect(results).toBeLessThan(settings);
-    // the scenario's name takes the whole row on a phone
-    const title = page.locator("input[name=scenario-name]");
-    expect(await title.evaluate((i) => i.scrollWidth <= i.clientWidth)).toBe(true);
+    // nothing on the page scrolls sideways
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+    // one card per class, each with class, R, C, delay and repeaters visible inside the window
+    expect(await cards.locator("[data-testid=result-card]").count()).toBe(4);
+    for (const name of ["local", "intermediate", "semi-global", "global"]) {
+      const card = cards.locator(`[data-testid=result-card][data-class="${name}"]`);
+      expect(await card.locator("h3").innerText()).toContain(name);
+      for (const col of ["r", "c", "d", "n"]) {
+        const cell = card.locator(`td[data-card-col=${col}]`);
+        expect(await cell.isVisible()).toBe(true);
+        const box = (await cell.boundingBox())!;
+        expect(box.x).toBeGreaterThanOrEqual(0);
+        expect(box.x + box.width).toBeLessThanOrEqual(390);
+        expect((await cell.innerText()).trim()).toMatch(/^-?[\d.]+(e-?\d+)?$/);
+      }
+    }
+    // the card shows the table's figures (the wide table is hidden on a phone, there on request)
+    const d = await cards.locator('[data-class="intermediate"] td[data-card-col=d]').innerText();
+    expect(await page.getByTestId("results-table").isVisible()).toBe(false);
+    await page.getByTestId("all-columns").click();
+    expect(await page.getByTestId("results-table").isVisible()).toBe(true);
+    // the table's cell adds the accuracy mark (±)
+    expect(await page.locator('tbody[data-class="intermediate"] td[data-col=d]').innerText()).toBe(`${d}±`);
+    expect(await cards.isVisible()).toBe(false);
+    await page.getByTestId("all-columns").click();
+    // the scenario's name wraps inside its box instead of being cut off
+    const title = page.locator("[name=scenario-name]");
+    expect(await title.inputValue()).toBe("0.7× shrink + air gaps on intermediate");
+    const fit = await title.evaluate((t) => ({
+      w: t.scrollWidth <= t.clientWidth,
+      h: t.scrollHeight <= t.clientHeight + 1,
+      right: t.getBoundingClientRect().right,
+    }));
+    expect(fit).toEqual({ w: true, h: true, right: expect.any(Number) });
+    expect(fit.right).toBeLessThanOrEqual(390);
+    fs.mkdirSync(LIVE_SHOTS, { recursive: true });
     await page.screenshot({ path: `${SHOTS}/editor-390.png` });
+    await page.screenshot({ path: `${LIVE_SHOTS}/editor-390-full.png`, fullPage: true });
+    await page.evaluate(() => window.scrollTo(0, 0));
+    await page.screenshot({ path: `${LIVE_SHOTS}/editor-390.png` });
+    await cards.locator('[data-class="semi-global"]').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: `${LIVE_SHOTS}/editor-390-cards.png` });
     await page.context().close();
   });
 
@@ -153,7 +201,7 @@ describe("fit", () => {
     const select = page.locator("select[name=pitch-class]");
     expect(await select.evaluate((s) => s.scrollWidth <= s.clientWidth + 1)).toBe(true);
     const long = "A long scenario name that a practitioner gives: 0.7x shrink, Ru on M0-M2, air gaps";
-    const title = page.locator("input[name=scenario-name]");
+    const title = page.locator("[name=scenario-name]");
     await title.fill(long);
     expect(await title.evaluate((i) => i.scrollWidth <= i.clientWidth)).toBe(true);
     await page.context().close();

@@ -310,7 +310,7 @@ describe("scenario editor in the browser", () => {
       "[data-testid=s-slider]",
       "input[name=s]",
       "textarea",
-      "input[name=scenario-name]",
+      "[name=scenario-name]",
       "button:has-text('Delete')",
       "button:has-text('Restore')",
     ]) {
