@@ -2,6 +2,24 @@ import { inject } from "vitest";
 import { openTestDb } from "./db-file";
 
 /**
+ * fetch, sent once more when a pooled keep-alive connection turns out to have been closed by the server before any
+ * answer (undici "other side closed", UND_ERR_SOCKET). A synchronous read of the whole test database (db-file.ts
+ * `snapshot()`, better-sqlite3) can block the test process's event loop for seconds on a busy machine; the server's
+ * 5 s keep-alive timeout then ends the idle socket while the client still counts it as open. The server never read
+ * that request (Node does not close a connection with a request in progress), so sending it again is safe. Streamed
+ * bodies cannot be replayed and are not retried.
+ */
+async function fetchRetryingClosedSocket(url: string, init: RequestInit): Promise<Response> {
+  try {
+    return await fetch(url, init);
+  } catch (e) {
+    const code = (e as { cause?: { code?: string } }).cause?.code;
+    if (code !== "UND_ERR_SOCKET" || init.body instanceof ReadableStream) throw e;
+    return fetch(url, init);
+  }
+}
+
+/**
  * A tiny HTTP client for route tests: keeps the session cookie (`cookie`) and the known-device cookie (`device`,
  * lib/known-device.ts), sends a same-origin Origin on writes.
  */
@@ -20,7 +38,7 @@ export class Client {
       headers["content-type"] ??= "application/json";
       payload = JSON.stringify(body);
     }
-    const res = await fetch(this.baseUrl + path, { method, headers, body: payload, redirect: "manual" });
+    const res = await fetchRetryingClosedSocket(this.baseUrl + path, { method, headers, body: payload, redirect: "manual" });
     const set = res.headers.getSetCookie();
     for (const c of set) {
       const [pair] = c.split(";");
