@@ -47,10 +47,16 @@ async function watched(ctx: BrowserContext, watch: Watch, expectErrorStatus = fa
 }
 
 function listen(page: Page, watch: Watch, expectErrorStatus: boolean): void {
+  // Chromium's "Failed to load resource" line does not say which resource: name the answers of 400 and up beside it.
+  const failed: string[] = [];
+  page.on("response", (r) => {
+    if (r.status() >= 400) failed.push(`${r.status()} ${r.request().method()} ${r.url()}`);
+  });
   page.on("console", (m) => {
     if (m.type() !== "error") return;
     if (expectErrorStatus && /^Failed to load resource: the server responded with a status of 4\d\d/.test(m.text())) return;
-    watch.problems.push(`console error on ${page.url()}: ${m.text()}`);
+    const which = /^Failed to load resource/.test(m.text()) && failed.length ? ` (answers ≥ 400 so far: ${failed.join(", ")})` : "";
+    watch.problems.push(`console error on ${page.url()}: ${m.text()}${which}`);
   });
   page.on("pageerror", (e) => watch.problems.push(`page error on ${page.url()}: ${String(e)}`));
 }
