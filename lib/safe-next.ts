@@ -39,7 +39,8 @@ export function safeNext(value: unknown, fallback = "/teams"): string {
     return fallback;
   }
   if (url.origin !== PLACEHOLDER) return fallback;
-  // Dot segments can collapse into a leading "//" ("/.//evil.example" → "//evil.example"): checked again.
+  // Dot segments can collapse into a leading "//" ("/.//evil.example" → "//evil.example") or bring an
+  // encoded slash to the front ("/../%2F" → "/%2F", which decodes to "//"): the result is checked again.
   const out = url.pathname + url.search + url.hash;
-  return out.length <= MAX && plainPath(out) ? out : fallback;
+  return out.length <= MAX && plainPath(out) && plainWhenDecoded(out) ? out : fallback;
 }

@@ -31,6 +31,7 @@ describe("safeNext", () => {
     ["double-encoded slash", "/%252F/evil.example"],
     ["malformed percent-encoding", "/%E0%A4%A"],
     ["dot segment collapsing into //", "/.//evil.example"],
+    ["dot segment bringing an encoded slash to the front (fast-check seed 872086821)", "/../%2F"],
     ["space", "/ /evil.example"],
     ["too long", "/" + "a".repeat(600)],
   ];
