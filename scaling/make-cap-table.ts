@@ -11,6 +11,9 @@
  *   nice -n 19 npm run scaling:tables -- --resolution-check
  *                                                     the solver's own error at the table resolution (vs 2× finer and
  *                                                     the Richardson extrapolation) on a sample of geometries
+ *   nice -n 19 npm run scaling:tables -- --reuse      as the first, but nodes the committed table already holds are
+ *                                                     copied from it (the same integers a solve gives): refining an
+ *                                                     axis by halving its step solves only the new nodes
  *   options: --out <file> (table file), --workers <1|2> (default 2), --count <n> (held-out cases, default 600)
  *
  * Work runs in worker threads (2 by default; the process lowers its own priority first, and the threads inherit it).
@@ -24,7 +27,7 @@
  *   ln(W/H) (9 nodes, 0.2–20), ln(T/H) (7, 0.3–4), ln(S/H) (12, 0.3–10) and z = sqrt(H/(H + H2)) (12, 0–sqrt(1/1.3):
  *   no plane above, then H2/H from ∞ down to 0.3), at resolution 20 (cells across the smallest feature).
  * - table B, the gap layer: ln(C_gap/C_homogeneous) of ground and coupling on ln(W/H) (6), ln(T/H) (7), ln(S/H) (8),
- *   z (6), ρ = ln(kGap/k) (3: 0.25, 0.5, 1) and ξ = ln(f + 0.02) − ln(1 − f + 0.02) (11, f = gapFraction 0…1), at
+ *   z (11), ρ = ln(kGap/k) (3: 0.25, 0.5, 1) and ξ = ln(f + 0.02) − ln(1 − f + 0.02) (11, f = gapFraction 0…1), at
  *   resolution 10: the ratio converges much faster than the capacitances (within 0.02% for ground and 0.3% for
  *   coupling of resolution 24 on 24 random cases, where the capacitances themselves move by up to 3%).
  * Resolution 20 for table A and the references: `--resolution-check` measures the solver's own error there (against
@@ -79,7 +82,7 @@ const FULL: Grid = {
   resolutionA: 20,
   resolutionB: 10,
   a: [W_AXIS(9), T_AXIS(7), S_AXIS(12), Z_AXIS(12)],
-  b: [W_AXIS(6), T_AXIS(7), S_AXIS(8), Z_AXIS(6), RHO_AXIS, XI_AXIS(11)],
+  b: [W_AXIS(6), T_AXIS(7), S_AXIS(8), Z_AXIS(11), RHO_AXIS, XI_AXIS(11)],
 };
 const QUICK: Grid = {
   resolutionA: 5,
@@ -288,7 +291,25 @@ function numberList(values: ArrayLike<number>): string {
   return out.join("\n");
 }
 
-async function makeTables(grid: Grid, outFile: string, workers: number): Promise<void> {
+/** The committed table (cap-table-data.ts) decoded for `--reuse`: its axes and stored integers. */
+interface CommittedTables {
+  aAxes: Float64Array;
+  aValues: Int32Array;
+  bAxes: Float64Array;
+  bValues: Int32Array;
+}
+
+/** Index of `value` among the nodes of a committed axis ([lo, step, n] at `axes[3·axis]`), or −1 when it is not a node. */
+function committedNode(axes: Float64Array, axis: number, value: number): number {
+  const lo = axes[3 * axis]!;
+  const st = axes[3 * axis + 1]!;
+  const n = axes[3 * axis + 2]!;
+  const p = n === 1 ? 0 : (value - lo) / st;
+  const i = Math.round(p);
+  return i >= 0 && i < n && Math.abs(p - i) < 1e-9 ? i : -1;
+}
+
+async function makeTables(grid: Grid, outFile: string, workers: number, reuse: CommittedTables | null): Promise<void> {
   const { tableBases, GAP_EPS: modelEps } = await import("../lib/scaling/cap-accurate");
   if (modelEps !== GAP_EPS) throw new Error(`GAP_EPS differs from cap-accurate.ts (${modelEps})`);
   const [aw, at, as, az] = grid.a;
@@ -318,17 +339,44 @@ async function makeTables(grid: Grid, outFile: string, workers: number): Promise
     `table A: ${aw.n}×${at.n}×${as.n}×${az.n} = ${aCount} solves at resolution ${grid.resolutionA}; ` +
       `table B: ${bw.n}×${bt.n}×${bs.n}×${bz.n} = ${bGeometries} geometries × ${perGeometry} = ${jobs.length - bStart} solves at resolution ${grid.resolutionB}`,
   );
-  const order = shuffled(jobs.length, 20261202);
-  const shuffledJobs = order.map((i) => jobs[i]!);
+  // --reuse: nodes that the committed table already holds are copied from it (the stored integers are what a solve
+  // would give again: the solver is deterministic and the values are rounded the same way), so refining one axis by
+  // halving its step solves only the new nodes. Table A is reused when its grid is unchanged; table B node by node when
+  // every axis but z is unchanged and the node's z is a committed z node.
+  const aReused = reuse !== null && grid.a.every((ax, d) => [ax.lo, step(ax), ax.n].every((v, e) => Math.abs(v - reuse.aAxes[3 * d + e]!) < 1e-12));
+  const bOldGeometry: number[] = []; // per new B geometry: index of the committed geometry holding it, or −1
+  {
+    const old = reuse?.bAxes;
+    const sameOtherAxes =
+      old !== undefined && [0, 1, 2, 4, 5].every((d) => [grid.b[d]!.lo, step(grid.b[d]!), grid.b[d]!.n].every((v, e) => Math.abs(v - old[3 * d + e]!) < 1e-12));
+    for (let i = 0; i < bw.n; i++)
+      for (let j = 0; j < bt.n; j++)
+        for (let k = 0; k < bs.n; k++)
+          for (let l = 0; l < bz.n; l++) {
+            const oz = sameOtherAxes ? committedNode(old, 3, node(bz, l)) : -1;
+            bOldGeometry.push(oz < 0 ? -1 : ((i * old![5]! + j) * old![8]! + k) * old![11]! + oz);
+          }
+  }
+  const needed = jobs.map((_, q) => (q < bStart ? !aReused : bOldGeometry[Math.floor((q - bStart) / perGeometry)]! < 0));
+  const neededIdx = jobs.flatMap((_, q) => (needed[q] ? [q] : []));
+  if (reuse !== null) {
+    const geoReused = bOldGeometry.filter((g) => g >= 0).length;
+    console.log(
+      `--reuse: table A ${aReused ? "copied from the committed file" : "solved (its grid changed)"}; table B: ${geoReused} of ${bGeometries} geometries copied; ${neededIdx.length} solves left`,
+    );
+  }
+  const order = shuffled(neededIdx.length, 20261202);
+  const shuffledJobs = order.map((i) => jobs[neededIdx[i]!]!);
   const t0 = Date.now();
-  const solvedShuffled = await runJobs(shuffledJobs, `tables-${signature({ grid })}`, workers, "tables");
-  const solved: Solved[] = new Array(jobs.length);
-  order.forEach((orig, pos) => (solved[orig] = solvedShuffled[pos]!));
+  const solvedShuffled = await runJobs(shuffledJobs, `tables-${signature({ grid, reuse: reuse !== null })}`, workers, "tables");
+  const solved: (Solved | undefined)[] = new Array(jobs.length);
+  order.forEach((orig, pos) => (solved[neededIdx[orig]!] = solvedShuffled[pos]!));
   const wallMs = Date.now() - t0;
 
   const split = { area: 0, ground: 0, couple: 0 };
   const aValues = new Int32Array(aCount * 2);
-  for (let q = 0; q < aCount; q++) {
+  if (aReused) aValues.set(reuse!.aValues);
+  for (let q = 0; q < aCount && !aReused; q++) {
     const j = jobs[aStart + q]!;
     const r = solved[aStart + q]!;
     if (!(r.g > 0 && r.c > 0)) throw new Error(`non-positive capacitance at ${JSON.stringify(j)}: ${r.g}, ${r.c}`);
@@ -340,6 +388,13 @@ async function makeTables(grid: Grid, outFile: string, workers: number): Promise
   const bValues = new Int32Array(bGeometries * stored * 2);
   let minRatio = Infinity;
   for (let gIdx = 0; gIdx < bGeometries; gIdx++) {
+    const oldGeo = bOldGeometry[gIdx]!;
+    if (oldGeo >= 0) {
+      const from = oldGeo * stored * 2;
+      bValues.set(reuse!.bValues.subarray(from, from + stored * 2), gIdx * stored * 2);
+      for (let q = 0; q < stored * 2; q++) minRatio = Math.min(minRatio, Math.exp(reuse!.bValues[from + q]! * 1e-4));
+      continue;
+    }
     const h = solved[bStart + gIdx * perGeometry]!;
     for (let p = 0; p < stored; p++) {
       const r = solved[bStart + gIdx * perGeometry + 1 + p]!;
@@ -603,7 +658,12 @@ async function main(): Promise<void> {
   }
   const out =
     opt("--out") ?? (quick ? join(tmpdir(), "plateau-cap-table-quick.ts") : fileURLToPath(new URL("../lib/scaling/cap-table-data.ts", import.meta.url)));
-  await makeTables(grid, out, workers);
+  let reuse: CommittedTables | null = null;
+  if (args.includes("--reuse") && !quick) {
+    const t = await import("../lib/scaling/cap-table-data");
+    reuse = { aAxes: t.A_AXES, aValues: t.A_VALUES, bAxes: t.B_AXES, bValues: t.B_VALUES };
+  }
+  await makeTables(grid, out, workers, reuse);
 }
 
 if (isMainThread && process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {

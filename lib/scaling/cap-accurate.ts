@@ -14,8 +14,8 @@
  *   (4-point Lagrange) interpolation in all four coordinates, 256 corners.
  * - table B (the gap layer): the same geometry coordinates (coarser) plus ρ = ln(kGap/k) and
  *   ξ = ln(f + 0.02) − ln(1 − f + 0.02), f = gapFraction (nodes cluster towards f = 0 and f = 1, where the corners of
- *   the lines make the dependence steep). It stores ln(C_gap/C_homogeneous); linear in ln(W/H) and ln(T/H), cubic in
- *   ln(S/H), z and ξ, quadratic in ρ (64 geometry corners × 8 (ρ, ξ) pairs). Skipped when kGap = k or
+ *   the lines make the dependence steep). It stores ln(C_gap/C_homogeneous); linear in ln(W/H), cubic in ln(T/H),
+ *   ln(S/H), z and ξ, quadratic in ρ (128 geometry corners × 8 (ρ, ξ) pairs). Skipped when kGap = k or
  *   gapFraction = 0 (the ratio is exactly 1 there, so those inputs return table A's values bit for bit).
  * Outside the covered range (ACCURATE_RANGE) the published closed forms of capacitance.ts are used instead
  * (closedForm "coupled", homogeneous k; the gap is ignored) and a ValidityFlag names the quantity.
@@ -198,7 +198,7 @@ function lookupB(xw: number, xt: number, xs: number, z: number, rho: number, xi:
   const nXi = B_AXES[17]!;
   const stored = (nRho - 1) * (nXi - 1); // (ρ, ξ) pairs stored per geometry node
   const i0 = linearStencil(B_AXES, 0, xw, wB, 0);
-  const j0 = linearStencil(B_AXES, 1, xt, wB, 4);
+  const j0 = cubicStencil(B_AXES, 1, xt, wB, 4);
   const k0 = cubicStencil(B_AXES, 2, xs, wB, 8);
   const l0 = cubicStencil(B_AXES, 3, z, wB, 12);
   // ρ: quadratic through all three nodes (the last, ρ = 0, is trivial).
@@ -240,7 +240,7 @@ function lookupB(xw: number, xt: number, xs: number, z: number, rho: number, xi:
   for (let a = 0; a < 2; a++) {
     const wa = wB[a]!;
     const rowA = (i0 + a) * nt;
-    for (let b = 0; b < 2; b++) {
+    for (let b = 0; b < 4; b++) {
       const wab = wa * wB[4 + b]!;
       const rowB = (rowA + j0 + b) * ns;
       for (let d = 0; d < 4; d++) {

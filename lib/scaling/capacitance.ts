@@ -107,7 +107,7 @@ export const SPLIT_FIT = {
 
 /** Accuracy of the accurate (table) model: held-out field solves, scaling/README.md "Accurate capacitance". */
 export const ACCURATE_ACCURACY =
-  "table of our 2D field solver (resolution 20, its own error ≤ 0.08% ground/total): on 600 held-out geometries ground within 0.61% (RMS 0.08%), total within 0.66% (RMS 0.09%), coupling per neighbour within 0.33% without a gap layer; with one (kGap < k) within 1.2% where coupling is ≥ 5% of the total, 4.1% where ≥ 1%, up to 14% where it is a smaller share (plane above, S/H ≥ 1.5) (measured)";
+  "table of our 2D field solver (resolution 20, its own error ≤ 0.08% ground/total): on 600 held-out geometries ground within 0.29% (RMS 0.05%), total within 0.26% (RMS 0.06%), coupling per neighbour within 0.33% without a gap layer; with one (kGap < k) within 0.77% where coupling is ≥ 3% of the total, 1.2% where ≥ 0.1%, up to 5.9% where it is a smaller share (measured)";
 
 /** Accuracy of the accurate tables without a gap layer (kGap = k): the 152 such held-out geometries (scaling/README.md). */
 export const ACCURATE_ACCURACY_HOMOGENEOUS =
@@ -115,7 +115,7 @@ export const ACCURATE_ACCURACY_HOMOGENEOUS =
 
 /** Accuracy of the accurate tables with a gap layer (kGap < k): the 448 such held-out geometries (scaling/README.md). */
 export const ACCURATE_ACCURACY_AIR_GAP =
-  "tables of our 2D field solver with the gap layer: on 448 held-out geometries ground within 0.61%, total within 0.66%; coupling per neighbour within 1.2% where it is ≥ 5% of the total, 4.1% where ≥ 1%, up to 14% where it is a smaller share (plane above, S/H ≥ 1.5) (measured)";
+  "tables of our 2D field solver with the gap layer: on 448 held-out geometries ground within 0.29%, total within 0.26%; coupling per neighbour within 0.77% where it is ≥ 3% of the total, 1.2% where ≥ 0.1%, up to 5.9% where it is a smaller share (measured)";
 
 /** Accuracy statements, measured against the field solver (scaling/README.md, tests/scaling/capacitance.test.ts). */
 export const CAPACITANCE_ACCURACY: Readonly<Record<CapacitanceModel, string>> = {

@@ -4,6 +4,7 @@ import { describe, expect, it } from "vitest";
 import { accurateCapacitanceInto, ACCURATE_RANGE } from "@/lib/scaling/cap-accurate";
 import { closedForm, cohnThickStripFringeFPerM, type Split } from "@/lib/scaling/capacitance";
 import { fieldSolve } from "@/lib/scaling/field-solve";
+import { B_AXES, B_VALUES } from "@/lib/scaling/cap-table-data";
 import type { ValidityFlag } from "@/lib/scaling/types";
 import { expectClose } from "./close";
 
@@ -47,13 +48,14 @@ describe("accurate capacitance against held-out field solves", () => {
     // the whole covered range, none on a grid node (a quarter without a plane above, a quarter with kGap = k), solved
     // by fieldSolve at the table's resolution 20 (the solver's own error there: ≤ 0.08% ground and total, ≤ 0.2%
     // coupling where it is ≥ 1% of the total; scaling/README.md, "Accurate capacitance").
-    // Measured: ground 0.61%, total 0.66%, coupling without a gap layer 0.33% — the 1% target holds.
-    // With a gap layer (kGap < k) the coupling does NOT reach the 1% target everywhere. MEASURED BOUNDS: 1.14% where
-    // the coupling is ≥ 5% of the total, 4.06% where ≥ 1%, 14.4% overall; the worst cases have a plane above
-    // (H2/H ≲ 2) and S/H ≳ 1.5, where the coupling is a small share of the total (1e-7 … 1e-2). The bounds below
-    // are those measured figures with a small margin, not the target.
+    // Measured (table B with 11 z nodes, cubic in ln(T/H)): ground 0.29%, total 0.26%, coupling without a gap layer
+    // 0.33% — the 1% target holds. With a gap layer (kGap < k) the coupling is within 0.77% where it is ≥ 3% of the
+    // total and 1.19% where it is ≥ 0.1%; below that (33 cases, shares 1e-7 … 1e-3, plane above, S/H ≥ 4) up to 5.9%,
+    // where the references carry solver noise of the same order (scaling/README.md, "Accurate capacitance": ≤ 1.2% for
+    // couplings below 1e-3 of the total at this resolution). Bounds: the target where it holds, the measured figures
+    // with a small margin where it does not.
     expect(heldOut.cases.length).toBeGreaterThanOrEqual(500);
-    const worst = { ground: 0, total: 0, coupleHomogeneous: 0, coupleGap5: 0, coupleGap1: 0, coupleGap: 0 };
+    const worst = { ground: 0, total: 0, coupleHomogeneous: 0, coupleGap3: 0, coupleGapTenth: 0, coupleGap: 0 };
     for (const c of heldOut.cases) {
       const out = model(c);
       const eg = Math.abs(out.ground / c.groundFPerM - 1);
@@ -65,16 +67,16 @@ describe("accurate capacitance against held-out field solves", () => {
       if (c.kGap === c.k) worst.coupleHomogeneous = Math.max(worst.coupleHomogeneous, ec);
       else {
         worst.coupleGap = Math.max(worst.coupleGap, ec);
-        if (share >= 0.01) worst.coupleGap1 = Math.max(worst.coupleGap1, ec);
-        if (share >= 0.05) worst.coupleGap5 = Math.max(worst.coupleGap5, ec);
+        if (share >= 0.001) worst.coupleGapTenth = Math.max(worst.coupleGapTenth, ec);
+        if (share >= 0.03) worst.coupleGap3 = Math.max(worst.coupleGap3, ec);
       }
     }
     expect(worst.ground).toBeLessThanOrEqual(0.01); // target
     expect(worst.total).toBeLessThanOrEqual(0.01); // target
     expect(worst.coupleHomogeneous).toBeLessThanOrEqual(0.01); // target
-    expect(worst.coupleGap5).toBeLessThanOrEqual(0.015); // MEASURED 1.14%, target not reached
-    expect(worst.coupleGap1).toBeLessThanOrEqual(0.045); // MEASURED 4.06%, target not reached
-    expect(worst.coupleGap).toBeLessThanOrEqual(0.15); // MEASURED 14.4%, target not reached
+    expect(worst.coupleGap3).toBeLessThanOrEqual(0.01); // target (MEASURED 0.77%)
+    expect(worst.coupleGapTenth).toBeLessThanOrEqual(0.0125); // MEASURED 1.19%, target not reached
+    expect(worst.coupleGap).toBeLessThanOrEqual(0.062); // MEASURED 5.90% at shares < 1e-3, target not reached
   });
 
   it("five held-out references recomputed live with fieldSolve reproduce the stored values", () => {
@@ -86,6 +88,53 @@ describe("accurate capacitance against held-out field solves", () => {
       expectClose(r.groundFPerM, c.groundFPerM, 1e-9);
       expectClose(r.couplingEachFPerM, c.couplingEachFPerM, 1e-9);
       expectClose(r.totalFPerM, c.totalFPerM, 1e-9);
+    }
+  }, 60_000);
+
+  it("table B nodes recomputed live reproduce the committed integers (old and refined z nodes)", () => {
+    // Source: scaling/make-cap-table.ts's recipe, written out here — fieldSolve at H = 100 nm, k = 4, tolerance 1e-14,
+    // table B's resolution 10; stored value round(1e4 · ln(C_gap/C_homogeneous)). Checks the data module against the
+    // solver, and that `--reuse` (which copies the nodes the committed table held) gives what a full rerun gives: z node
+    // 2 existed before the z axis was refined from 6 to 11 nodes, z node 3 was solved new. Cheap nodes: W/H and T/H
+    // at their largest (fewest cells across the smallest feature … the spacing), S/H at its largest.
+    const ax = (d: number) => ({ lo: B_AXES[3 * d]!, step: B_AXES[3 * d + 1]!, n: B_AXES[3 * d + 2]! });
+    const [w, t, s, z, rho, xi] = [0, 1, 2, 3, 4, 5].map(ax) as [
+      ReturnType<typeof ax>,
+      ReturnType<typeof ax>,
+      ReturnType<typeof ax>,
+      ReturnType<typeof ax>,
+      ReturnType<typeof ax>,
+      ReturnType<typeof ax>,
+    ];
+    expect(z.n).toBe(11);
+    const H = 100 * NM;
+    const K = 4;
+    const E = 0.02; // GAP_EPS
+    const fOf = (x: number): number => {
+      const e = Math.exp(x);
+      return Math.min(1, Math.max(0, (e * (1 + E) - E) / (1 + e)));
+    };
+    const [iw, it_, is] = [w.n - 1, t.n - 1, s.n - 1];
+    const [ir, ix] = [0, xi.n - 1]; // kGap/k = 0.25, gap over the full thickness (f = 1)
+    for (const iz of [2, 3]) {
+      const zz = z.lo + iz * z.step;
+      const u = (zz * zz) / (1 - zz * zz);
+      const geo = {
+        widthM: Math.exp(w.lo + iw * w.step) * H,
+        thicknessM: Math.exp(t.lo + it_ * t.step) * H,
+        spacingM: Math.exp(s.lo + is * s.step) * H,
+        heightBelowM: H,
+        heightAboveM: H / u,
+        k: K,
+        resolution: 10,
+        tolerance: 1e-14,
+      };
+      const hom = fieldSolve({ ...geo, kGap: K, gapFraction: 1 });
+      const gap = fieldSolve({ ...geo, kGap: K * Math.exp(rho.lo + ir * rho.step), gapFraction: fOf(xi.lo + ix * xi.step) });
+      const stored = (nRho: number, nXi: number) => (nRho - 1) * (nXi - 1);
+      const idx = ((((iw * t.n + it_) * s.n + is) * z.n + iz) * stored(rho.n, xi.n) + ir * (xi.n - 1) + ix - 1) * 2;
+      expect(Math.round(Math.log(gap.groundFPerM / hom.groundFPerM) * 1e4)).toBe(B_VALUES[idx]);
+      expect(Math.round(Math.log(gap.couplingEachFPerM / hom.couplingEachFPerM) * 1e4)).toBe(B_VALUES[idx + 1]);
     }
   }, 60_000);
 });
