@@ -11,92 +11,11 @@
  * Aim (issue 9): evaluate p99 ≤ 2× health p99.
  * BENCH_SECONDS (default 5) per target, BENCH_CONNECTIONS (default 20).
  */
-import { spawn, spawnSync } from "node:child_process";
 import fs from "node:fs";
-import { createRequire } from "node:module";
-import net from "node:net";
-import os from "node:os";
-import path from "node:path";
-
-// autocannon ships no types: the part of its API used here.
-interface CannonResult {
-  requests: { average: number };
-  latency: { p50: number; p99: number };
-  non2xx: number;
-  errors: number;
-  timeouts: number;
-  "2xx": number;
-}
-type Cannon = (opts: {
-  url: string;
-  method?: string;
-  headers?: Record<string, string>;
-  body?: string;
-  connections: number;
-  duration: number;
-}) => Promise<CannonResult>;
-const autocannon = createRequire(import.meta.url)("autocannon") as Cannon;
+import { autocannon, benchClient, distDir, fmt, seedSkua, startBenchServer, type CannonResult } from "./bench-server";
 
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 5);
 const CONNECTIONS = Number(process.env.BENCH_CONNECTIONS ?? 20);
-const distDir = process.env.PLATEAU_DIST_DIR || ".next";
-
-if (!fs.existsSync(path.join(distDir, "BUILD_ID"))) {
-  console.log(`No build in ${distDir}: running next build…`);
-  const r = spawnSync("npx", ["next", "build"], {
-    stdio: ["ignore", "inherit", "inherit"],
-    env: { ...process.env, NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1" },
-  });
-  if (r.status !== 0) throw new Error(`next build failed (exit ${r.status})`);
-}
-
-const freePort = () =>
-  new Promise<number>((resolve, reject) => {
-    const s = net.createServer().listen(0, "127.0.0.1", () => {
-      const a = s.address();
-      s.close(() => (typeof a === "object" && a ? resolve(a.port) : reject(new Error("no port"))));
-    });
-  });
-
-const dir = fs.mkdtempSync(path.join(os.tmpdir(), "plateau-api-bench-"));
-const port = await freePort();
-const base = `http://127.0.0.1:${port}`;
-const server = spawn(process.execPath, ["node_modules/next/dist/bin/next", "start", "-p", String(port), "-H", "127.0.0.1"], {
-  env: {
-    ...process.env,
-    NODE_ENV: "production",
-    NEXT_TELEMETRY_DISABLED: "1",
-    PLATEAU_DB: path.join(dir, "bench.sqlite"),
-    PLATEAU_PUBLIC_URL: base,
-    PLATEAU_TEST: "1",
-  },
-  stdio: ["ignore", "ignore", "pipe"],
-});
-let serverLog = "";
-server.stderr?.on("data", (d) => (serverLog = (serverLog + d).slice(-4000)));
-
-let cookie = "";
-async function call(method: string, p: string, body?: string, type = "application/json"): Promise<{ status: number; json: unknown }> {
-  const headers: Record<string, string> = { cookie };
-  if (method !== "GET") headers.origin = base;
-  if (body !== undefined) headers["content-type"] = type;
-  const r = await fetch(base + p, { method, headers, body, redirect: "manual" });
-  for (const c of r.headers.getSetCookie()) if (c.startsWith("plateau_session=")) cookie = c.split(";")[0]!;
-  const text = await r.text();
-  let json: unknown;
-  try {
-    json = text ? JSON.parse(text) : undefined;
-  } catch {
-    json = text.slice(0, 300);
-  }
-  return { status: r.status, json };
-}
-/** The JSON answer of a call that must answer `status` (typed as the caller expects it). */
-async function expect<T = unknown>(status: number, p: Promise<{ status: number; json: unknown }>, what: string): Promise<T> {
-  const r = await p;
-  if (r.status !== status) throw new Error(`${what}: expected ${status}, got ${r.status} ${JSON.stringify(r.json).slice(0, 300)}`);
-  return r.json as T;
-}
 
 /** CPU time (ms, user + system) used so far by the server and its child processes (Linux /proc; 0 elsewhere). */
 function serverCpuMs(pid: number): number {
@@ -119,49 +38,17 @@ function serverCpuMs(pid: number): number {
   return total;
 }
 
-function fmt(n: number, digits = 1) {
-  return n.toFixed(digits);
-}
-
+const { base, server, stop } = await startBenchServer("api-bench");
+const client = benchClient(base);
+const { call, must } = client;
 try {
-  for (let i = 0; ; i++) {
-    try {
-      if ((await fetch(`${base}/api/health`)).ok) break;
-    } catch {
-      /* starting */
-    }
-    if (i > 240 || server.exitCode !== null) throw new Error(`server did not start:\n${serverLog}`);
-    await new Promise((r) => setTimeout(r, 250));
-  }
-
   // Seed through the API, from the demo's own data files (scaling/examples).
-  const examples = (f: string) => fs.readFileSync(path.join("scaling/examples", f), "utf8");
-  const email = `bench-${Date.now()}@example.test`;
-  const password = "correct horse battery staple 42";
-  await expect(201, call("POST", "/api/auth/sign-up", JSON.stringify({ email, password, name: "Bench" })), "sign-up");
-  const { team } = await expect<{ team: { id: string } }>(201, call("POST", "/api/teams", JSON.stringify({ name: "Bench team" })), "team");
-  const teamId = team.id;
-  const created = await expect<{ baseline: { id: string } }>(
-    201,
-    call("POST", `/api/teams/${teamId}/baselines/import?name=${encodeURIComponent("Skua (bench)")}`, examples("skua-baseline.csv"), "text/csv"),
-    "baseline import",
-  );
-  const baselineId = created.baseline.id;
-  await expect(
-    200,
-    call("POST", `/api/baselines/${baselineId}/histograms?mode=replace&version=1`, examples("skua-histograms.csv"), "text/csv"),
-    "histogram import",
-  );
-  const demo = (JSON.parse(examples("skua-scenarios.json")) as { name: string; notes: string; settings: unknown }[])[0]!;
-  const { scenario } = await expect<{ scenario: { id: string } }>(
-    201,
-    call("POST", `/api/teams/${teamId}/scenarios`, JSON.stringify({ baselineId, name: demo.name, notes: demo.notes, settings: demo.settings })),
-    "scenario",
-  );
+  const { email, password, teamId, scenarioId } = await seedSkua(client, { histograms: true });
+  const scenario = { id: scenarioId };
 
   // Sign in afresh: the measured requests carry this session.
-  cookie = "";
-  await expect(200, call("POST", "/api/auth/sign-in", JSON.stringify({ email, password })), "sign-in");
+  client.signOut();
+  await must(200, call("POST", "/api/auth/sign-in", JSON.stringify({ email, password })), "sign-in");
 
   const targets: { name: string; method: string; path: string; body?: string }[] = [
     { name: "GET  /api/health", method: "GET", path: "/api/health" },
@@ -180,9 +67,7 @@ try {
   );
   let health: CannonResult | undefined;
   for (const t of targets) {
-    const headers: Record<string, string> = { cookie };
-    if (t.method !== "GET") headers.origin = base;
-    if (t.body !== undefined) headers["content-type"] = "application/json";
+    const headers = client.headersFor(t.method, t.body !== undefined);
     const opts = { url: base + t.path, method: t.method, headers, body: t.body, connections: CONNECTIONS };
     await autocannon({ ...opts, duration: 2 });
     const cpu0 = serverCpuMs(server.pid!);
@@ -197,7 +82,5 @@ try {
   }
   console.log("  Aim: evaluate p99 ≤ 2× health p99.");
 } finally {
-  server.kill("SIGTERM");
-  await new Promise((r) => setTimeout(r, 300));
-  fs.rmSync(dir, { recursive: true, force: true });
+  await stop();
 }

@@ -8,93 +8,13 @@
  * Prints p50/p99 of both phases and the ratio loaded/idle, and the imports finished meanwhile.
  * Aim: p99 under load ≤ 2× idle p99 (CSV parsing and validation run in a worker thread, lib/import/off-thread.ts).
  */
-import { spawn, spawnSync } from "node:child_process";
 import fs from "node:fs";
-import { createRequire } from "node:module";
-import net from "node:net";
-import os from "node:os";
-import path from "node:path";
-
-interface CannonResult {
-  latency: { p50: number; p99: number };
-  requests: { average: number };
-  non2xx: number;
-  errors: number;
-  timeouts: number;
-}
-type Cannon = (opts: {
-  url: string;
-  method?: string;
-  headers?: Record<string, string>;
-  body?: string;
-  connections: number;
-  duration: number;
-}) => Promise<CannonResult>;
-const autocannon = createRequire(import.meta.url)("autocannon") as Cannon;
+import { autocannon, benchClient, distDir, fmt, seedSkua, startBenchServer, type CannonResult } from "./bench-server";
 
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 5);
 const CONNECTIONS = Number(process.env.BENCH_CONNECTIONS ?? 10);
 const ROWS = Number(process.env.BENCH_IMPORT_ROWS ?? 200_000);
 const IMPORTERS = 4;
-const distDir = process.env.PLATEAU_DIST_DIR || ".next";
-
-if (!fs.existsSync(path.join(distDir, "BUILD_ID"))) {
-  console.log(`No build in ${distDir}: running next build…`);
-  const r = spawnSync("npx", ["next", "build"], {
-    stdio: ["ignore", "inherit", "inherit"],
-    env: { ...process.env, NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1" },
-  });
-  if (r.status !== 0) throw new Error(`next build failed (exit ${r.status})`);
-}
-
-const freePort = () =>
-  new Promise<number>((resolve, reject) => {
-    const s = net.createServer().listen(0, "127.0.0.1", () => {
-      const a = s.address();
-      s.close(() => (typeof a === "object" && a ? resolve(a.port) : reject(new Error("no port"))));
-    });
-  });
-
-const dir = fs.mkdtempSync(path.join(os.tmpdir(), "plateau-import-load-"));
-const port = await freePort();
-const base = `http://127.0.0.1:${port}`;
-const server = spawn(process.execPath, ["node_modules/next/dist/bin/next", "start", "-p", String(port), "-H", "127.0.0.1"], {
-  env: {
-    ...process.env,
-    NODE_ENV: "production",
-    NEXT_TELEMETRY_DISABLED: "1",
-    PLATEAU_DB: path.join(dir, "bench.sqlite"),
-    PLATEAU_PUBLIC_URL: base,
-    PLATEAU_TEST: "1",
-  },
-  stdio: ["ignore", "ignore", "pipe"],
-});
-let serverLog = "";
-server.stderr?.on("data", (d) => (serverLog = (serverLog + d).slice(-4000)));
-
-let cookie = "";
-async function call(method: string, p: string, body?: BodyInit, type = "application/json"): Promise<{ status: number; json: any }> {
-  const headers: Record<string, string> = { cookie };
-  if (method !== "GET") headers.origin = base;
-  if (body !== undefined) headers["content-type"] = type;
-  const r = await fetch(base + p, { method, headers, body, redirect: "manual" });
-  for (const c of r.headers.getSetCookie()) if (c.startsWith("plateau_session=")) cookie = c.split(";")[0]!;
-  const text = await r.text();
-  let json: unknown;
-  try {
-    json = text ? JSON.parse(text) : undefined;
-  } catch {
-    json = text.slice(0, 300);
-  }
-  return { status: r.status, json };
-}
-async function must(status: number, p: Promise<{ status: number; json: any }>, what: string) {
-  const r = await p;
-  if (r.status !== status) throw new Error(`${what}: expected ${status}, got ${r.status} ${JSON.stringify(r.json).slice(0, 300)}`);
-  return r.json;
-}
-
-const fmt = (n: number, d = 1) => n.toFixed(d);
 
 /** The next-server process: `next start` itself or the child it forks (Linux /proc; the spawned pid elsewhere). */
 function serverPid(pid: number): number {
@@ -130,32 +50,12 @@ function threadCpuMs(pid: number): { main: number; all: number } {
   return { main, all };
 }
 
+const { base, server, stop } = await startBenchServer("import-load");
+const client = benchClient(base);
+const { call } = client;
+const must = <T = any>(status: number, p: Promise<{ status: number; json: unknown }>, what: string) => client.must<T>(status, p, what);
 try {
-  for (let i = 0; ; i++) {
-    try {
-      if ((await fetch(`${base}/api/health`)).ok) break;
-    } catch {
-      /* starting */
-    }
-    if (i > 240 || server.exitCode !== null) throw new Error(`server did not start:\n${serverLog}`);
-    await new Promise((r) => setTimeout(r, 250));
-  }
-  const examples = (f: string) => fs.readFileSync(path.join("scaling/examples", f), "utf8");
-  await must(
-    201,
-    call(
-      "POST",
-      "/api/auth/sign-up",
-      JSON.stringify({ email: `bench-${Date.now()}@example.test`, password: "correct horse battery staple 42", name: "Bench" }),
-    ),
-    "sign-up",
-  );
-  const teamId = (await must(201, call("POST", "/api/teams", JSON.stringify({ name: "Bench team" })), "team")).team.id as string;
-  const skua = (await must(201, call("POST", `/api/teams/${teamId}/baselines/import?name=Skua`, examples("skua-baseline.csv"), "text/csv"), "baseline"))
-    .baseline.id as string;
-  const demo = (JSON.parse(examples("skua-scenarios.json")) as { name: string; notes: string; settings: unknown }[])[0]!;
-  const scenarioId = (await must(201, call("POST", `/api/teams/${teamId}/scenarios`, JSON.stringify({ baselineId: skua, ...demo })), "scenario")).scenario
-    .id as string;
+  const { teamId, scenarioId } = await seedSkua(client, { histograms: false });
 
   const template = fs.readFileSync("public/templates/wire-classes-template.csv", "utf8");
   const targets: string[] = [];
@@ -172,11 +72,7 @@ try {
       ["GET  /api/health", "GET", "/api/health", undefined],
       ["POST /api/scenarios/[id]/evaluate", "POST", `/api/scenarios/${scenarioId}/evaluate`, "{}"],
     ] as const) {
-      const headers: Record<string, string> = { cookie };
-      if (method !== "GET") {
-        headers.origin = base;
-        headers["content-type"] = "application/json";
-      }
+      const headers = client.headersFor(method, method !== "GET");
       out[name] = await autocannon({ url: base + p, method, headers, body, connections: CONNECTIONS, duration: SECONDS });
     }
     return out;
@@ -241,7 +137,5 @@ try {
   );
   console.log(`  Aim: p99 under load ≤ 2× idle p99 — worst ratio ${fmt(worst, 2)} ×.`);
 } finally {
-  server.kill("SIGTERM");
-  await new Promise((r) => setTimeout(r, 300));
-  fs.rmSync(dir, { recursive: true, force: true });
+  await stop();
 }
