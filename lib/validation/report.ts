@@ -17,6 +17,7 @@ import {
   type EffectiveK,
   type Evaluation,
   type LengthBin,
+  type LengthRule,
   type MetalOverride,
   type ModelLevel,
   type RepeaterResult,
@@ -167,6 +168,14 @@ export const technologySnapshotSchema = mirrorOf<Technology>()(
 
 /** An air gap between the lines (issue 11); settings, overrides and classes frozen before it have none. */
 const airGapSnapshotSchema = mirrorOf<AirGap>()(z.object({ kGap: num, gapFraction: num }));
+const lengthRuleSnapshotSchema = mirrorOf<LengthRule>()(
+  z.discriminatedUnion("kind", [
+    z.object({ kind: z.literal("follows-s") }),
+    z.object({ kind: z.literal("fixed") }),
+    z.object({ kind: z.literal("factor"), sL: num }),
+    z.object({ kind: z.literal("power"), exponent: num }),
+  ]),
+);
 
 export const classOverrideSnapshotSchema = mirrorOf<ClassOverride>()(
   z.object({
@@ -179,6 +188,7 @@ export const classOverrideSnapshotSchema = mirrorOf<ClassOverride>()(
     miller: num.optional(),
     barrierM: num.optional(),
     airGap: airGapSnapshotSchema.nullable().optional(),
+    lengthRule: lengthRuleSnapshotSchema.optional(),
   }),
 );
 
@@ -195,6 +205,8 @@ export const settingsSnapshotSchema = mirrorOf<ScenarioSettings>()(
     k: num.nullable(),
     metal: z.string().nullable(),
     airGap: airGapSnapshotSchema.nullable().optional(),
+    lengthRule: lengthRuleSnapshotSchema.optional(),
+    temperatureC: num.optional(),
     overrides: z.record(z.string(), classOverrideSnapshotSchema),
   }),
 );
@@ -469,9 +481,10 @@ export const frozenSweepSchema = z.object({
   marks: z.array(z.object({ key: z.string(), x: num, y: num })),
   /**
    * What the wire length does while S moves (issue 13 item 6): "follow" (S_L = S, the class's lengths shrink with the
-   * section) or "fixed" (S_L = 1). Absent in reports frozen before: those kept the scenario's S_L.
+   * section) or "fixed" (S_L = 1), or (issue 14) the class's factor or power-law LengthRule applied at every S.
+   * Absent in reports frozen before: those kept the scenario's S_L.
    */
-  lengthRule: z.enum(["follow", "fixed"]).optional(),
+  lengthRule: z.union([z.enum(["follow", "fixed"]), lengthRuleSnapshotSchema]).optional(),
 });
 
 export const frozenOptionSchema = z.object({
