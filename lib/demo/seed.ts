@@ -64,6 +64,6 @@ export async function seedDemo(db: Knex): Promise<DemoSeedResult> {
   const ownerId = core.users.find((u) => u.role === "owner")!.userId;
   const editorId = core.users.find((u) => u.role === "editor")!.userId;
   const { baselineId, scenarioIds, roadmapIds } = await seedDemoWorkspace(db, { teamId: core.teamId, ownerId, editorId });
-  const { reportId } = await seedDemoReports(db, { teamId: core.teamId, ownerId, baselineId, scenarioIds });
+  const { reportId } = await seedDemoReports(db, { teamId: core.teamId, ownerId, baselineId, scenarioIds, roadmapIds });
   return { ...core, baselineId, scenarioIds, roadmapIds, reportId };
 }
