@@ -319,3 +319,98 @@ describe("POST /api/scenarios/[id]/duplicate", () => {
     expect(stored()).toEqual(before);
   });
 });
+
+describe("reports with roadmaps", () => {
+  it("freezes the chosen roadmaps' steps and evaluations; the frozen JSON stays byte-identical after the roadmap is saved again; the CSV has a row per step", async () => {
+    const { owner, viewer, outsider, teamId } = await teamWithRoles();
+    const b = await createBaseline(owner.client, teamId);
+    const s1 = (await owner.client.post(`/api/teams/${teamId}/scenarios`, { baselineId: b.id, name: "Shrink", settings: { s: 1.4 } })).json.scenario;
+    const s2 = (await owner.client.post(`/api/teams/${teamId}/scenarios`, { baselineId: b.id, name: "Shrink Ru", settings: { s: 1.4, overrides: { M1: { metal: "Ru", barrierM: 0 } } } }))
+      .json.scenario;
+    const cu = (await owner.client.post(`/api/teams/${teamId}/roadmaps`, { name: "Cu", baselineId: b.id, steps: THREE_STEPS })).json.roadmap;
+    const ruSteps: RoadmapStep[] = [
+      { name: "N1", settings: { s: 1.25, overrides: { M1: { metal: "Ru", barrierM: 0 } } } },
+      { name: "N2", settings: { s: 1.2, overrides: { M2: { airGap: { kGap: 1, gapFraction: 1 } } } } },
+    ];
+    const ru = (await owner.client.post(`/api/teams/${teamId}/roadmaps`, { name: "Ru", baselineId: b.id, steps: ruSteps })).json.roadmap;
+
+    const made = await owner.client.post(`/api/teams/${teamId}/reports`, { baselineId: b.id, scenarioIds: [s1.id, s2.id], roadmapIds: [cu.id, ru.id], title: "Branches" });
+    expect(made.status, made.text).toBe(201);
+    const frozen = made.json.report.frozen;
+    expect(frozen.roadmaps.map((r: { key: string; name: string; roadmapId: string; version: number }) => [r.key, r.name, r.roadmapId, r.version])).toEqual([
+      ["R1", "Cu", cu.id, 1],
+      ["R2", "Ru", ru.id, 1],
+    ]);
+    expect(frozen.roadmaps[1].steps.map((st: { name: string }) => st.name)).toEqual(["N1", "N2"]);
+    expect(frozen.roadmaps[1].steps[0].settings).toEqual(ruSteps[0]!.settings);
+    // every step's numbers are the engine's evaluateRoadmap on the stored classes
+    const classes = await engineClasses(owner.client, b.id);
+    for (const [i, steps] of [THREE_STEPS, ruSteps].entries()) {
+      const local = evaluateRoadmap({ classes, technology: TECH, steps }).steps;
+      frozen.roadmaps[i].steps.forEach((st: { evaluation: { classes: { name: string; scenario: { delayS: number } }[] }; composed: unknown }, j: number) => {
+        expect(st.evaluation.classes.map((c) => c.scenario.delayS)).toEqual(local[j]!.evaluation.classes.map((c) => c.scenario.delayS));
+        expect(st.composed).toEqual(JSON.parse(JSON.stringify(local[j]!.settings)));
+      });
+    }
+
+    const frozenText = () => {
+      const db = rawDb();
+      try {
+        return (db.prepare("select frozen from reports where id = ?").get(made.json.report.id) as { frozen: string }).frozen;
+      } finally {
+        db.close();
+      }
+    };
+    const storedBefore = frozenText();
+    const readBefore = (await viewer.client.get(`/api/reports/${made.json.report.id}`)).text;
+    const p = await owner.client.patch(`/api/roadmaps/${cu.id}`, { version: 1, name: "Cu, renamed", steps: [{ name: "N1", settings: { s: 2 } }] });
+    expect(p.status, p.text).toBe(200);
+    expect(frozenText()).toBe(storedBefore);
+    const readAfter = await viewer.client.get(`/api/reports/${made.json.report.id}`);
+    expect(JSON.stringify(readAfter.json.report?.frozen ?? readAfter.json.frozen)).toBe(JSON.stringify(JSON.parse(readBefore).report?.frozen ?? JSON.parse(readBefore).frozen));
+    expect(JSON.stringify(readAfter.json.report?.frozen ?? readAfter.json.frozen)).toContain('"name":"Cu"');
+
+    const csv = await viewer.client.get(`/api/reports/${made.json.report.id}/export.csv`);
+    expect(csv.status).toBe(200);
+    const [table, totals] = csv.text.split("\r\n\r\n");
+    const stepRows = table!.split("\r\n").filter((l) => l.startsWith("Roadmap "));
+    // 2 classes × (3 + 2) steps
+    expect(stepRows).toHaveLength(10);
+    expect(stepRows.filter((l) => l.startsWith("Roadmap R2 N2,Ru,"))).toHaveLength(2);
+    expect(totals!.split("\r\n").filter((l) => l.startsWith("Roadmap "))).toHaveLength(5);
+
+    // the share view leaves the source ids out
+    const share = await owner.client.post(`/api/reports/${made.json.report.id}/share-links`, {});
+    expect(share.status, share.text).toBe(201);
+    const shown = await new Client().get(`/api/share/${(share.json.url as string).split("/r/")[1]}`);
+    expect(shown.status).toBe(200);
+    expect(shown.json.report.frozen.roadmaps.map((r: { name: string }) => r.name)).toEqual(["Cu", "Ru"]);
+    for (const secret of [cu.id, ru.id, s1.id, s2.id, b.id, teamId]) expect(shown.text).not.toContain(secret);
+
+    // another baseline's roadmap: 400 on roadmapIds; another team's (or none): 404 on roadmapIds; nothing stored
+    const b2 = await createBaseline(owner.client, teamId);
+    const elsewhere = (await owner.client.post(`/api/teams/${teamId}/roadmaps`, { name: "Elsewhere", baselineId: b2.id, steps: THREE_STEPS })).json.roadmap;
+    const ob = await createBaseline(outsider.client, outsider.teamId);
+    const theirs = (await outsider.client.post(`/api/teams/${outsider.teamId}/roadmaps`, { name: "Theirs", baselineId: ob.id, steps: THREE_STEPS })).json.roadmap;
+    const before = stored();
+    const countReports = () => {
+      const db = rawDb();
+      try {
+        return (db.prepare("select count(*) as n from reports").get() as { n: number }).n;
+      } finally {
+        db.close();
+      }
+    };
+    const reportsBefore = countReports();
+    const wrongBaseline = await owner.client.post(`/api/teams/${teamId}/reports`, { baselineId: b.id, scenarioIds: [s1.id, s2.id], roadmapIds: [elsewhere.id], title: "x" });
+    expect(wrongBaseline.status).toBe(400);
+    expect(Object.keys(wrongBaseline.json.error.fields)).toEqual(["roadmapIds"]);
+    for (const id of [theirs.id, "no-such-roadmap"]) {
+      const r = await owner.client.post(`/api/teams/${teamId}/reports`, { baselineId: b.id, scenarioIds: [s1.id, s2.id], roadmapIds: [id], title: "x" });
+      expect(r.status).toBe(404);
+      expect(Object.keys(r.json.error.fields)).toEqual(["roadmapIds"]);
+    }
+    expect(countReports()).toBe(reportsBefore);
+    expect(stored()).toEqual(before);
+  });
+});
