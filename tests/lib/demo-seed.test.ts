@@ -13,7 +13,19 @@ beforeAll(async () => {
 });
 afterAll(() => close());
 
-const TABLES = ["users", "teams", "memberships", "baselines", "wire_classes", "class_histograms", "scenarios", "roadmaps", "roadmap_revisions", "reports", "audit_log"];
+const TABLES = [
+  "users",
+  "teams",
+  "memberships",
+  "baselines",
+  "wire_classes",
+  "class_histograms",
+  "scenarios",
+  "roadmaps",
+  "roadmap_revisions",
+  "reports",
+  "audit_log",
+];
 async function counts(): Promise<Record<string, number>> {
   const out: Record<string, number> = {};
   for (const t of TABLES) out[t] = Number(((await db(t).count({ n: "*" }).first()) as { n: number }).n);
