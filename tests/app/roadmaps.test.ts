@@ -397,6 +397,16 @@ describe("reports with roadmaps", () => {
     );
     expect(JSON.stringify(readAfter.json.report?.frozen ?? readAfter.json.frozen)).toContain('"name":"Cu"');
 
+    // refresh freezes the roadmaps as they are now, as the next version; the old version keeps its copy
+    const refreshed = await owner.client.post(`/api/reports/${made.json.report.id}/refresh`);
+    expect(refreshed.status, refreshed.text).toBe(201);
+    const v2 = (await viewer.client.get(`/api/reports/${refreshed.json.report.id}`)).json.report.frozen;
+    expect(v2.roadmaps.map((r: { name: string; version: number; steps: unknown[] }) => [r.name, r.version, r.steps.length])).toEqual([
+      ["Cu, renamed", 2, 1],
+      ["Ru", 1, 2],
+    ]);
+    expect(frozenText()).toBe(storedBefore);
+
     const csv = await viewer.client.get(`/api/reports/${made.json.report.id}/export.csv`);
     expect(csv.status).toBe(200);
     const [table, totals] = csv.text.split("\r\n\r\n");
