@@ -7,6 +7,7 @@ import * as m5 from "../migrations/20261202000005_air_gaps";
 import * as m10 from "../migrations/20261202000010_auth_hardening";
 import * as m20 from "../migrations/20261202000020_email_verification";
 import * as m40 from "../migrations/20261202000040_baseline_warnings";
+import * as m50 from "../migrations/20261202000050_roadmaps";
 
 // Static index of the migrations so the bundled server can run them; keyed by file name
 // (with .ts) so the knex CLI and the app share one knex_migrations table.
@@ -19,6 +20,7 @@ const MIGRATIONS: Record<string, Knex.Migration> = {
   "20261202000010_auth_hardening.ts": m10,
   "20261202000020_email_verification.ts": m20,
   "20261202000040_baseline_warnings.ts": m40,
+  "20261202000050_roadmaps.ts": m50,
 };
 
 const source: Knex.MigrationSource<string> = {

@@ -7,6 +7,7 @@ import { ImportFatalError, type ImportIssue } from "@/lib/import/types";
 import { expectedOrigin } from "@/lib/public-url";
 import { securityHeaders, servedOverHttps } from "@/lib/security-headers";
 import { RetryLaterError } from "@/lib/retry-later";
+import { RoadmapInputError } from "@/lib/scaling";
 
 /** Error body of every API answer: `{ error: { code, message, fields? } }`. */
 export type ApiErrorBody = { error: { code: string; message: string; fields?: Record<string, string[]> } };
@@ -94,6 +95,8 @@ export function knownErrorResponse(e: unknown): Response | undefined {
   if (e instanceof NotFoundError) return errorResponse(new ApiError(404, "not_found", e.message, e.field ? { [e.field]: [e.message] } : undefined));
   if (e instanceof ConflictError) return errorResponse(conflict(e.message, e.fields));
   if (e instanceof InvalidInputError) return errorResponse(badRequest(e.message, e.fields));
+  // the roadmap engine's bad steps (lib/scaling/roadmap.ts): the path names the step and field, "steps.1.settings.overrides.M9"
+  if (e instanceof RoadmapInputError) return errorResponse(badRequest(e.message, { [e.path.map(String).join(".")]: [e.message] }));
   if (e instanceof InvalidCsvError) return invalidCsvResponse(e);
   if (e instanceof ImportFatalError) {
     const csv = new InvalidCsvError([e.issue], 1, undefined, e.status, e.code);

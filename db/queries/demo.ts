@@ -21,6 +21,11 @@ export async function findScenarioIdByName(q: Q, baselineId: string, name: strin
   return row?.id;
 }
 
+export async function findRoadmapIdByName(q: Q, baselineId: string, name: string): Promise<string | undefined> {
+  const row = (await q("roadmaps").where({ baseline_id: baselineId, name }).first("id")) as { id: string } | undefined;
+  return row?.id;
+}
+
 /** The team's oldest demo report, if any. */
 export async function findDemoReportId(q: Q, teamId: string): Promise<string | undefined> {
   const row = (await q("reports").where({ team_id: teamId, is_demo: 1 }).orderBy("created_at").first("id")) as { id: string } | undefined;

@@ -2,7 +2,9 @@
 // with its own Knex instance; every function takes the connection as its first argument.
 import type { Knex } from "knex";
 import { InvalidInputError, NotFoundError, fieldError } from "@/db/errors";
+import { getTeamRoadmaps } from "@/db/queries/roadmaps";
 import { listClassesWithHistograms } from "@/db/queries/wire-classes";
+import type { RoadmapStep } from "@/lib/scaling";
 import type { WireClass } from "@/lib/scaling/types";
 import type { FrozenReport } from "@/lib/validation/report";
 
@@ -166,14 +168,20 @@ export async function listReportVersions(conn: Q, teamId: string, seriesId: stri
 export interface ReportSources {
   baseline: { id: string; name: string; description: string; version: number; technology: unknown; classes: WireClass[] };
   scenarios: { id: string; name: string; notes: string; version: number; settings: unknown }[];
+  /** The chosen roadmaps (issue 14), in the order asked; empty when none. */
+  roadmaps: { id: string; name: string; version: number; steps: RoadmapStep[] }[];
 }
 
 /**
  * Load what a report freezes. The baseline must belong to the team (else NotFoundError); every scenario must
  * exist in the team (else NotFoundError, the same answer as for another team's id) and belong to that
- * baseline (else InvalidInputError); the baseline must have classes (else InvalidInputError).
+ * baseline (else InvalidInputError); the baseline must have classes (else InvalidInputError). Roadmaps follow the
+ * scenarios' rule: of the team (else NotFoundError on `roadmapIds`) and on the same baseline (else InvalidInputError).
  */
-export async function loadReportSources(conn: Q, p: { teamId: string; baselineId: string; scenarioIds: string[] }): Promise<ReportSources> {
+export async function loadReportSources(
+  conn: Q,
+  p: { teamId: string; baselineId: string; scenarioIds: string[]; roadmapIds?: string[] },
+): Promise<ReportSources> {
   const b = await conn("baselines").where({ id: p.baselineId, team_id: p.teamId }).first("id", "name", "description", "technology", "version");
   if (!b) throw new NotFoundError("Baseline", "Baseline not found.", "baselineId");
   const rows = (await conn("scenarios")
@@ -196,6 +204,15 @@ export async function loadReportSources(conn: Q, p: { teamId: string; baselineId
       throw new InvalidInputError(message, fieldError("scenarioIds", message));
     }
   }
+  const roadmapIds = p.roadmapIds ?? [];
+  const roadmaps = await getTeamRoadmaps(conn, p.teamId, roadmapIds);
+  if (roadmaps.length !== roadmapIds.length) throw new NotFoundError("Roadmap", "Roadmap not found.", "roadmapIds");
+  for (const r of roadmaps) {
+    if (r.baselineId !== p.baselineId) {
+      const message = `Roadmap "${r.name}" belongs to another baseline; pick roadmaps of the chosen baseline.`;
+      throw new InvalidInputError(message, fieldError("roadmapIds", message));
+    }
+  }
   // The same loader the workspace evaluates with; the stored id, position and bin count are not part of a WireClass.
   const classes: WireClass[] = (await listClassesWithHistograms(conn, p.baselineId)).map(({ id: _id, position: _position, histogramBins: _bins, ...wc }) => wc);
   if (classes.length === 0) {
@@ -215,6 +232,7 @@ export async function loadReportSources(conn: Q, p: { teamId: string; baselineId
       const r = byId.get(id)!;
       return { id: r.id, name: r.name, notes: r.notes ?? "", version: r.version, settings: JSON.parse(r.settings) as unknown };
     }),
+    roadmaps: roadmaps.map((r) => ({ id: r.id, name: r.name, version: r.version, steps: r.steps })),
   };
 }
 

@@ -1,4 +1,5 @@
 import "server-only";
+import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
 import type { ScenarioSettings, Technology } from "@/lib/scaling";
 
@@ -110,6 +111,15 @@ export async function scenarioNameTaken(db: Q, baselineId: string, name: string,
   const q = db("scenarios").where({ baseline_id: baselineId }).whereRaw("lower(name) = lower(?)", [name]);
   if (exceptId) q.whereNot({ id: exceptId });
   return !!(await q.first("id"));
+}
+
+/** A free name "X (copy)", "X (copy 2)", … on the baseline (the names a duplicate gets, like baselines'). */
+export async function freeScenarioName(db: Q, baselineId: string, base: string): Promise<string> {
+  for (let i = 1; i < 1000; i++) {
+    const name = `${base} (copy${i === 1 ? "" : ` ${i}`})`.slice(0, 100);
+    if (!(await scenarioNameTaken(db, baselineId, name))) return name;
+  }
+  return `${base.slice(0, 80)} (${randomUUID().slice(0, 8)})`;
 }
 
 export async function listScenarioRevisions(db: Q, scenarioId: string): Promise<ScenarioRevision[]> {

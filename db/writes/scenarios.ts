@@ -4,7 +4,7 @@ import type { Knex } from "knex";
 import type { ScenarioSettings } from "@/lib/scaling";
 import { writeAudit } from "@/db/audit";
 import { InvalidInputError, NotFoundError, StaleVersionError, fieldError } from "@/db/errors";
-import { getScenario, getScenarioRevision, scenarioNameTaken, type Scenario } from "@/db/queries/scenarios";
+import { freeScenarioName, getScenario, getScenarioRevision, scenarioNameTaken, type Scenario } from "@/db/queries/scenarios";
 
 /**
  * Every write of the scenario aggregate: the scenario row, its revisions and its audit rows. Each
@@ -255,6 +255,54 @@ export async function restoreScenario(conn: Conn, p: { id: string; teamId: strin
     });
     return saved;
   });
+}
+
+/**
+ * Copy a scenario (settings and notes) onto the same baseline, with its first revision and a "scenario.create" audit
+ * row naming the source; without a name, a free "X (copy)", "X (copy 2)", …; a given name that is taken is a 400 on
+ * `name`. Returns the new id.
+ */
+export async function duplicateScenario(conn: Conn, p: { id: string; teamId: string; userId: string; name?: string }): Promise<string> {
+  const id = randomUUID();
+  const now = Date.now();
+  await conn.transaction(async (trx) => {
+    const src = await getScenario(trx, p.id);
+    if (!src || src.teamId !== p.teamId) throw new NotFoundError("Scenario");
+    const name = p.name ?? (await freeScenarioName(trx, src.baselineId, src.name));
+    if (await scenarioNameTaken(trx, src.baselineId, name)) throw new InvalidInputError(NAME_TAKEN, fieldError("name", NAME_TAKEN));
+    await trx("scenarios").insert({
+      id,
+      team_id: src.teamId,
+      baseline_id: src.baselineId,
+      name,
+      notes: src.notes,
+      settings: JSON.stringify(src.settings),
+      version: 1,
+      is_demo: 0,
+      created_by: p.userId,
+      created_at: now,
+      updated_by: p.userId,
+      updated_at: now,
+    });
+    await writeRevision(trx, {
+      scenarioId: id,
+      version: 1,
+      userId: p.userId,
+      summary: `Duplicated from "${src.name}"`,
+      name,
+      notes: src.notes,
+      settings: src.settings,
+    });
+    await writeAudit(trx, {
+      teamId: src.teamId,
+      userId: p.userId,
+      action: "scenario.create",
+      entityType: "scenario",
+      entityId: id,
+      detail: { name, baselineId: src.baselineId, duplicatedFrom: src.id },
+    });
+  });
+  return id;
 }
 
 /** Delete a scenario (its revisions cascade). */

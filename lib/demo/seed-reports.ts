@@ -8,12 +8,12 @@ const DEMO_AUDIENCE_NOTE =
 
 /**
  * The demo's one report: the demo baseline against its three scenarios (plain shrink, air gap on the
- * intermediate tier, barrier-free ruthenium on local wires). Idempotent: a team that already has a demo
+ * intermediate tier, barrier-free ruthenium on local wires) and its two roadmap branches. Idempotent: a team that already has a demo
  * report keeps it, and its id is returned.
  */
 export async function seedDemoReports(
   db: Knex,
-  p: { teamId: string; ownerId: string; baselineId: string; scenarioIds: string[] },
+  p: { teamId: string; ownerId: string; baselineId: string; scenarioIds: string[]; roadmapIds?: string[] },
 ): Promise<{ reportId: string }> {
   const existing = await findDemoReportId(db, p.teamId);
   if (existing) return { reportId: existing };
@@ -27,6 +27,8 @@ export async function seedDemoReports(
       title: DEMO_REPORT_TITLE,
       audienceNote: DEMO_AUDIENCE_NOTE,
       metrics: ["delay", "rc", "capacitance", "repeaters", "energy", "overBudget"],
+      // the two roadmap branches (issue 14) frozen beside the scenarios
+      ...(p.roadmapIds?.length ? { roadmapIds: p.roadmapIds.slice(0, 3) } : {}),
     },
     isDemo: true,
   });

@@ -1,12 +1,14 @@
 import fs from "node:fs";
 import path from "node:path";
 import type { Knex } from "knex";
-import { findBaselineIdByName, findScenarioIdByName } from "@/db/queries/demo";
+import { findBaselineIdByName, findRoadmapIdByName, findScenarioIdByName } from "@/db/queries/demo";
 import { parseHistogramBins } from "@/lib/import/histograms";
 import { parseWireClassCsv } from "@/lib/import/wire-classes";
 import { DEFAULT_TECHNOLOGY, type ScenarioSettings, type Technology } from "@/lib/scaling/client";
 import { createBaseline } from "@/db/writes/baselines";
+import { createRoadmap } from "@/db/writes/roadmaps";
 import { createScenario } from "@/db/writes/scenarios";
+import { roadmapStepsSchema } from "@/lib/validation/roadmap";
 import { scenarioSettingsSchema } from "@/lib/validation/scenario";
 import { wireClassListSchema } from "@/lib/validation/wire-class";
 import { normalizeSettings } from "@/lib/workspace/settings";
@@ -33,7 +35,7 @@ export const DEMO_TEMPERATURE_C = 85;
 export async function seedDemoWorkspace(
   db: Knex,
   p: { teamId: string; ownerId: string; editorId: string },
-): Promise<{ baselineId: string; scenarioIds: string[] }> {
+): Promise<{ baselineId: string; scenarioIds: string[]; roadmapIds: string[] }> {
   const dir = examplesDir();
   const read = (f: string) => fs.readFileSync(path.join(dir, f), "utf8");
   // The one default technology, with the wiring at 85 °C: a product's hot corner, as planners use it (new baselines
@@ -82,5 +84,27 @@ export async function seedDemoWorkspace(
       }),
     );
   }
-  return { baselineId, scenarioIds };
+
+  // The two roadmaps (issue 14): validated like the API's input, composed against the baseline by the write.
+  const roadmaps = JSON.parse(read("skua-roadmaps.json")) as { name: string; steps: unknown }[];
+  const roadmapIds: string[] = [];
+  for (const r of roadmaps) {
+    const found = await findRoadmapIdByName(db, baselineId, r.name);
+    if (found) {
+      roadmapIds.push(found);
+      continue;
+    }
+    roadmapIds.push(
+      await createRoadmap(db, {
+        teamId: p.teamId,
+        baselineId,
+        userId: p.editorId,
+        name: r.name,
+        steps: roadmapStepsSchema.parse(r.steps),
+        isDemo: true,
+        summary: "Seeded the invented demo roadmap",
+      }),
+    );
+  }
+  return { baselineId, scenarioIds, roadmapIds };
 }

@@ -26,6 +26,7 @@ export interface DemoSeedResult {
   users: { role: Role; email: string; password: string; userId: string; created: boolean }[];
   baselineId?: string;
   scenarioIds?: string[];
+  roadmapIds?: string[];
   reportId?: string;
 }
 
@@ -62,7 +63,7 @@ export async function seedDemo(db: Knex): Promise<DemoSeedResult> {
 
   const ownerId = core.users.find((u) => u.role === "owner")!.userId;
   const editorId = core.users.find((u) => u.role === "editor")!.userId;
-  const { baselineId, scenarioIds } = await seedDemoWorkspace(db, { teamId: core.teamId, ownerId, editorId });
-  const { reportId } = await seedDemoReports(db, { teamId: core.teamId, ownerId, baselineId, scenarioIds });
-  return { ...core, baselineId, scenarioIds, reportId };
+  const { baselineId, scenarioIds, roadmapIds } = await seedDemoWorkspace(db, { teamId: core.teamId, ownerId, editorId });
+  const { reportId } = await seedDemoReports(db, { teamId: core.teamId, ownerId, baselineId, scenarioIds, roadmapIds });
+  return { ...core, baselineId, scenarioIds, roadmapIds, reportId };
 }

@@ -83,7 +83,9 @@ function row(option: string, scenario: string, level: string, r: FrozenClassResu
 /**
  * The report's side-by-side table as CSV: for each chosen class a baseline row then one row per option,
  * units in the headers, every text cell (class and scenario names included) neutralised against formula
- * injection by lib/csv-safe.ts. A second block lists the per-option totals behind the headline cards.
+ * injection by lib/csv-safe.ts; after the options, one row per step of each frozen roadmap ("Roadmap R1 N2", the
+ * roadmap's name in the scenario column, changes against N0). A second block lists the per-option (and per roadmap
+ * step) totals behind the headline cards.
  */
 export function reportCsv(title: string, report: FrozenReport): string {
   let out = csvLine(COLUMNS);
@@ -94,6 +96,13 @@ export function reportCsv(title: string, report: FrozenReport): string {
     for (const o of report.options) {
       const c = o.evaluation.classes.find((x) => x.name === name);
       if (c) out += csvLine(row(`Option ${o.key}`, o.name, o.evaluation.level, c.scenario, c.baseline));
+    }
+    // one row per roadmap step (issue 14), each against N0 (the baseline): "Roadmap R1 N2"
+    for (const r of report.roadmaps ?? []) {
+      for (const st of r.steps) {
+        const c = st.evaluation.classes.find((x) => x.name === name);
+        if (c) out += csvLine(row(`Roadmap ${r.key} ${st.name}`, r.name, st.evaluation.level, c.scenario, c.baseline));
+      }
     }
   }
   out += "\r\n";
@@ -127,6 +136,12 @@ export function reportCsv(title: string, report: FrozenReport): string {
   for (const o of report.options) {
     const worst = worstClassDelay(o.evaluation.classes.map((c) => c.scenario)).delayS;
     out += csvLine(totalsRow(`Option ${o.key}`, o.name, o.evaluation.totals.scenario, worst));
+  }
+  for (const r of report.roadmaps ?? []) {
+    for (const st of r.steps) {
+      const worst = worstClassDelay(st.evaluation.classes.map((c) => c.scenario)).delayS;
+      out += csvLine(totalsRow(`Roadmap ${r.key} ${st.name}`, r.name, st.evaluation.totals.scenario, worst));
+    }
   }
   return out;
 }

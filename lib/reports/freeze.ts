@@ -1,10 +1,12 @@
 import {
   ENGINE_VERSION,
   MODEL_LEVELS,
+  evaluateRoadmap,
   evaluateScenario,
   ownEntry,
   sweep,
   type Evaluation,
+  type RoadmapStep,
   type ScenarioSettings,
   type Technology,
   type WireClass,
@@ -23,6 +25,8 @@ import { scopeToChosenClasses } from "./scope";
 export interface FreezeInput {
   baseline: { id: string; name: string; description: string; version: number; technology: Technology; classes: WireClass[] };
   scenarios: { id: string; name: string; notes: string; version: number; settings: ScenarioSettings }[];
+  /** Roadmaps on the same baseline (issue 14), frozen beside the options; none when absent. */
+  roadmaps?: { id: string; name: string; version: number; steps: RoadmapStep[] }[];
   classNames?: string[];
   metrics?: ReportMetric[];
 }
@@ -44,8 +48,9 @@ export class UnknownClassError extends Error {
 /**
  * Runs the engine on the server and returns ONE self-contained document: the inputs (baseline classes and
  * technology, each scenario's settings), each option's Evaluation, the delay-vs-S sweeps of the chosen
- * classes, the engine version and model levels. Reading a report never calls the engine again, so later
- * edits to the scenarios, or a new engine version, leave it unchanged.
+ * classes, the engine version and model levels, and each chosen roadmap's steps with their composed settings and
+ * evaluations. Reading a report never calls the engine again, so later edits to the scenarios or roadmaps, or a new
+ * engine version, leave it unchanged.
  */
 export function freezeReport(input: FreezeInput, now = Date.now()): FrozenReport {
   const { baseline, scenarios } = input;
@@ -80,6 +85,29 @@ export function freezeReport(input: FreezeInput, now = Date.now()): FrozenReport
     evaluation: binsTrimmed ? trimBins(evaluations[i]!) : evaluations[i]!,
   }));
 
+  // Roadmaps: each step's settings without the classes not chosen (as for the options), composed and evaluated
+  // against N0 on the chosen classes only.
+  const roadmaps = (input.roadmaps ?? []).map((r, i) => {
+    const steps: RoadmapStep[] = r.steps.map((st) => ({
+      ...st,
+      settings: st.settings.overrides ? { ...st.settings, overrides: Object.fromEntries(Object.entries(st.settings.overrides).filter(([name]) => chosen.has(name))) } : st.settings,
+    }));
+    const evaluated = evaluateRoadmap({ classes, technology: baseline.technology, steps }).steps;
+    return {
+      key: `R${i + 1}`,
+      roadmapId: r.id,
+      name: r.name,
+      version: r.version,
+      steps: steps.map((st, j) => ({
+        name: st.name,
+        ...(st.fromScenarioId ? { fromScenarioId: st.fromScenarioId } : {}),
+        settings: st.settings,
+        composed: evaluated[j]!.settings,
+        evaluation: binsTrimmed ? trimBins(evaluated[j]!.evaluation) : evaluated[j]!.evaluation,
+      })),
+    };
+  });
+
   const doc = {
     schemaVersion: FROZEN_SCHEMA_VERSION,
     createdAt: now,
@@ -102,6 +130,7 @@ export function freezeReport(input: FreezeInput, now = Date.now()): FrozenReport
     metrics,
     sweeps: freezeSweeps(scoped, classNames.slice(0, MAX_SWEEP_CLASSES), evaluations),
     binsTrimmed,
+    ...(roadmaps.length > 0 ? { roadmaps } : {}),
   } satisfies FrozenReport;
   // Round-trip through JSON and the schema: what is stored is exactly what every later read will accept.
   return scopeToChosenClasses(frozenReportSchema.parse(JSON.parse(JSON.stringify(doc, finiteOrNull))));

@@ -18,6 +18,15 @@ export function scopeToChosenClasses(f: FrozenReport): FrozenReport {
     settings: { ...o.settings, overrides: keep(o.settings.overrides) },
     evaluation: { ...o.evaluation, classes: o.evaluation.classes.filter((c) => chosen.has(c.name)) },
   }));
+  const roadmaps = f.roadmaps?.map((r) => ({
+    ...r,
+    steps: r.steps.map((st) => ({
+      ...st,
+      settings: st.settings.overrides ? { ...st.settings, overrides: keep(st.settings.overrides) } : st.settings,
+      composed: { ...st.composed, overrides: keep(st.composed.overrides) },
+      evaluation: { ...st.evaluation, classes: st.evaluation.classes.filter((c) => chosen.has(c.name)) },
+    })),
+  }));
   // metals the shown classes use: their own, the options' global fill and their overrides' fills
   const metals = new Set<string>(classes.map((c) => c.metal));
   for (const o of options) {
@@ -25,6 +34,7 @@ export function scopeToChosenClasses(f: FrozenReport): FrozenReport {
     for (const ov of Object.values(o.settings.overrides)) if (ov.metal) metals.add(ov.metal);
     for (const c of o.evaluation.classes) metals.add(c.scenario.metal).add(c.baseline.metal);
   }
+  for (const st of (roadmaps ?? []).flatMap((r) => r.steps)) for (const c of st.evaluation.classes) metals.add(c.scenario.metal);
   const { materials, ...technology } = f.baseline.technology;
   const metalId = (id: string) => {
     try {
@@ -40,5 +50,6 @@ export function scopeToChosenClasses(f: FrozenReport): FrozenReport {
     baseline: { ...f.baseline, technology: kept && Object.keys(kept).length > 0 ? { ...technology, materials: kept } : technology, classes },
     options,
     sweeps: f.sweeps.filter((s) => chosen.has(s.className)),
+    ...(roadmaps ? { roadmaps } : {}),
   };
 }

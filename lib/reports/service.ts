@@ -4,7 +4,8 @@ import type { Knex } from "knex";
 import { ConflictError, InvalidInputError, NotFoundError, fieldError } from "@/db/errors";
 import { getReport, loadReportSources, type StoredReport } from "@/db/queries/reports";
 import { storeReport } from "@/db/writes/reports";
-import type { ScenarioSettings, Technology } from "@/lib/scaling";
+import { RoadmapInputError, type RoadmapStep, type ScenarioSettings, type Technology } from "@/lib/scaling";
+import { roadmapStepsSchema } from "@/lib/validation/roadmap";
 import { frozenReportSchema, settingsSnapshotSchema, technologySnapshotSchema, type ComposeReport, type FrozenReport } from "@/lib/validation/report";
 import { defaultScenarioSettings } from "@/lib/workspace/settings";
 import { freezeReport, UnknownClassError, type FreezeInput } from "./freeze";
@@ -15,6 +16,11 @@ import { scopeToChosenClasses } from "./scope";
  * store through db/writes/reports.ts; read and check stored documents. Every function takes the Knex
  * instance first. Errors are the domain errors of db/errors.ts (apiRoute answers them).
  */
+
+/** The chosen roadmaps' steps as stored, checked against the roadmap step schema (lib/validation/roadmap.ts). */
+function stepsFromStored(raw: RoadmapStep[]): RoadmapStep[] {
+  return roadmapStepsSchema.parse(raw) as RoadmapStep[];
+}
 
 /** Scenario settings as stored, with the workspace's defaults for fields an older row may lack. */
 export function settingsFromStored(raw: unknown, technology: Technology): ScenarioSettings {
@@ -29,13 +35,14 @@ export function settingsFromStored(raw: unknown, technology: Technology): Scenar
  */
 export async function loadReportInputs(
   conn: Knex,
-  p: { teamId: string; baselineId: string; scenarioIds: string[] },
-): Promise<Pick<FreezeInput, "baseline" | "scenarios">> {
+  p: { teamId: string; baselineId: string; scenarioIds: string[]; roadmapIds?: string[] },
+): Promise<Pick<FreezeInput, "baseline" | "scenarios" | "roadmaps">> {
   const src = await loadReportSources(conn, p);
   const technology = technologySnapshotSchema.parse(src.baseline.technology) as Technology;
   return {
     baseline: { ...src.baseline, technology },
     scenarios: src.scenarios.map((s) => ({ ...s, settings: settingsFromStored(s.settings, technology) })),
+    roadmaps: src.roadmaps.map((r) => ({ ...r, steps: stepsFromStored(r.steps) })),
   };
 }
 
@@ -45,6 +52,11 @@ function freeze(input: FreezeInput): FrozenReport {
     return freezeReport(input);
   } catch (e) {
     if (e instanceof UnknownClassError) throw new InvalidInputError(e.message, fieldError("classNames", e.message));
+    // A chosen roadmap that no longer fits the baseline (a class removed since it was saved): name the roadmap field.
+    if (e instanceof RoadmapInputError) {
+      const message = `A chosen roadmap does not fit the baseline: ${e.message}`;
+      throw new InvalidInputError(message, fieldError("roadmapIds", message));
+    }
     // The engine refuses impossible geometry (e.g. a barrier that fills the scaled line): the user's inputs, not our fault.
     if (e instanceof RangeError) throw new InvalidInputError(`The engine cannot evaluate these inputs: ${e.message}`);
     throw e;
@@ -56,7 +68,12 @@ export async function composeReport(
   conn: Knex,
   p: { teamId: string; userId: string; input: ComposeReport; seriesId?: string; isDemo?: boolean },
 ): Promise<{ id: string; seriesId: string; version: number }> {
-  const loaded = await loadReportInputs(conn, { teamId: p.teamId, baselineId: p.input.baselineId, scenarioIds: p.input.scenarioIds });
+  const loaded = await loadReportInputs(conn, {
+    teamId: p.teamId,
+    baselineId: p.input.baselineId,
+    scenarioIds: p.input.scenarioIds,
+    roadmapIds: p.input.roadmapIds,
+  });
   const frozen = freeze({ ...loaded, classNames: p.input.classNames, metrics: p.input.metrics });
   return storeReport(conn, {
     teamId: p.teamId,
@@ -90,11 +107,15 @@ export async function refreshReport(conn: Knex, report: StoredReport, userId: st
         audienceNote: report.audienceNote,
         classNames: report.frozen.classNames,
         metrics: report.frozen.metrics,
+        ...(report.frozen.roadmaps ? { roadmapIds: report.frozen.roadmaps.map((r) => r.roadmapId).filter((x): x is string => Boolean(x)) } : {}),
       },
     });
   } catch (e) {
     if (e instanceof NotFoundError)
       throw new ConflictError(`${e.message.replace(/\.$/, "")}: it was deleted since this report was made; compose a new report instead.`);
+    if (e instanceof InvalidInputError && e.fields?.roadmapIds) {
+      throw new ConflictError("A roadmap of this report no longer fits the baseline; compose a new report instead.");
+    }
     if (e instanceof InvalidInputError && e.fields?.classNames) {
       throw new ConflictError("A class of this report is no longer in the baseline; compose a new report instead.");
     }
@@ -139,7 +160,14 @@ export function publicReport(r: StoredReport): PublicReport {
     audienceNote: r.audienceNote,
     version: r.version,
     createdAt: r.createdAt,
-    frozen: { ...f, baseline, options: f.options.map(({ scenarioId: _sid, ...o }) => o) },
+    frozen: {
+      ...f,
+      baseline,
+      options: f.options.map(({ scenarioId: _sid, ...o }) => o),
+      ...(f.roadmaps
+        ? { roadmaps: f.roadmaps.map(({ roadmapId: _rid, ...r }) => ({ ...r, steps: r.steps.map(({ fromScenarioId: _fsid, ...st }) => st) })) }
+        : {}),
+    },
   };
 }
 

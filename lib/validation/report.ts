@@ -20,6 +20,7 @@ import {
   type MetalOverride,
   type ModelLevel,
   type RepeaterResult,
+
   type ScenarioSettings,
   type SweepMetric,
   type SweepPoint,
@@ -29,6 +30,7 @@ import {
   type ValidityFlag,
   type WireClass,
 } from "@/lib/scaling/types";
+import type { RoadmapClassStep, RoadmapStepSettings } from "@/lib/scaling/client";
 import { mirrorOf, type NullableFields, type OptionalFields, type Same } from "./mirror";
 import { cleanText } from "./text";
 import { classNameSchema } from "./wire-class";
@@ -77,8 +79,16 @@ export const composeReportSchema = z
       .min(1, "Pick at least one metric.")
       .refine((m) => new Set(m).size === m.length, "Each metric can appear only once.")
       .optional(),
+    /** Roadmaps (issue 14) of the team on the same baseline, frozen beside the scenarios: 0 to MAX_REPORT_ROADMAPS. */
+    roadmapIds: z
+      .array(idSchema("Roadmap"), { error: "roadmapIds must be a list of roadmap ids." })
+      .max(3, "Pick at most 3 roadmaps.")
+      .refine((ids) => new Set(ids).size === ids.length, "Each roadmap can appear only once.")
+      .optional(),
   })
   .strict();
+/** Roadmaps one report freezes at most (a chain and up to two alternative branches). */
+export const MAX_REPORT_ROADMAPS = 3;
 export type ComposeReport = z.infer<typeof composeReportSchema>;
 
 export const SHARE_LINK_DEFAULT_DAYS = 14;
@@ -197,6 +207,17 @@ export const settingsSnapshotSchema = mirrorOf<ScenarioSettings>()(
     airGap: airGapSnapshotSchema.nullable().optional(),
     overrides: z.record(z.string(), classOverrideSnapshotSchema),
   }),
+);
+
+/**
+ * The relative settings of a roadmap step as frozen (issue 14, lib/scaling/roadmap.ts RoadmapStepSettings): any
+ * scenario setting, all optional, and per class a target pitch besides the override's fields.
+ */
+export const roadmapStepSettingsSnapshotSchema = mirrorOf<RoadmapStepSettings>()(
+  settingsSnapshotSchema
+    .omit({ overrides: true })
+    .partial()
+    .extend({ overrides: z.record(z.string(), mirrorOf<RoadmapClassStep>()(classOverrideSnapshotSchema.extend({ targetPitchM: num.optional() }))).optional() }),
 );
 
 /** A baseline class as frozen: the engine's WireClass plus the size of its stored histogram (kept when the bins were not). */
@@ -486,6 +507,30 @@ export const frozenOptionSchema = z.object({
   evaluation: evaluationSnapshotSchema,
 });
 
+/**
+ * A roadmap step as frozen (issue 14): the step as entered (`settings` relative to the step before, as the roadmap
+ * stores it), the composed absolute settings against N0 and the evaluation against N0. `fromScenarioId` is left out of
+ * the share-link view.
+ */
+export const frozenRoadmapStepSchema = z.object({
+  name: z.string(),
+  fromScenarioId: z.string().optional(),
+  settings: roadmapStepSettingsSnapshotSchema,
+  composed: settingsSnapshotSchema,
+  evaluation: evaluationSnapshotSchema,
+});
+
+/** A roadmap as frozen in a report: its steps N1 … in order (N0 is the report's baseline). */
+export const frozenRoadmapSchema = z.object({
+  /** "R1", "R2", … in the order the roadmaps were picked. */
+  key: z.string().regex(/^R[1-9]$/),
+  /** Source roadmap id; left out of the share-link view. */
+  roadmapId: z.string().optional(),
+  name: z.string(),
+  version: z.number().int(),
+  steps: z.array(frozenRoadmapStepSchema).min(1),
+});
+
 export const FROZEN_SCHEMA_VERSION = 1;
 
 export const frozenReportSchema = z.object({
@@ -508,8 +553,11 @@ export const frozenReportSchema = z.object({
   sweeps: z.array(frozenSweepSchema),
   /** Histogram bins were dropped from the frozen results (too many to keep); totals were computed with them. */
   binsTrimmed: z.boolean(),
+  /** Roadmaps frozen beside the options (issue 14); absent when the report names none (and in reports frozen before). */
+  roadmaps: z.array(frozenRoadmapSchema).max(3).optional(),
 });
 export type FrozenReport = z.infer<typeof frozenReportSchema>;
 export type FrozenOption = z.infer<typeof frozenOptionSchema>;
 export type FrozenSweep = z.infer<typeof frozenSweepSchema>;
+export type FrozenRoadmap = z.infer<typeof frozenRoadmapSchema>;
 export type FrozenClassResult = z.infer<typeof classResultSchema>;

@@ -115,6 +115,13 @@ export const scenarioRestoreSchema = z.object({
   version: versionSchema,
 });
 
+/** Body of POST /api/scenarios/[id]/duplicate (optional): the copy's name; without one, a free "X (copy)". */
+export const scenarioDuplicateSchema = z
+  .object({ name: nameSchema.optional() })
+  .strict()
+  .optional()
+  .transform((v) => v ?? {});
+
 /** Body of POST /api/scenarios/[id]/evaluate: optional unsaved settings. */
 export const scenarioEvaluateSchema = z
   .object({ settings: scenarioSettingsSchema.optional() })

@@ -1,6 +1,6 @@
 import "server-only";
 import type { Knex } from "knex";
-import { evaluateScenario, type Evaluation, type ScenarioSettings, type Technology, type WireClass } from "@/lib/scaling";
+import { evaluateRoadmap, evaluateScenario, type Evaluation, type RoadmapStep, type ScenarioSettings, type Technology, type WireClass } from "@/lib/scaling";
 import { getBaseline, type Baseline } from "@/db/queries/baselines";
 import { listClassesWithHistograms } from "@/db/queries/wire-classes";
 import { badRequest } from "@/lib/api";
@@ -20,6 +20,19 @@ export function evaluateOrThrow(p: { classes: WireClass[]; technology: Technolog
     return evaluateScenario(p);
   } catch (e) {
     if (e instanceof RangeError) throw badRequest(`These settings cannot be evaluated: ${e.message}`, { settings: [e.message] });
+    throw e;
+  }
+}
+
+/**
+ * evaluateRoadmap, with the engine's RangeError (e.g. a fixed barrier that fills a scaled line at some step) as a 400;
+ * RoadmapInputError (steps that do not fit the baseline) becomes a 400 in lib/api.ts.
+ */
+export function evaluateRoadmapOrThrow(p: { classes: WireClass[]; technology: Technology; steps: RoadmapStep[] }): ReturnType<typeof evaluateRoadmap> {
+  try {
+    return evaluateRoadmap(p);
+  } catch (e) {
+    if (e instanceof RangeError) throw badRequest(`This roadmap cannot be evaluated: ${e.message}`, { steps: [e.message] });
     throw e;
   }
 }

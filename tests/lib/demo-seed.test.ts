@@ -3,6 +3,8 @@ import type { Knex } from "knex";
 import { tempDb } from "../helpers/temp-db";
 import { DEMO_TEAM_NAME, DEMO_USERS, seedDemo } from "@/lib/demo/seed";
 import { verifyPassword } from "@/lib/password";
+import { listClassesWithHistograms } from "@/db/queries/wire-classes";
+import { composeRoadmap } from "@/lib/scaling";
 
 let db: Knex;
 let close: () => Promise<void>;
@@ -11,7 +13,7 @@ beforeAll(async () => {
 });
 afterAll(() => close());
 
-const TABLES = ["users", "teams", "memberships", "baselines", "wire_classes", "class_histograms", "scenarios", "reports", "audit_log"];
+const TABLES = ["users", "teams", "memberships", "baselines", "wire_classes", "class_histograms", "scenarios", "roadmaps", "roadmap_revisions", "reports", "audit_log"];
 async function counts(): Promise<Record<string, number>> {
   const out: Record<string, number> = {};
   for (const t of TABLES) out[t] = Number(((await db(t).count({ n: "*" }).first()) as { n: number }).n);
@@ -41,9 +43,33 @@ describe("seedDemo", () => {
     expect(r.reportId).toBeTruthy();
   });
 
+  it("gives the demo baseline two three-step roadmaps (issue 14) that compose against its classes", async () => {
+    const team = await db("teams").where({ is_demo: 1 }).first("id");
+    const rows: { name: string; steps: string; baseline_id: string; is_demo: number }[] = await db("roadmaps").where({ team_id: team.id }).orderBy("name");
+    expect(rows.map((x) => x.name)).toEqual(["Barrier-free local, air-gapped intermediate", "Copper, fixed barrier"]);
+    const baseline = await db("baselines").where({ team_id: team.id }).first("id", "technology");
+    const classes = (await listClassesWithHistograms(db, baseline.id)).map(({ id: _i, position: _p, histogramBins: _h, ...c }) => c);
+    const technology = JSON.parse(baseline.technology);
+    for (const row of rows) {
+      expect(row).toMatchObject({ baseline_id: baseline.id, is_demo: 1 });
+      const steps = JSON.parse(row.steps);
+      expect(steps.map((s: { name: string }) => s.name)).toEqual(["N1", "N2", "N3"]);
+      const composed = composeRoadmap({ classes, technology, steps });
+      // Issue 14 composition: S of a class is the product over the steps; local pitch targets 48 → 38 → 30 → 24 nm (invented) give S = 2 at N3.
+      expect(composed[2]!.overrides.local!.s).toBeCloseTo(48 / 24, 12);
+    }
+    const ru = composeRoadmap({ classes, technology, steps: JSON.parse(rows[0]!.steps) });
+    // carried forward: Ru without barrier on local from N1, the air gap on intermediate from N2
+    expect(ru[2]!.overrides.local).toMatchObject({ metal: "Ru", barrierM: 0 });
+    expect(ru[0]!.overrides.intermediate?.airGap).toBeUndefined();
+    expect(ru[2]!.overrides.intermediate!.airGap).toEqual({ kGap: 1, gapFraction: 1 });
+    const cu = composeRoadmap({ classes, technology, steps: JSON.parse(rows[1]!.steps) });
+    expect(cu[2]!.overrides.local?.metal ?? cu[2]!.metal ?? "Cu").toBe("Cu");
+  });
+
   it("is idempotent: a second run changes nothing and keeps later edits", async () => {
     const first = await counts();
-    expect(first).toMatchObject({ class_histograms: 4, "histogram bins": 192 });
+    expect(first).toMatchObject({ class_histograms: 4, "histogram bins": 192, roadmaps: 2, roadmap_revisions: 2 });
     const team = await db("teams").where({ is_demo: 1 }).first("id");
     // A user's later change (a role change by the owner) must survive a re-run.
     const viewer = await db("users").where({ email: "viewer@harrowbay.example" }).first("id");
