@@ -23,6 +23,7 @@ import { useEvaluation, type EvaluationState } from "./use-evaluation";
 import { explainEngineError } from "@/lib/workspace/engine-errors";
 import { countChange, FIGURE_DEFINITION, FIGURE_LABEL, worstClassDelay } from "@/lib/figures";
 import { ConfirmDelete } from "@/components/ui/confirm-delete";
+import { DuplicateScenario } from "./duplicate-scenario";
 
 // Charts (visx) and the field check load in the browser after the first paint: the settings and the results
 // table do not wait for them (first-load JS without visx).
@@ -298,6 +299,11 @@ export function ScenarioEditor(props: {
             </>
           )}
         </div>
+        {!readOnly ? (
+          <div className="w-full">
+            <DuplicateScenario teamId={teamId} scenarioId={scenario.id} name={scenario.name} unsaved={dirty} />
+          </div>
+        ) : null}
       </header>
 
       {conflict ? (
