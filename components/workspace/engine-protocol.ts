@@ -1,4 +1,18 @@
-import type { Evaluation, FieldSolveInput, FieldSolveResult, LineCapacitanceInput, SweepCurve, evaluateScenario, lineCapacitance, sweep } from "@/lib/scaling";
+import type {
+  Evaluation,
+  FieldSolveInput,
+  FieldSolveResult,
+  LineCapacitanceInput,
+  ModelLevel,
+  RoadmapStep,
+  SweepCurve,
+  Technology,
+  WireClass,
+  evaluateRoadmap,
+  evaluateScenario,
+  lineCapacitance,
+  sweep,
+} from "@/lib/scaling";
 
 /** What the worker sweeps: the engine's `sweep` input, plus one x to compute every curve at. */
 export type SweepArgs = Parameters<typeof sweep>[0] & {
@@ -15,17 +29,33 @@ export type EvaluateArgs = Parameters<typeof evaluateScenario>[0];
 export type CapacitanceArgs = Omit<LineCapacitanceInput, "model">;
 export type CapacitanceModels = { accurate: ReturnType<typeof lineCapacitance>; published: ReturnType<typeof lineCapacitance> };
 
+/**
+ * Roadmaps to evaluate in the worker (the one on screen and up to two branches), each at every model level asked for:
+ * the engine's `evaluateRoadmap` with the level set on the first step (levels carry forward, so every step is at it).
+ */
+export interface RoadmapArgs {
+  classes: WireClass[];
+  technology: Technology;
+  chains: { key: string; steps: RoadmapStep[] }[];
+  levels: ModelLevel[];
+}
+export type RoadmapEvaluation = ReturnType<typeof evaluateRoadmap>;
+/** Per chain: per level its evaluation, or the engine's message when the chain does not compose. */
+export type RoadmapResults = { key: string; byLevel: Partial<Record<ModelLevel, RoadmapEvaluation>>; error?: string }[];
+
 export type WorkerRequest =
   | { id: number; kind: "sweep"; args: SweepArgs }
   | { id: number; kind: "field"; args: FieldArgs }
   | { id: number; kind: "evaluate"; args: EvaluateArgs }
-  | { id: number; kind: "capacitance"; args: CapacitanceArgs };
+  | { id: number; kind: "capacitance"; args: CapacitanceArgs }
+  | { id: number; kind: "roadmap"; args: RoadmapArgs };
 
 export type WorkerResponse =
   | { id: number; kind: "sweep"; curves: SweepCurve[]; reference?: SweepCurve[]; elapsedMs: number }
   | { id: number; kind: "field"; result: FieldSolveResult }
   | { id: number; kind: "evaluate"; evaluation: Evaluation; elapsedMs: number }
   | { id: number; kind: "capacitance"; models: CapacitanceModels }
+  | { id: number; kind: "roadmap"; results: RoadmapResults; elapsedMs: number }
   | { id: number; kind: "progress"; fraction: number }
   | { id: number; kind: "superseded" }
   | { id: number; kind: "error"; message: string };

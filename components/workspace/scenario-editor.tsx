@@ -422,7 +422,15 @@ export function ScenarioEditor(props: {
                   : `${Object.keys(s.overrides).length} class${Object.keys(s.overrides).length === 1 ? "" : "es"} with overrides: ${Object.keys(s.overrides).join(", ")}`}
               </summary>
               <div className="mt-2">
-                <ClassOverrides overrides={s.overrides} globalK={s.k} onOverrides={setOverrides} classes={classes} readOnly={readOnly} errors={shownErrors} />
+                <ClassOverrides
+                  overrides={s.overrides}
+                  globalK={s.k}
+                  globalS={s.s}
+                  onOverrides={setOverrides}
+                  classes={classes}
+                  readOnly={readOnly}
+                  errors={shownErrors}
+                />
               </div>
             </details>
           </Card>
