@@ -3,12 +3,7 @@ import type {
   FieldSolveInput,
   FieldSolveResult,
   LineCapacitanceInput,
-  ModelLevel,
-  RoadmapStep,
   SweepCurve,
-  Technology,
-  WireClass,
-  evaluateRoadmap,
   evaluateScenario,
   lineCapacitance,
   sweep,
@@ -29,19 +24,8 @@ export type EvaluateArgs = Parameters<typeof evaluateScenario>[0];
 export type CapacitanceArgs = Omit<LineCapacitanceInput, "model">;
 export type CapacitanceModels = { accurate: ReturnType<typeof lineCapacitance>; published: ReturnType<typeof lineCapacitance> };
 
-/**
- * Roadmaps to evaluate in the worker (the one on screen and up to two branches), each at every model level asked for:
- * the engine's `evaluateRoadmap` with the level set on the first step (levels carry forward, so every step is at it).
- */
-export interface RoadmapArgs {
-  classes: WireClass[];
-  technology: Technology;
-  chains: { key: string; steps: RoadmapStep[] }[];
-  levels: ModelLevel[];
-}
-export type RoadmapEvaluation = ReturnType<typeof evaluateRoadmap>;
-/** Per chain: per level its evaluation, or the engine's message when the chain does not compose. */
-export type RoadmapResults = { key: string; byLevel: Partial<Record<ModelLevel, RoadmapEvaluation>>; error?: string }[];
+export type { RoadmapArgs, RoadmapEvaluation, RoadmapResults } from "@/lib/workspace/roadmap-evaluate";
+import type { RoadmapArgs, RoadmapResults } from "@/lib/workspace/roadmap-evaluate";
 
 export type WorkerRequest =
   | { id: number; kind: "sweep"; args: SweepArgs }

@@ -1,7 +1,8 @@
 /// <reference lib="webworker" />
 // The engine off the main thread: evaluations, sweeps and the field check (the main thread's bundle carries no engine).
-import { evaluateRoadmap, evaluateScenario, fieldSolve, lineCapacitance, sweep, type FieldSolveInput, type ModelLevel } from "@/lib/scaling";
-import type { RoadmapArgs, RoadmapEvaluation, RoadmapResults, WorkerRequest, WorkerResponse } from "./engine-protocol";
+import { evaluateScenario, fieldSolve, lineCapacitance, sweep, type FieldSolveInput } from "@/lib/scaling";
+import { roadmapResults } from "@/lib/workspace/roadmap-evaluate";
+import type { WorkerRequest, WorkerResponse } from "./engine-protocol";
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 let pendingSweep: Extract<WorkerRequest, { kind: "sweep" }> | null = null;
@@ -45,25 +46,6 @@ function runPendingEval() {
   } catch (e) {
     post({ id: req.id, kind: "error", message: e instanceof Error ? e.message : String(e) });
   }
-}
-
-/** Every chain at every level asked for; a chain that does not compose keeps the engine's message. */
-function roadmapResults(args: RoadmapArgs): RoadmapResults {
-  return args.chains.map((chain) => {
-    const byLevel: Partial<Record<ModelLevel, RoadmapEvaluation>> = {};
-    try {
-      for (const level of args.levels) {
-        const steps = chain.steps.map((st, i) => {
-          const { level: _l, ...settings } = st.settings;
-          return { ...st, settings: i === 0 ? { ...settings, level } : settings };
-        });
-        byLevel[level] = evaluateRoadmap({ classes: args.classes, technology: args.technology, steps });
-      }
-      return { key: chain.key, byLevel };
-    } catch (e) {
-      return { key: chain.key, byLevel: {}, error: e instanceof Error ? e.message : String(e) };
-    }
-  });
 }
 
 // Roadmaps coalesce like evaluations: while a step is edited, only the newest queued request is computed.

@@ -96,6 +96,8 @@ export function lengthRuleSL(rule: LengthRule, s: number): number {
       return rule.sL;
     case "power":
       return s ** rule.exponent;
+    default:
+      return 1;
   }
 }
 
@@ -114,5 +116,7 @@ export function describeLengthRule(rule: LengthRule, s: number): string {
       return `lengths ${way} by a fixed factor: S_L = ${n3(rule.sL)} at any S`;
     case "power":
       return `lengths ${sl === 1 ? "scale" : way} as S^${n3(rule.exponent)}: S_L = ${n3(sl)} at S = ${n3(s)}`;
+    default:
+      return "";
   }
 }
