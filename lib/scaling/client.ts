@@ -9,7 +9,8 @@ export * from "./types";
 export { ENGINE_VERSION, EPSILON_0_F_PER_M, DEFAULT_OUTPUT_C_RATIO, DEFAULT_MIN_REPEATER_GAIN, DEFAULT_REPEATER_AREA_M2 } from "./constants";
 export { DEFAULT_TECHNOLOGY } from "./technology";
 export { coarsenHistogram, MAX_EVALUATED_BINS } from "./histogram";
-export { sFromTargetPitch } from "./scale";
+export { lengthFactor, sFromTargetPitch } from "./scale";
+export { composeRoadmap, MAX_ROADMAP_STEPS, RoadmapInputError, type RoadmapClassStep, type RoadmapStep, type RoadmapStepSettings } from "./roadmap-compose";
 export { metalAt, bulkResistivityAtOhmM, DEFAULT_TEMPERATURE_C, REFERENCE_TEMPERATURE_C } from "./resistance";
 export {
   parseQuantity,

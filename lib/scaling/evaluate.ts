@@ -124,7 +124,7 @@ for (const level of MODEL_LEVELS)
  * delay of the open-ended line with no driver, load or vias (exact 0.3787·RC, or Sakurai 0.377·RC; energy without
  * load). Other levels: driver × deviceRFactor plus the net's vias (lumped at the driver end), load × deviceCFactor,
  * the technology's stage-delay model (exact table by default, or Sakurai), Elmore delay; `full` adds size-effect
- * resistivity. Resistivity at the technology's temperatureC (default 25 °C) with its materials overrides.
+ * resistivity. Resistivity at the scenario's temperatureC, else the technology's (default 25 °C), with its materials overrides.
  * Repeaters (repeatedNet: the real driver → k repeaters of size h → the real load, inserted only when they cut the
  * delay by at least minRepeaterGain) use R0 × deviceRFactor and C0 × deviceCFactor; their input and output
  * capacitance count in energy and power, their leakage in power. A histogram over MAX_EVALUATED_BINS bins is merged
@@ -275,7 +275,7 @@ function capacitanceInto(
 /**
  * Geometry → C, R per length, driver, load and vias of one class at one scenario, into `e` (no allocation, no flags:
  * the same code serves the sweep and the evaluation; validityInto adds the flags where a result needs them).
- * Resistivity at the technology's temperature with its per-metal overrides (resistance.ts, metalAtInto).
+ * Resistivity at the scenario's temperature (else the technology's) with its per-metal overrides (resistance.ts, metalAtInto).
  */
 function electricalInto(wc: WireClass, tech: Technology, settings: ScenarioSettings, e: Electrical, override: ClassOverride | undefined): void {
   const level = settings.level;
@@ -285,7 +285,7 @@ function electricalInto(wc: WireClass, tech: Technology, settings: ScenarioSetti
   const bar = g.barrierM;
   const hb = g.ildBelowM;
   const ha = g.ildAboveM;
-  const tempC = tech.temperatureC ?? DEFAULT_TEMPERATURE_C;
+  const tempC = settings.temperatureC ?? tech.temperatureC ?? DEFAULT_TEMPERATURE_C;
   const base = getMetal(g.metal);
   const mats = tech.materials;
   const metalOverride = mats === undefined ? undefined : (mats[base.id] ?? mats[g.metal]);

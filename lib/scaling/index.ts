@@ -8,7 +8,17 @@ export { DEFAULT_TECHNOLOGY } from "./technology";
 export { baselineSettings, evaluateClass, evaluateScenario } from "./evaluate";
 export { coarsenHistogram, MAX_EVALUATED_BINS } from "./histogram";
 export { sweep, linspace, logspace } from "./sweep";
-export { sFromTargetPitch, scaleClass, type ScaledClass } from "./scale";
+export { lengthFactor, sFromTargetPitch, scaleClass, type ScaledClass } from "./scale";
+export {
+  composeRoadmap,
+  evaluateRoadmap,
+  MAX_ROADMAP_STEPS,
+  RoadmapInputError,
+  type RoadmapClassStep,
+  type RoadmapStep,
+  type RoadmapStepResult,
+  type RoadmapStepSettings,
+} from "./roadmap";
 export {
   lineCapacitance,
   parallelPlateFPerM,

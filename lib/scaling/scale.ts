@@ -5,7 +5,7 @@
  */
 import { ownEntry } from "./own";
 import { positive } from "./check";
-import type { ClassOverride, ScenarioSettings, WireClass } from "./types";
+import type { ClassOverride, LengthRule, ScenarioSettings, WireClass } from "./types";
 
 export interface ScaledClass {
   s: number;
@@ -69,7 +69,9 @@ export function scaleClassInto(wc: WireClass, settings: ScenarioSettings, out: S
  */
 export function scaleClassWith(wc: WireClass, settings: ScenarioSettings, o: ClassOverride | undefined, out: ScaledClass): ScaledClass {
   const s = o?.s ?? settings.s;
-  const sL = o?.sL ?? settings.sL;
+  // length factor: the class's rule, else its own S_L, else the scenario's rule, else the scenario's S_L
+  const rule = o?.lengthRule;
+  const sL = rule !== undefined ? lengthFactor(rule, s) : (o?.sL ?? (settings.lengthRule !== undefined ? lengthFactor(settings.lengthRule, s) : settings.sL));
   const widthM = wc.widthM / s;
   const barrierScales = settings.level === "ideal" ? true : (o?.barrierScales ?? settings.barrierScales);
   out.s = s;
@@ -101,6 +103,30 @@ export function scaleClassWith(wc: WireClass, settings: ScenarioSettings, o: Cla
   }
   out.miller = o?.miller ?? settings.miller;
   return out;
+}
+
+/**
+ * The length factor S_L a length rule gives at cross-section factor S: follows-s S, fixed 1, factor its sL, power
+ * S^exponent. No checks (checkSettings and the schemas hold the rule to its range).
+ */
+export function lengthFactor(rule: LengthRule, s: number): number {
+  switch (rule.kind) {
+    case "follows-s":
+      return s;
+    case "fixed":
+      return 1;
+    case "factor":
+      return rule.sL;
+    case "power":
+      return Math.pow(s, rule.exponent);
+  }
+}
+
+/**
+ * The length rule that stands for a plain length factor: S_L = 1 is `fixed`, any other a `factor`.
+ */
+export function ruleOfFactor(sL: number): LengthRule {
+  return sL === 1 ? { kind: "fixed" } : { kind: "factor", sL };
 }
 
 /**

@@ -213,9 +213,11 @@ export function sweep(p: {
   spacing?: "linear" | "log";
   classNames?: string[];
   /**
-   * S sweeps only: what the length factor does while S moves. "scenario" (default) keeps the scenario's S_L (and
-   * per-class S_L overrides); "follow" sets S_L = S (local-style wires that shrink with the cell); "fixed" sets
-   * S_L = 1 (global-style wires that keep their length). Ignored for S_L and k sweeps.
+   * S sweeps only: what the length factor does while S moves. "scenario" (default) keeps the scenario's length rules
+   * (each class's lengthRule, else its S_L override, else the scenario's lengthRule, else its S_L, applied at each S:
+   * S_L = rule(S)); "follow" sets S_L = S for every class (local-style wires that shrink with the cell); "fixed" sets
+   * S_L = 1 (global-style wires that keep their length); both replace every rule and S_L override. Ignored for S_L
+   * and k sweeps (an S_L sweep replaces every rule with the swept value).
    */
   lengthMode?: "scenario" | "follow" | "fixed";
   /**
@@ -237,22 +239,30 @@ export function sweep(p: {
   const key: keyof ClassOverride = p.variable;
   const lengthMode = p.variable === "s" ? (p.lengthMode ?? "scenario") : "scenario";
   const overrides: Record<string, ClassOverride> = {};
+  // the length rules: an S sweep in "scenario" mode applies each class's rule at each S (scaleClassWith); "follow"
+  // and "fixed" replace every rule and S_L; an S_L sweep replaces them with the swept value; a k sweep keeps them
+  const dropRules = p.variable === "sL" || lengthMode !== "scenario";
   for (const [name, o] of Object.entries(p.settings.overrides)) {
     const copy = { ...o };
     delete copy[key];
     if (lengthMode !== "scenario") delete copy.sL;
+    if (dropRules) delete copy.lengthRule;
     overrides[name] = copy;
   }
   const scratch: ValidityFlag[] = [];
   const nc = classes.length;
   const classOverrides = classes.map((wc) => ownEntry(overrides, wc.name));
   const nl = levels.length;
-  const bases: ScenarioSettings[] = levels.map((level) => ({
-    ...p.settings,
-    level,
-    overrides,
-    barrierScales: level === p.settings.level ? p.settings.barrierScales : level !== "full",
-  }));
+  const bases: ScenarioSettings[] = levels.map((level) => {
+    const st: ScenarioSettings = {
+      ...p.settings,
+      level,
+      overrides,
+      barrierScales: level === p.settings.level ? p.settings.barrierScales : level !== "full",
+    };
+    if (dropRules) delete st.lengthRule;
+    return st;
+  });
   // curve j = li·nc + i (level li, class i): its points, its skipped x and (CACHES[j]) its recent flag sets
   const points: SweepPoint[][] = new Array(nl * nc);
   const skipped: { x: number; reason: string }[][] = new Array(nl * nc);

@@ -142,6 +142,19 @@ export interface Technology {
   materialsSource?: string;
 }
 
+/**
+ * How a class's wire lengths follow a shrink S (the length factor S_L; lengths are divided by it):
+ * - follows-s: S_L = S (local-style wires that shrink with the cell)
+ * - fixed: S_L = 1 (global-style wires that keep their length)
+ * - factor: S_L = sL, a fixed factor > 0 whatever S is
+ * - power: S_L = S^exponent, 0 ≤ exponent ≤ 2 (0 = fixed, 1 = follows S)
+ */
+export type LengthRule = { kind: "follows-s" } | { kind: "fixed" } | { kind: "factor"; sL: number } | { kind: "power"; exponent: number };
+export type LengthRuleKind = LengthRule["kind"];
+export const LENGTH_RULE_KINDS: readonly LengthRuleKind[] = ["follows-s", "fixed", "factor", "power"];
+/** Largest exponent of a power-law length rule (S_L = S^a, 0 ≤ a ≤ 2). */
+export const MAX_LENGTH_RULE_EXPONENT = 2;
+
 /** Per-class changes a scenario makes on top of its global settings. */
 export interface ClassOverride {
   s?: number;
@@ -159,6 +172,8 @@ export interface ClassOverride {
    * baseline class or the global setting has one; absent = follow the global setting (or the baseline class).
    */
   airGap?: AirGap | null;
+  /** This class's length rule: S_L = rule(this class's S). Wins over `sL` here and over the scenario's sL and lengthRule. */
+  lengthRule?: LengthRule;
 }
 
 /** A scenario's settings: what-if scale factors and wiring options. */
@@ -184,6 +199,13 @@ export interface ScenarioSettings {
   metal: string | null;
   /** Air gap between the lines of every class (null or absent = each class keeps its baseline gap, if any). */
   airGap?: AirGap | null;
+  /**
+   * Length rule of every class without its own (ClassOverride.lengthRule or ClassOverride.sL): S_L = rule(the class's
+   * S). Absent = `sL` applies as the length factor.
+   */
+  lengthRule?: LengthRule;
+  /** Operating temperature of the scenario's wiring, °C (−273.15 to 400); absent = the technology's (default 25). */
+  temperatureC?: number;
   /** Per-class overrides keyed by class name. */
   overrides: Record<string, ClassOverride>;
 }

@@ -6,8 +6,8 @@
 import { getMetal, METALS } from "./materials";
 import { checkMetalOverride } from "./resistance";
 import { atLeast, inRange, nonNegative, positive } from "./check";
-import type { ClassOverride, ScenarioSettings, Technology, ValidityFlag, WireClass, AirGap } from "./types";
-import { TIERS } from "./types";
+import type { ClassOverride, LengthRule, ScenarioSettings, Technology, ValidityFlag, WireClass, AirGap } from "./types";
+import { LENGTH_RULE_KINDS, MAX_LENGTH_RULE_EXPONENT, TIERS } from "./types";
 
 /** Throws RangeError on an impossible wire class (non-positive sizes, k < 1, NaN, infinities, unknown metal). */
 export function checkWireClass(wc: WireClass): void {
@@ -105,6 +105,25 @@ function checkOverride(name: string, o: ClassOverride): void {
   if (o.aspectRatio !== undefined) positive(n("aspectRatio"), o.aspectRatio);
   if (o.miller !== undefined) inRange(n("miller"), o.miller, 0, 2);
   if (o.barrierM !== undefined) nonNegative(n("barrierM"), o.barrierM);
+  if (o.lengthRule !== undefined) checkLengthRule(n("lengthRule"), o.lengthRule);
+}
+
+/** A length rule: one of the four kinds; a factor > 0; a power-law exponent from 0 to 2. */
+export function checkLengthRule(name: string, r: LengthRule): void {
+  if (r === null || typeof r !== "object") throw new RangeError(`${name} must be an object { kind, … } (got ${String(r)})`);
+  switch (r.kind) {
+    case "follows-s":
+    case "fixed":
+      return;
+    case "factor":
+      positive(`${name}.sL`, r.sL);
+      return;
+    case "power":
+      inRange(`${name}.exponent`, r.exponent, 0, MAX_LENGTH_RULE_EXPONENT);
+      return;
+    default:
+      throw new RangeError(`${name}.kind must be one of ${LENGTH_RULE_KINDS.join(", ")} (got ${String((r as { kind: unknown }).kind)})`);
+  }
 }
 
 export function checkSettings(s: ScenarioSettings): void {
@@ -117,6 +136,8 @@ export function checkSettings(s: ScenarioSettings): void {
   if (s.k !== null) atLeast("k", s.k, 1);
   if (s.metal !== null) getMetal(s.metal);
   if (s.airGap) checkAirGap("airGap", s.airGap);
+  if (s.lengthRule !== undefined) checkLengthRule("lengthRule", s.lengthRule);
+  if (s.temperatureC !== undefined) inRange("temperatureC", s.temperatureC, -273.15, 400);
   for (const [name, o] of Object.entries(s.overrides)) {
     checkOverride(name, o);
     if (o.airGap) checkAirGap(`overrides.${name}.airGap`, o.airGap);

@@ -17,6 +17,7 @@ import {
   type EffectiveK,
   type Evaluation,
   type LengthBin,
+  type LengthRule,
   type MetalOverride,
   type ModelLevel,
   type RepeaterResult,
@@ -177,6 +178,14 @@ export const technologySnapshotSchema = mirrorOf<Technology>()(
 
 /** An air gap between the lines (issue 11); settings, overrides and classes frozen before it have none. */
 const airGapSnapshotSchema = mirrorOf<AirGap>()(z.object({ kGap: num, gapFraction: num }));
+const lengthRuleSnapshotSchema = mirrorOf<LengthRule>()(
+  z.discriminatedUnion("kind", [
+    z.object({ kind: z.literal("follows-s") }),
+    z.object({ kind: z.literal("fixed") }),
+    z.object({ kind: z.literal("factor"), sL: num }),
+    z.object({ kind: z.literal("power"), exponent: num }),
+  ]),
+);
 
 export const classOverrideSnapshotSchema = mirrorOf<ClassOverride>()(
   z.object({
@@ -189,6 +198,7 @@ export const classOverrideSnapshotSchema = mirrorOf<ClassOverride>()(
     miller: num.optional(),
     barrierM: num.optional(),
     airGap: airGapSnapshotSchema.nullable().optional(),
+    lengthRule: lengthRuleSnapshotSchema.optional(),
   }),
 );
 
@@ -205,6 +215,8 @@ export const settingsSnapshotSchema = mirrorOf<ScenarioSettings>()(
     k: num.nullable(),
     metal: z.string().nullable(),
     airGap: airGapSnapshotSchema.nullable().optional(),
+    lengthRule: lengthRuleSnapshotSchema.optional(),
+    temperatureC: num.optional(),
     overrides: z.record(z.string(), classOverrideSnapshotSchema),
   }),
 );

@@ -1,10 +1,18 @@
 import { z } from "zod";
-import { MODEL_LEVELS, type AirGap, type ClassOverride, type ModelLevel, type ScenarioSettings } from "@/lib/scaling/client";
+import {
+  MAX_LENGTH_RULE_EXPONENT,
+  MODEL_LEVELS,
+  type AirGap,
+  type ClassOverride,
+  type LengthRule,
+  type ModelLevel,
+  type ScenarioSettings,
+} from "@/lib/scaling/client";
 import { mirrorOf, type OptionalFields } from "./mirror";
 import { cleanText, withoutProtoKey } from "./text";
 import { airGapKSchema, classNameSchema, gapFractionSchema, kSchema, metalIdSchema, quantity } from "./wire-class";
 
-const sSchema = (label: string) =>
+export const sSchema = (label: string) =>
   quantity(label, "", {
     min: 0,
     minExclusive: true,
@@ -12,14 +20,21 @@ const sSchema = (label: string) =>
     max: 20,
     maxHint: `${label} must be at most 20.`,
   });
-const millerSchema = quantity("Miller factor", "", {
+export const millerSchema = quantity("Miller factor", "", {
   min: 0,
   minHint: "Miller factor must be between 0 and 2.",
   max: 2,
   maxHint: "Miller factor must be between 0 and 2.",
 });
-const factorSchema = (label: string) => quantity(label, "", { min: 0, minExclusive: true, max: 10, maxHint: `${label} must be at most 10.` });
-const aspectSchema = quantity("Aspect ratio", "", { min: 0, minExclusive: true, max: 10, maxHint: "Aspect ratio must be at most 10." });
+export const factorSchema = (label: string) => quantity(label, "", { min: 0, minExclusive: true, max: 10, maxHint: `${label} must be at most 10.` });
+export const aspectSchema = quantity("Aspect ratio", "", { min: 0, minExclusive: true, max: 10, maxHint: "Aspect ratio must be at most 10." });
+
+export const supplySchema = quantity("Supply voltage", "V", {
+  min: 0,
+  minExclusive: true,
+  max: 5,
+  maxHint: "Supply voltage must be at most 5 V.",
+});
 
 export const levelSchema = z.enum(MODEL_LEVELS as [ModelLevel, ...ModelLevel[]], {
   error: `Model level must be one of ${MODEL_LEVELS.join(", ")}.`,
@@ -41,6 +56,51 @@ export const airGapSchema = mirrorOf<AirGap>()(
     .strict(),
 );
 
+/**
+ * The engine's LengthRule: { kind: "follows-s" } (S_L = S), { kind: "fixed" } (S_L = 1), { kind: "factor", sL }
+ * (S_L = sL > 0) or { kind: "power", exponent } (S_L = S^exponent, 0 ≤ exponent ≤ 2). An exponent outside 0–2 is a 400
+ * naming `…lengthRule.exponent`.
+ */
+export const lengthRuleSchema = mirrorOf<LengthRule>()(
+  z.discriminatedUnion(
+    "kind",
+    [
+      z.object({ kind: z.literal("follows-s") }).strict(),
+      z.object({ kind: z.literal("fixed") }).strict(),
+      z
+        .object({
+          kind: z.literal("factor"),
+          sL: sSchema("Length factor S_L")
+            .optional()
+            .pipe(z.number({ error: "Length factor S_L is required for a factor rule." })),
+        })
+        .strict(),
+      z
+        .object({
+          kind: z.literal("power"),
+          exponent: quantity("Length-rule exponent", "", {
+            min: 0,
+            minHint: `Length-rule exponent must be between 0 and ${MAX_LENGTH_RULE_EXPONENT}.`,
+            max: MAX_LENGTH_RULE_EXPONENT,
+            maxHint: `Length-rule exponent must be between 0 and ${MAX_LENGTH_RULE_EXPONENT}.`,
+          })
+            .optional()
+            .pipe(z.number({ error: "Length-rule exponent is required for a power rule (S_L = S^exponent)." })),
+        })
+        .strict(),
+    ],
+    { error: 'Length rule must be { "kind": "follows-s" | "fixed" | "factor" (with "sL") | "power" (with "exponent") }.' },
+  ),
+);
+
+/** Operating temperature of a scenario, °C (absent = the technology's). */
+export const scenarioTemperatureSchema = quantity("Operating temperature", "", {
+  min: -273.15,
+  minHint: "Operating temperature must be above −273.15 °C (absolute zero).",
+  max: 400,
+  maxHint: "Operating temperature must be at most 400 °C.",
+});
+
 /** The engine's ClassOverride, field for field. */
 export const classOverrideSchema = mirrorOf<ClassOverride>()(
   z
@@ -54,6 +114,7 @@ export const classOverrideSchema = mirrorOf<ClassOverride>()(
       miller: millerSchema.optional(),
       barrierM: quantity("Barrier", "m", { min: 0, max: 1e-6, maxHint: "Barrier must be at most 1 µm." }).optional(),
       airGap: airGapSchema.nullable().optional(),
+      lengthRule: lengthRuleSchema.optional(),
     })
     .strict(),
 );
@@ -72,27 +133,24 @@ export const scenarioSettingsSchema = mirrorOf<OptionalFields<ScenarioSettings, 
       miller: millerSchema.default(1),
       deviceRFactor: factorSchema("Device R factor").default(1),
       deviceCFactor: factorSchema("Device C factor").default(1),
-      supplyV: quantity("Supply voltage", "V", {
-        min: 0,
-        minExclusive: true,
-        max: 5,
-        maxHint: "Supply voltage must be at most 5 V.",
-      }).optional(),
+      supplyV: supplySchema.optional(),
       k: kSchema.nullable().default(null),
       metal: metalIdSchema.nullable().default(null),
       airGap: airGapSchema.nullable().optional(),
+      lengthRule: lengthRuleSchema.optional(),
+      temperatureC: scenarioTemperatureSchema.optional(),
       overrides: withoutProtoKey(z.record(classNameSchema, classOverrideSchema), "Overrides").default({}),
     })
     .strict(),
 );
 export type ScenarioSettingsInput = z.infer<typeof scenarioSettingsSchema>;
 
-const nameSchema = cleanText(
+export const nameSchema = cleanText(
   z.string({ error: "Name is required." }).trim().min(1, "Name is required.").max(100, "Name must be at most 100 characters."),
   "Name",
 );
 const notesSchema = cleanText(z.string().max(10_000, "Notes must be at most 10 000 characters."), "Notes", { multiline: true });
-const versionSchema = z.number({ error: "version is required (the version you loaded)." }).int().min(1);
+export const versionSchema = z.number({ error: "version is required (the version you loaded)." }).int().min(1);
 
 export const scenarioCreateSchema = z.object({
   baselineId: z.string({ error: "Baseline is required." }).min(1, "Baseline is required.").max(64),

@@ -26,6 +26,9 @@ export function normalizeSettings(input: ScenarioSettingsInput, tech: Technology
     metal: input.metal,
     // a global air gap only when one is set: null and absent both mean "each class keeps its own"
     ...(input.airGap ? { airGap: input.airGap } : {}),
+    // a length rule and a temperature only when set, so settings stored before them keep their exact shape
+    ...(input.lengthRule !== undefined ? { lengthRule: input.lengthRule } : {}),
+    ...(input.temperatureC !== undefined ? { temperatureC: input.temperatureC } : {}),
     overrides,
   };
 }

@@ -273,12 +273,15 @@ describe("input schemas and the engine types", () => {
       miller: 1.5,
       barrierM: 1e-9,
       airGap: { kGap: 1, gapFraction: 0.6 },
+      lengthRule: { kind: "power", exponent: 0.5 },
     };
     const settings: Required<ScenarioSettings> = {
       ...baselineSettings("full", technology),
       k: 2.5,
       metal: "Co",
       airGap: { kGap: 1.2, gapFraction: 1 },
+      lengthRule: { kind: "factor", sL: 1.2 },
+      temperatureC: 85,
       overrides: { M1: override, M2: { airGap: null } },
     };
     expect(scenarioSettingsSchema.parse(settings)).toEqual(settings);
