@@ -23,7 +23,8 @@ const yAcc = (d: Datum) => d.y;
 
 function Glyph({ x, y, color, marker }: { x: number; y: number; color: string; marker: RoadmapMarker }) {
   if (marker === "square") return <rect x={x - 3.5} y={y - 3.5} width={7} height={7} fill="#fff" stroke={color} strokeWidth={1.6} />;
-  if (marker === "diamond") return <path d={`M${x},${y - 4.5}L${x + 4.5},${y}L${x},${y + 4.5}L${x - 4.5},${y}Z`} fill="#fff" stroke={color} strokeWidth={1.6} />;
+  if (marker === "diamond")
+    return <path d={`M${x},${y - 4.5}L${x + 4.5},${y}L${x},${y + 4.5}L${x - 4.5},${y}Z`} fill="#fff" stroke={color} strokeWidth={1.6} />;
   return <circle cx={x} cy={y} r={3} fill={color} />;
 }
 
@@ -71,11 +72,7 @@ export function RoadmapChart({
         accessibilityLabel={title}
       >
         <Grid columns={false} numTicks={4} lineStyle={{ stroke: CHART.grid }} />
-        <Axis
-          orientation="bottom"
-          tickValues={Array.from({ length: last + 1 }, (_, i) => i)}
-          tickFormat={(v) => stepNames[Number(v)] ?? `N${Number(v)}`}
-        />
+        <Axis orientation="bottom" tickValues={Array.from({ length: last + 1 }, (_, i) => i)} tickFormat={(v) => stepNames[Number(v)] ?? `N${Number(v)}`} />
         <Axis orientation="left" numTicks={4} label={`${metricLabel}${unit ? ` (${unit})` : ""}`} labelOffset={30} tickFormat={(v) => tick(Number(v))} />
         {data.map((s) => (
           <LineSeries

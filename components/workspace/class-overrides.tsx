@@ -1,12 +1,12 @@
 "use client";
-import { memo, useState } from "react";
+import { memo } from "react";
 import { METALS, ownEntry, type AirGap, type ClassOverride, type ScenarioSettings, type WireClass } from "@/lib/scaling/client";
 import { LengthRuleField } from "./length-rule-field";
 import { OptionalNumber } from "./optional-number";
 import { describeLengthRule } from "@/lib/workspace/roadmap-view";
 import { inputClass } from "@/components/ui/field";
 import { DEFAULT_AIR_GAP, DielectricField, gapFractionCheck, kGapCheck } from "./settings-panel";
-import { formatValue, parseValue, U, type DisplayUnit } from "./units";
+import { formatValue, U } from "./units";
 
 type NumKey = "s" | "sL" | "aspectRatio" | "miller" | "barrierM" | "targetPitchM";
 /** A class's entry with the roadmap step's target pitch (lib/scaling RoadmapClassStep); scenarios have none. */
@@ -232,10 +232,10 @@ export const ClassOverrides = memo(function ClassOverrides({
         </tbody>
       </table>
       <p className="mt-1 text-[11px] text-muted">
-        Empty cells follow the global settings.{pitch ? " A target pitch sets the class's S for this step (its previous pitch ÷ the target) instead of S." : ""} A
-        length rule says how the class's wire lengths follow the shrink and wins over S_L. Barrier nm replaces the barrier thickness (0 = barrier-free fill). k accepts an effective value for air gaps
-        (first-order); Air gap puts the gap between the lines as geometry: none = no gap for this class, custom = the gap&apos;s k (1 = air) and the share of
-        the line thickness it covers from the bottom (empty = 1).
+        Empty cells follow the global settings.{pitch ? " A target pitch sets the class's S for this step (its previous pitch ÷ the target) instead of S." : ""}{" "}
+        A length rule says how the class&apos;s wire lengths follow the shrink and wins over S_L. Barrier nm replaces the barrier thickness (0 = barrier-free
+        fill). k accepts an effective value for air gaps (first-order); Air gap puts the gap between the lines as geometry: none = no gap for this class, custom
+        = the gap&apos;s k (1 = air) and the share of the line thickness it covers from the bottom (empty = 1).
       </p>
     </div>
   );

@@ -1,13 +1,4 @@
-import type {
-  Evaluation,
-  FieldSolveInput,
-  FieldSolveResult,
-  LineCapacitanceInput,
-  SweepCurve,
-  evaluateScenario,
-  lineCapacitance,
-  sweep,
-} from "@/lib/scaling";
+import type { Evaluation, FieldSolveInput, FieldSolveResult, LineCapacitanceInput, SweepCurve, evaluateScenario, lineCapacitance, sweep } from "@/lib/scaling";
 
 /** What the worker sweeps: the engine's `sweep` input, plus one x to compute every curve at. */
 export type SweepArgs = Parameters<typeof sweep>[0] & {

@@ -53,7 +53,13 @@ export function NewRoadmapForm({
               </option>
             ))}
           </SelectField>
-          <SelectField label="First step N1" name="fromScenarioId" value={from} onChange={(e) => setFrom(e.target.value)} errors={errors["steps.0.fromScenarioId"]}>
+          <SelectField
+            label="First step N1"
+            name="fromScenarioId"
+            value={from}
+            onChange={(e) => setFrom(e.target.value)}
+            errors={errors["steps.0.fromScenarioId"]}
+          >
             <option value="">Empty (S = 1; set it on the roadmap)</option>
             {own.map((s) => (
               <option key={s.id} value={s.id}>

@@ -57,8 +57,9 @@ const nm = (m: number) => `${Number((m * 1e9).toPrecision(3))}`;
 
 /** Every chain's evaluation at every level, in the engine worker; a newer edit supersedes a queued one. */
 function useRoadmapResults(classes: WireClass[], technology: Technology, chains: { key: string; steps: RoadmapStep[] }[], initial: RoadmapResults) {
-  const [state, setState] = useState<{ results: RoadmapResults; key: string }>({ results: initial, key: "" });
   const key = JSON.stringify(chains);
+  // `initial` is the server's answer for the chains of the first render
+  const [state, setState] = useState<{ results: RoadmapResults; key: string }>(() => ({ results: initial, key }));
   const worker = useRef<EngineWorker | null>(null);
   const first = useRef<string | null>(key);
   const sent = useRef(0);
@@ -81,7 +82,7 @@ function useRoadmapResults(classes: WireClass[], technology: Technology, chains:
       },
     );
   }, [classes, technology, key]);
-  return { results: state.results, fresh: state.key === key || (state.key === "" && sent.current === 0) };
+  return { results: state.results, fresh: state.key === key };
 }
 
 export function RoadmapEditor(props: {
@@ -205,15 +206,11 @@ export function RoadmapEditor(props: {
   }
 
   // Each class's pitch at the step before the open one (N0: the baseline's), for the target-pitch column.
-  const previousPitchM = useMemo(() => {
-    const out: Record<string, number | undefined> = {};
-    const full = main?.byLevel.full;
-    for (const c of classes) {
-      if (open === 0 || !full) out[c.name] = open === 0 ? c.widthM + c.spacingM : undefined;
-      else out[c.name] = full.steps[open - 1]?.evaluation.classes.find((x) => x.name === c.name)?.scenario.pitchM;
-    }
-    return out;
-  }, [main, classes, open]);
+  const previousPitchM: Record<string, number | undefined> = {};
+  const fullChain = main?.byLevel.full;
+  for (const c of classes)
+    previousPitchM[c.name] =
+      open === 0 ? c.widthM + c.spacingM : fullChain?.steps[open - 1]?.evaluation.classes.find((x) => x.name === c.name)?.scenario.pitchM;
 
   const canDelete = role === "owner" || (role === "editor" && roadmap.createdBy === props.userId);
   const step = draft.steps[open];
@@ -462,15 +459,7 @@ export function RoadmapEditor(props: {
         <div className="grid gap-4 xl:grid-cols-2">
           {main && !main.error
             ? classes.map((c) => (
-                <ClassResultsPanel
-                  key={c.name}
-                  className={c.name}
-                  results={results}
-                  branches={branches}
-                  stepNames={stepNames}
-                  metric={metric}
-                  level={level}
-                />
+                <ClassResultsPanel key={c.name} className={c.name} results={results} branches={branches} stepNames={stepNames} metric={metric} level={level} />
               ))
             : null}
         </div>
@@ -478,7 +467,6 @@ export function RoadmapEditor(props: {
       <Caution />
     </div>
   );
-
 }
 
 /** One class: the chart across the steps, the plain-words reading and the table with ratios to N0 and flags. */
@@ -504,13 +492,31 @@ function ClassResultsPanel({
   for (const l of CHART_LEVELS) {
     const ev = main.byLevel[l];
     const values = ev ? metricSeries(ev.steps, className, metric) : null;
-    if (values) series.push({ key: `main:${l}`, label: LEVEL_STYLE[l].label, color: LEVEL_STYLE[l].color, dash: LEVEL_STYLE[l].dash, width: LEVEL_STYLE[l].width, marker: "circle", values });
+    if (values)
+      series.push({
+        key: `main:${l}`,
+        label: LEVEL_STYLE[l].label,
+        color: LEVEL_STYLE[l].color,
+        dash: LEVEL_STYLE[l].dash,
+        width: LEVEL_STYLE[l].width,
+        marker: "circle",
+        values,
+      });
   }
   branches.forEach((b, i) => {
     const ev = results.find((r) => r.key === b.id)?.byLevel[level];
     const values = ev ? metricSeries(ev.steps, className, metric) : null;
     const st = BRANCH_STYLE[i % BRANCH_STYLE.length]!;
-    if (values) series.push({ key: `branch:${b.id}`, label: `${b.name} (${LEVEL_STYLE[level].label.replace(/^\+ /, "")})`, color: st.color, dash: st.dash, width: 1.75, marker: st.marker, values });
+    if (values)
+      series.push({
+        key: `branch:${b.id}`,
+        label: `${b.name} (${LEVEL_STYLE[level].label.replace(/^\+ /, "")})`,
+        color: st.color,
+        dash: st.dash,
+        width: 1.75,
+        marker: st.marker,
+        values,
+      });
   });
   const ev = main.byLevel[level];
   const rs = ev ? classResults(ev.steps, className) : null;
@@ -527,7 +533,15 @@ function ClassResultsPanel({
         </p>
       ) : null}
       <div ref={ref}>
-        <RoadmapChart title={`${m.label} of ${className} across the steps`} stepNames={stepNames} series={series} unit={unit} metricLabel={m.label} width={width} height={220} />
+        <RoadmapChart
+          title={`${m.label} of ${className} across the steps`}
+          stepNames={stepNames}
+          series={series}
+          unit={unit}
+          metricLabel={m.label}
+          width={width}
+          height={220}
+        />
       </div>
       {rs && values && ev ? (
         <div className="mt-2 overflow-x-auto">

@@ -55,7 +55,15 @@ export function RoadmapStepFields({
       <div className="grid grid-cols-2 gap-3 sm:grid-cols-3 lg:grid-cols-4">
         <div>
           <span className="mb-1 block text-xs font-medium text-ink">S — cross-section factor</span>
-          <OptionalNumber label="S for this step" className="w-full" placeholder="1" value={settings.s} onChange={(v) => set("s", v)} check={sCheck("S")} errors={err("s")} />
+          <OptionalNumber
+            label="S for this step"
+            className="w-full"
+            placeholder="1"
+            value={settings.s}
+            onChange={(v) => set("s", v)}
+            check={sCheck("S")}
+            errors={err("s")}
+          />
           <p className="mt-0.5 text-[11px] text-muted">this step&apos;s shrink of every class (empty = 1); per class below</p>
         </div>
         <LengthRuleField
@@ -152,7 +160,15 @@ export function RoadmapStepFields({
         </div>
         <div>
           <span className="mb-1 block text-xs font-medium text-ink">Miller factor</span>
-          <OptionalNumber label="Miller factor at this step" className="w-full" placeholder={carried} value={settings.miller} onChange={(v) => set("miller", v)} check={millerCheck} errors={err("miller")} />
+          <OptionalNumber
+            label="Miller factor at this step"
+            className="w-full"
+            placeholder={carried}
+            value={settings.miller}
+            onChange={(v) => set("miller", v)}
+            check={millerCheck}
+            errors={err("miller")}
+          />
         </div>
         <div className="grid grid-cols-2 gap-1">
           <div>

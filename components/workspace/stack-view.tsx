@@ -130,7 +130,11 @@ export function StackView({
               : "Reorder by dragging a layer, with its Move up / Move down buttons, or Alt+↑ / Alt+↓ on a focused layer; each move is saved at once."}
         </p>
         {status ? (
-          <p role={status.tone === "bad" ? "alert" : "status"} className={`mb-2 text-xs ${status.tone === "bad" ? "text-bad" : "text-good"}`} data-testid="stack-status">
+          <p
+            role={status.tone === "bad" ? "alert" : "status"}
+            className={`mb-2 text-xs ${status.tone === "bad" ? "text-bad" : "text-good"}`}
+            data-testid="stack-status"
+          >
             {status.text}
           </p>
         ) : (
@@ -197,7 +201,8 @@ export function StackView({
                         {airGap ? ` · air gap k ${num(airGap.kGap)} to ${num(100 * airGap.gapFraction)}% of T` : ""}
                       </p>
                       <p className="tabular text-xs text-muted">
-                        ILD below {c.ildBelowM !== null ? nm(c.ildBelowM) : "none (no plane)"} · above {c.ildAboveM !== null ? nm(c.ildAboveM) : "none (no plane)"}
+                        ILD below {c.ildBelowM !== null ? nm(c.ildBelowM) : "none (no plane)"} · above{" "}
+                        {c.ildAboveM !== null ? nm(c.ildAboveM) : "none (no plane)"}
                       </p>
                       {!readOnly ? (
                         <div className="no-print mt-1 flex gap-1">

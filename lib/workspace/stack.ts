@@ -24,8 +24,7 @@ export function stackNotes(classes: readonly Pick<WireClass, "name" | "ildBelowM
     const b = hi.ildBelowM;
     if (a !== null && b !== null) {
       // equal to 0.1 nm: values typed in nm and stored in metres differ in the last bits only
-      if (Math.abs(a - b) > 1e-10)
-        out.push({ below: i, text: `${lo.name}'s ILD above (${nm(a)}) differs from ${hi.name}'s ILD below (${nm(b)}).` });
+      if (Math.abs(a - b) > 1e-10) out.push({ below: i, text: `${lo.name}'s ILD above (${nm(a)}) differs from ${hi.name}'s ILD below (${nm(b)}).` });
     } else if (a === null && b === null) {
       out.push({
         below: i,

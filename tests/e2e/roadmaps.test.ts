@@ -119,7 +119,10 @@ describe("a three-step roadmap from the demo baseline", () => {
     expect(saved.steps[2]!.settings.overrides?.intermediate?.targetPitchM).toBeCloseTo(45e-9, 15);
 
     // The engine's own figures (lib/scaling evaluateRoadmap), at level full as the table shows by default
-    const b = (await owner.client.get(`/api/baselines/${baselineId}`)).json.baseline as { technology: Technology; classes: (WireClass & { id?: string; position?: number; histogramBins?: number })[] };
+    const b = (await owner.client.get(`/api/baselines/${baselineId}`)).json.baseline as {
+      technology: Technology;
+      classes: (WireClass & { id?: string; position?: number; histogramBins?: number })[];
+    };
     const classes = b.classes.map(({ id: _i, position: _p, histogramBins: _h, ...c }) => c as WireClass);
     const steps = saved.steps.map((s, i) => (i === 0 ? { ...s, settings: { ...s.settings, level: "full" as const } } : s));
     const engine = evaluateRoadmap({ classes, technology: b.technology, steps });

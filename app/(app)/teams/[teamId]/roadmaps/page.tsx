@@ -24,8 +24,8 @@ export default async function RoadmapsPage({ params, searchParams }: { params: P
   return (
     <div className="space-y-5">
       <PageHeader title="Roadmaps">
-        A chain of node steps on one baseline: N0 (the baseline) → N1 → N2 …, each step relative to the one before (S or a target pitch per class, length
-        rules, metal, barrier, dielectric, air gap, device factors). Open one to see, per class, where delay stops improving.
+        A chain of node steps on one baseline: N0 (the baseline) → N1 → N2 …, each step relative to the one before (S or a target pitch per class, length rules,
+        metal, barrier, dielectric, air gap, device factors). Open one to see, per class, where delay stops improving.
       </PageHeader>
       {canEdit && baselines.length > 0 ? (
         <Card title="New roadmap">

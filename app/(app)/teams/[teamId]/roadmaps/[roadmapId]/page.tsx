@@ -34,7 +34,9 @@ export default async function RoadmapPage({ params }: { params: Promise<{ teamId
     listRoadmaps(db, teamId, baseline.id),
   ]);
   // The engine's classes as the scenario editor evaluates them (coarsened histograms); the browser's worker takes over.
-  const classes = stored.map(({ id: _i, position: _p, histogramBins: _h, ...c }): WireClass => (c.histogram ? { ...c, histogram: coarsenHistogram(c.histogram) } : c));
+  const classes = stored.map(({ id: _i, position: _p, histogramBins: _h, ...c }): WireClass =>
+    c.histogram ? { ...c, histogram: coarsenHistogram(c.histogram) } : c,
+  );
   const initialResults = roadmapResults({
     classes,
     technology: baseline.technology,
