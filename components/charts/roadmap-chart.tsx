@@ -1,6 +1,7 @@
 "use client";
 import { Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart } from "@visx/xychart";
-import { CHART, chartTheme, tick } from "./chart-theme";
+import { CHART, chartTheme, logTicks, tick } from "./chart-theme";
+import { GridRowsAt } from "./ref-line";
 
 /** Marker shapes of the lines: the roadmap's levels take circles, the branches a square and a diamond. */
 export type RoadmapMarker = "circle" | "square" | "diamond";
@@ -57,23 +58,34 @@ export function RoadmapChart({
   const lo = ys.length ? Math.min(...ys) : 0;
   const hi = ys.length ? Math.max(...ys) : 1;
   const pad = (hi - lo) * 0.1 || Math.abs(hi) * 0.05 || 1;
+  // a log axis when the lines span more than 4× (e.g. ideal scaling far below the others): each line's trend stays readable
+  const log = lo > 0 && hi / lo > 4;
+  const yTicks = log ? logTicks(lo / 1.1, hi * 1.1, Math.max(3, Math.floor(height / 45))) : undefined;
   const last = Math.max(1, stepNames.length - 1, ...data.map((s) => s.points.length - 1));
   const styleOf = new Map(series.map((s) => [s.key, s]));
   return (
     <figure className="roadmap-chart m-0" data-testid="roadmap-chart">
       <figcaption className="sr-only">{title}</figcaption>
+      {log ? <p className="text-[10px] text-muted">log scale</p> : null}
       <XYChart
         width={width}
         height={height}
         theme={chartTheme}
         margin={{ top: 10, right: 16, bottom: 28, left: 58 }}
         xScale={{ type: "linear", domain: [-0.15, last + 0.15], zero: false }}
-        yScale={{ type: "linear", domain: [Math.max(0, lo - pad), hi + pad], zero: false }}
+        yScale={log ? { type: "log", domain: [lo / 1.1, hi * 1.1] } : { type: "linear", domain: [Math.max(0, lo - pad), hi + pad], zero: false }}
         accessibilityLabel={title}
       >
-        <Grid columns={false} numTicks={4} lineStyle={{ stroke: CHART.grid }} />
+        {yTicks ? <GridRowsAt values={yTicks} color={CHART.grid} /> : <Grid columns={false} numTicks={4} lineStyle={{ stroke: CHART.grid }} />}
         <Axis orientation="bottom" tickValues={Array.from({ length: last + 1 }, (_, i) => i)} tickFormat={(v) => stepNames[Number(v)] ?? `N${Number(v)}`} />
-        <Axis orientation="left" numTicks={4} label={`${metricLabel}${unit ? ` (${unit})` : ""}`} labelOffset={30} tickFormat={(v) => tick(Number(v))} />
+        <Axis
+          orientation="left"
+          numTicks={4}
+          tickValues={yTicks}
+          label={`${metricLabel}${unit ? ` (${unit})` : ""}`}
+          labelOffset={30}
+          tickFormat={(v) => tick(Number(v))}
+        />
         {data.map((s) => (
           <LineSeries
             key={s.key}

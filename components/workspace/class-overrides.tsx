@@ -130,7 +130,7 @@ export const ClassOverrides = memo(function ClassOverrides({
                     />
                     {prev !== undefined ? (
                       <p className="text-[10px] leading-tight text-muted">
-                        from {formatValue(prev, U.nm)} nm
+                        from {Number((prev * 1e9).toPrecision(3))} nm
                         {o.targetPitchM ? ` · S ${Number((prev / o.targetPitchM).toPrecision(3))}` : ""}
                       </p>
                     ) : null}

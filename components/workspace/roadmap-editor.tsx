@@ -614,9 +614,8 @@ function ClassResultsPanel({
                     ))}
                     <td className="px-1">
                       {r.validity.length ? (
-                        <span className="text-warn" title={r.validity.map((f) => f.message).join("\n")}>
-                          ⚑ {r.validity.length} · {r.validity[0]!.message}
-                          {r.validity.length > 1 ? " …" : ""}
+                        <span className="whitespace-nowrap text-warn" title={r.validity.map((f) => f.message).join("\n")}>
+                          ⚑ {[...new Set(r.validity.map((f) => f.quantity))].join(", ")}
                         </span>
                       ) : (
                         <span className="text-faint">—</span>
@@ -627,6 +626,20 @@ function ClassResultsPanel({
               })}
             </tbody>
           </table>
+          {rs.some((r) => r.validity.length) ? (
+            <details className="mt-1 text-[11px] text-muted" data-testid="roadmap-flags">
+              <summary className="cursor-pointer text-warn">Validity flags: {rs.reduce((n, r) => n + r.validity.length, 0)} (⚑ in the table)</summary>
+              <ul className="mt-1 list-disc space-y-0.5 pl-4">
+                {rs.flatMap((r, i) =>
+                  r.validity.map((f, j) => (
+                    <li key={`${i}:${j}`}>
+                      <span className="font-medium text-ink">{stepNames[i]}</span>: {f.message}
+                    </li>
+                  )),
+                )}
+              </ul>
+            </details>
+          ) : null}
         </div>
       ) : null}
     </section>

@@ -50,9 +50,9 @@ export function RoadmapStepFields({
   const carried = index === 0 ? "as the baseline" : "carried from the step before";
   const gap = settings.airGap;
   return (
-    <fieldset disabled={readOnly} className="space-y-3">
+    <fieldset disabled={readOnly} className="min-w-0 space-y-3">
       <legend className="sr-only">Settings of step {index + 1}</legend>
-      <div className="grid grid-cols-2 gap-3 sm:grid-cols-3 lg:grid-cols-4">
+      <div className="grid grid-cols-1 gap-3 min-[480px]:grid-cols-2 lg:grid-cols-4 [&>*]:min-w-0">
         <div>
           <span className="mb-1 block text-xs font-medium text-ink">S — cross-section factor</span>
           <OptionalNumber

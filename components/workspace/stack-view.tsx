@@ -15,7 +15,7 @@ const num = (v: number) => `${Number(v.toPrecision(3))}`;
 const vspanOf = (c: StoredWireClass) => (c.ildBelowM ?? c.thicknessM) + c.thicknessM + (c.ildAboveM ?? c.thicknessM * 1.2);
 const hspanOf = (c: StoredWireClass) => (3 * c.widthM + 2 * c.spacingM) * 1.3;
 /** The tallest drawing at one scale, px. */
-const MAX_DRAWING_H = 300;
+const MAX_DRAWING_H = 340;
 const MIN_DRAWING_H = 44;
 
 /**
@@ -67,6 +67,8 @@ export function StackView({
     return Math.min(...layers.map((c) => Math.min((drawW - 20) / hspanOf(c), (MAX_DRAWING_H - 30) / (vspanOf(c) * 1.1))));
   }, [oneScale, layers, drawW]);
 
+  // At one scale the drawings are as wide as the widest layer needs (no empty ILD beside narrow stacks).
+  const shownW = scale && layers.length ? Math.min(drawW, Math.ceil(Math.max(...layers.map(hspanOf)) * scale + 24)) : drawW;
   const canMove = !readOnly && !locked && !busy;
 
   async function write(next: string[], movedId: string) {
@@ -209,7 +211,7 @@ export function StackView({
                           <button
                             type="button"
                             className="rounded border border-rule px-1.5 py-0.5 text-xs text-ink hover:bg-rule/50 disabled:opacity-40"
-                            aria-label={`Move ${c.name} up`}
+                            aria-label={`Move layer ${c.name} up`}
                             disabled={!canMove || idx === order.length - 1}
                             onClick={() => move(c.id, 1)}
                           >
@@ -218,7 +220,7 @@ export function StackView({
                           <button
                             type="button"
                             className="rounded border border-rule px-1.5 py-0.5 text-xs text-ink hover:bg-rule/50 disabled:opacity-40"
-                            aria-label={`Move ${c.name} down`}
+                            aria-label={`Move layer ${c.name} down`}
                             disabled={!canMove || idx === 0}
                             onClick={() => move(c.id, -1)}
                           >
@@ -239,7 +241,7 @@ export function StackView({
                       barrierM={c.barrierM}
                       k={c.k}
                       airGap={airGap}
-                      width={drawW}
+                      width={shownW}
                       height={h}
                       scale={scale}
                     />

@@ -78,10 +78,10 @@ describe("stack view on the baseline page", () => {
     await page.getByTestId("stack-status").filter({ hasText: "Moved local to layer 1 from the bottom" }).waitFor();
     expect(await storedOrder()).toEqual(before);
     // the buttons do the same
-    await page.getByRole("button", { name: "Move global down" }).click();
+    await page.getByTestId("stack-layers").getByRole("button", { name: "Move layer global down" }).click();
     await page.getByTestId("stack-status").filter({ hasText: "Moved global to layer 3 from the bottom" }).waitFor();
     expect(await storedOrder()).toEqual(["local", "intermediate", "global", "semi-global"]);
-    await page.getByRole("button", { name: "Move global up" }).click();
+    await page.getByTestId("stack-layers").getByRole("button", { name: "Move layer global up" }).click();
     await page.getByTestId("stack-status").filter({ hasText: "Moved global to layer 4 from the bottom" }).waitFor();
     expect(await storedOrder()).toEqual(before);
     expect(problems).toEqual([]);
