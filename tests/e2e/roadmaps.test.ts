@@ -154,3 +154,38 @@ describe("a three-step roadmap from the demo baseline", () => {
     expect(problems).toEqual([]);
   });
 });
+
+describe("scenarios: duplicate and the length rule", () => {
+  it("duplicates a scenario from the list, names a new one from the editor, and says what a global length rule does", async () => {
+    const { page, problems } = await pageAt(1440);
+    const list = async () =>
+      ((await owner.client.get(`/api/teams/${owner.teamId}/scenarios`)).json.scenarios as { id: string; name: string }[]).map((s) => s.name);
+    const before = await list();
+    const source = before[0]!;
+    await page.goto(`${baseUrl}/teams/${owner.teamId}/scenarios`);
+    await page.getByRole("button", { name: `Duplicate ${source}`, exact: true }).click();
+    await page.waitForURL(/\/scenarios\/[^/?]+(\?.*)?$/);
+    await page.getByTestId("results-table").waitFor({ state: "attached" });
+    const after = await list();
+    expect(after.length).toBe(before.length + 1);
+    const copy = after.find((n) => !before.includes(n))!;
+    expect(copy.startsWith(source)).toBe(true);
+
+    // "New scenario from this one" under a typed name
+    await page.getByRole("button", { name: "New scenario from this one" }).click();
+    await page.getByLabel("Name of the new scenario").fill("Variant from the editor (e2e)");
+    await page.getByRole("button", { name: "Create", exact: true }).click();
+    await page.waitForFunction(
+      () =>
+        document.querySelector("[name=scenario-name]")?.textContent === "Variant from the editor (e2e)" ||
+        (document.querySelector("[name=scenario-name]") as HTMLTextAreaElement | null)?.value === "Variant from the editor (e2e)",
+    );
+    expect(await list()).toContain("Variant from the editor (e2e)");
+
+    // the global length rule beside S_L, in words (S = the scenario's S)
+    await page.getByRole("textbox", { name: "S — cross-section factor value" }).fill("1.5");
+    await page.getByLabel("Length rule (all classes)").selectOption("power");
+    expect(await page.locator("#settings").getByTestId("length-rule-words").innerText()).toBe("lengths shrink as S^0.5: S_L = 1.22 at S = 1.5");
+    expect(problems).toEqual([]);
+  });
+});
