@@ -112,6 +112,7 @@ export function RoadmapEditor(props: {
   const [conflict, setConflict] = useState<number | null>(null);
   const [metric, setMetric] = useState<RoadmapMetric>("delay");
   const [level, setLevel] = useState<ModelLevel>("full");
+  const [relative, setRelative] = useState(true);
   const [picked, setPicked] = useState<string[]>([]);
   const [fromScenario, setFromScenario] = useState("");
 
@@ -321,11 +322,11 @@ export function RoadmapEditor(props: {
             <Button variant="secondary" onClick={() => addStep()} disabled={draft.steps.length >= MAX_ROADMAP_STEPS} data-testid="add-step">
               Add a step
             </Button>
-            <label className="flex items-center gap-1 text-xs">
+            <label className="flex min-w-0 max-w-full flex-wrap items-center gap-1 text-xs">
               <span className="text-muted">New step from a scenario:</span>
               <select
                 aria-label="New step from a scenario"
-                className={`${inputClass} w-auto py-1 text-xs`}
+                className={`${inputClass} w-auto min-w-0 max-w-full py-1 text-xs`}
                 value={fromScenario}
                 onChange={(e) => setFromScenario(e.target.value)}
               >
@@ -416,6 +417,10 @@ export function RoadmapEditor(props: {
               ))}
             </select>
           </label>
+          <label className="inline-flex items-center gap-1 self-center text-xs text-ink">
+            <input type="checkbox" checked={relative} onChange={(e) => setRelative(e.target.checked)} data-testid="roadmap-relative" />
+            Chart relative to N0
+          </label>
           <fieldset className="text-xs">
             <legend className="mb-1 font-medium text-ink">Compare with (same baseline, up to two)</legend>
             {props.branches.length === 0 ? (
@@ -477,6 +482,7 @@ function ClassResultsPanel({
   stepNames,
   metric,
   level,
+  relative,
 }: {
   className: string;
   results: RoadmapResults;
@@ -484,14 +490,17 @@ function ClassResultsPanel({
   stepNames: string[];
   metric: RoadmapMetric;
   level: ModelLevel;
+  /** Each line divided by its own N0 value: the levels on one scale, a plateau as a flat stretch. */
+  relative: boolean;
 }) {
   const [ref, width] = useWidth<HTMLDivElement>(560);
   const m = ROADMAP_METRIC[metric];
   const main = results.find((r) => r.key === MAIN)!;
   const series: RoadmapSeries[] = [];
+  const shown = (vs: number[] | null) => (vs && relative ? vs.map((v) => (vs[0]! > 0 ? v / vs[0]! : Number.NaN)) : vs);
   for (const l of CHART_LEVELS) {
     const ev = main.byLevel[l];
-    const values = ev ? metricSeries(ev.steps, className, metric) : null;
+    const values = ev ? shown(metricSeries(ev.steps, className, metric)) : null;
     if (values)
       series.push({
         key: `main:${l}`,
@@ -505,7 +514,7 @@ function ClassResultsPanel({
   }
   branches.forEach((b, i) => {
     const ev = results.find((r) => r.key === b.id)?.byLevel[level];
-    const values = ev ? metricSeries(ev.steps, className, metric) : null;
+    const values = ev ? shown(metricSeries(ev.steps, className, metric)) : null;
     const st = BRANCH_STYLE[i % BRANCH_STYLE.length]!;
     if (values)
       series.push({
@@ -534,11 +543,11 @@ function ClassResultsPanel({
       ) : null}
       <div ref={ref}>
         <RoadmapChart
-          title={`${m.label} of ${className} across the steps`}
+          title={`${m.label} of ${className} across the steps${relative ? ", relative to N0" : ""}`}
           stepNames={stepNames}
           series={series}
-          unit={unit}
-          metricLabel={m.label}
+          unit={relative ? "×" : unit}
+          metricLabel={relative ? `${m.label} ÷ N0` : m.label}
           width={width}
           height={220}
         />
