@@ -464,7 +464,16 @@ export function RoadmapEditor(props: {
         <div className="grid gap-4 xl:grid-cols-2">
           {main && !main.error
             ? classes.map((c) => (
-                <ClassResultsPanel key={c.name} className={c.name} results={results} branches={branches} stepNames={stepNames} metric={metric} level={level} />
+                <ClassResultsPanel
+                  key={c.name}
+                  className={c.name}
+                  results={results}
+                  branches={branches}
+                  stepNames={stepNames}
+                  metric={metric}
+                  level={level}
+                  relative={relative}
+                />
               ))
             : null}
         </div>
