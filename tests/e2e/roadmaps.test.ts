@@ -4,6 +4,7 @@ import type { Browser, Page } from "playwright-core";
 import { launchBrowser, signedInContext } from "../helpers/browser";
 import { openDatabase } from "@/db/connect";
 import { seedDemoWorkspace } from "@/lib/demo/seed-workspace";
+import { seedDemoReports } from "@/lib/demo/seed-reports";
 import { evaluateRoadmap, type RoadmapStep, type Technology, type WireClass } from "@/lib/scaling";
 import { type Client, userWithTeam } from "../helpers/http";
 
@@ -15,6 +16,7 @@ let browser: Browser;
 let baseUrl: string;
 let owner: { client: Client; teamId: string; userId: string };
 let baselineId: string;
+let reportId: string;
 
 beforeAll(async () => {
   baseUrl = inject("baseUrl");
@@ -22,7 +24,15 @@ beforeAll(async () => {
   owner = await userWithTeam("Roadmaps (e2e)");
   const knex = openDatabase(inject("dbPath"));
   try {
-    ({ baselineId } = await seedDemoWorkspace(knex, { teamId: owner.teamId, ownerId: owner.userId, editorId: owner.userId }));
+    const w = await seedDemoWorkspace(knex, { teamId: owner.teamId, ownerId: owner.userId, editorId: owner.userId });
+    baselineId = w.baselineId;
+    ({ reportId } = await seedDemoReports(knex, {
+      teamId: owner.teamId,
+      ownerId: owner.userId,
+      baselineId,
+      scenarioIds: w.scenarioIds,
+      roadmapIds: w.roadmapIds,
+    }));
   } finally {
     await knex.destroy();
   }
@@ -186,6 +196,22 @@ describe("scenarios: duplicate and the length rule", () => {
     await page.getByRole("textbox", { name: "S — cross-section factor value" }).fill("1.5");
     await page.getByLabel("Length rule (all classes)").selectOption("power");
     expect(await page.locator("#settings").getByTestId("length-rule-words").innerText()).toBe("lengths shrink as S^0.5: S_L = 1.22 at S = 1.5");
+    expect(problems).toEqual([]);
+  });
+});
+
+describe("a report with frozen roadmaps", () => {
+  it("draws each frozen roadmap per class with its reading and table", async () => {
+    const { page, problems } = await pageAt(1440);
+    await page.goto(`${baseUrl}/teams/${owner.teamId}/reports/${reportId}`);
+    const section = page.getByTestId("report-roadmaps");
+    await section.waitFor();
+    const frozen = (await owner.client.get(`/api/reports/${reportId}`)).json.report.frozen as { roadmaps?: { name: string }[] };
+    expect(frozen.roadmaps?.length).toBeGreaterThan(0);
+    for (const r of frozen.roadmaps!) expect(await section.innerText()).toContain(r.name);
+    expect(await section.locator("svg.report-chart").count()).toBeGreaterThan(0);
+    await section.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: `${SHOTS}/report-roadmaps-1440.png`, fullPage: true });
     expect(problems).toEqual([]);
   });
 });
