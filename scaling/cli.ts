@@ -1,7 +1,7 @@
 /**
  * Command line of Plateau's scaling engine:
  *   npm run scaling -- <command> [options]      or      npx tsx scaling/cli.ts <command> [options]
- * Commands: capacitance, delay, evaluate, sweep, fit, materials. `--json` prints only JSON on standard output.
+ * Commands: capacitance, delay, evaluate, sweep, roadmap, fit, materials. `--json` prints only JSON on standard output.
  * Values take SI-prefixed units ("20nm", "1.5fF", "2kohm") or bare SI numbers. Bad arguments exit with code 2
  * and one line naming the argument and the expected unit. CSV files are read with the app's one reader (lib/import)
  * and the formats' rules (lib/scaling/formats.ts), so a file the upload rejects is rejected here with the same message.
@@ -12,8 +12,10 @@ import { pathToFileURL } from "node:url";
 import { parseArgs } from "node:util";
 import {
   baselineSettings,
+  composeRoadmap,
   DEFAULT_TECHNOLOGY,
   DIELECTRICS,
+  evaluateRoadmap,
   evaluateScenario,
   fitSizeEffect,
   formatEngineering,
@@ -24,13 +26,16 @@ import {
   MODEL_LEVELS,
   parseQuantity,
   resolveHeader,
+  RoadmapInputError,
   sweep,
   validateMeasuredRow,
   type BaseUnit,
   type CapacitanceModel,
   type ClassResult,
+  type LengthRule,
   type MeasuredResistance,
   type ModelLevel,
+  type RoadmapStep,
   type ScenarioSettings,
   type SweepMetric,
   type SweepVariable,
@@ -41,6 +46,7 @@ import { readCsvSync } from "../lib/import/csv-stream";
 import { parseHistogramBins } from "../lib/import/histograms";
 import { ImportFatalError, type ImportIssue } from "../lib/import/types";
 import { parseWireClassCsv } from "../lib/import/wire-classes";
+import { roadmapStepsSchema } from "../lib/validation/roadmap";
 
 export interface CliResult {
   code: number;
@@ -62,17 +68,25 @@ Commands:
                the lines up to F × T, default F = 1); with --model field also [--cap-thickness C] [--cap-k KC]:
                a cap layer of thickness C (≤ --height-above) and permittivity KC (default --k) on the lines
   delay        --r-total R --c-total C [--driver RD] [--load CL]   50% step delay and Elmore delay
-  evaluate     --baseline classes.csv --s S [--sl 1] [--model ideal|fringe|coupled|full] [--histograms h.csv]
-               [--technology t.json] [--miller M] [--k K] [--metal Cu] [--barrier fixed|scales]
+  evaluate     --baseline classes.csv --s S [--sl 1 | --length-rule RULE] [--model ideal|fringe|coupled|full]
+               [--histograms h.csv] [--technology t.json] [--miller M] [--k K] [--metal Cu] [--barrier fixed|scales]
                [--supply V] [--device-r F] [--device-c F]    a scenario against its baseline
   sweep        --baseline classes.csv --s-from 1 --s-to 4 --points N [--metric delay|rc|r|c]
                [--variable s|sL|k] [--levels ideal,fringe,coupled,full] [--class NAME] [--log]
-               [--length-rule scenario|follows-s|fixed]   S sweeps: S_L as the scenario's, = S, or 1
+               [--length-rule scenario|RULE]   S sweeps: S_L = RULE(S) at every point; scenario (default): --sl
+  roadmap      --baseline classes.csv --steps steps.json [--technology t.json] [--histograms h.csv]
+               a chain of node steps N0 (the baseline) → N1 → … (1 to 8), each relative to the previous one, every
+               step evaluated against N0; steps.json: [{ "name": "N1", "settings": { "s": 1.25, "lengthRule": {…},
+               "overrides": { "M2": { "targetPitchM": 4.8e-8 } } } }, …] (or { "steps": […] }); --json prints
+               { "steps": [{ "name", "evaluation" }] }, else a table per class across the steps (ratios to N0)
   fit          --baseline classes.csv --measured measured.csv [--technology t.json]
                fit size-effect p and R per metal to measured resistance (columns class,r_ohm_per_um,temperature_c);
                prints { metals, points }; "metals" can be passed back as the technology JSON's "materials"
   materials    the materials catalogue with sources
 
+Length rules (RULE, how wire lengths follow the shrink S; lengths ÷ S_L): follows-s (S_L = S), fixed (S_L = 1),
+factor:X (S_L = X > 0 whatever S is), power:A (S_L = S^A, 0 ≤ A ≤ 2). On evaluate and sweep the rule applies to
+every class; in a roadmap's steps.json per step ("lengthRule": {"kind": "power", "exponent": 0.5}) or per class.
 delay takes [--model exact|sakurai] (default exact: the tabulated exact solution; sakurai: the closed form).
 The technology JSON (--technology) lays its fields over the default technology: supplyV, clockHz, repeaterR0Ohm,
 repeaterC0F, delayBudgetS, and (engine 2) delayModel ("exact"|"sakurai"), capacitanceModel ("accurate", the default:
@@ -344,7 +358,28 @@ const SCENARIO_OPTIONS = {
   supply: { type: "string" },
   "device-r": { type: "string" },
   "device-c": { type: "string" },
+  "length-rule": { type: "string" },
 } as const;
+
+/** A length rule as the command line writes it: follows-s, fixed, factor:X or power:A. */
+export function parseLengthRule(text: string): LengthRule {
+  const what = "follows-s, fixed, factor:X (S_L = X > 0) or power:A (S_L = S^A, 0 ≤ A ≤ 2)";
+  if (text === "follows-s" || text === "fixed") return { kind: text };
+  const m = /^(factor|power):(.+)$/.exec(text);
+  if (!m) throw new UsageError(`--length-rule: expected ${what}, got "${text}"`);
+  let x: number;
+  try {
+    x = parseQuantity(m[2]!, "");
+  } catch {
+    throw new UsageError(`--length-rule: expected ${what}, got "${text}"`);
+  }
+  if (m[1] === "factor") {
+    if (!(x > 0 && Number.isFinite(x))) throw new UsageError(`--length-rule: factor:X needs X > 0, got ${x}`);
+    return { kind: "factor", sL: x };
+  }
+  if (!(x >= 0 && x <= 2)) throw new UsageError(`--length-rule: power:A needs an exponent A from 0 to 2, got ${x}`);
+  return { kind: "power", exponent: x };
+}
 
 function settingsFrom(v: Record<string, unknown>, technology: Technology, requireS: boolean): ScenarioSettings {
   const model = (v.model as string | undefined) ?? "full";
@@ -359,6 +394,11 @@ function settingsFrom(v: Record<string, unknown>, technology: Technology, requir
   if (sl !== undefined) {
     positiveOrThrow("sl", sl, "a length factor S_L");
     st.sL = sl;
+  }
+  const rule = v["length-rule"];
+  if (typeof rule === "string" && rule !== "scenario") {
+    if (sl !== undefined) throw new UsageError("--length-rule and --sl: give one (the rule sets S_L from S)");
+    st.lengthRule = parseLengthRule(rule);
   }
   const miller = q(v, "miller", "", NUMS("a Miller factor from 0 to 2"));
   if (miller !== undefined) {
@@ -449,9 +489,24 @@ function summary(r: ClassResult) {
   };
 }
 
+/** A length rule in words: "S_L = S^0.5". */
+function ruleText(r: LengthRule): string {
+  switch (r.kind) {
+    case "follows-s":
+      return "S_L = S";
+    case "fixed":
+      return "S_L = 1";
+    case "factor":
+      return `S_L = ${r.sL}`;
+    case "power":
+      return `S_L = S^${r.exponent}`;
+  }
+}
+
 function evaluateCmd(argv: string[]): CliResult {
   const v = parse(argv, SCENARIO_OPTIONS);
   if (v.help) return ok(HELP);
+  if (v["length-rule"] === "scenario") throw new UsageError('--length-rule: "scenario" is for sweeps; expected follows-s, fixed, factor:X or power:A');
   const { classes, technology } = loadBaseline(v);
   const settings = settingsFrom(v, technology, true);
   const ev = evaluateScenario({ classes, technology, settings });
@@ -463,7 +518,8 @@ function evaluateCmd(argv: string[]): CliResult {
     totals: ev.totals,
   };
   if (v.json) return ok(json(out));
-  const lines = [`Scenario S = ${settings.s}, S_L = ${settings.sL}, level ${settings.level} (engine ${ev.engineVersion}); scenario/baseline`];
+  const sL = settings.lengthRule ? `${ruleText(settings.lengthRule)}` : `S_L = ${settings.sL}`;
+  const lines = [`Scenario S = ${settings.s}, ${sL}, level ${settings.level} (engine ${ev.engineVersion}); scenario/baseline`];
   const head = ["class", "length", "R", "C", "RC", "delay", "repeaters", "repeated", "energy", "×R", "×C", "×RC", "×delay"];
   const rows = ev.classes.map((c) => [
     c.name,
@@ -500,7 +556,6 @@ function sweepCmd(argv: string[]): CliResult {
     levels: { type: "string" },
     class: { type: "string" },
     log: { type: "boolean" },
-    "length-rule": { type: "string" },
   });
   if (v.help) return ok(HELP);
   const { classes, technology } = loadBaseline(v);
@@ -523,10 +578,10 @@ function sweepCmd(argv: string[]): CliResult {
     if (!(MODEL_LEVELS as readonly string[]).includes(l)) throw new UsageError(`--levels: expected a comma list of ideal, fringe, coupled, full, got "${l}"`);
   const classNames = typeof v.class === "string" ? [v.class] : undefined;
   if (classNames && !classes.some((c) => c.name === classNames[0])) throw new UsageError(`--class: no class "${classNames[0]}" in the baseline`);
+  // --length-rule: settingsFrom has set the global rule (follows-s, fixed, factor:X, power:A); the sweep applies it
+  // at every S. "scenario" (default) keeps --sl.
   const rule = (v["length-rule"] as string | undefined) ?? "scenario";
-  const lengthMode = ({ scenario: "scenario", "follows-s": "follow", fixed: "fixed" } as const)[rule as "scenario" | "follows-s" | "fixed"];
-  if (lengthMode === undefined) throw new UsageError(`--length-rule: expected scenario, follows-s or fixed, got "${rule}"`);
-  if (lengthMode !== "scenario" && variable !== "s") throw new UsageError(`--length-rule: only for S sweeps (--variable s), got --variable ${variable}`);
+  if (rule !== "scenario" && variable !== "s") throw new UsageError(`--length-rule: only for S sweeps (--variable s), got --variable ${variable}`);
   const curves = sweep({
     classes,
     technology,
@@ -539,7 +594,6 @@ function sweepCmd(argv: string[]): CliResult {
     levels: levels as ModelLevel[],
     spacing: v.log ? "log" : "linear",
     classNames,
-    lengthMode,
   });
   if (v.json) return ok(json({ metric, variable, lengthRule: rule, curves }));
   const lines: string[] = [`${metric} against ${variable} (${levels.join(", ")})`];
@@ -550,6 +604,94 @@ function sweepCmd(argv: string[]): CliResult {
     lines.push(
       `${c.className.padEnd(14)} ${c.level.padEnd(8)} ${first ? `${first.x.toFixed(3)}: ${formatEngineering(first.y, unit, 3)}` : "-"}  →  ${last ? `${last.x.toFixed(3)}: ${formatEngineering(last.y, unit, 3)}` : "-"}${c.skipped ? `  (${c.skipped.length} points skipped)` : ""}`,
     );
+  }
+  return ok(lines.join("\n") + "\n");
+}
+
+/**
+ * Reads a roadmap's steps file: the `steps` array of the API's body (or an object { "steps": [...] }), checked with the
+ * API's schema (lib/validation/roadmap.ts). The first problem becomes one line naming the step and field.
+ */
+function readSteps(path: string): RoadmapStep[] {
+  const text = new TextDecoder().decode(readBytes(path, "steps"));
+  let raw: unknown;
+  try {
+    raw = JSON.parse(text);
+  } catch (e) {
+    throw new UsageError(`--steps: ${path} is not valid JSON (${(e as Error).message.split("\n")[0]})`);
+  }
+  const list = raw !== null && typeof raw === "object" && !Array.isArray(raw) && "steps" in raw ? (raw as { steps: unknown }).steps : raw;
+  const r = roadmapStepsSchema.safeParse(list);
+  if (r.success) return r.data;
+  const issue = r.error.issues[0]!;
+  const [index, ...field] = issue.path.map(String);
+  const steps = Array.isArray(list) ? (list as unknown[]) : [];
+  if (index === undefined || !/^\d+$/.test(index)) throw new UsageError(`--steps: ${path}: ${issue.message}`);
+  const step = steps[Number(index)] as { name?: unknown } | undefined;
+  const name = step && typeof step.name === "string" && step.name.trim() !== "" ? ` "${step.name}"` : "";
+  const more = r.error.issues.length > 1 ? ` (and ${r.error.issues.length - 1} more error${r.error.issues.length > 2 ? "s" : ""})` : "";
+  throw new UsageError(`--steps: ${path}: step ${Number(index) + 1}${name}${field.length > 0 ? ` ${field.join(".")}` : ""}: ${issue.message}${more}`);
+}
+
+function roadmapCmd(argv: string[]): CliResult {
+  const v = parse(argv, { baseline: { type: "string" }, histograms: { type: "string" }, technology: { type: "string" }, steps: { type: "string" } });
+  if (v.help) return ok(HELP);
+  const { classes, technology } = loadBaseline(v);
+  if (typeof v.steps !== "string") throw new UsageError('--steps is required: a JSON file with the steps [{ "name": "N1", "settings": { "s": 1.25 } }, …]');
+  const stepsPath = v.steps;
+  const steps = readSteps(stepsPath);
+  let result: ReturnType<typeof evaluateRoadmap>;
+  try {
+    composeRoadmap({ classes, technology, steps });
+    result = evaluateRoadmap({ classes, technology, steps });
+  } catch (e) {
+    if (e instanceof RoadmapInputError) throw new UsageError(`--steps: ${stepsPath}: ${e.message} (at ${e.path.join(".")})`);
+    throw e;
+  }
+  // the API's answer: each step's name and evaluation against N0
+  if (v.json) return ok(json({ steps: result.steps.map((s) => ({ name: s.name, evaluation: s.evaluation })) }));
+  const lines: string[] = [`Roadmap N0 → ${result.steps.map((s) => s.name).join(" → ")}, level ${result.steps.at(-1)!.settings.level}; every step against N0`];
+  const head = ["step", "S", "S_L", "delay", "repeated", "R", "C", "×delay", "×R", "×C", "×RC"];
+  for (let ci = 0; ci < classes.length; ci++) {
+    const name = classes[ci]!.name;
+    const base = result.steps[0]!.evaluation.classes[ci]!.baseline;
+    const rows: string[][] = [
+      [
+        "N0",
+        "1",
+        "1",
+        formatEngineering(base.delayS, "s", 3),
+        formatEngineering(base.repeatedDelayS, "s", 3),
+        formatEngineering(base.rOhm, "Ω", 3),
+        formatEngineering(base.cF, "F", 3),
+        "1.000",
+        "1.000",
+        "1.000",
+        "1.000",
+      ],
+    ];
+    for (const s of result.steps) {
+      const c = s.evaluation.classes[ci]!;
+      const o = s.settings.overrides[name];
+      rows.push([
+        s.name,
+        Number((o?.s ?? s.settings.s).toPrecision(4)).toString(),
+        Number((o?.sL ?? s.settings.sL).toPrecision(4)).toString(),
+        formatEngineering(c.scenario.delayS, "s", 3),
+        formatEngineering(c.scenario.repeatedDelayS, "s", 3),
+        formatEngineering(c.scenario.rOhm, "Ω", 3),
+        formatEngineering(c.scenario.cF, "F", 3),
+        c.ratio.delayS.toFixed(3),
+        c.ratio.rOhm.toFixed(3),
+        c.ratio.cF.toFixed(3),
+        c.ratio.rcS.toFixed(3),
+      ]);
+    }
+    const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i]!.length)));
+    lines.push("", `${name} (${classes[ci]!.tier})`);
+    lines.push(head.map((h, i) => (i === 0 ? h.padEnd(widths[i]!) : h.padStart(widths[i]!))).join("  "));
+    for (const r of rows) lines.push(r.map((x, i) => (i === 0 ? x.padEnd(widths[i]!) : x.padStart(widths[i]!))).join("  "));
+    for (const s of result.steps) for (const f of s.evaluation.classes[ci]!.scenario.validity) lines.push(`warning  ${s.name}: ${f.model}: ${f.message}`);
   }
   return ok(lines.join("\n") + "\n");
 }
@@ -650,6 +792,8 @@ export function run(argv: string[]): CliResult {
         return evaluateCmd(rest);
       case "sweep":
         return sweepCmd(rest);
+      case "roadmap":
+        return roadmapCmd(rest);
       case "materials":
         return materialsCmd(rest);
       case "fit":
@@ -660,7 +804,7 @@ export function run(argv: string[]): CliResult {
       case "help":
         return ok(HELP + "\n");
       default:
-        throw new UsageError(`unknown command "${command}": expected capacitance, delay, evaluate, sweep, fit or materials`);
+        throw new UsageError(`unknown command "${command}": expected capacitance, delay, evaluate, sweep, roadmap, fit or materials`);
     }
   } catch (e) {
     if (e instanceof UsageError || e instanceof RangeError) return { code: 2, stdout: "", stderr: `error: ${e.message}\n` };

@@ -1,7 +1,7 @@
 import "server-only";
 import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
-import { composeRoadmap, type RoadmapStep, type WireClass } from "@/lib/scaling";
+import type { RoadmapStep, Technology, WireClass } from "@/lib/scaling";
 import { writeAudit } from "@/db/audit";
 import { InvalidInputError, NotFoundError, StaleVersionError, fieldError } from "@/db/errors";
 import { getBaseline } from "@/db/queries/baselines";
@@ -12,13 +12,17 @@ import { listClassesWithHistograms } from "@/db/queries/wire-classes";
 /**
  * Every write of the roadmap aggregate (issue 14): the roadmap row, its revisions and its audit rows. Each function is
  * one transaction that resolves what depends on stored data (steps made from a scenario, a free name, the version),
- * composes the chain with the engine against the baseline's stored classes (composeRoadmap throws RoadmapInputError
- * for a class not in the baseline, a target pitch that leaves no metal, …: a 400 through lib/api.ts), bumps the
- * version, writes the revision and the audit row; on any error nothing is stored.
+ * hands the resolved chain and the baseline's stored classes and technology to the caller's `compose` (the engine's
+ * composeRoadmap: db/ does not import the engine; it throws RoadmapInputError for a class not in the baseline, a
+ * target pitch that leaves no metal, …, a 400 through lib/api.ts), bumps the version, writes the revision and the
+ * audit row; on any error nothing is stored.
  * Steps arrive validated (lib/validation/roadmap.ts) with undefined fields dropped.
  */
 
 type Conn = Knex | Knex.Transaction;
+
+/** The engine's check of a chain against its baseline (callers pass lib/scaling composeRoadmap); throws on bad steps. */
+export type ComposeCheck = (p: { classes: WireClass[]; technology: Technology; steps: RoadmapStep[] }) => unknown;
 
 const NAME_TAKEN = "A roadmap with this name already exists on this baseline.";
 
@@ -51,16 +55,19 @@ async function resolveSteps(trx: Knex.Transaction, teamId: string, baselineId: s
   return out;
 }
 
-/** The engine's composition of the chain against the baseline (throws RoadmapInputError on bad steps). */
-async function checkComposes(trx: Knex.Transaction, baselineId: string, steps: RoadmapStep[]): Promise<void> {
+/** The chain composed against the stored baseline by the caller's engine check (throws RoadmapInputError on bad steps). */
+async function checkComposes(trx: Knex.Transaction, baselineId: string, steps: RoadmapStep[], compose: ComposeCheck): Promise<void> {
   const baseline = await getBaseline(trx, baselineId);
   if (!baseline) throw new NotFoundError("Baseline");
   const stored = await listClassesWithHistograms(trx, baselineId);
   const classes: WireClass[] = stored.map(({ id: _i, position: _p, histogramBins: _h, ...c }) => c);
-  composeRoadmap({ classes, technology: baseline.technology, steps });
+  compose({ classes, technology: baseline.technology, steps });
 }
 
-async function writeRevision(trx: Knex.Transaction, p: { roadmapId: string; version: number; userId: string; summary: string; name: string; steps: RoadmapStep[] }) {
+async function writeRevision(
+  trx: Knex.Transaction,
+  p: { roadmapId: string; version: number; userId: string; summary: string; name: string; steps: RoadmapStep[] },
+) {
   await trx("roadmap_revisions").insert({
     roadmap_id: p.roadmapId,
     version: p.version,
@@ -80,7 +87,8 @@ export function describeStepsChange(a: readonly RoadmapStep[], b: readonly Roadm
     const y = b[i];
     if (x && !y) out.push(`removed ${x.name} (step ${i + 1})`);
     else if (!x && y) out.push(`added ${y.name} (step ${i + 1})`);
-    else if (x && y && JSON.stringify(x) !== JSON.stringify(y)) out.push(x.name === y.name ? `${y.name} (step ${i + 1}) changed` : `step ${i + 1} ${x.name} → ${y.name}`);
+    else if (x && y && JSON.stringify(x) !== JSON.stringify(y))
+      out.push(x.name === y.name ? `${y.name} (step ${i + 1}) changed` : `step ${i + 1} ${x.name} → ${y.name}`);
   }
   return out;
 }
@@ -88,7 +96,16 @@ export function describeStepsChange(a: readonly RoadmapStep[], b: readonly Roadm
 /** A new roadmap on a baseline of the team, with its first revision and a "roadmap.create" audit row. Returns its id. */
 export async function createRoadmap(
   conn: Conn,
-  p: { teamId: string; baselineId: string; userId: string; name: string; steps: readonly RoadmapStep[]; isDemo?: boolean; summary?: string },
+  p: {
+    teamId: string;
+    baselineId: string;
+    userId: string;
+    name: string;
+    steps: readonly RoadmapStep[];
+    compose: ComposeCheck;
+    isDemo?: boolean;
+    summary?: string;
+  },
 ): Promise<string> {
   const id = randomUUID();
   const now = Date.now();
@@ -97,7 +114,7 @@ export async function createRoadmap(
     if (!(await trx("baselines").where({ id: p.baselineId, team_id: p.teamId }).first("id"))) throw new NotFoundError("Baseline");
     if (await roadmapNameTaken(trx, p.baselineId, p.name)) throw new InvalidInputError(NAME_TAKEN, fieldError("name", NAME_TAKEN));
     const steps = await resolveSteps(trx, p.teamId, p.baselineId, p.steps);
-    await checkComposes(trx, p.baselineId, steps);
+    await checkComposes(trx, p.baselineId, steps, p.compose);
     await trx("roadmaps").insert({
       id,
       team_id: p.teamId,
@@ -130,7 +147,7 @@ export async function createRoadmap(
  */
 export async function updateRoadmap(
   conn: Conn,
-  p: { id: string; teamId: string; userId: string; version: number; name?: string; steps?: readonly RoadmapStep[] },
+  p: { id: string; teamId: string; userId: string; version: number; name?: string; steps?: readonly RoadmapStep[]; compose: ComposeCheck },
 ): Promise<Roadmap> {
   return conn.transaction(async (trx) => {
     const before = await getRoadmap(trx, p.id);
@@ -140,7 +157,7 @@ export async function updateRoadmap(
     if (p.name !== undefined && (await roadmapNameTaken(trx, before.baselineId, p.name, p.id)))
       throw new InvalidInputError(NAME_TAKEN, fieldError("name", NAME_TAKEN));
     const steps = p.steps ? await resolveSteps(trx, p.teamId, before.baselineId, p.steps) : before.steps;
-    if (p.steps) await checkComposes(trx, before.baselineId, steps);
+    if (p.steps) await checkComposes(trx, before.baselineId, steps, p.compose);
     const name = p.name ?? before.name;
     const now = Date.now();
     const version = p.version + 1;

@@ -5,6 +5,7 @@ import { findBaselineIdByName, findRoadmapIdByName, findScenarioIdByName } from 
 import { parseHistogramBins } from "@/lib/import/histograms";
 import { parseWireClassCsv } from "@/lib/import/wire-classes";
 import { DEFAULT_TECHNOLOGY, type ScenarioSettings, type Technology } from "@/lib/scaling/client";
+import { composeRoadmap } from "@/lib/scaling";
 import { createBaseline } from "@/db/writes/baselines";
 import { createRoadmap } from "@/db/writes/roadmaps";
 import { createScenario } from "@/db/writes/scenarios";
@@ -29,6 +30,12 @@ function examplesDir(): string {
  * its three scenarios authored by the editor, all read from scaling/examples/ (the single source of demo data).
  * Idempotent: rows found by name are kept and reused.
  */
+/** The demo's roadmaps (issue 14): two branches from the Skua baseline over N1–N3, by name, with their steps' file. */
+export const DEMO_ROADMAPS = [
+  { name: "Copper, fixed barrier", file: "skua-roadmap-copper.json" },
+  { name: "Barrier-free local, air-gapped intermediate", file: "skua-roadmap-ru-airgap.json" },
+] as const;
+
 /** Operating temperature of the demo's wiring, °C. */
 export const DEMO_TEMPERATURE_C = 85;
 
@@ -85,22 +92,24 @@ export async function seedDemoWorkspace(
     );
   }
 
-  // The two roadmaps (issue 14): validated like the API's input, composed against the baseline by the write.
-  const roadmaps = JSON.parse(read("skua-roadmaps.json")) as { name: string; steps: unknown }[];
+  // The two roadmap branches (issue 14), steps from scaling/examples (the engine's CLI examples): validated like the
+  // API's input, composed against the baseline by the write.
   const roadmapIds: string[] = [];
-  for (const r of roadmaps) {
+  for (const r of DEMO_ROADMAPS) {
     const found = await findRoadmapIdByName(db, baselineId, r.name);
     if (found) {
       roadmapIds.push(found);
       continue;
     }
+    const file = JSON.parse(read(r.file)) as { steps: unknown };
     roadmapIds.push(
       await createRoadmap(db, {
         teamId: p.teamId,
         baselineId,
         userId: p.editorId,
         name: r.name,
-        steps: roadmapStepsSchema.parse(r.steps),
+        steps: roadmapStepsSchema.parse(file.steps),
+        compose: composeRoadmap,
         isDemo: true,
         summary: "Seeded the invented demo roadmap",
       }),

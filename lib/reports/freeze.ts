@@ -90,7 +90,9 @@ export function freezeReport(input: FreezeInput, now = Date.now()): FrozenReport
   const roadmaps = (input.roadmaps ?? []).map((r, i) => {
     const steps: RoadmapStep[] = r.steps.map((st) => ({
       ...st,
-      settings: st.settings.overrides ? { ...st.settings, overrides: Object.fromEntries(Object.entries(st.settings.overrides).filter(([name]) => chosen.has(name))) } : st.settings,
+      settings: st.settings.overrides
+        ? { ...st.settings, overrides: Object.fromEntries(Object.entries(st.settings.overrides).filter(([name]) => chosen.has(name))) }
+        : st.settings,
     }));
     const evaluated = evaluateRoadmap({ classes, technology: baseline.technology, steps }).steps;
     return {

@@ -21,7 +21,6 @@ import {
   type MetalOverride,
   type ModelLevel,
   type RepeaterResult,
-
   type ScenarioSettings,
   type SweepMetric,
   type SweepPoint,

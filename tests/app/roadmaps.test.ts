@@ -42,13 +42,15 @@ function auditOf(teamId: string, prefix: string) {
 /** The baseline's classes as the engine takes them, read through the API (what the server evaluates). */
 async function engineClasses(c: Client, baselineId: string): Promise<WireClass[]> {
   const r = await c.get(`/api/baselines/${baselineId}`);
-  return r.json.baseline.classes.map(({ id: _i, position: _p, histogramBins: _h, ...wc }: WireClass & { id: string; position: number; histogramBins: number }) => wc);
+  return r.json.baseline.classes.map(
+    ({ id: _i, position: _p, histogramBins: _h, ...wc }: WireClass & { id: string; position: number; histogramBins: number }) => wc,
+  );
 }
 
 const THREE_STEPS: RoadmapStep[] = [
   { name: "N1", settings: { s: 1.25 } },
   { name: "N2", settings: { s: 1.2, overrides: { M2: { k: 2.2 } } } },
-  { name: "N3", settings: { s: 1.1, metal: "Ru", barrierM: 0 } },
+  { name: "N3", settings: { s: 1.1, overrides: { M1: { metal: "Ru", barrierM: 0 } } } },
 ];
 
 describe("roadmaps: create, list, get, save with versions, delete", () => {
@@ -70,7 +72,11 @@ describe("roadmaps: create, list, get, save with versions, delete", () => {
     expect(one.json.roadmap).toEqual(r);
     expect(one.json.role).toBe("viewer");
 
-    const p = await editor.client.patch(`/api/roadmaps/${r.id}`, { version: 1, name: "Copper path v2", steps: [...THREE_STEPS, { name: "N4", settings: { s: 1.1 } }] });
+    const p = await editor.client.patch(`/api/roadmaps/${r.id}`, {
+      version: 1,
+      name: "Copper path v2",
+      steps: [...THREE_STEPS, { name: "N4", settings: { s: 1.1 } }],
+    });
     expect(p.status, p.text).toBe(200);
     expect(p.json.roadmap).toMatchObject({ version: 2, name: "Copper path v2" });
     expect(p.json.roadmap.steps).toHaveLength(4);
@@ -183,7 +189,10 @@ describe("roadmaps: steps from a scenario", () => {
     const c = await owner.client.post(`/api/teams/${teamId}/roadmaps`, {
       name: "From a scenario",
       baselineId: b.id,
-      steps: [{ name: "N1", settings: { s: 1.2 } }, { name: "N2", settings: {}, fromScenarioId: sc.id }],
+      steps: [
+        { name: "N1", settings: { s: 1.2 } },
+        { name: "N2", settings: {}, fromScenarioId: sc.id },
+      ],
     });
     expect(c.status, c.text).toBe(201);
     expect(c.json.roadmap.steps[1]).toEqual({ name: "N2", settings: sc.settings, fromScenarioId: sc.id });
@@ -200,7 +209,10 @@ describe("roadmaps: steps from a scenario", () => {
       const bad = await owner.client.post(`/api/teams/${teamId}/roadmaps`, {
         name: "Bad",
         baselineId: b.id,
-        steps: [{ name: "N1", settings: { s: 1.2 } }, { name: "N2", settings: {}, fromScenarioId: id }],
+        steps: [
+          { name: "N1", settings: { s: 1.2 } },
+          { name: "N2", settings: {}, fromScenarioId: id },
+        ],
       });
       expect(bad.status).toBe(400);
       expect(Object.keys(bad.json.error.fields)).toEqual(["steps.1.fromScenarioId"]);
@@ -217,7 +229,10 @@ describe("roadmaps: bad input answers 400 naming the step and field; nothing sto
     { what: "no steps", steps: [], field: (k) => k === "steps", message: /step/i },
     {
       what: "a class not in the baseline",
-      steps: [{ name: "N1", settings: { s: 1.2 } }, { name: "N2", settings: { overrides: { M9: { s: 1.3 } } } }],
+      steps: [
+        { name: "N1", settings: { s: 1.2 } },
+        { name: "N2", settings: { overrides: { M9: { s: 1.3 } } } },
+      ],
       field: (k) => k === "steps.1.settings.overrides.M9",
       message: /M9/,
     },
@@ -325,8 +340,13 @@ describe("reports with roadmaps", () => {
     const { owner, viewer, outsider, teamId } = await teamWithRoles();
     const b = await createBaseline(owner.client, teamId);
     const s1 = (await owner.client.post(`/api/teams/${teamId}/scenarios`, { baselineId: b.id, name: "Shrink", settings: { s: 1.4 } })).json.scenario;
-    const s2 = (await owner.client.post(`/api/teams/${teamId}/scenarios`, { baselineId: b.id, name: "Shrink Ru", settings: { s: 1.4, overrides: { M1: { metal: "Ru", barrierM: 0 } } } }))
-      .json.scenario;
+    const s2 = (
+      await owner.client.post(`/api/teams/${teamId}/scenarios`, {
+        baselineId: b.id,
+        name: "Shrink Ru",
+        settings: { s: 1.4, overrides: { M1: { metal: "Ru", barrierM: 0 } } },
+      })
+    ).json.scenario;
     const cu = (await owner.client.post(`/api/teams/${teamId}/roadmaps`, { name: "Cu", baselineId: b.id, steps: THREE_STEPS })).json.roadmap;
     const ruSteps: RoadmapStep[] = [
       { name: "N1", settings: { s: 1.25, overrides: { M1: { metal: "Ru", barrierM: 0 } } } },
@@ -334,7 +354,12 @@ describe("reports with roadmaps", () => {
     ];
     const ru = (await owner.client.post(`/api/teams/${teamId}/roadmaps`, { name: "Ru", baselineId: b.id, steps: ruSteps })).json.roadmap;
 
-    const made = await owner.client.post(`/api/teams/${teamId}/reports`, { baselineId: b.id, scenarioIds: [s1.id, s2.id], roadmapIds: [cu.id, ru.id], title: "Branches" });
+    const made = await owner.client.post(`/api/teams/${teamId}/reports`, {
+      baselineId: b.id,
+      scenarioIds: [s1.id, s2.id],
+      roadmapIds: [cu.id, ru.id],
+      title: "Branches",
+    });
     expect(made.status, made.text).toBe(201);
     const frozen = made.json.report.frozen;
     expect(frozen.roadmaps.map((r: { key: string; name: string; roadmapId: string; version: number }) => [r.key, r.name, r.roadmapId, r.version])).toEqual([
@@ -367,7 +392,9 @@ describe("reports with roadmaps", () => {
     expect(p.status, p.text).toBe(200);
     expect(frozenText()).toBe(storedBefore);
     const readAfter = await viewer.client.get(`/api/reports/${made.json.report.id}`);
-    expect(JSON.stringify(readAfter.json.report?.frozen ?? readAfter.json.frozen)).toBe(JSON.stringify(JSON.parse(readBefore).report?.frozen ?? JSON.parse(readBefore).frozen));
+    expect(JSON.stringify(readAfter.json.report?.frozen ?? readAfter.json.frozen)).toBe(
+      JSON.stringify(JSON.parse(readBefore).report?.frozen ?? JSON.parse(readBefore).frozen),
+    );
     expect(JSON.stringify(readAfter.json.report?.frozen ?? readAfter.json.frozen)).toContain('"name":"Cu"');
 
     const csv = await viewer.client.get(`/api/reports/${made.json.report.id}/export.csv`);
@@ -391,7 +418,8 @@ describe("reports with roadmaps", () => {
     const b2 = await createBaseline(owner.client, teamId);
     const elsewhere = (await owner.client.post(`/api/teams/${teamId}/roadmaps`, { name: "Elsewhere", baselineId: b2.id, steps: THREE_STEPS })).json.roadmap;
     const ob = await createBaseline(outsider.client, outsider.teamId);
-    const theirs = (await outsider.client.post(`/api/teams/${outsider.teamId}/roadmaps`, { name: "Theirs", baselineId: ob.id, steps: THREE_STEPS })).json.roadmap;
+    const theirs = (await outsider.client.post(`/api/teams/${outsider.teamId}/roadmaps`, { name: "Theirs", baselineId: ob.id, steps: THREE_STEPS })).json
+      .roadmap;
     const before = stored();
     const countReports = () => {
       const db = rawDb();
@@ -402,7 +430,12 @@ describe("reports with roadmaps", () => {
       }
     };
     const reportsBefore = countReports();
-    const wrongBaseline = await owner.client.post(`/api/teams/${teamId}/reports`, { baselineId: b.id, scenarioIds: [s1.id, s2.id], roadmapIds: [elsewhere.id], title: "x" });
+    const wrongBaseline = await owner.client.post(`/api/teams/${teamId}/reports`, {
+      baselineId: b.id,
+      scenarioIds: [s1.id, s2.id],
+      roadmapIds: [elsewhere.id],
+      title: "x",
+    });
     expect(wrongBaseline.status).toBe(400);
     expect(Object.keys(wrongBaseline.json.error.fields)).toEqual(["roadmapIds"]);
     for (const id of [theirs.id, "no-such-roadmap"]) {

@@ -29,6 +29,8 @@ describe("migrations", () => {
       "class_histograms",
       "scenarios",
       "scenario_revisions",
+      "roadmaps",
+      "roadmap_revisions",
       "reports",
       "share_links",
       "known_devices",
@@ -115,6 +117,40 @@ describe("migrations", () => {
       await trx("sessions").where({ id: "s-m10" }).delete();
     });
     await db("users").where({ id: "u-m10" }).delete();
+  });
+
+  it("roadmaps (issue 14): one name per baseline, gone with their baseline or team, revisions gone with their roadmap; down drops both tables", async () => {
+    const fks = await db.raw<{ table: string; from: string; on_delete: string }[]>("pragma foreign_key_list(roadmaps)");
+    expect(fks.map((f) => [f.table, f.from, f.on_delete]).sort()).toEqual(
+      [
+        ["baselines", "baseline_id", "CASCADE"],
+        ["teams", "team_id", "CASCADE"],
+        ["users", "created_by", "SET NULL"],
+        ["users", "updated_by", "SET NULL"],
+      ].sort(),
+    );
+    const revFks = await db.raw<{ table: string; from: string; on_delete: string }[]>("pragma foreign_key_list(roadmap_revisions)");
+    expect(revFks.map((f) => [f.table, f.from, f.on_delete]).sort()).toEqual(
+      [
+        ["roadmaps", "roadmap_id", "CASCADE"],
+        ["users", "user_id", "SET NULL"],
+      ].sort(),
+    );
+    const idx = await db.raw<{ name: string; unique: number }[]>("pragma index_list(roadmaps)");
+    const uniqueCols = await Promise.all(
+      idx
+        .filter((i) => i.unique && !i.name.startsWith("sqlite_autoindex_roadmaps_1"))
+        .map(async (i) => (await db.raw<{ name: string }[]>(`pragma index_info("${i.name}")`)).map((c) => c.name)),
+    );
+    expect(uniqueCols).toContainEqual(["baseline_id", "name"]);
+    const m50 = await import("@/migrations/20261202000050_roadmaps");
+    await db.transaction(async (trx) => {
+      await m50.down(trx);
+      const names = (await trx.raw<{ name: string }[]>("select name from sqlite_master where type = 'table'")).map((r) => r.name);
+      expect(names).not.toContain("roadmaps");
+      expect(names).not.toContain("roadmap_revisions");
+      await m50.up(trx);
+    });
   });
 
   it("shares one migrations table with the knex CLI (file names match)", () => {

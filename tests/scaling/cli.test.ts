@@ -341,3 +341,152 @@ describe("engine 2 on the command line", () => {
     });
   });
 });
+
+describe("length rules and roadmaps on the command line (issue 14)", () => {
+  const withFiles = (files: Record<string, string>, fn: (dir: string) => void) => {
+    const dir = mkdtempSync(join(tmpdir(), "plateau-cli3-"));
+    try {
+      for (const [name, text] of Object.entries(files)) writeFileSync(join(dir, name), text);
+      fn(dir);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  };
+  const evaluate = (...args: string[]) => JSON.parse(run(["evaluate", "--baseline", BASE, "--json", ...args]).stdout);
+
+  it("evaluate --length-rule power:0.5 at S = 1.5 equals --sl √1.5 = 1.2247… (S_L = S^a, the rule's definition)", () => {
+    const rule = evaluate("--s", "1.5", "--length-rule", "power:0.5");
+    const plain = evaluate("--s", "1.5", "--sl", String(Math.sqrt(1.5)));
+    expect(rule.settings.lengthRule).toEqual({ kind: "power", exponent: 0.5 });
+    expect(rule.classes).toEqual(plain.classes);
+    expect(evaluate("--s", "1.5", "--length-rule", "factor:1.2").classes).toEqual(evaluate("--s", "1.5", "--sl", "1.2").classes);
+    expect(evaluate("--s", "1.5", "--length-rule", "follows-s").classes).toEqual(evaluate("--s", "1.5", "--sl", "1.5").classes);
+    expect(evaluate("--s", "1.5", "--length-rule", "fixed").classes).toEqual(evaluate("--s", "1.5").classes);
+    expect(run(["evaluate", "--baseline", BASE, "--s", "1.5", "--length-rule", "power:0.5"]).stdout).toMatch(/S_L = S\^0\.5/);
+  });
+  it("bad --length-rule values exit 2 with one line", () => {
+    for (const [rule, msg] of [
+      ["power:2.5", /power:A needs an exponent A from 0 to 2, got 2.5/],
+      ["power:-1", /from 0 to 2/],
+      ["factor:0", /factor:X needs X > 0/],
+      ["square", /expected follows-s, fixed, factor:X/],
+      ["power:x", /expected follows-s, fixed, factor:X/],
+    ] as const) {
+      const r = run(["evaluate", "--baseline", BASE, "--s", "1.5", "--length-rule", rule]);
+      expect(r.code).toBe(2);
+      expect(r.stderr).toMatch(msg);
+      expect(r.stderr.trim().split("\n")).toHaveLength(1);
+    }
+    expect(run(["evaluate", "--baseline", BASE, "--s", "1.5", "--sl", "2", "--length-rule", "fixed"]).code).toBe(2);
+    expect(run(["sweep", "--baseline", BASE, "--variable", "k", "--from", "1", "--to", "3", "--points", "3", "--length-rule", "power:1"]).code).toBe(2);
+  });
+  it("sweep --length-rule power:A: R at level ideal ∝ S²/S_L = S^(2 − A) (bulk, barrier scaled: textbook scaling laws, docs/models.md)", () => {
+    const pts = JSON.parse(
+      run([
+        "sweep",
+        "--baseline",
+        BASE,
+        "--s-from",
+        "1",
+        "--s-to",
+        "2",
+        "--points",
+        "3",
+        "--metric",
+        "r",
+        "--levels",
+        "ideal",
+        "--class",
+        "global",
+        "--length-rule",
+        "power:0.5",
+        "--json",
+      ]).stdout,
+    ).curves[0].points as { x: number; y: number }[];
+    for (const p of pts) expect(p.y / pts[0]!.y).toBeCloseTo(Math.pow(p.x, 1.5), 9);
+  });
+
+  it("roadmap --json: the API's { steps: [{ name, evaluation }] }; S over two steps multiplies (1.25 × 1.2 = 1.5 = evaluate --s 1.5)", () => {
+    withFiles(
+      {
+        "steps.json": JSON.stringify([
+          { name: "N1", settings: { s: 1.25 } },
+          { name: "N2", settings: { s: 1.2 } },
+        ]),
+      },
+      (dir) => {
+        const r = run(["roadmap", "--baseline", BASE, "--steps", join(dir, "steps.json"), "--json"]);
+        expect(r.code).toBe(0);
+        const j = JSON.parse(r.stdout);
+        expect(Object.keys(j)).toEqual(["steps"]);
+        expect(j.steps.map((s: { name: string }) => s.name)).toEqual(["N1", "N2"]);
+        for (const s of j.steps) expect(Object.keys(s)).toEqual(["name", "evaluation"]);
+        const plain = evaluate("--s", "1.5");
+        j.steps[1].evaluation.classes.forEach((c: { name: string; ratio: Record<string, number> }, i: number) => {
+          expect(c.name).toBe(plain.classes[i].class);
+          expect(c.ratio.delayS).toBeCloseTo(plain.classes[i].ratio.delayS, 9);
+          expect(c.ratio.rOhm).toBeCloseTo(plain.classes[i].ratio.rOhm, 9);
+        });
+        // the table: one block per class, N0 and each step, ratios to N0
+        const t = run(["roadmap", "--baseline", BASE, "--steps", join(dir, "steps.json")]);
+        expect(t.code).toBe(0);
+        for (const name of ["local", "intermediate", "semi-global", "global"]) expect(t.stdout).toContain(`\n${name} (`);
+        expect(t.stdout).toMatch(/\nN0 +1 +1 .* 1\.000 +1\.000 +1\.000 +1\.000\n/);
+        expect(t.stdout).toMatch(/\nN2 +1\.5 +1 /);
+      },
+    );
+  });
+  it("roadmap: a bad steps file exits 2 with one line naming the step and field", () => {
+    const cases: [unknown, RegExp][] = [
+      [
+        [
+          { name: "N1", settings: { s: 1.2 } },
+          { name: "N2", settings: { lengthRule: { kind: "power", exponent: 3 } } },
+        ],
+        /step 2 "N2" settings\.lengthRule\.exponent: Length-rule exponent must be between 0 and 2/,
+      ],
+      [
+        [{ name: "N1", settings: { overrides: { M9: { s: 1.1 } } } }],
+        /step 1 "N1": class "M9" is not in the baseline \(at steps\.0\.settings\.overrides\.M9\)/,
+      ],
+      [
+        [{ name: "N1", settings: { overrides: { local: { targetPitchM: 4e-9 } } } }],
+        /step 1 "N1": target pitch 4 nm of class local is not more than twice its barrier 2 nm/,
+      ],
+      [[{ name: "N1", settings: { overrides: { local: { s: 1.1, targetPitchM: 40e-9 } } } }], /step 1 "N1" settings\.overrides\.local\.targetPitchM: /],
+      [Array.from({ length: 9 }, (_, i) => ({ name: `N${i + 1}`, settings: {} })), /at most 8 steps/],
+      [[], /at least one step/],
+      [{ steps: [{ name: "N1", settings: { s: 0 } }] }, /step 1 "N1" settings\.s: S must be greater than 0/],
+    ];
+    for (const [steps, msg] of cases)
+      withFiles({ "s.json": JSON.stringify(steps) }, (dir) => {
+        const r = run(["roadmap", "--baseline", BASE, "--steps", join(dir, "s.json"), "--json"]);
+        expect(r.code).toBe(2);
+        expect(r.stdout).toBe("");
+        expect(r.stderr).toMatch(msg);
+        expect(r.stderr.trim().split("\n")).toHaveLength(1);
+      });
+    withFiles({ "s.json": "[{" }, (dir) => expect(run(["roadmap", "--baseline", BASE, "--steps", join(dir, "s.json")]).stderr).toMatch(/not valid JSON/));
+    expect(run(["roadmap", "--baseline", BASE]).stderr).toMatch(/--steps is required/);
+  });
+  it("the demo roadmaps (scaling/examples, invented): three steps each; the air-gap branch lowers intermediate C from N2 on, the copper branch does not", () => {
+    const chain = (file: string) => JSON.parse(run(["roadmap", "--baseline", BASE, "--steps", `scaling/examples/${file}`, "--json"]).stdout).steps;
+    const cu = chain("skua-roadmap-copper.json");
+    const ru = chain("skua-roadmap-ru-airgap.json");
+    expect(cu.map((s: { name: string }) => s.name)).toEqual(["N1", "N2", "N3"]);
+    expect(ru.map((s: { name: string }) => s.name)).toEqual(["N1", "N2", "N3"]);
+    const cls = (
+      steps: { evaluation: { classes: { name: string; ratio: { cF: number }; scenario: { pitchM: number; metal: string } }[] } }[],
+      i: number,
+      name: string,
+    ) => steps[i]!.evaluation.classes.find((c) => c.name === name)!;
+    // N1 identical for intermediate (no gap yet); from N2 the gap (air between the lines) lowers C
+    expect(cls(ru, 0, "intermediate").ratio.cF).toBeCloseTo(cls(cu, 0, "intermediate").ratio.cF, 12);
+    expect(cls(ru, 1, "intermediate").ratio.cF).toBeLessThan(0.9 * cls(cu, 1, "intermediate").ratio.cF);
+    // local: Ru from N1; at N3 the local pitch is the 24 nm target (baseline 24 + 24 nm)
+    expect(cls(ru, 0, "local").scenario.metal).toBe("Ru");
+    expect(cls(ru, 2, "local").scenario.pitchM).toBeCloseTo(24e-9, 18);
+    // global keeps its length (fixed rule): C does not move with S at a fixed k and a shape that scales as a whole
+    expect(cls(cu, 2, "global").ratio.cF).toBeCloseTo(1, 9);
+  });
+});

@@ -2,6 +2,7 @@ import { db } from "@/db/client";
 import { getRoadmap, roadmapTeamId } from "@/db/queries/roadmaps";
 import { deleteRoadmap, updateRoadmap } from "@/db/writes/roadmaps";
 import { requireResource, requireResourceRole } from "@/lib/access";
+import { composeRoadmap } from "@/lib/scaling";
 import { apiRoute, forbidden } from "@/lib/api";
 import { readInput } from "@/lib/workspace/input";
 import { roadmapPatchSchema } from "@/lib/validation/roadmap";
@@ -17,7 +18,15 @@ export const GET = apiRoute<{ id: string }>(async (_req, { id }) => {
 export const PATCH = apiRoute<{ id: string }>(async (req, { id }) => {
   const a = await requireResourceRole(() => roadmapTeamId(db, id), "editor", "Roadmap");
   const input = await readInput(req, roadmapPatchSchema);
-  const roadmap = await updateRoadmap(db, { id, teamId: a.teamId, userId: a.user.id, version: input.version, name: input.name, steps: input.steps });
+  const roadmap = await updateRoadmap(db, {
+    id,
+    teamId: a.teamId,
+    userId: a.user.id,
+    version: input.version,
+    name: input.name,
+    steps: input.steps,
+    compose: composeRoadmap,
+  });
   return Response.json({ roadmap });
 });
 

@@ -2,6 +2,7 @@ import { db } from "@/db/client";
 import { getRoadmap, listRoadmaps } from "@/db/queries/roadmaps";
 import { createRoadmap } from "@/db/writes/roadmaps";
 import { requireTeamRole } from "@/lib/access";
+import { composeRoadmap } from "@/lib/scaling";
 import { apiRoute } from "@/lib/api";
 import { readInput } from "@/lib/workspace/input";
 import { roadmapCreateSchema } from "@/lib/validation/roadmap";
@@ -19,6 +20,13 @@ export const GET = apiRoute<{ teamId: string }>(async (req, { teamId }) => {
 export const POST = apiRoute<{ teamId: string }>(async (req, { teamId }) => {
   const a = await requireTeamRole(teamId, "editor");
   const input = await readInput(req, roadmapCreateSchema);
-  const id = await createRoadmap(db, { teamId, baselineId: input.baselineId, userId: a.user.id, name: input.name, steps: input.steps });
+  const id = await createRoadmap(db, {
+    teamId,
+    baselineId: input.baselineId,
+    userId: a.user.id,
+    name: input.name,
+    steps: input.steps,
+    compose: composeRoadmap,
+  });
   return Response.json({ roadmap: await getRoadmap(db, id) }, { status: 201 });
 });
