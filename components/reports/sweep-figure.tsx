@@ -1,5 +1,6 @@
 import type { FrozenSweep } from "@/lib/validation/report";
 import { plain } from "@/lib/reports/format";
+import { lengthRuleWords } from "@/lib/reports/assumptions";
 import { OUTSIDE_RANGE_STYLE, OutsideRangeSwatch } from "@/components/charts/sweep-meta";
 
 /** Series styles: a distinct colour AND dash pattern each, so the figure still reads when printed in grey. */
@@ -174,7 +175,9 @@ export function SweepFigure({ sweep, optionNames }: { sweep: FrozenSweep; option
             ? "Wire lengths shrink with S (S_L = S)."
             : sweep.lengthRule === "fixed"
               ? "Wire lengths kept (S_L = 1)."
-              : "Wire lengths at each option's S_L."}
+              : typeof sweep.lengthRule === "object"
+                ? `Wire lengths by the rule ${lengthRuleWords(sweep.lengthRule)}.`
+                : "Wire lengths at each option's S_L."}
         </span>
       </figcaption>
     </figure>

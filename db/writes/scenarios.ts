@@ -43,6 +43,8 @@ const LABELS: Record<string, string> = {
   metal: "metal",
   aspectRatio: "aspect ratio",
   airGap: "air gap",
+  lengthRule: "length rule",
+  temperatureC: "temperature °C",
   barrierM: "barrier",
 };
 
@@ -50,6 +52,10 @@ function show(v: unknown): string {
   if (v === null || v === undefined) return "—";
   if (typeof v === "boolean") return v ? "scales" : "fixed";
   if (typeof v === "number") return String(Number(v.toPrecision(6)));
+  if (typeof v === "object" && "kind" in v) {
+    const r = v as { kind: string; sL?: number; exponent?: number };
+    return r.kind === "factor" ? `S_L = ${show(r.sL)}` : r.kind === "power" ? `S_L = S^${show(r.exponent)}` : r.kind === "fixed" ? "S_L = 1" : "S_L = S";
+  }
   if (typeof v === "object" && "kGap" in v && "gapFraction" in v) return `k ${show(v.kGap)} over ${show(Number(v.gapFraction) * 100)}% of T`;
   return String(v);
 }

@@ -1,4 +1,4 @@
-import { DIELECTRICS, METALS, NM, ownEntry } from "@/lib/scaling/client";
+import { DEFAULT_TEMPERATURE_C, DIELECTRICS, METALS, NM, ownEntry, type LengthRule } from "@/lib/scaling/client";
 import type { FrozenOption, FrozenReport } from "@/lib/validation/report";
 import { fixed, plain } from "./format";
 
@@ -23,6 +23,20 @@ function kWords(k: number): string {
   return d ? `k = ${plain(k)} (${d.name})` : `k = ${plain(k)}`;
 }
 
+/** A length rule in words: "S_L = S^0.5 (power law)". */
+export function lengthRuleWords(r: LengthRule): string {
+  switch (r.kind) {
+    case "follows-s":
+      return "S_L = S (lengths shrink with the cell)";
+    case "fixed":
+      return "S_L = 1 (lengths kept)";
+    case "factor":
+      return `S_L = ${plain(r.sL)} whatever S is`;
+    case "power":
+      return `S_L = S^${plain(r.exponent)} (power law)`;
+  }
+}
+
 function range(values: number[], f: (v: number) => string): string {
   const lo = Math.min(...values);
   const hi = Math.max(...values);
@@ -44,7 +58,8 @@ export function optionAssumptions(report: FrozenReport, o: FrozenOption): string
       `Cross-section ${s.s > 1 ? "shrunk" : "grown"} by S = ${plain(s.s)}: widths, thicknesses, spacings and dielectric heights ÷ ${plain(s.s)} (pitch × ${plain(1 / s.s)}).`,
     );
   }
-  if (s.sL !== 1) out.push(`Wire lengths ÷ S_L = ${plain(s.sL)} (× ${plain(1 / s.sL)}).`);
+  if (s.lengthRule) out.push(`Wire lengths ÷ S_L, by the rule ${lengthRuleWords(s.lengthRule)}, on every class without its own.`);
+  else if (s.sL !== 1) out.push(`Wire lengths ÷ S_L = ${plain(s.sL)} (× ${plain(1 / s.sL)}).`);
   else if (s.s !== 1) out.push("Wire lengths unchanged (S_L = 1): the same design on the new wiring.");
   const defaultBarrier = s.level !== "full";
   if (s.level !== "ideal" && s.barrierScales !== defaultBarrier) {
@@ -70,11 +85,14 @@ export function optionAssumptions(report: FrozenReport, o: FrozenOption): string
   }
   if (s.deviceCFactor !== 1) out.push(`Load and repeater input capacitance × ${plain(s.deviceCFactor)}.`);
   if (s.supplyV !== tech.supplyV) out.push(`Supply ${plain(s.supplyV)} V (baseline ${plain(tech.supplyV)} V).`);
+  const baseT = tech.temperatureC ?? DEFAULT_TEMPERATURE_C;
+  if (s.temperatureC !== undefined && s.temperatureC !== baseT) out.push(`Wiring at ${plain(s.temperatureC)} °C (baseline ${plain(baseT)} °C).`);
   for (const [name, ov] of Object.entries(s.overrides)) {
     const cls = classes.find((c) => c.name === name);
     const parts: string[] = [];
     if (ov.s !== undefined && ov.s !== s.s) parts.push(`S = ${plain(ov.s)}`);
-    if (ov.sL !== undefined && ov.sL !== s.sL) parts.push(`S_L = ${plain(ov.sL)}`);
+    if (ov.lengthRule !== undefined) parts.push(`lengths by the rule ${lengthRuleWords(ov.lengthRule)}`);
+    else if (ov.sL !== undefined && ov.sL !== s.sL) parts.push(`S_L = ${plain(ov.sL)}`);
     if (ov.k !== undefined) parts.push(`dielectric ${kWords(ov.k)}${cls ? ` (baseline ${plain(cls.k)})` : ""}`);
     if (ov.metal !== undefined) parts.push(`${metalWords(ov.metal)} fill${cls ? ` (baseline ${metalWords(cls.metal)})` : ""}`);
     if (ov.barrierM !== undefined) {

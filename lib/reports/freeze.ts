@@ -5,7 +5,9 @@ import {
   evaluateScenario,
   ownEntry,
   sweep,
+  type ClassOverride,
   type Evaluation,
+  type LengthRule,
   type RoadmapStep,
   type ScenarioSettings,
   type Technology,
@@ -150,13 +152,18 @@ function trimBins(e: Evaluation): Evaluation {
 }
 
 /**
- * The length rule of a class's sweep (issue 13 item 6), from the first option: "follow" when its S_L equals its S
- * (lengths shrink with the section), "fixed" when S_L = 1; any other S_L follows the tier (local and intermediate
- * wires shrink with the cell, semi-global and global wires keep their length).
+ * The length rule of a class's sweep (issue 13 item 6), from the first option. A length rule of the class (its own,
+ * else the option's global one when the class has no S_L of its own; issue 14): follows-s is "follow", fixed is
+ * "fixed", a factor or power law is that rule, applied at every S. Otherwise from the option's S_L: "follow" when it
+ * equals the class's S (lengths shrink with the section), "fixed" when S_L = 1; any other S_L follows the tier (local
+ * and intermediate wires shrink with the cell, semi-global and global wires keep their length).
  */
-export function sweepLengthRule(settings: ScenarioSettings, wc: Pick<WireClass, "name" | "tier">): "follow" | "fixed" {
-  const s = settings.overrides[wc.name]?.s ?? settings.s;
-  const sL = settings.overrides[wc.name]?.sL ?? settings.sL;
+export function sweepLengthRule(settings: ScenarioSettings, wc: Pick<WireClass, "name" | "tier">): "follow" | "fixed" | LengthRule {
+  const o = ownEntry(settings.overrides, wc.name);
+  const rule = o?.lengthRule ?? (o?.sL === undefined ? settings.lengthRule : undefined);
+  if (rule !== undefined) return rule.kind === "follows-s" ? "follow" : rule.kind === "fixed" ? "fixed" : rule;
+  const s = o?.s ?? settings.s;
+  const sL = o?.sL ?? settings.sL;
   if (Math.abs(sL - s) <= 1e-9 * s) return "follow";
   if (sL === 1) return "fixed";
   return wc.tier === "local" || wc.tier === "intermediate" ? "follow" : "fixed";
@@ -184,13 +191,23 @@ function freezeSweeps(input: FreezeInput, classNames: string[], _evaluations: Ev
   scenarios.forEach((s, i) => {
     const key = OPTION_KEYS[i]!;
     const withReference = i === 0 && s.settings.level === "full";
-    for (const lengthMode of ["follow", "fixed"] as const) {
-      const names = classNames.filter((n) => rules.get(n) === lengthMode);
+    for (const lengthMode of ["follow", "fixed", "scenario"] as const) {
+      const names = classNames.filter((n) => {
+        const r = rules.get(n);
+        return lengthMode === "scenario" ? typeof r === "object" : r === lengthMode;
+      });
       if (names.length === 0) continue;
+      // a factor or power-law rule of the first option: every option's curve of that class follows it at every S
+      let settings = s.settings;
+      if (lengthMode === "scenario") {
+        const overrides: Record<string, ClassOverride> = { ...settings.overrides };
+        for (const n of names) overrides[n] = { ...ownEntry(settings.overrides, n), lengthRule: rules.get(n) as LengthRule };
+        settings = { ...settings, overrides };
+      }
       const common = {
         classes,
         technology: baseline.technology,
-        settings: s.settings,
+        settings,
         variable: "s" as const,
         metric: "delay" as const,
         classNames: names,

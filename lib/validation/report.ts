@@ -501,9 +501,10 @@ export const frozenSweepSchema = z.object({
   marks: z.array(z.object({ key: z.string(), x: num, y: num })),
   /**
    * What the wire length does while S moves (issue 13 item 6): "follow" (S_L = S, the class's lengths shrink with the
-   * section) or "fixed" (S_L = 1). Absent in reports frozen before: those kept the scenario's S_L.
+   * section) or "fixed" (S_L = 1), or (issue 14) the class's factor or power-law LengthRule applied at every S.
+   * Absent in reports frozen before: those kept the scenario's S_L.
    */
-  lengthRule: z.enum(["follow", "fixed"]).optional(),
+  lengthRule: z.union([z.enum(["follow", "fixed"]), lengthRuleSnapshotSchema]).optional(),
 });
 
 export const frozenOptionSchema = z.object({

@@ -25,6 +25,7 @@ const NAME: Record<string, { words: string; field?: string }> = {
   deviceRFactor: { words: "Driver R ×", field: "settings.deviceRFactor" },
   deviceCFactor: { words: "Load C ×", field: "settings.deviceCFactor" },
   supplyV: { words: "the supply voltage", field: "settings.supplyV" },
+  temperatureC: { words: "the operating temperature (°C)", field: "settings.temperatureC" },
   kGap: { words: "the air-gap k", field: "settings.airGap.kGap" },
   gapFraction: { words: "the gap fraction", field: "settings.airGap.gapFraction" },
 };

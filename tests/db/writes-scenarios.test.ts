@@ -158,5 +158,14 @@ describe("db/writes/scenarios", () => {
       "k — → 2.2",
     ]);
     expect(describeSettingsChange(base, base)).toEqual([]);
+    // issue 14: length rules (global and per class) and the scenario's temperature
+    expect(
+      describeSettingsChange(base, {
+        ...base,
+        lengthRule: { kind: "power", exponent: 0.5 },
+        temperatureC: 105,
+        overrides: { M2: { lengthRule: { kind: "factor", sL: 1.2 } } },
+      }),
+    ).toEqual(["length rule — → S_L = S^0.5", "temperature °C — → 105", "M2: length rule — → S_L = 1.2"]);
   });
 });

@@ -84,3 +84,45 @@ describe("freezeReport sweeps", () => {
     expect(mark.y).toBe(one[0]!.points[0]!.y);
   });
 });
+
+describe("length rules in the report's sweeps (issue 14)", () => {
+  const full = baselineSettings("full", technology);
+  it("sweepLengthRule: the class's rule, else the option's global rule when the class has no S_L of its own", () => {
+    expect(sweepLengthRule({ ...full, s: 1.43, sL: 1, lengthRule: { kind: "follows-s" } }, classes[1]!)).toBe("follow");
+    expect(sweepLengthRule({ ...full, s: 1.43, sL: 1.43, lengthRule: { kind: "fixed" } }, classes[0]!)).toBe("fixed");
+    expect(sweepLengthRule({ ...full, s: 1.43, lengthRule: { kind: "power", exponent: 0.5 } }, classes[0]!)).toEqual({ kind: "power", exponent: 0.5 });
+    // the class's S_L wins over the global rule; the class's rule over both
+    expect(sweepLengthRule({ ...full, s: 1.43, lengthRule: { kind: "power", exponent: 0.5 }, overrides: { M9: { sL: 1 } } }, classes[1]!)).toBe("fixed");
+    expect(sweepLengthRule({ ...full, s: 1.43, overrides: { M9: { sL: 1, lengthRule: { kind: "factor", sL: 1.2 } } } }, classes[1]!)).toEqual({
+      kind: "factor",
+      sL: 1.2,
+    });
+  });
+  it("a power-law rule: the frozen curve is the delay at S_L = S^a at every S (closed form of the rule)", () => {
+    const settings: ScenarioSettings = { ...full, s: 1.6, lengthRule: { kind: "power", exponent: 0.5 } };
+    const doc = freezeReport({
+      baseline: { id: "b", name: "t", description: "", version: 1, technology, classes },
+      scenarios: [{ id: "s", name: "shrink", notes: "", version: 1, settings }],
+    });
+    const local = doc.sweeps.find((s) => s.className === "M2")!;
+    expect(local.lengthRule).toEqual({ kind: "power", exponent: 0.5 });
+    const pts = local.series.find((s) => s.key === "A")!.points;
+    for (const p of [pts[0]!, pts[Math.floor(pts.length / 2)]!, pts.at(-1)!]) {
+      const one = sweep({
+        classes,
+        technology,
+        settings: { ...full, s: p.x, sL: Math.sqrt(p.x) },
+        variable: "sL",
+        metric: "delay",
+        from: Math.sqrt(p.x),
+        to: Math.sqrt(p.x),
+        points: 1,
+        levels: ["full"],
+        classNames: ["M2"],
+      })[0]!.points[0]!;
+      expect(p.y).toBeCloseTo(one.y, 24);
+    }
+    const mark = local.marks.find((m) => m.key === "A")!;
+    expect(mark.x).toBe(1.6);
+  });
+});
