@@ -24,6 +24,7 @@ import { explainEngineError } from "@/lib/workspace/engine-errors";
 import { countChange, FIGURE_DEFINITION, FIGURE_LABEL, worstClassDelay } from "@/lib/figures";
 import { ConfirmDelete } from "@/components/ui/confirm-delete";
 import { DuplicateScenario } from "./duplicate-scenario";
+import { describeLengthRule } from "@/lib/workspace/roadmap-view";
 
 // Charts (visx) and the field check load in the browser after the first paint: the settings and the results
 // table do not wait for them (first-load JS without visx).
@@ -502,6 +503,7 @@ function ReadOnlySettings({ settings: s }: { settings: ScenarioSettings }) {
   const rows: [string, string][] = [
     ["S", n(s.s)],
     ["S_L", n(s.sL)],
+    ...(s.lengthRule ? [["Length rule", describeLengthRule(s.lengthRule, s.s)] as [string, string]] : []),
     ["Model level", LEVEL_LABEL[s.level]],
     ["Miller factor", n(s.miller)],
     ["Barrier", s.barrierScales ? "scales with S" : "keeps its thickness"],
