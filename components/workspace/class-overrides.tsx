@@ -59,7 +59,7 @@ export const ClassOverrides = memo(function ClassOverrides({
   };
   const show = (v: unknown) => (v === undefined ? <span className="text-faint">—</span> : String(v));
   return (
-    <div className="overflow-x-auto">
+    <div className="relative overflow-x-auto">
       <table className="num w-full text-xs">
         <caption className="sr-only">Per-class overrides</caption>
         <thead className="text-left text-muted">

@@ -562,7 +562,7 @@ function ClassResultsPanel({
         />
       </div>
       {rs && values && ev ? (
-        <div className="mt-2 overflow-x-auto">
+        <div className="relative mt-2 overflow-x-auto">
           <table className="num w-full text-xs" data-testid="roadmap-table">
             <caption className="sr-only">
               {className}: {m.label} at level {LEVEL_LABEL[level]} across the steps
