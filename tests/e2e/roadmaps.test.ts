@@ -213,7 +213,7 @@ describe("a report with frozen roadmaps", () => {
     for (const r of frozen.roadmaps!) expect(await section.innerText()).toContain(r.name);
     expect(await section.locator("svg.report-chart").count()).toBeGreaterThan(0);
     await section.scrollIntoViewIfNeeded();
-    await page.screenshot({ path: `${SHOTS}/report-roadmaps-1440.png`, fullPage: true });
+    await section.screenshot({ path: `${SHOTS}/report-roadmaps-1440.png` });
     expect(problems).toEqual([]);
   });
 });
