@@ -2,7 +2,7 @@ import type { z } from "zod";
 import { plain } from "@/lib/reports/format";
 import { readingOf, signedPercent } from "@/lib/workspace/roadmap-view";
 import type { frozenRoadmapSchema } from "@/lib/validation/report";
-import { SERIES_STYLE } from "./sweep-figure";
+import { SERIES_STYLE, ticks } from "./sweep-figure";
 
 type FrozenRoadmap = z.output<typeof frozenRoadmapSchema>;
 
@@ -33,12 +33,12 @@ function RoadmapFigure({ className, roadmaps }: { className: string; roadmaps: F
   const lo = ys.length ? Math.min(...ys) : 0;
   const hi = ys.length ? Math.max(...ys) : 1;
   const pad = Math.max((hi - lo) * 0.1, hi * 0.01, 1e-9);
-  const bottom = Math.max(0, lo - pad);
-  const top = hi + pad;
+  const yTicks = ticks(Math.max(0, lo - pad), hi + pad, 5);
+  const bottom = Math.min(yTicks[0] ?? lo, Math.max(0, lo - pad));
+  const top = Math.max(yTicks[yTicks.length - 1] ?? hi, hi + pad);
   const n = Math.max(1, ...lines.map((l) => l.values.length - 1));
   const sx = (i: number) => M.l + (i / n) * (W - M.l - M.r);
   const sy = (v: number) => H - M.b - ((v - bottom) / (top - bottom)) * (H - M.t - M.b);
-  const yTicks = [0, 0.25, 0.5, 0.75, 1].map((f) => bottom + f * (top - bottom));
   const names = ["N0", ...(roadmaps[0]?.steps.map((s) => s.name) ?? [])];
   const title = `Delay of class ${className} across the roadmap steps`;
   return (
@@ -49,7 +49,7 @@ function RoadmapFigure({ className, roadmaps }: { className: string; roadmaps: F
           <g key={t}>
             <line x1={M.l} x2={W - M.r} y1={sy(t)} y2={sy(t)} stroke="#dedbd4" strokeWidth={0.8} />
             <text x={M.l - 6} y={sy(t) + 3.5} textAnchor="end" fontSize={10.5} fill="#5f6368">
-              {plain(t, 3)}
+              {plain(t, 4)}
             </text>
           </g>
         ))}
@@ -105,69 +105,71 @@ export function RoadmapSection({ roadmaps, classNames }: { roadmaps: FrozenRoadm
         {[...new Set(roadmaps.flatMap((r) => r.steps.map((s) => s.evaluation.level)))].join(", ")}).{" "}
         {roadmaps.map((r) => `${r.key}: ${r.name} (version ${r.version}, N0 → ${r.steps.map((s) => s.name).join(" → ")})`).join("; ")}.
       </p>
-      {classNames.map((c) => (
-        <div key={c} className="break-inside-avoid">
-          <h3 className="mb-1 text-sm font-semibold text-ink">{c}</h3>
-          <ul className="mb-2 space-y-0.5 text-xs text-ink">
-            {roadmaps.map((r) => {
-              const v = delays(r, c);
-              return v ? (
-                <li key={r.key}>
-                  {r.key}: {readingOf(c, "delay", ["N0", ...r.steps.map((s) => s.name)], v)}
-                </li>
-              ) : null;
-            })}
-          </ul>
-          <RoadmapFigure className={c} roadmaps={roadmaps} />
-          <table className="mt-2 w-full text-xs">
-            <thead className="text-left text-muted">
-              <tr className="border-b border-rule">
-                <th scope="col" className="py-1 pr-2 font-medium">
-                  Roadmap
-                </th>
-                <th scope="col" className="px-1 font-medium">
-                  Step
-                </th>
-                <th scope="col" className="px-1 text-right font-medium">
-                  Pitch nm
-                </th>
-                <th scope="col" className="px-1 text-right font-medium">
-                  Delay ps
-                </th>
-                <th scope="col" className="px-1 text-right font-medium">
-                  ÷ N0
-                </th>
-                <th scope="col" className="px-1 text-right font-medium">
-                  vs step before
-                </th>
-                <th scope="col" className="px-1 text-right font-medium">
-                  Flags
-                </th>
-              </tr>
-            </thead>
-            <tbody>
-              {roadmaps.flatMap((r) => {
+      <div className="grid gap-6 lg:grid-cols-2 print:grid-cols-1">
+        {classNames.map((c) => (
+          <div key={c} className="min-w-0 break-inside-avoid">
+            <h3 className="mb-1 text-sm font-semibold text-ink">{c}</h3>
+            <ul className="mb-2 space-y-0.5 text-xs text-ink">
+              {roadmaps.map((r) => {
                 const v = delays(r, c);
-                if (!v) return [];
-                const first = r.steps[0]!.evaluation.classes.find((x) => x.name === c)!;
-                const results = [first.baseline, ...r.steps.map((s) => s.evaluation.classes.find((x) => x.name === c)!.scenario)];
-                const names = ["N0", ...r.steps.map((s) => s.name)];
-                return results.map((res, i) => (
-                  <tr key={`${r.key}:${i}`} className="border-b border-rule/60">
-                    <td className="py-0.5 pr-2">{i === 0 ? r.key : ""}</td>
-                    <td className="px-1">{names[i]}</td>
-                    <td className="tabular px-1 text-right">{plain(res.pitchM * 1e9, 3)}</td>
-                    <td className="tabular px-1 text-right">{plain(v[i]!, 3)}</td>
-                    <td className="tabular px-1 text-right">{v[0]! > 0 ? `${plain(v[i]! / v[0]!, 3)}×` : "—"}</td>
-                    <td className="tabular px-1 text-right">{i > 0 && v[i - 1]! > 0 ? signedPercent(v[i]! / v[i - 1]!) : "—"}</td>
-                    <td className="tabular px-1 text-right">{res.validity.length || "—"}</td>
-                  </tr>
-                ));
+                return v ? (
+                  <li key={r.key}>
+                    {r.key}: {readingOf(c, "delay", ["N0", ...r.steps.map((s) => s.name)], v)}
+                  </li>
+                ) : null;
               })}
-            </tbody>
-          </table>
-        </div>
-      ))}
+            </ul>
+            <RoadmapFigure className={c} roadmaps={roadmaps} />
+            <table className="mt-2 w-full text-xs">
+              <thead className="text-left text-muted">
+                <tr className="border-b border-rule">
+                  <th scope="col" className="py-1 pr-2 font-medium">
+                    Roadmap
+                  </th>
+                  <th scope="col" className="px-1 font-medium">
+                    Step
+                  </th>
+                  <th scope="col" className="px-1 text-right font-medium">
+                    Pitch nm
+                  </th>
+                  <th scope="col" className="px-1 text-right font-medium">
+                    Delay ps
+                  </th>
+                  <th scope="col" className="px-1 text-right font-medium">
+                    ÷ N0
+                  </th>
+                  <th scope="col" className="px-1 text-right font-medium">
+                    vs step before
+                  </th>
+                  <th scope="col" className="px-1 text-right font-medium">
+                    Flags
+                  </th>
+                </tr>
+              </thead>
+              <tbody>
+                {roadmaps.flatMap((r) => {
+                  const v = delays(r, c);
+                  if (!v) return [];
+                  const first = r.steps[0]!.evaluation.classes.find((x) => x.name === c)!;
+                  const results = [first.baseline, ...r.steps.map((s) => s.evaluation.classes.find((x) => x.name === c)!.scenario)];
+                  const names = ["N0", ...r.steps.map((s) => s.name)];
+                  return results.map((res, i) => (
+                    <tr key={`${r.key}:${i}`} className="border-b border-rule/60">
+                      <td className="py-0.5 pr-2">{i === 0 ? r.key : ""}</td>
+                      <td className="px-1">{names[i]}</td>
+                      <td className="tabular px-1 text-right">{plain(res.pitchM * 1e9, 3)}</td>
+                      <td className="tabular px-1 text-right">{plain(v[i]!, 3)}</td>
+                      <td className="tabular px-1 text-right">{v[0]! > 0 ? `${plain(v[i]! / v[0]!, 3)}×` : "—"}</td>
+                      <td className="tabular px-1 text-right">{i > 0 && v[i - 1]! > 0 ? signedPercent(v[i]! / v[i - 1]!) : "—"}</td>
+                      <td className="tabular px-1 text-right">{res.validity.length || "—"}</td>
+                    </tr>
+                  ));
+                })}
+              </tbody>
+            </table>
+          </div>
+        ))}
+      </div>
     </div>
   );
 }
