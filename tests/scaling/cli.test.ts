@@ -11,6 +11,9 @@ const BASE = "scaling/examples/skua-baseline.csv";
 describe("run(argv)", () => {
   it("--help and no command print usage", () => {
     expect(run(["--help"]).stdout).toMatch(/capacitance/);
+    expect(run(["--help"]).stdout).toMatch(/roadmap +--baseline classes\.csv --steps steps\.json/);
+    expect(run(["--help"]).stdout).toMatch(/power:A \(S_L = S\^A, 0 ≤ A ≤ 2\)/);
+    expect(run(["roadmap", "--help"]).stdout).toMatch(/Length rules/);
     expect(run([]).code).toBe(0);
   });
   it("plumbing: capacitance --json prints lineCapacitance's figures", () => {
