@@ -31,13 +31,27 @@ const isEmpty = (o: object | undefined) => !o || Object.keys(o).length === 0;
 /**
  * Steps as stored: a step with `fromScenarioId` and no settings of its own (absent or {}) takes that scenario's
  * settings (it must be of the same team and the same baseline, else a 400 on `steps.N.fromScenarioId`); with settings
- * of its own, those are kept and `fromScenarioId` stays as where the step came from (checked the same way).
+ * of its own, those are kept and `fromScenarioId` stays as where the step came from (checked the same way, unless the
+ * stored roadmap already named that source).
  */
-async function resolveSteps(trx: Knex.Transaction, teamId: string, baselineId: string, steps: readonly RoadmapStep[]): Promise<RoadmapStep[]> {
+async function resolveSteps(
+  trx: Knex.Transaction,
+  teamId: string,
+  baselineId: string,
+  steps: readonly RoadmapStep[],
+  stored: readonly RoadmapStep[] = [],
+): Promise<RoadmapStep[]> {
+  // On a save, a step that keeps its own settings and a source the roadmap already had needs no lookup: the source
+  // scenario may have been deleted since, and the roadmap must stay savable.
+  const known = new Set(stored.flatMap((st) => (st.fromScenarioId ? [st.fromScenarioId] : [])));
   const out: RoadmapStep[] = [];
   for (const [i, step] of steps.entries()) {
     if (step.fromScenarioId === undefined) {
       out.push({ name: step.name, settings: step.settings ?? {} });
+      continue;
+    }
+    if (!isEmpty(step.settings) && known.has(step.fromScenarioId)) {
+      out.push({ name: step.name, settings: step.settings, fromScenarioId: step.fromScenarioId });
       continue;
     }
     const field = `steps.${i}.fromScenarioId`;
@@ -156,7 +170,7 @@ export async function updateRoadmap(
     if (before.version !== p.version) throw new StaleVersionError("This roadmap", before.version, p.version);
     if (p.name !== undefined && (await roadmapNameTaken(trx, before.baselineId, p.name, p.id)))
       throw new InvalidInputError(NAME_TAKEN, fieldError("name", NAME_TAKEN));
-    const steps = p.steps ? await resolveSteps(trx, p.teamId, before.baselineId, p.steps) : before.steps;
+    const steps = p.steps ? await resolveSteps(trx, p.teamId, before.baselineId, p.steps, before.steps) : before.steps;
     if (p.steps) await checkComposes(trx, before.baselineId, steps, p.compose);
     const name = p.name ?? before.name;
     const now = Date.now();

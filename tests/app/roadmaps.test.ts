@@ -197,6 +197,13 @@ describe("roadmaps: steps from a scenario", () => {
     expect(c.status, c.text).toBe(201);
     expect(c.json.roadmap.steps[1]).toEqual({ name: "N2", settings: sc.settings, fromScenarioId: sc.id });
 
+    // the source scenario deleted later: the roadmap still saves with the step as stored
+    const made = c.json.roadmap;
+    expect((await owner.client.del(`/api/scenarios/${sc.id}`)).status).toBe(204);
+    const resaved = await owner.client.patch(`/api/roadmaps/${made.id}`, { version: 1, steps: made.steps });
+    expect(resaved.status, resaved.text).toBe(200);
+    expect(resaved.json.roadmap.steps[1]).toEqual(made.steps[1]);
+
     const elsewhere = (await owner.client.post(`/api/teams/${teamId}/scenarios`, { baselineId: b2.id, name: "Other baseline" })).json.scenario;
     const ob = await createBaseline(outsider.client, outsider.teamId);
     const foreign = (await outsider.client.post(`/api/teams/${outsider.teamId}/scenarios`, { baselineId: ob.id, name: "Theirs" })).json.scenario;
@@ -396,6 +403,16 @@ describe("reports with roadmaps", () => {
       JSON.stringify(JSON.parse(readBefore).report?.frozen ?? JSON.parse(readBefore).frozen),
     );
     expect(JSON.stringify(readAfter.json.report?.frozen ?? readAfter.json.frozen)).toContain('"name":"Cu"');
+
+    // refresh freezes the roadmaps as they are now, as the next version; the old version keeps its copy
+    const refreshed = await owner.client.post(`/api/reports/${made.json.report.id}/refresh`);
+    expect(refreshed.status, refreshed.text).toBe(201);
+    const v2 = (await viewer.client.get(`/api/reports/${refreshed.json.report.id}`)).json.report.frozen;
+    expect(v2.roadmaps.map((r: { name: string; version: number; steps: unknown[] }) => [r.name, r.version, r.steps.length])).toEqual([
+      ["Cu, renamed", 2, 1],
+      ["Ru", 1, 2],
+    ]);
+    expect(frozenText()).toBe(storedBefore);
 
     const csv = await viewer.client.get(`/api/reports/${made.json.report.id}/export.csv`);
     expect(csv.status).toBe(200);
