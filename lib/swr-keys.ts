@@ -22,6 +22,8 @@ export const swrKeys = {
   scenario: (scenarioId: string) => `/api/scenarios/${seg(scenarioId)}`,
   /** `{ revisions }` of a scenario, keyed by its current version like baselineRevisions. */
   scenarioRevisions: (scenarioId: string, version: number) => `/api/scenarios/${seg(scenarioId)}/revisions?v=${version}`,
+  /** `{ roadmap, role }`. */
+  roadmap: (roadmapId: string) => `/api/roadmaps/${seg(roadmapId)}`,
   /** `{ links }`: a report's share links (editors and owners). */
   reportShareLinks: (reportId: string) => `/api/reports/${seg(reportId)}/share-links`,
 } as const;

@@ -10,6 +10,7 @@ import type { PublicReport } from "@/lib/reports/service";
 import type { FrozenClassResult, ReportMetric } from "@/lib/validation/report";
 import { ClassRatioChart } from "./class-ratio-chart";
 import { SERIES_STYLE, SweepFigure } from "./sweep-figure";
+import { RoadmapSection } from "./roadmap-section";
 import "./report.css";
 
 const NM = 1e-9;
@@ -337,6 +338,12 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
               </div>
             ))}
           </div>
+        </Section>
+      ) : null}
+
+      {f.roadmaps && f.roadmaps.length > 0 ? (
+        <Section id="roadmaps" title="Roadmaps: delay across the node steps" breakBefore>
+          <RoadmapSection roadmaps={f.roadmaps} classNames={f.roadmaps[0]!.steps[0]!.evaluation.classes.map((c) => c.name)} />
         </Section>
       ) : null}
 

@@ -24,7 +24,7 @@ function niceStep(span: number, target: number): number {
   return (n <= 1 ? 1 : n <= 2 ? 2 : n <= 2.5 ? 2.5 : n <= 5 ? 5 : 10) * mag;
 }
 
-function ticks(lo: number, hi: number, target: number): number[] {
+export function ticks(lo: number, hi: number, target: number): number[] {
   const step = niceStep(hi - lo, target);
   const out: number[] = [];
   for (let v = Math.ceil(lo / step) * step; v <= hi + step * 1e-9; v += step) out.push(Number(v.toPrecision(10)));

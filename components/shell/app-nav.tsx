@@ -11,6 +11,7 @@ const SECTIONS = [
   { label: "Home", path: "" },
   { label: "Baselines", path: "/baselines" },
   { label: "Scenarios", path: "/scenarios" },
+  { label: "Roadmaps", path: "/roadmaps" },
   { label: "Reports", path: "/reports" },
   { label: "Settings", path: "/settings" },
 ] as const;

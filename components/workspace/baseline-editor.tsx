@@ -27,6 +27,7 @@ import { Badge, Card, Notice } from "@/components/ui/card";
 import { inputClass } from "@/components/ui/field";
 import { BaselineWarnings } from "./baseline-warnings";
 import { MaterialsPanel } from "./materials-panel";
+import { StackView } from "./stack-view";
 import { NumberField } from "./number-field";
 import { CAPACITANCE_CHOICE_LABEL, U, formatValue, parseValue, type DisplayUnit } from "./units";
 import { ConfirmDelete } from "@/components/ui/confirm-delete";
@@ -778,6 +779,18 @@ export function BaselineEditor({
           {rows.length === 0 ? <p className="py-4 text-center text-sm text-muted">No classes yet.{readOnly ? "" : " Add one, or import a CSV."}</p> : null}
         </div>
       </Card>
+      <StackView
+        baseline={b}
+        version={version}
+        readOnly={readOnly}
+        locked={classesDirty}
+        onSaved={(nb) => {
+          setRows(nb.classes.map(toRow));
+          setVersion(nb.version);
+          void mutate({ baseline: nb }, { revalidate: false });
+        }}
+        onStale={(v) => setStale(v)}
+      />
       <BaselineHistory id={b.id} version={b.version} />
     </div>
   );

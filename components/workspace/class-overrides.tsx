@@ -1,17 +1,23 @@
 "use client";
-import { memo, useState } from "react";
+import { memo } from "react";
 import { METALS, ownEntry, type AirGap, type ClassOverride, type ScenarioSettings, type WireClass } from "@/lib/scaling/client";
+import { LengthRuleField } from "./length-rule-field";
+import { OptionalNumber } from "./optional-number";
+import { describeLengthRule } from "@/lib/workspace/roadmap-view";
 import { inputClass } from "@/components/ui/field";
 import { DEFAULT_AIR_GAP, DielectricField, gapFractionCheck, kGapCheck } from "./settings-panel";
-import { formatValue, parseValue, U, type DisplayUnit } from "./units";
+import { formatValue, U } from "./units";
 
-type NumKey = "s" | "sL" | "aspectRatio" | "miller" | "barrierM";
+type NumKey = "s" | "sL" | "aspectRatio" | "miller" | "barrierM" | "targetPitchM";
+/** A class's entry with the roadmap step's target pitch (lib/scaling RoadmapClassStep); scenarios have none. */
+type Entry = ClassOverride & { targetPitchM?: number };
 const CHECK: Record<NumKey, (v: number) => string | undefined> = {
   s: (v) => (v <= 0 ? "S must be greater than 0." : v > 20 ? "S must be at most 20." : undefined),
   sL: (v) => (v <= 0 ? "S_L must be greater than 0." : v > 20 ? "S_L must be at most 20." : undefined),
   aspectRatio: (v) => (v <= 0 ? "Aspect ratio must be greater than 0." : v > 10 ? "Aspect ratio must be at most 10." : undefined),
   miller: (v) => (v < 0 || v > 2 ? "Miller factor must be between 0 and 2." : undefined),
   barrierM: (v) => (v < 0 ? "Barrier must not be negative." : v > 1e-6 ? "Barrier must be at most 1 µm." : undefined),
+  targetPitchM: (v) => (v <= 0 ? "Target pitch must be greater than 0." : v > 1e-4 ? "Target pitch must be at most 100 µm." : undefined),
 };
 
 /**
@@ -25,18 +31,27 @@ export const ClassOverrides = memo(function ClassOverrides({
   classes,
   readOnly,
   errors,
+  globalS,
+  pitch,
+  errorPrefix = "settings",
 }: {
-  overrides: ScenarioSettings["overrides"];
+  overrides: Record<string, Entry>;
   globalK: ScenarioSettings["k"];
   /** The new overrides (the rest of the settings unchanged). */
-  onOverrides: (o: ScenarioSettings["overrides"]) => void;
+  onOverrides: (o: Record<string, Entry>) => void;
   classes: WireClass[];
   readOnly: boolean;
   errors: Record<string, string[]>;
+  /** The S the length-rule sentence uses for classes without their own. */
+  globalS: number;
+  /** A roadmap step: the target pitch column (S of the class = its previous pitch ÷ target; exclusive with S). */
+  pitch?: { previousM: Record<string, number | undefined> };
+  /** Where the server's field messages of these overrides start (`settings`, or `steps.N.settings`). */
+  errorPrefix?: string;
 }) {
-  const setO = (name: string, patch: Partial<ClassOverride>) => {
-    const next: ClassOverride = { ...(ownEntry(current, name) ?? {}), ...patch };
-    for (const k of Object.keys(next) as (keyof ClassOverride)[]) if (next[k] === undefined) delete next[k];
+  const setO = (name: string, patch: Partial<Entry>) => {
+    const next: Entry = { ...(ownEntry(current, name) ?? {}), ...patch };
+    for (const k of Object.keys(next) as (keyof Entry)[]) if (next[k] === undefined) delete next[k];
     const overrides = { ...current };
     if (Object.keys(next).length === 0) delete overrides[name];
     else overrides[name] = next;
@@ -44,14 +59,22 @@ export const ClassOverrides = memo(function ClassOverrides({
   };
   const show = (v: unknown) => (v === undefined ? <span className="text-faint">—</span> : String(v));
   return (
-    <div className="overflow-x-auto">
+    <div className="relative overflow-x-auto">
       <table className="num w-full text-xs">
         <caption className="sr-only">Per-class overrides</caption>
         <thead className="text-left text-muted">
           <tr className="border-b border-rule">
             <th className="py-1 pr-2 font-medium">Class</th>
+            {pitch ? (
+              <th className="px-1 text-right font-medium" title="Pitch this class reaches at this step; S of the class = its previous pitch ÷ the target">
+                Target pitch nm
+              </th>
+            ) : null}
             <th className="px-1 text-right font-medium">S</th>
             <th className="px-1 text-right font-medium">S_L</th>
+            <th className="px-1 font-medium" title="How the class's wire lengths follow the shrink (wins over S_L)">
+              Length rule
+            </th>
             <th className="px-1 font-medium">k</th>
             <th className="px-1 font-medium">Metal</th>
             <th className="px-1 font-medium">Barrier</th>
@@ -68,16 +91,19 @@ export const ClassOverrides = memo(function ClassOverrides({
         </thead>
         <tbody>
           {classes.map((c) => {
-            const o = ownEntry(current, c.name) ?? {};
-            const e = (k: string) => errors[`settings.overrides.${c.name}.${k}`];
+            const o: Entry = ownEntry(current, c.name) ?? {};
+            const e = (k: string) => errors[`${errorPrefix}.overrides.${c.name}.${k}`];
+            const prev = pitch?.previousM[c.name];
             if (readOnly)
               return (
                 <tr key={c.name} className="border-b border-rule/60">
                   <th scope="row" className="py-1 pr-2 text-left font-medium">
                     {c.name}
                   </th>
+                  {pitch ? <td className="px-1 text-right">{o.targetPitchM === undefined ? show(undefined) : formatValue(o.targetPitchM, U.nm)}</td> : null}
                   <td className="px-1 text-right">{show(o.s)}</td>
                   <td className="px-1 text-right">{show(o.sL)}</td>
+                  <td className="px-1">{o.lengthRule ? describeLengthRule(o.lengthRule, o.s ?? globalS) : show(undefined)}</td>
                   <td className="px-1">{show(o.k)}</td>
                   <td className="px-1">{show(o.metal)}</td>
                   <td className="px-1">{o.barrierScales === undefined ? show(undefined) : o.barrierScales ? "scales" : "fixed"}</td>
@@ -92,18 +118,47 @@ export const ClassOverrides = memo(function ClassOverrides({
                 <th scope="row" className="pb-1 pr-2 pt-2.5 text-left font-medium">
                   {c.name}
                 </th>
+                {pitch ? (
+                  <td className="px-1 py-0.5">
+                    <OptionalNumber
+                      label={`Target pitch for ${c.name} (nm)`}
+                      unit={U.nm}
+                      value={o.targetPitchM}
+                      onChange={(v) => setO(c.name, v === undefined ? { targetPitchM: undefined } : { targetPitchM: v, s: undefined })}
+                      check={CHECK.targetPitchM}
+                      errors={e("targetPitchM")}
+                    />
+                    {prev !== undefined ? (
+                      <p className="text-[10px] leading-tight text-muted">
+                        from {Number((prev * 1e9).toPrecision(3))} nm
+                        {o.targetPitchM ? ` · S ${Number((prev / o.targetPitchM).toPrecision(3))}` : ""}
+                      </p>
+                    ) : null}
+                  </td>
+                ) : null}
                 {(["s", "sL"] as const).map((k) => (
                   <td key={k} className="px-1 py-0.5">
                     <OptionalNumber
                       label={`${k === "s" ? "S" : "S_L"} for ${c.name}`}
                       fit
                       value={o[k]}
-                      onChange={(v) => setO(c.name, { [k]: v })}
+                      onChange={(v) => setO(c.name, k === "s" && v !== undefined ? { s: v, targetPitchM: undefined } : { [k]: v })}
                       check={CHECK[k]}
                       errors={e(k)}
                     />
                   </td>
                 ))}
+                <td className="px-1 py-0.5">
+                  <LengthRuleField
+                    compact
+                    label={`Length rule for ${c.name}`}
+                    emptyLabel="—"
+                    value={o.lengthRule}
+                    onChange={(lengthRule) => setO(c.name, { lengthRule })}
+                    s={o.s ?? (o.targetPitchM && prev ? prev / o.targetPitchM : globalS)}
+                    errors={e("lengthRule")}
+                  />
+                </td>
                 <td className="px-1 py-0.5">
                   <DielectricField
                     compact
@@ -177,9 +232,10 @@ export const ClassOverrides = memo(function ClassOverrides({
         </tbody>
       </table>
       <p className="mt-1 text-[11px] text-muted">
-        Empty cells follow the global settings. Barrier nm replaces the barrier thickness (0 = barrier-free fill). k accepts an effective value for air gaps
-        (first-order); Air gap puts the gap between the lines as geometry: none = no gap for this class, custom = the gap&apos;s k (1 = air) and the share of
-        the line thickness it covers from the bottom (empty = 1).
+        Empty cells follow the global settings.{pitch ? " A target pitch sets the class's S for this step (its previous pitch ÷ the target) instead of S." : ""}{" "}
+        A length rule says how the class&apos;s wire lengths follow the shrink and wins over S_L. Barrier nm replaces the barrier thickness (0 = barrier-free
+        fill). k accepts an effective value for air gaps (first-order); Air gap puts the gap between the lines as geometry: none = no gap for this class, custom
+        = the gap&apos;s k (1 = air) and the share of the line thickness it covers from the bottom (empty = 1).
       </p>
     </div>
   );
@@ -246,72 +302,6 @@ function AirGapOverride({
         </div>
       ) : null}
       {errors?.length ? <p className="text-[11px] text-bad">{errors.join(" ")}</p> : null}
-    </div>
-  );
-}
-
-function OptionalNumber({
-  label,
-  value,
-  onChange,
-  check,
-  errors,
-  unit = U.none,
-  className = "w-16",
-  placeholder = "—",
-  fit = false,
-}: {
-  /** Grow with the text (at least the class's width), so a derived 1.428571429 shows whole instead of "1.4285". */
-  fit?: boolean;
-  unit?: DisplayUnit;
-  className?: string;
-  placeholder?: string;
-  label: string;
-  value: number | undefined;
-  onChange: (v: number | undefined) => void;
-  check: (v: number) => string | undefined;
-  errors?: string[];
-}) {
-  const [text, setText] = useState(value === undefined ? "" : formatValue(value, unit));
-  const [msg, setMsg] = useState<string | undefined>();
-  // Follow a new value from outside (adjusted while rendering, not in an effect): keep the text when it already says it.
-  const [shown, setShown] = useState(value);
-  if (!Object.is(shown, value)) {
-    setShown(value);
-    const p = parseValue(text, unit);
-    if ((value === undefined && text.trim() !== "") || (value !== undefined && (!p.ok || p.value !== value))) {
-      setText(value === undefined ? "" : formatValue(value, unit));
-      setMsg(undefined);
-    }
-  }
-  const all = [...(msg ? [msg] : []), ...(errors ?? [])];
-  return (
-    <div className={fit ? "min-w-16" : className}>
-      <input
-        aria-label={label}
-        title={text || undefined}
-        // the width in the input's own ch (its font), so a derived value shows whole
-        style={fit ? { width: `calc(${Math.max(5, text.length) + 1}ch + 1rem)` } : undefined}
-        inputMode="decimal"
-        value={text}
-        placeholder={placeholder}
-        aria-invalid={all.length ? true : undefined}
-        className={`${inputClass} tabular px-1 py-1 text-right text-xs`}
-        onChange={(e) => {
-          setText(e.target.value);
-          if (e.target.value.trim() === "") {
-            setMsg(undefined);
-            return onChange(undefined);
-          }
-          const p = parseValue(e.target.value, unit);
-          if (!p.ok) return setMsg(p.message);
-          const m = check(p.value);
-          if (m) return setMsg(m);
-          setMsg(undefined);
-          onChange(p.value);
-        }}
-      />
-      {all.length ? <p className="text-[11px] text-bad">{all.join(" ")}</p> : null}
     </div>
   );
 }

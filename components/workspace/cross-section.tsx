@@ -21,6 +21,8 @@ export function CrossSection({
   airGap = null,
   width = 260,
   height = 150,
+  scale: scaleProp,
+  label,
 }: {
   widthM: number;
   thicknessM: number;
@@ -33,10 +35,14 @@ export function CrossSection({
   airGap?: AirGap | null;
   width?: number;
   height?: number;
+  /** Pixels per metre: several drawings at one scale (the stack view); absent = fitted to width × height. */
+  scale?: number;
+  /** Names the drawing in its accessible label (e.g. the class). */
+  label?: string;
 }) {
   const span = (spacingM !== null ? 3 * widthM + 2 * spacingM : widthM) * 1.3;
   const vspan = heightBelowM + thicknessM + (heightAboveM ?? thicknessM * 1.2);
-  const scale = Math.min((width - 20) / span, (height - 30) / (vspan * 1.1));
+  const scale = scaleProp ?? Math.min((width - 20) / span, (height - 30) / (vspan * 1.1));
   const cx = width / 2;
   const planeY = height - 14;
   const lineBottom = planeY - heightBelowM * scale;
@@ -53,7 +59,7 @@ export function CrossSection({
       width={width}
       height={height}
       role="img"
-      aria-label={`Cross-section: width ${nm(widthM)}, thickness ${nm(thicknessM)}${spacingM !== null ? `, spacing ${nm(spacingM)}` : ""}, ILD below ${nm(heightBelowM)}${heightAboveM !== null ? `, above ${nm(heightAboveM)}` : ""}${k !== undefined ? `, ILD k ${num(k)}` : ""}${airGap ? `, gap k ${num(airGap.kGap)} between the lines up to ${num(100 * airGap.gapFraction)}% of the thickness` : ""}`}
+      aria-label={`Cross-section${label ? ` of ${label}` : ""}: width ${nm(widthM)}, thickness ${nm(thicknessM)}${spacingM !== null ? `, spacing ${nm(spacingM)}` : ""}, ILD below ${nm(heightBelowM)}${heightAboveM !== null ? `, above ${nm(heightAboveM)}` : ""}${k !== undefined ? `, ILD k ${num(k)}` : ""}${airGap ? `, gap k ${num(airGap.kGap)} between the lines up to ${num(100 * airGap.gapFraction)}% of the thickness` : ""}`}
       data-testid="cross-section"
     >
       <rect x={0} y={0} width={width} height={height} fill="#fbfaf8" />

@@ -1,6 +1,16 @@
 "use client";
 import type { Evaluation, FieldSolveResult, SweepCurve } from "@/lib/scaling";
-import type { CapacitanceArgs, CapacitanceModels, EvaluateArgs, FieldArgs, SweepArgs, WorkerRequest, WorkerResponse } from "./engine-protocol";
+import type {
+  CapacitanceArgs,
+  CapacitanceModels,
+  EvaluateArgs,
+  FieldArgs,
+  RoadmapArgs,
+  RoadmapResults,
+  SweepArgs,
+  WorkerRequest,
+  WorkerResponse,
+} from "./engine-protocol";
 
 type Pending = {
   resolve: (v: unknown) => void;
@@ -34,6 +44,7 @@ export class EngineWorker {
       else if (msg.kind === "field") p.resolve(msg.result);
       else if (msg.kind === "evaluate") p.resolve(msg.evaluation);
       else if (msg.kind === "capacitance") p.resolve(msg.models);
+      else if (msg.kind === "roadmap") p.resolve(msg.results);
       else if (msg.kind === "superseded") p.reject(new Superseded("superseded"));
       else p.reject(new Error(msg.message));
     };
@@ -63,6 +74,11 @@ export class EngineWorker {
   /** evaluateScenario in the worker; a newer call supersedes a queued one (it rejects with Superseded). */
   evaluate(args: EvaluateArgs): Promise<Evaluation> {
     return this.send({ kind: "evaluate", args } as Omit<WorkerRequest, "id">);
+  }
+
+  /** evaluateRoadmap of each chain at each level in the worker; a newer call supersedes a queued one. */
+  roadmap(args: RoadmapArgs): Promise<RoadmapResults> {
+    return this.send({ kind: "roadmap", args } as Omit<WorkerRequest, "id">);
   }
 
   /** The accurate tables and the published closed forms on one cross-section. */

@@ -15,17 +15,22 @@ export type EvaluateArgs = Parameters<typeof evaluateScenario>[0];
 export type CapacitanceArgs = Omit<LineCapacitanceInput, "model">;
 export type CapacitanceModels = { accurate: ReturnType<typeof lineCapacitance>; published: ReturnType<typeof lineCapacitance> };
 
+export type { RoadmapArgs, RoadmapEvaluation, RoadmapResults } from "@/lib/workspace/roadmap-evaluate";
+import type { RoadmapArgs, RoadmapResults } from "@/lib/workspace/roadmap-evaluate";
+
 export type WorkerRequest =
   | { id: number; kind: "sweep"; args: SweepArgs }
   | { id: number; kind: "field"; args: FieldArgs }
   | { id: number; kind: "evaluate"; args: EvaluateArgs }
-  | { id: number; kind: "capacitance"; args: CapacitanceArgs };
+  | { id: number; kind: "capacitance"; args: CapacitanceArgs }
+  | { id: number; kind: "roadmap"; args: RoadmapArgs };
 
 export type WorkerResponse =
   | { id: number; kind: "sweep"; curves: SweepCurve[]; reference?: SweepCurve[]; elapsedMs: number }
   | { id: number; kind: "field"; result: FieldSolveResult }
   | { id: number; kind: "evaluate"; evaluation: Evaluation; elapsedMs: number }
   | { id: number; kind: "capacitance"; models: CapacitanceModels }
+  | { id: number; kind: "roadmap"; results: RoadmapResults; elapsedMs: number }
   | { id: number; kind: "progress"; fraction: number }
   | { id: number; kind: "superseded" }
   | { id: number; kind: "error"; message: string };

@@ -1,6 +1,7 @@
 /// <reference lib="webworker" />
 // The engine off the main thread: evaluations, sweeps and the field check (the main thread's bundle carries no engine).
 import { evaluateScenario, fieldSolve, lineCapacitance, sweep, type FieldSolveInput } from "@/lib/scaling";
+import { roadmapResults } from "@/lib/workspace/roadmap-evaluate";
 import type { WorkerRequest, WorkerResponse } from "./engine-protocol";
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
@@ -8,6 +9,8 @@ let pendingSweep: Extract<WorkerRequest, { kind: "sweep" }> | null = null;
 let pendingEval: Extract<WorkerRequest, { kind: "evaluate" }> | null = null;
 let scheduled = false;
 let scheduledEval = false;
+let pendingRoadmap: Extract<WorkerRequest, { kind: "roadmap" }> | null = null;
+let scheduledRoadmap = false;
 
 function post(msg: WorkerResponse) {
   scope.postMessage(msg);
@@ -45,8 +48,32 @@ function runPendingEval() {
   }
 }
 
+// Roadmaps coalesce like evaluations: while a step is edited, only the newest queued request is computed.
+function runPendingRoadmap() {
+  scheduledRoadmap = false;
+  const req = pendingRoadmap;
+  pendingRoadmap = null;
+  if (!req) return;
+  try {
+    const t0 = performance.now();
+    const results = roadmapResults(req.args);
+    post({ id: req.id, kind: "roadmap", results, elapsedMs: performance.now() - t0 });
+  } catch (e) {
+    post({ id: req.id, kind: "error", message: e instanceof Error ? e.message : String(e) });
+  }
+}
+
 scope.onmessage = (ev: MessageEvent<WorkerRequest>) => {
   const req = ev.data;
+  if (req.kind === "roadmap") {
+    if (pendingRoadmap) post({ id: pendingRoadmap.id, kind: "superseded" });
+    pendingRoadmap = req;
+    if (!scheduledRoadmap) {
+      scheduledRoadmap = true;
+      setTimeout(runPendingRoadmap, 0);
+    }
+    return;
+  }
   if (req.kind === "evaluate") {
     if (pendingEval) post({ id: pendingEval.id, kind: "superseded" });
     pendingEval = req;

@@ -23,6 +23,8 @@ import { useEvaluation, type EvaluationState } from "./use-evaluation";
 import { explainEngineError } from "@/lib/workspace/engine-errors";
 import { countChange, FIGURE_DEFINITION, FIGURE_LABEL, worstClassDelay } from "@/lib/figures";
 import { ConfirmDelete } from "@/components/ui/confirm-delete";
+import { DuplicateScenario } from "./duplicate-scenario";
+import { describeLengthRule } from "@/lib/workspace/roadmap-view";
 
 // Charts (visx) and the field check load in the browser after the first paint: the settings and the results
 // table do not wait for them (first-load JS without visx).
@@ -298,6 +300,11 @@ export function ScenarioEditor(props: {
             </>
           )}
         </div>
+        {!readOnly ? (
+          <div className="w-full">
+            <DuplicateScenario teamId={teamId} scenarioId={scenario.id} name={scenario.name} unsaved={dirty} />
+          </div>
+        ) : null}
       </header>
 
       {conflict ? (
@@ -416,7 +423,15 @@ export function ScenarioEditor(props: {
                   : `${Object.keys(s.overrides).length} class${Object.keys(s.overrides).length === 1 ? "" : "es"} with overrides: ${Object.keys(s.overrides).join(", ")}`}
               </summary>
               <div className="mt-2">
-                <ClassOverrides overrides={s.overrides} globalK={s.k} onOverrides={setOverrides} classes={classes} readOnly={readOnly} errors={shownErrors} />
+                <ClassOverrides
+                  overrides={s.overrides}
+                  globalK={s.k}
+                  globalS={s.s}
+                  onOverrides={setOverrides}
+                  classes={classes}
+                  readOnly={readOnly}
+                  errors={shownErrors}
+                />
               </div>
             </details>
           </Card>
@@ -488,6 +503,7 @@ function ReadOnlySettings({ settings: s }: { settings: ScenarioSettings }) {
   const rows: [string, string][] = [
     ["S", n(s.s)],
     ["S_L", n(s.sL)],
+    ...(s.lengthRule ? [["Length rule", describeLengthRule(s.lengthRule, s.s)] as [string, string]] : []),
     ["Model level", LEVEL_LABEL[s.level]],
     ["Miller factor", n(s.miller)],
     ["Barrier", s.barrierScales ? "scales with S" : "keeps its thickness"],

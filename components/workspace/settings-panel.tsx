@@ -5,6 +5,7 @@ import { DIELECTRICS, getDielectric, METALS, MODEL_LEVELS, type AirGap, type Mod
 import { inputClass } from "@/components/ui/field";
 import { pitchExact, sFromPitchExact } from "@/lib/workspace/pitch";
 import { NumberField } from "./number-field";
+import { LengthRuleField } from "./length-rule-field";
 import { U, formatValue, parseValue } from "./units";
 
 // Short enough to show whole in the select; LEVEL_HINT says the rest under it.
@@ -73,6 +74,18 @@ export function SettingsPanel({ settings, onChange, classes, errors }: Props) {
         check={positive("S_L")}
         errors={err("sL")}
         name="sL"
+      />
+      <LengthRuleField
+        label="Length rule (all classes)"
+        emptyLabel="S_L as set above"
+        value={settings.lengthRule}
+        onChange={(r) => {
+          // none = the key left out, so switching back is no change
+          const { lengthRule: _old, ...rest } = settings;
+          onChange(r ? { ...rest, lengthRule: r } : rest);
+        }}
+        s={settings.s}
+        errors={err("lengthRule")}
       />
       <div>
         <label className="mb-1 block text-xs font-medium text-ink" htmlFor="level">

@@ -8,6 +8,7 @@ import { PanelTable } from "@/components/ui/table";
 import { LastChangeCell, NameCell, listRowClass } from "@/components/workspace/list-cells";
 import { ButtonLink } from "@/components/ui/button";
 import { NewScenarioForm } from "@/components/workspace/new-scenario-form";
+import { DuplicateScenario } from "@/components/workspace/duplicate-scenario";
 import { roleAtLeast } from "@/lib/access";
 import { getTeamContext } from "@/lib/team-context";
 import { PageHeader } from "@/components/ui/page-header";
@@ -54,6 +55,7 @@ export default async function ScenariosPage({ params, searchParams }: { params: 
             "Model",
             { label: "Version", className: "text-right" },
             "Last change",
+            ...(canEdit ? [{ label: "Copy", srOnly: true }] : []),
           ]}
         >
           <tbody>
@@ -70,6 +72,11 @@ export default async function ScenariosPage({ params, searchParams }: { params: 
                 <td className="px-3 py-2">{s.settings.level}</td>
                 <td className="tabular px-3 py-2 text-right">{s.version}</td>
                 <LastChangeCell at={s.updatedAt} by={s.updatedByName} />
+                {canEdit ? (
+                  <td className="px-2 py-1.5">
+                    <DuplicateScenario teamId={teamId} scenarioId={s.id} name={s.name} compact />
+                  </td>
+                ) : null}
               </tr>
             ))}
           </tbody>

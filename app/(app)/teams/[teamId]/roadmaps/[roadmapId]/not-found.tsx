@@ -1,0 +1,5 @@
+import { ItemNotFound } from "@/components/workspace/route-states";
+
+export default function RoadmapNotFound() {
+  return <ItemNotFound what="Roadmap" />;
+}
