@@ -69,9 +69,14 @@ export default defineConfig([
           ],
           patterns: [
             {
-              group: ["@/lib/scaling/*", "!@/lib/scaling/client", "!@/lib/scaling/types"],
+              group: ["@/lib/scaling/*", "!@/lib/scaling/client", "!@/lib/scaling/types", "!@/lib/scaling/formats"],
               allowTypeImports: true,
               message: 'Import engine values from "@/lib/scaling/client" here.',
+            },
+            {
+              group: ["**/engine-main", "@/components/workspace/engine-main"],
+              allowTypeImports: true,
+              message: "engine-main (the engine's tables) loads only by dynamic import, after the first paint (use-evaluation.ts).",
             },
           ],
         },
