@@ -2,7 +2,7 @@
 // Parses the chosen CSV off the main thread with the same pipelines as the server and the command line
 // (lib/import's one reader; column definitions, header rules and row validation from lib/scaling/formats.ts),
 // so the preview shows exactly the errors the upload would get.
-import { HISTOGRAM_FORMAT, WIRE_CLASS_FORMAT } from "@/lib/scaling/client";
+import { HISTOGRAM_FORMAT, WIRE_CLASS_FORMAT } from "@/lib/scaling/formats";
 import { convertDecimalCommas } from "@/lib/import/decimal-comma";
 import { HistogramAccumulator } from "@/lib/import/histogram-accumulator";
 import { parseHistogramCsv } from "@/lib/import/histograms";

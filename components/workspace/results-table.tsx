@@ -1,5 +1,5 @@
 "use client";
-import { memo, useState } from "react";
+import { memo, useState, useSyncExternalStore } from "react";
 import type { ClassComparison, ClassResult, Evaluation } from "@/lib/scaling";
 import { countChange } from "@/lib/figures";
 import { fmt, fmtRatio, U } from "./units";
@@ -127,6 +127,25 @@ const COLS: Col[] = [
   },
 ];
 
+/** Below Tailwind's `sm` (40rem): the width at which the phone cards show instead of the table. */
+const PHONE_QUERY = "not all and (min-width: 40rem)";
+const subscribePhone = (onChange: () => void) => {
+  const mq = window.matchMedia(PHONE_QUERY);
+  mq.addEventListener("change", onChange);
+  return () => mq.removeEventListener("change", onChange);
+};
+/**
+ * Whether the phone cards can show: on the server (and while hydrating) yes, so a phone's first paint has them; in a
+ * wider window they are hidden by CSS and not rendered at all (a slider step then renders only the table).
+ */
+function usePhoneCards(): boolean {
+  return useSyncExternalStore(
+    subscribePhone,
+    () => window.matchMedia(PHONE_QUERY).matches,
+    () => true,
+  );
+}
+
 function fmtRaw(v: number, unitSI: number): number {
   return v / unitSI;
 }
@@ -150,6 +169,7 @@ export const ResultsTable = memo(function ResultsTable({ evaluation, dataKey }: 
   // One operating temperature per evaluation (the baseline's technology): resistance is at it.
   const temperatureC = evaluation.classes[0]?.scenario.temperatureC;
   const [all, setAll] = useState(false);
+  const phone = usePhoneCards();
   const cell = (c: Col) => (c.detail && !all ? "hidden xl:table-cell" : "");
   return (
     <div data-results-key={dataKey}>
@@ -164,9 +184,7 @@ export const ResultsTable = memo(function ResultsTable({ evaluation, dataKey }: 
       </button>
       {/* Phones (below 640 px): one card per class with the key columns, no sideways scrolling; the whole table on request. */}
       <div className={all ? "hidden" : "space-y-2 sm:hidden"} data-testid="result-cards">
-        {evaluation.classes.map((cc) => (
-          <ClassCard key={cc.name} cc={cc} />
-        ))}
+        {phone ? evaluation.classes.map((cc) => <ClassCard key={cc.name} cc={cc} />) : null}
       </div>
       <div className={`overflow-x-auto ${all ? "" : "hidden sm:block"}`}>
         <table className="num w-full border-collapse text-xs" data-testid="results-table">

@@ -2,7 +2,7 @@
 import Link from "next/link";
 import { useRouter } from "next/navigation";
 import dynamic from "next/dynamic";
-import { memo, useCallback, useDeferredValue, useEffect, useMemo, useState } from "react";
+import { memo, useCallback, useDeferredValue, useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
 import useSWR from "swr";
 import type { BaselineWithClasses } from "@/db/queries/baselines";
 import type { Role } from "@/lib/access";
@@ -34,10 +34,13 @@ const chartSlot = (h: number) =>
   };
 const RatioCharts = dynamic(() => import("./result-charts").then((m) => m.RatioCharts), { ssr: false, loading: chartSlot(260) });
 const Distributions = dynamic(() => import("./result-charts").then((m) => m.Distributions), { ssr: false, loading: chartSlot(300) });
-const FieldCheck = dynamic(() => import("./field-check").then((m) => m.FieldCheck), {
-  ssr: false,
-  loading: () => <p className="text-sm text-muted">Loading the field check…</p>,
-});
+// memo: while S is dragged the editor renders on every step; these keep their props and are skipped
+const FieldCheck = memo(
+  dynamic(() => import("./field-check").then((m) => m.FieldCheck), {
+    ssr: false,
+    loading: () => <p className="text-sm text-muted">Loading the field check…</p>,
+  }),
+);
 // Also after the first paint (first-load JS, issue 13 item 14): the sweep (its curves come from the worker anyway),
 // the per-class overrides (collapsed unless a class has one) and the history (fetched by the browser).
 const SweepPanel = dynamic(() => import("./sweep-panel").then((m) => m.SweepPanel), { ssr: false, loading: chartSlot(330) });
@@ -45,10 +48,12 @@ const ClassOverrides = dynamic(() => import("./class-overrides").then((m) => m.C
   ssr: false,
   loading: () => <p className="text-xs text-muted">Loading the overrides…</p>,
 });
-const RevisionHistory = dynamic(() => import("./revision-history").then((m) => m.RevisionHistory), {
-  ssr: false,
-  loading: () => <p className="text-xs text-muted">Loading history…</p>,
-});
+const RevisionHistory = memo(
+  dynamic(() => import("./revision-history").then((m) => m.RevisionHistory), {
+    ssr: false,
+    loading: () => <p className="text-xs text-muted">Loading history…</p>,
+  }),
+);
 
 type Draft = { name: string; notes: string; settings: ScenarioSettings };
 
@@ -190,7 +195,7 @@ export function ScenarioEditor(props: {
     }
   }
 
-  async function restore(r: ScenarioRevision) {
+  async function restoreNow(r: ScenarioRevision) {
     if (dirty && !window.confirm("Discard your unsaved changes and restore this revision?")) return;
     setBusy(true);
     try {
@@ -207,6 +212,13 @@ export function ScenarioEditor(props: {
       setBusy(false);
     }
   }
+
+  // one function for the memoised history that always calls the newest restoreNow
+  const restoreRef = useRef(restoreNow);
+  useLayoutEffect(() => {
+    restoreRef.current = restoreNow;
+  });
+  const restore = useCallback((r: ScenarioRevision) => void restoreRef.current(r), []);
 
   async function remove() {
     setBusy(true);
@@ -355,26 +367,7 @@ export function ScenarioEditor(props: {
               />
             )}
           </Card>
-          <Card title="Technology (from the baseline)">
-            <dl className="grid grid-cols-2 gap-x-2 gap-y-0.5 text-xs">
-              <dt className="text-muted">Supply</dt>
-              <dd className="tabular text-right">{fmt(baseline.technology.supplyV, U.V)} V</dd>
-              <dt className="text-muted">Clock</dt>
-              <dd className="tabular text-right">{fmt(baseline.technology.clockHz, U.GHz)} GHz</dd>
-              <dt className="text-muted">Repeater R0</dt>
-              <dd className="tabular text-right">{fmt(baseline.technology.repeaterR0Ohm, U.kohm)} kΩ</dd>
-              <dt className="text-muted">Repeater C0</dt>
-              <dd className="tabular text-right">{fmt(baseline.technology.repeaterC0F, U.fF)} fF</dd>
-              <dt className="text-muted">Delay budget</dt>
-              <dd className="tabular text-right">{fmt(baseline.technology.delayBudgetS, U.ps)} ps</dd>
-              <dt className="text-muted">Temperature</dt>
-              <dd className="tabular text-right">{fmt(baseline.technology.temperatureC ?? DEFAULT_TEMPERATURE_C, U.none)} °C</dd>
-              <dt className="text-muted">Delay model</dt>
-              <dd className="text-right">{(baseline.technology.delayModel ?? "exact") === "exact" ? "exact" : "Sakurai"}</dd>
-              <dt className="text-muted">Capacitance</dt>
-              <dd className="text-right">{(baseline.technology.capacitanceModel ?? "accurate") === "accurate" ? "field-solver tables" : "published forms"}</dd>
-            </dl>
-          </Card>
+          <TechnologyCard technology={baseline.technology} />
         </aside>
 
         <div className="order-1 min-w-0 space-y-4 lg:order-2">
@@ -495,6 +488,32 @@ const Totals = memo(function Totals({ e }: { e: Evaluation }) {
         );
       })}
     </dl>
+  );
+});
+
+/** The baseline's technology (read only; memoised: unchanged while the settings move). */
+const TechnologyCard = memo(function TechnologyCard({ technology }: { technology: BaselineWithClasses["technology"] }) {
+  return (
+    <Card title="Technology (from the baseline)">
+      <dl className="grid grid-cols-2 gap-x-2 gap-y-0.5 text-xs">
+        <dt className="text-muted">Supply</dt>
+        <dd className="tabular text-right">{fmt(technology.supplyV, U.V)} V</dd>
+        <dt className="text-muted">Clock</dt>
+        <dd className="tabular text-right">{fmt(technology.clockHz, U.GHz)} GHz</dd>
+        <dt className="text-muted">Repeater R0</dt>
+        <dd className="tabular text-right">{fmt(technology.repeaterR0Ohm, U.kohm)} kΩ</dd>
+        <dt className="text-muted">Repeater C0</dt>
+        <dd className="tabular text-right">{fmt(technology.repeaterC0F, U.fF)} fF</dd>
+        <dt className="text-muted">Delay budget</dt>
+        <dd className="tabular text-right">{fmt(technology.delayBudgetS, U.ps)} ps</dd>
+        <dt className="text-muted">Temperature</dt>
+        <dd className="tabular text-right">{fmt(technology.temperatureC ?? DEFAULT_TEMPERATURE_C, U.none)} °C</dd>
+        <dt className="text-muted">Delay model</dt>
+        <dd className="text-right">{(technology.delayModel ?? "exact") === "exact" ? "exact" : "Sakurai"}</dd>
+        <dt className="text-muted">Capacitance</dt>
+        <dd className="text-right">{(technology.capacitanceModel ?? "accurate") === "accurate" ? "field-solver tables" : "published forms"}</dd>
+      </dl>
+    </Card>
   );
 });
 

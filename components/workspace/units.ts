@@ -64,11 +64,32 @@ export function parseValue(text: string, u: DisplayUnit): ParseResult {
   }
 }
 
+/**
+ * Formatted figures by value, unit and digits: the results table formats a few hundred figures per slider step, most
+ * of them (the baseline's) the same as the step before, and exact decimal formatting is the costly part of a render.
+ * Bounded: emptied when it grows past FORMAT_CACHE_MAX entries.
+ */
+const formatCache = new Map<string, string>();
+const FORMAT_CACHE_MAX = 4000;
+function cached(key: string, make: () => string): string {
+  let v = formatCache.get(key);
+  if (v === undefined) {
+    if (formatCache.size >= FORMAT_CACHE_MAX) formatCache.clear();
+    v = make();
+    formatCache.set(key, v);
+  }
+  return v;
+}
+
 /** Format a result figure in a fixed unit with `significant` digits, exact in decimal. */
 export function fmt(valueSI: number | null | undefined, u: DisplayUnit, significant = 4): string {
   if (valueSI === null || valueSI === undefined || !Number.isFinite(valueSI)) return "—";
   if (valueSI === 0) return "0";
-  const d = new Decimal(valueSI).div(u.unitSI);
+  return cached(`f${valueSI}|${u.unitSI}|${significant}`, () => fmtExact(valueSI, u.unitSI, significant));
+}
+
+function fmtExact(valueSI: number, unitSI: number, significant: number): string {
+  const d = new Decimal(valueSI).div(unitSI);
   const abs = d.abs();
   if (abs.gte(1e5) || abs.lt(1e-3)) return d.toSignificantDigits(3).toExponential().replace("e+", "e");
   return d
@@ -81,7 +102,7 @@ export function fmt(valueSI: number | null | undefined, u: DisplayUnit, signific
 /** Ratio as "0.72×". */
 export function fmtRatio(r: number): string {
   if (!Number.isFinite(r)) return "—";
-  return `${new Decimal(r).toSignificantDigits(3).toFixed()}×`;
+  return cached(`r${r}`, () => `${new Decimal(r).toSignificantDigits(3).toFixed()}×`);
 }
 
 /** The technology's capacitance model (capacitanceModel) in words. */

@@ -1,5 +1,6 @@
 import Papa from "papaparse";
-import { isDecimalComma, resolveHeader, type CsvFormat } from "@/lib/scaling/client";
+import { isDecimalComma } from "@/lib/scaling/client";
+import { resolveHeader, type CsvFormat } from "@/lib/scaling/formats";
 import { detectDelimiter } from "./csv-stream";
 import type { ImportIssue } from "./types";
 

@@ -3,7 +3,8 @@ import type { Knex } from "knex";
 import { classHistogram, classIdsAndNames } from "@/db/queries/import";
 import type { HistogramArrays } from "@/db/histogram-blob";
 import type { StoredWireClass } from "@/db/queries/wire-classes";
-import { formatScaled, WIRE_CLASS_COLUMNS, type ClassComparison, type Evaluation } from "@/lib/scaling/client";
+import { formatScaled, type ClassComparison, type Evaluation } from "@/lib/scaling/client";
+import { WIRE_CLASS_COLUMNS } from "@/lib/scaling/formats";
 import { csvLine } from "@/lib/csv-safe";
 
 /** Classes CSV in the import format (same columns and units), so an export re-imports unchanged. */

@@ -1,4 +1,4 @@
-import { resolveHeader as resolveFormatHeader, type CsvFormat, type ResolvedHeader } from "@/lib/scaling/client";
+import { resolveHeader as resolveFormatHeader, type CsvFormat, type ResolvedHeader } from "@/lib/scaling/formats";
 import { ImportFatalError } from "./types";
 
 /**

@@ -1,4 +1,5 @@
-import { formatScaled, HISTOGRAM_FORMAT, validateHistogramRow, type LengthBin } from "@/lib/scaling/client";
+import { formatScaled, type LengthBin } from "@/lib/scaling/client";
+import { HISTOGRAM_FORMAT, validateHistogramRow } from "@/lib/scaling/formats";
 import { readCsv, readCsvSync, type CsvConsumer, type CsvReadOptions, type CsvReadResult, type Delimiter } from "./csv-stream";
 import { DecimalCommas, type DecimalCommaFinding } from "./decimal-comma";
 import { resolveHeader, unneutralise } from "./header";

@@ -1,4 +1,4 @@
-import { validateWireClassRow, WIRE_CLASS_FORMAT } from "@/lib/scaling/client";
+import { validateWireClassRow, WIRE_CLASS_FORMAT } from "@/lib/scaling/formats";
 import { MAX_CLASSES, wireClassSchema, type WireClassInput } from "@/lib/validation/wire-class";
 import { readCsv, readCsvSync, type CsvConsumer, type CsvReadOptions, type CsvReadResult, type Delimiter } from "./csv-stream";
 import { DecimalCommas, type DecimalCommaFinding } from "./decimal-comma";

@@ -1,9 +1,12 @@
 /**
  * The engine's light half, for the browser's main thread: types, constants, the default technology, catalogues,
- * units, the CSV formats and the small helpers forms need. It imports nothing that evaluates (evaluate, sweep, the
+ * units and the small helpers forms need. It imports nothing that evaluates (evaluate, sweep, the
  * capacitance and delay tables, the field solver): those run in the editor's Web Worker (components/workspace/
  * engine-worker.ts) and on the server, so the main thread's bundle stays free of the tables (about 220 kB gzip).
  * Client components import values from here; `import type` from "@/lib/scaling" is fine anywhere (ESLint enforces it).
+ * The CSV formats (column specs, header resolution, row validation) are their own light entry, "@/lib/scaling/formats":
+ * a barrel's re-exports are not tree-shaken from the client chunks, so keeping them out of this file keeps them out
+ * of pages that never read a CSV (the scenario editor's first-load JS).
  */
 export * from "./types";
 export { ENGINE_VERSION, EPSILON_0_F_PER_M, DEFAULT_OUTPUT_C_RATIO, DEFAULT_MIN_REPEATER_GAIN, DEFAULT_REPEATER_AREA_M2 } from "./constants";
@@ -33,25 +36,3 @@ export {
 } from "./units";
 export { METALS, METAL_PARAMETERS, DIELECTRICS, getMetal, getDielectric, isMetalId, type Metal, type Dielectric } from "./materials";
 export { hasOwnKey, ownEntry } from "./own";
-export {
-  WIRE_CLASS_COLUMNS,
-  HISTOGRAM_COLUMNS,
-  WIRE_CLASS_FORMAT,
-  HISTOGRAM_FORMAT,
-  HISTOGRAM_LENGTH_COLUMN,
-  HISTOGRAM_COUNT_COLUMN,
-  normaliseHeader,
-  resolveHeader,
-  headerUnits,
-  type ResolvedHeader,
-  parseCell,
-  validateWireClassRow,
-  validateHistogramRow,
-  MEASURED_RESISTANCE_COLUMNS,
-  MEASURED_RESISTANCE_FORMAT,
-  validateMeasuredRow,
-  type ColumnSpec,
-  type CsvFormat,
-  type FormatIssue,
-  type NumberRule,
-} from "./formats";

@@ -3,7 +3,8 @@ import Link from "next/link";
 import type { ReactNode } from "react";
 import { PanelTable } from "@/components/ui/table";
 import { MAX_IMPORT_BYTES, MAX_LISTED_ERRORS } from "@/lib/import/limits";
-import { HISTOGRAM_COLUMNS, METALS, WIRE_CLASS_COLUMNS } from "@/lib/scaling/client";
+import { METALS } from "@/lib/scaling/client";
+import { HISTOGRAM_COLUMNS, WIRE_CLASS_COLUMNS } from "@/lib/scaling/formats";
 import { MAX_CLASSES } from "@/lib/validation/wire-class";
 
 export const metadata: Metadata = { title: "CSV formats" };
