@@ -5,14 +5,12 @@ import { inputClass } from "@/components/ui/field";
 import { ClassOverrides } from "./class-overrides";
 import { LengthRuleField } from "./length-rule-field";
 import { OptionalNumber } from "./optional-number";
-import { DEFAULT_AIR_GAP, DielectricField, gapFractionCheck, kGapCheck } from "./settings-panel";
-import { U, type DisplayUnit } from "./units";
+import { DEFAULT_AIR_GAP, DielectricField, gapFractionCheck, kGapCheck, temperatureCheck } from "./settings-panel";
+import { U } from "./units";
 
 const sCheck = (label: string) => (v: number) => (v <= 0 ? `${label} must be greater than 0.` : v > 20 ? `${label} must be at most 20.` : undefined);
 const millerCheck = (v: number) => (v < 0 || v > 2 ? "Miller factor must be between 0 and 2." : undefined);
 const factorCheck = (label: string) => (v: number) => (v <= 0 ? `${label} must be greater than 0.` : v > 10 ? `${label} must be at most 10.` : undefined);
-const tempCheck = (v: number) => (v <= -273.15 || v > 400 ? "Temperature must be above −273.15 °C and at most 400 °C." : undefined);
-const DEG_C: DisplayUnit = { label: "°C", unitSI: 1, base: "", suffix: "" };
 
 /**
  * The settings of one roadmap step, relative to the step before: an empty field changes nothing at this step (S = 1,
@@ -202,11 +200,11 @@ export function RoadmapStepFields({
           <OptionalNumber
             label="Operating temperature at this step (°C)"
             className="w-full"
-            unit={DEG_C}
+            unit={U.degC}
             placeholder={carried}
             value={settings.temperatureC}
             onChange={(v) => set("temperatureC", v)}
-            check={tempCheck}
+            check={temperatureCheck}
             errors={err("temperatureC")}
           />
         </div>

@@ -353,7 +353,17 @@ export function ScenarioEditor(props: {
       <div className="grid gap-4 lg:grid-cols-[19rem_minmax(0,1fr)]">
         <aside id="settings" className="order-2 space-y-4 lg:order-1">
           <Card title="Scale factors and options" className="[contain:content]">
-            {readOnly ? <ReadOnlySettings settings={s} /> : <SettingsPanel settings={s} onChange={setSettings} classes={classes} errors={shownErrors} />}
+            {readOnly ? (
+              <ReadOnlySettings settings={s} />
+            ) : (
+              <SettingsPanel
+                settings={s}
+                onChange={setSettings}
+                classes={classes}
+                errors={shownErrors}
+                technologyTemperatureC={baseline.technology.temperatureC ?? 25}
+              />
+            )}
           </Card>
           <Card title="Notes">
             {readOnly ? (
@@ -532,6 +542,7 @@ function ReadOnlySettings({ settings: s }: { settings: ScenarioSettings }) {
     ["Driver R ×", n(s.deviceRFactor)],
     ["Load C ×", n(s.deviceCFactor)],
     ["Supply", `${fmt(s.supplyV, U.V)} V`],
+    ...(s.temperatureC !== undefined ? [["Operating temperature", `${n(s.temperatureC)} °C`] as [string, string]] : []),
   ];
   return (
     <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 text-sm" data-testid="readonly-settings">

@@ -6,6 +6,7 @@ import { inputClass } from "@/components/ui/field";
 import { pitchExact, sFromPitchExact } from "@/lib/workspace/pitch";
 import { NumberField } from "./number-field";
 import { LengthRuleField } from "./length-rule-field";
+import { OptionalNumber } from "./optional-number";
 import { U, formatValue, parseValue } from "./units";
 
 // Short enough to show whole in the select; LEVEL_HINT says the rest under it.
@@ -41,10 +42,14 @@ interface Props {
   onChange: (s: ScenarioSettings) => void;
   classes: WireClass[];
   errors: Record<string, string[]>;
+  /** The baseline's operating temperature (°C), shown while the scenario keeps it. */
+  technologyTemperatureC: number;
 }
 
+export const temperatureCheck = (v: number) => (v <= -273.15 || v > 400 ? "Temperature must be above −273.15 °C and at most 400 °C." : undefined);
+
 /** Global scenario settings with sliders and typed inputs (editors only). */
-export function SettingsPanel({ settings, onChange, classes, errors }: Props) {
+export function SettingsPanel({ settings, onChange, classes, errors, technologyTemperatureC }: Props) {
   const set = <K extends keyof ScenarioSettings>(k: K, v: ScenarioSettings[K]) => onChange({ ...settings, [k]: v });
   const err = (k: string) => errors[`settings.${k}`];
   return (
@@ -184,6 +189,20 @@ export function SettingsPanel({ settings, onChange, classes, errors }: Props) {
           errors={err("supplyV")}
           name="supplyV"
         />
+      </div>
+      <div>
+        <span className="mb-1 block text-xs font-medium text-ink">Operating temperature</span>
+        <OptionalNumber
+          label="Operating temperature of this scenario (°C)"
+          className="w-28"
+          unit={U.degC}
+          placeholder={`${technologyTemperatureC} (baseline)`}
+          value={settings.temperatureC}
+          onChange={(v) => set("temperatureC", v)}
+          check={temperatureCheck}
+          errors={err("temperatureC")}
+        />
+        <p className="mt-1 text-[11px] text-muted">°C; empty = the baseline&apos;s. Sets the metals&apos; resistivity for this scenario only.</p>
       </div>
     </div>
   );

@@ -20,6 +20,7 @@ export const U = {
   ps: { label: "ps", unitSI: 1e-12, base: "s", suffix: "ps" },
   V: { label: "V", unitSI: 1, base: "V", suffix: "V" },
   GHz: { label: "GHz", unitSI: 1e9, base: "Hz", suffix: "GHz" },
+  degC: { label: "°C", unitSI: 1, base: "", suffix: "" },
   none: { label: "", unitSI: 1, base: "", suffix: "" },
 } satisfies Record<string, DisplayUnit>;
 
