@@ -61,8 +61,10 @@ export function signedPercent(ratio: number): string {
 const times = (r: number) => `×${Number(r.toPrecision(3))}`;
 
 /**
- * Plain words on one class's metric across the steps (names N0 … Nn, every metric lower-is-better): the first step
- * that improves it by less than PLATEAU_SHARE, or that every step improves it.
+ * Plain words on one class's metric across the steps (names N0 … Nn, every metric lower-is-better): the plateau is the
+ * first step that no later step improves on by PLATEAU_SHARE or more ("stops improving after N2"), so a step that gets
+ * worse before later ones get better (N1 +3%, N2 −8%) does not end the reading early; N0 itself when nothing later
+ * beats it; none when the last step still improves.
  */
 export function readingOf(className: string, metric: RoadmapMetric, names: readonly string[], values: readonly number[]): string {
   const noun = ROADMAP_METRIC[metric].noun;
@@ -70,16 +72,24 @@ export function readingOf(className: string, metric: RoadmapMetric, names: reado
   if (last < 1) return `${className}: no step yet.`;
   if (values.every((v) => v === 0)) return `${className} ${noun} is zero at every step.`;
   const overall = values[0]! > 0 ? ` Overall ${times(values[last]! / values[0]!)} from ${names[0]} to ${names[last]}.` : "";
-  for (let i = 1; i <= last; i++) {
-    const a = values[i - 1]!;
-    const b = values[i]!;
-    const improving = a > 0 ? b < a * (1 - PLATEAU_SHARE) : b < a;
-    if (improving) continue;
-    const change = a > 0 ? signedPercent(b / a) : `${b} from ${a}`;
-    if (i === 1) return `${className} ${noun} does not improve from ${names[0]}: ${change} from ${names[0]} to ${names[1]}.${overall}`;
-    return `${className} ${noun} stops improving after ${names[i - 1]}: ${change} from ${names[i - 1]} to ${names[i]}.${overall}`;
+  const change = (i: number) => (values[i]! > 0 ? signedPercent(values[i + 1]! / values[i]!) : `${values[i + 1]} from ${values[i]}`);
+  let plateau = last;
+  for (let i = 0; i < last; i++) {
+    const a = values[i]!;
+    const laterBest = Math.min(...values.slice(i + 1));
+    const improvedLater = a > 0 ? laterBest < a * (1 - PLATEAU_SHARE) : laterBest < a;
+    if (!improvedLater) {
+      plateau = i;
+      break;
+    }
   }
-  return `${className} ${noun} improves at every step (by ${Math.round(PLATEAU_SHARE * 100)}% or more).${overall}`;
+  if (plateau === last) {
+    const everyStep = values.every((v, i) => i === 0 || v < values[i - 1]! * (1 - PLATEAU_SHARE));
+    if (everyStep) return `${className} ${noun} improves at every step (by ${Math.round(PLATEAU_SHARE * 100)}% or more).${overall}`;
+    return `${className} ${noun} still improves at ${names[last]}: ${change(last - 1)} from ${names[last - 1]} to ${names[last]}.${overall}`;
+  }
+  if (plateau === 0) return `${className} ${noun} does not improve on ${names[0]} at any step: ${change(0)} from ${names[0]} to ${names[1]}.${overall}`;
+  return `${className} ${noun} stops improving after ${names[plateau]}: ${change(plateau)} from ${names[plateau]} to ${names[plateau + 1]}.${overall}`;
 }
 
 /** The levels drawn, bottom of the legend first. */
