@@ -12,11 +12,15 @@ describe("readingOf", () => {
 
   it("says so when every step improves, and when the first does not", () => {
     expect(readingOf("M1", "rc", names, [100, 90, 80, 70])).toBe("M1 RC improves at every step (by 2% or more). Overall ×0.7 from N0 to N3.");
-    expect(readingOf("M1", "delay", names, [100, 99, 99.5, 101])).toBe("M1 delay does not improve on N0 at any step: −1% from N0 to N1. Overall ×1.01 from N0 to N3.");
+    expect(readingOf("M1", "delay", names, [100, 99, 99.5, 101])).toBe(
+      "M1 delay does not improve on N0 at any step: −1% from N0 to N1. Overall ×1.01 from N0 to N3.",
+    );
   });
 
   it("reads past a step that gets worse when later steps improve (the plateau is the first step nothing later beats by 2%)", () => {
-    expect(readingOf("local", "delay", names, [100, 103, 94.9, 91.9])).toBe("local delay still improves at N3: −3.2% from N2 to N3. Overall ×0.919 from N0 to N3.");
+    expect(readingOf("local", "delay", names, [100, 103, 94.9, 91.9])).toBe(
+      "local delay still improves at N3: −3.2% from N2 to N3. Overall ×0.919 from N0 to N3.",
+    );
     expect(readingOf("M3", "delay", names, [100, 90, 80, 79.5])).toBe("M3 delay stops improving after N2: −0.62% from N2 to N3. Overall ×0.795 from N0 to N3.");
     expect(readingOf("M4", "delay", names, [100, 110, 95, 120])).toBe("M4 delay stops improving after N2: +26% from N2 to N3. Overall ×1.2 from N0 to N3.");
   });
