@@ -233,9 +233,11 @@ function golden(g: (x: number) => number, lo: number, hi: number, iters: number,
  * The line fraction W/pitch and aspect ratio T/W that minimise the objective at the class's (scenario's) pitch,
  * within the limits (line fraction minFraction..maxFraction, default 0.3–0.7; aspect minAspect..maxAspect, default
  * 1–3; width ≥ minWidthM, space ≥ minSpaceM; the barrier must leave a conducting core). ILD heights, barrier, k,
- * length, driver, load and vias stay as the scenario has them. Method: a 21 × 21 grid, then alternating bounded
- * golden-section searches in each variable within one grid step of the best point (4 rounds × 30 steps), keeping
- * the best point seen. Deterministic. Throws RangeError naming the field when the limits leave no feasible geometry.
+ * length, driver, load and vias stay as the scenario has them. Method: a 41 × 41 grid; around each of its 6 best
+ * points, 6 levels of a 9 × 9 grid over ± one step of the level before (the step ÷ 4 each level: the objective jumps
+ * where the repeater count changes, so the minimum often lies on such an edge, where a smooth line search stalls);
+ * then 2 rounds of bounded golden-section search in each variable from the best point; the best point seen wins.
+ * Deterministic. Throws RangeError naming the field when the limits leave no feasible geometry.
  */
 export function optimizeClass(p: OptimizeInput): OptimizeResult {
   const b = boxOf(p);
@@ -244,31 +246,60 @@ export function optimizeClass(p: OptimizeInput): OptimizeResult {
     evaluations++;
     return valueAt(b, x, a);
   };
-  const N = 21;
-  let bx = b.fMin;
-  let ba = b.aMin;
-  let by = Infinity;
+  const N = 41;
   const dx = (b.fMax - b.fMin) / (N - 1);
   const da = (b.aMax - b.aMin) / (N - 1);
+  const coarse: { x: number; a: number; y: number }[] = [];
   for (let i = 0; i < N; i++)
     for (let j = 0; j < N; j++) {
       const x = b.fMin + i * dx;
       const a = b.aMin + j * da;
-      const y = val(x, a);
-      if (y < by) {
-        by = y;
-        bx = x;
-        ba = a;
-      }
+      coarse.push({ x, a, y: val(x, a) });
     }
-  if (!Number.isFinite(by)) throw new RangeError("minFraction: no geometry within the limits gives a finite result");
-  for (let round = 0; round < 4; round++) {
+  coarse.sort((u, v) => u.y - v.y || u.x - v.x || u.a - v.a);
+  if (!Number.isFinite(coarse[0]!.y)) throw new RangeError("minFraction: no geometry within the limits gives a finite result");
+  let bx = coarse[0]!.x;
+  let ba = coarse[0]!.a;
+  let by = coarse[0]!.y;
+  for (const start of coarse.slice(0, 6)) {
+    if (!Number.isFinite(start.y)) break;
+    let cx = start.x;
+    let ca = start.a;
+    let cy = start.y;
+    let sx = dx;
+    let sa = da;
+    for (let level = 0; level < 6; level++) {
+      const x0 = Math.max(b.fMin, cx - sx);
+      const x1 = Math.min(b.fMax, cx + sx);
+      const a0 = Math.max(b.aMin, ca - sa);
+      const a1 = Math.min(b.aMax, ca + sa);
+      for (let i = 0; i <= 8; i++)
+        for (let j = 0; j <= 8; j++) {
+          const x = x0 + ((x1 - x0) * i) / 8;
+          const a = a0 + ((a1 - a0) * j) / 8;
+          const y = val(x, a);
+          if (y < cy) {
+            cy = y;
+            cx = x;
+            ca = a;
+          }
+        }
+      sx /= 4;
+      sa /= 4;
+    }
+    if (cy < by) {
+      by = cy;
+      bx = cx;
+      ba = ca;
+    }
+  }
+  for (let round = 0; round < 2; round++) {
     const a0 = ba;
-    let r = golden((x) => val(x, a0), Math.max(b.fMin, bx - dx), Math.min(b.fMax, bx + dx), 30, [bx, by]);
+    let r = golden((x) => val(x, a0), Math.max(b.fMin, bx - dx), Math.min(b.fMax, bx + dx), 25, [bx, by]);
     bx = r[0];
     by = r[1];
     const x0 = bx;
-    r = golden((a) => val(x0, a), Math.max(b.aMin, ba - da), Math.min(b.aMax, ba + da), 30, [ba, by]);
+    r = golden((a) => val(x0, a), Math.max(b.aMin, ba - da), Math.min(b.aMax, ba + da), 25, [ba, by]);
     ba = r[0];
     by = r[1];
   }
