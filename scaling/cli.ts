@@ -827,7 +827,8 @@ function optimizeCmd(argv: string[]): CliResult {
   });
   if (v.help) return ok(HELP);
   const objective = (v.objective as string | undefined) ?? "delay";
-  if (!(DESIGN_OBJECTIVES as readonly string[]).includes(objective)) throw new UsageError(`--objective: expected delay, repeated, energy or edp, got "${objective}"`);
+  if (!(DESIGN_OBJECTIVES as readonly string[]).includes(objective))
+    throw new UsageError(`--objective: expected delay, repeated, energy or edp, got "${objective}"`);
   const minFraction = fraction(v, "min-fraction");
   const maxFraction = fraction(v, "max-fraction");
   const minAspect = q(v, "min-aspect", "", NUMS("an aspect ratio T/W > 0"));
@@ -841,10 +842,18 @@ function optimizeCmd(argv: string[]): CliResult {
   if (typeof v.class !== "string") throw new UsageError("--class is required: the name of one class of the baseline");
   const { classes, technology } = loadBaseline(v);
   const name = v.class;
-  if (!classes.some((c) => c.name === name)) throw new UsageError(`--class: no class named "${name}" (the baseline has ${classes.map((c) => c.name).join(", ")})`);
+  if (!classes.some((c) => c.name === name))
+    throw new UsageError(`--class: no class named "${name}" (the baseline has ${classes.map((c) => c.name).join(", ")})`);
   const settings = settingsFrom(v, technology, false);
   const r = withOptionNames(
-    { minFraction: "min-fraction", maxFraction: "max-fraction", minAspect: "min-aspect", maxAspect: "max-aspect", minWidthM: "min-width", minSpaceM: "min-space" },
+    {
+      minFraction: "min-fraction",
+      maxFraction: "max-fraction",
+      minAspect: "min-aspect",
+      maxAspect: "max-aspect",
+      minWidthM: "min-width",
+      minSpaceM: "min-space",
+    },
     () =>
       optimizeClass({
         wireClass: classes,
@@ -932,7 +941,8 @@ function variationCmd(argv: string[]): CliResult {
   const seed = need(v, "seed", "", NUMS("a whole-number seed"));
   if (!Number.isInteger(seed)) throw new UsageError(`--seed: expected a whole number, got ${seed}`);
   const cornerSigma = q(v, "corner-sigma", "", NUMS("a corner distance in σ, > 0 and ≤ 6"));
-  if (cornerSigma !== undefined && !(cornerSigma > 0 && cornerSigma <= 6)) throw new UsageError(`--corner-sigma: expected a number > 0 and <= 6, got ${cornerSigma}`);
+  if (cornerSigma !== undefined && !(cornerSigma > 0 && cornerSigma <= 6))
+    throw new UsageError(`--corner-sigma: expected a number > 0 and <= 6, got ${cornerSigma}`);
   const { classes, technology } = loadBaseline(v);
   const settings = settingsFrom(v, technology, false);
   const names = Object.fromEntries(SIGMA_OPTIONS.map((o) => [`sigma.${o.key}`, o.option]));

@@ -520,7 +520,9 @@ function perturbed(f: Flat, input: TornadoInput, factor: number): { wc: WireClas
       wc.loadF *= factor;
       break;
     default: {
-      const key = ({ bulkResistivity: "resistivityOhmM", meanFreePath: "meanFreePathM", specularity: "specularity", grainReflection: "grainReflection" } as const)[input];
+      const key = (
+        { bulkResistivity: "resistivityOhmM", meanFreePath: "meanFreePathM", specularity: "specularity", grainReflection: "grainReflection" } as const
+      )[input];
       const base = getMetal(wc.metal);
       const mats = tech.materials ?? {};
       const own = ownEntry(mats, base.id) ?? ownEntry(mats, wc.metal) ?? {};
@@ -740,7 +742,8 @@ export function variation(p: {
   cornerSigma?: number;
 }): ClassVariation[] {
   const n = p.samples;
-  if (!(Number.isInteger(n) && n >= 2 && n <= MAX_VARIATION_SAMPLES)) throw new RangeError(`samples must be a whole number from 2 to ${MAX_VARIATION_SAMPLES} (got ${n})`);
+  if (!(Number.isInteger(n) && n >= 2 && n <= MAX_VARIATION_SAMPLES))
+    throw new RangeError(`samples must be a whole number from 2 to ${MAX_VARIATION_SAMPLES} (got ${n})`);
   if (!Number.isInteger(p.seed)) throw new RangeError(`seed must be a whole number (got ${p.seed})`);
   const cs = p.cornerSigma ?? 3;
   if (!(cs > 0 && cs <= 6)) throw new RangeError(`cornerSigma must be > 0 and <= 6 (got ${cs})`);

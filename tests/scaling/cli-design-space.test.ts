@@ -16,7 +16,14 @@ describe("optimize", () => {
     expect(r.code).toBe(0);
     const j = JSON.parse(r.stdout);
     for (const k of ["widthM", "thicknessM", "spacingM", "objectiveValue", "lineFraction", "aspectRatio"]) expect(typeof j[k]).toBe("number");
-    const ref = optimizeClass({ wireClass: classes(), className: "intermediate", technology: DEFAULT_TECHNOLOGY, settings: settings(1.2), objective: "edp", maxAspect: 2.5 });
+    const ref = optimizeClass({
+      wireClass: classes(),
+      className: "intermediate",
+      technology: DEFAULT_TECHNOLOGY,
+      settings: settings(1.2),
+      objective: "edp",
+      maxAspect: 2.5,
+    });
     expect(j.widthM).toBe(ref.widthM);
     expect(j.thicknessM).toBe(ref.thicknessM);
     expect(j.spacingM).toBe(ref.spacingM);
@@ -34,7 +41,24 @@ describe("optimize", () => {
 });
 
 describe("variation", () => {
-  const argv = ["variation", "--baseline", BASE, "--s", "1.2", "--sigma-width", "1nm", "--sigma-thickness", "2nm", "--sigma-k", "2%", "--samples", "400", "--seed", "1", "--json"];
+  const argv = [
+    "variation",
+    "--baseline",
+    BASE,
+    "--s",
+    "1.2",
+    "--sigma-width",
+    "1nm",
+    "--sigma-thickness",
+    "2nm",
+    "--sigma-k",
+    "2%",
+    "--samples",
+    "400",
+    "--seed",
+    "1",
+    "--json",
+  ];
   it("--json prints per class { class, rOhmPerM, cFPerM, delayS } with mean/std/p5/p50/p95 (plumbing: variation on the same inputs)", () => {
     const r = run(argv);
     expect(r.code).toBe(0);
@@ -76,7 +100,10 @@ describe("bad arguments: exit 2, one line naming the argument", () => {
     [["variation", "--baseline", BASE, "--samples", "100001", "--seed", "1"], /--samples: expected a whole number from 2 to 100000/],
     [["variation", "--baseline", BASE, "--samples", "10", "--seed", "1.5"], /--seed: expected a whole number/],
     [["variation", "--baseline", BASE, "--samples", "10", "--seed", "1", "--sigma-width", "-1nm"], /--sigma-width: expected .* >= 0/],
-    [["variation", "--baseline", BASE, "--samples", "10", "--seed", "1", "--sigma-width", "30nm"], /--sigma-width: sigma\.width must not be larger than the nominal value/],
+    [
+      ["variation", "--baseline", BASE, "--samples", "10", "--seed", "1", "--sigma-width", "30nm"],
+      /--sigma-width: sigma\.width must not be larger than the nominal value/,
+    ],
     [["variation", "--baseline", BASE, "--samples", "10", "--seed", "1", "--sigma-k", "lots"], /--sigma-k: expected a σ of k/],
   ])("error: %j", (args, message) => {
     const r = run(args as string[]);

@@ -27,7 +27,11 @@ const settings = (over: Partial<ScenarioSettings> = {}): ScenarioSettings => ({ 
 function drawnResult(wc: WireClass, st: ScenarioSettings, x: number, a: number): ClassResult {
   const pitchBase = wc.widthM + wc.spacingM;
   const c = { ...wc, widthM: x * pitchBase, spacingM: (1 - x) * pitchBase };
-  return evaluateClass({ wireClass: c, technology: tech, settings: { ...st, overrides: { ...st.overrides, [wc.name]: { ...st.overrides[wc.name], aspectRatio: a } } } });
+  return evaluateClass({
+    wireClass: c,
+    technology: tech,
+    settings: { ...st, overrides: { ...st.overrides, [wc.name]: { ...st.overrides[wc.name], aspectRatio: a } } },
+  });
 }
 
 describe("flattenClass", () => {
@@ -62,7 +66,18 @@ describe("optimizeClass", () => {
     { name: "m2", wc, st, lim: { minFraction: 0.3, maxFraction: 0.7, maxAspect: 3 } },
     {
       name: "semi-global",
-      wc: testClass({ name: "sg", widthM: 80e-9, spacingM: 80e-9, thicknessM: 160e-9, ildBelowM: 100e-9, ildAboveM: 100e-9, barrierM: 3e-9, meanLengthM: 300e-6, driverOhm: 1200, loadF: 2e-15 }),
+      wc: testClass({
+        name: "sg",
+        widthM: 80e-9,
+        spacingM: 80e-9,
+        thicknessM: 160e-9,
+        ildBelowM: 100e-9,
+        ildAboveM: 100e-9,
+        barrierM: 3e-9,
+        meanLengthM: 300e-6,
+        driverOhm: 1200,
+        loadF: 2e-15,
+      }),
       st: settings({ level: "coupled", s: 1.2 }),
       lim: { minFraction: 0.35, maxFraction: 0.65, maxAspect: 2.5 },
     },
@@ -101,7 +116,9 @@ describe("optimizeClass", () => {
   });
 
   it("limits that leave no feasible geometry throw a RangeError naming the field", () => {
-    expect(() => optimizeClass({ wireClass: wc, technology: tech, settings: st, objective: "delay", minFraction: 0.6, maxFraction: 0.5 })).toThrow(/^minFraction/);
+    expect(() => optimizeClass({ wireClass: wc, technology: tech, settings: st, objective: "delay", minFraction: 0.6, maxFraction: 0.5 })).toThrow(
+      /^minFraction/,
+    );
     expect(() => optimizeClass({ wireClass: wc, technology: tech, settings: st, objective: "delay", minWidthM: 50e-9 })).toThrow(/^minFraction/);
     expect(() => optimizeClass({ wireClass: wc, technology: tech, settings: st, objective: "delay", maxAspect: 0.05 })).toThrow(/^maxAspect/);
     expect(() => optimizeClass({ wireClass: [wc], className: "nope", technology: tech, settings: st, objective: "delay" })).toThrow(/^className/);
@@ -121,7 +138,9 @@ describe("objectiveGrid", () => {
     expect(g.best.objectiveValue).toBe(Math.min(...all));
     const pts = g.lineFractions.flatMap((x) => g.aspectRatios.map((a) => drawnResult(wc, st, x, a)));
     for (const p of g.pareto) {
-      const dominated = pts.some((r) => r.repeatedDelayS <= p.delayS && r.energyJ <= p.energyJ && (r.repeatedDelayS < p.delayS * (1 - 1e-12) || r.energyJ < p.energyJ * (1 - 1e-12)));
+      const dominated = pts.some(
+        (r) => r.repeatedDelayS <= p.delayS && r.energyJ <= p.energyJ && (r.repeatedDelayS < p.delayS * (1 - 1e-12) || r.energyJ < p.energyJ * (1 - 1e-12)),
+      );
       expect(dominated).toBe(false);
     }
     expect(g.pareto.length).toBeGreaterThan(1);
@@ -253,7 +272,8 @@ describe("variation", () => {
 
   it("at fixed pitch the spacing moves against the width: C varies more than with spacing fixed", () => {
     // method: a wider line at fixed pitch also narrows the gap (both raise C), common practice, no source
-    const one = (fixedPitch: boolean) => variation({ classes: [wc], technology: tech, settings: st, sigma: { width: { absolute: 1e-9 } }, samples: 2000, seed: 5, fixedPitch })[0]!;
+    const one = (fixedPitch: boolean) =>
+      variation({ classes: [wc], technology: tech, settings: st, sigma: { width: { absolute: 1e-9 } }, samples: 2000, seed: 5, fixedPitch })[0]!;
     expect(one(true).cFPerM.std).toBeGreaterThan(1.5 * one(false).cFPerM.std);
   });
 
