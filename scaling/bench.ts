@@ -24,6 +24,7 @@ import { mayadasShatzkesRatio } from "../lib/scaling/resistance";
 import { parseHistogramBins } from "../lib/import/histograms";
 import { parseWireClassCsv } from "../lib/import/wire-classes";
 import { benchField } from "./bench-field";
+import { objectiveGrid, optimizeClass, variation } from "../lib/scaling/design-space";
 
 const here = new URL(".", import.meta.url).pathname;
 const base: WireClass[] = parseWireClassCsv(readFileSync(`${here}examples/skua-baseline.csv`)).classes;
@@ -726,4 +727,41 @@ for (const line of field.lines) console.log(line);
 console.log(
   `field check at the default grid: ${field.ms.toFixed(1)} ms, error ${(field.relErr * 100).toFixed(2)}%, ${field.cells} cells (aim ≤ 250 ms at < 1%)`,
 );
+
+// Design space (issue 15's performance aims: Monte Carlo of 20 classes × 2,000 samples ≤ 1 s, the heat map of 40 × 40
+// points of one class ≤ 200 ms; in the app both run in a Web Worker, here on the main thread), default technology
+// (accurate tables), level full, the bench's scenario, 2,000 samples, σ width 1 nm, thickness 2 nm, k 2%.
+{
+  const dsClass = classes[1]!;
+  const mc = () => {
+    variation({
+      classes,
+      technology: accurateTechnology,
+      settings,
+      sigma: { width: { absolute: 1e-9 }, thickness: { absolute: 2e-9 }, k: { relative: 0.02 } },
+      samples: 2000,
+      seed: 1,
+    });
+  };
+  const grid = () => {
+    objectiveGrid({ wireClass: dsClass, technology: accurateTechnology, settings, objective: "delay", n: 40, m: 40 });
+  };
+  let evals = 0;
+  const opt = () => {
+    evals = optimizeClass({ wireClass: dsClass, technology: accurateTechnology, settings, objective: "edp" }).evaluations;
+  };
+  timeIt(grid, 500);
+  timeIt(opt, 500);
+  let mcMs = Infinity;
+  let gridMs = Infinity;
+  let optMs = Infinity;
+  for (let r = 0; r < 3; r++) {
+    mcMs = Math.min(mcMs, timeIt(mc, 1).perCallMs);
+    gridMs = Math.min(gridMs, timeIt(grid, 300).perCallMs);
+    optMs = Math.min(optMs, timeIt(opt, 300).perCallMs);
+  }
+  console.log("");
+  console.log(`design space (CPU time, best of 3): Monte Carlo 20 classes × 2,000 samples ${mcMs.toFixed(0)} ms (aim ≤ 1,000 ms);`);
+  console.log(`  heat map 40 × 40, one class ${gridMs.toFixed(1)} ms (aim ≤ 200 ms); optimiser, one class, edp ${optMs.toFixed(1)} ms (${evals} evaluations)`);
+}
 if (sink === 42) console.log("");

@@ -1,7 +1,7 @@
 /**
  * Command line of Plateau's scaling engine:
  *   npm run scaling -- <command> [options]      or      npx tsx scaling/cli.ts <command> [options]
- * Commands: capacitance, delay, evaluate, sweep, roadmap, fit, materials. `--json` prints only JSON on standard output.
+ * Commands: capacitance, delay, evaluate, sweep, roadmap, optimize, variation, fit, materials. `--json` prints only JSON on standard output.
  * Values take SI-prefixed units ("20nm", "1.5fF", "2kohm") or bare SI numbers. Bad arguments exit with code 2
  * and one line naming the argument and the expected unit. CSV files are read with the app's one reader (lib/import)
  * and the formats' rules (lib/scaling/formats.ts), so a file the upload rejects is rejected here with the same message.
@@ -21,6 +21,14 @@ import {
   formatEngineering,
   lineCapacitance,
   lineDelay,
+  MAX_VARIATION_SAMPLES,
+  optimizeClass,
+  variation,
+  DESIGN_OBJECTIVES,
+  type DesignObjective,
+  type Sigma,
+  type Stats,
+  type VariationSigmas,
   MEASURED_RESISTANCE_FORMAT,
   METALS,
   MODEL_LEVELS,
@@ -79,6 +87,19 @@ Commands:
                step evaluated against N0; steps.json: [{ "name": "N1", "settings": { "s": 1.25, "lengthRule": {…},
                "overrides": { "M2": { "targetPitchM": 4.8e-8 } } } }, …] (or { "steps": […] }); --json prints
                { "steps": [{ "name", "evaluation" }] }, else a table per class across the steps (ratios to N0)
+  optimize     --baseline classes.csv --class NAME [--s S] [--objective delay|repeated|energy|edp]
+               [--min-fraction 0.3] [--max-fraction 0.7] [--min-aspect 1] [--max-aspect 3] [--min-width W] [--min-space S]
+               (+ the scenario options of evaluate) the line fraction W/pitch and aspect ratio T/W at the class's
+               scenario pitch that minimise the objective: delay = the net's 50% delay with its driver, load and
+               repeaters; repeated = delay per metre of the optimally repeated line; energy = energy per transition;
+               edp = energy × delay. --json prints { "widthM", "thicknessM", "spacingM", "objectiveValue",
+               "lineFraction", "aspectRatio", "pitchM", "objective", "currentValue" }
+  variation    --baseline classes.csv [--s S] --samples N --seed N [--sigma-width 1nm] [--sigma-thickness 2nm]
+               [--sigma-barrier σ] [--sigma-ild σ] [--sigma-k 0.05|2%] [--fixed-pitch] [--corner-sigma 3]
+               (+ the scenario options of evaluate) Monte Carlo of process variation (σ in metres or in % of the
+               value; samples 2 to 100000; --fixed-pitch: the spacing moves against the width) → per class
+               mean/std/p5/p50/p95; --json prints [{ "class", "rOhmPerM": {"mean","std","p5","p50","p95"},
+               "cFPerM", "rcS", "delayS", "energyJ", "samples", "redrawn", "corners": { "fast", "slow", "nominal" } }]
   fit          --baseline classes.csv --measured measured.csv [--technology t.json]
                fit size-effect p and R per metal to measured resistance (columns class,r_ohm_per_um,temperature_c);
                prints { metals, points }; "metals" can be passed back as the technology JSON's "materials"
@@ -775,6 +796,187 @@ function materialsCmd(argv: string[]): CliResult {
   return ok(lines.join("\n") + "\n");
 }
 
+/** Runs `f`, turning the engine's RangeError that starts with an engine field name into a usage error naming the option. */
+function withOptionNames<T>(names: Record<string, string>, f: () => T): T {
+  try {
+    return f();
+  } catch (e) {
+    if (!(e instanceof RangeError)) throw e;
+    for (const [field, option] of Object.entries(names)) if (e.message.startsWith(field)) throw new UsageError(`--${option}: ${e.message}`);
+    throw e;
+  }
+}
+
+function fraction(v: Record<string, unknown>, name: string): number | undefined {
+  const x = q(v, name, "", NUMS("a share from 0 to 1"));
+  if (x !== undefined && !(x > 0 && x < 1)) throw new UsageError(`--${name}: expected a share between 0 and 1, got ${x}`);
+  return x;
+}
+
+function optimizeCmd(argv: string[]): CliResult {
+  const v = parse(argv, {
+    ...SCENARIO_OPTIONS,
+    class: { type: "string" },
+    objective: { type: "string" },
+    "min-fraction": { type: "string" },
+    "max-fraction": { type: "string" },
+    "min-aspect": { type: "string" },
+    "max-aspect": { type: "string" },
+    "min-width": { type: "string" },
+    "min-space": { type: "string" },
+  });
+  if (v.help) return ok(HELP);
+  const objective = (v.objective as string | undefined) ?? "delay";
+  if (!(DESIGN_OBJECTIVES as readonly string[]).includes(objective))
+    throw new UsageError(`--objective: expected delay, repeated, energy or edp, got "${objective}"`);
+  const minFraction = fraction(v, "min-fraction");
+  const maxFraction = fraction(v, "max-fraction");
+  const minAspect = q(v, "min-aspect", "", NUMS("an aspect ratio T/W > 0"));
+  positiveOrThrow("min-aspect", minAspect, "an aspect ratio T/W");
+  const maxAspect = q(v, "max-aspect", "", NUMS("an aspect ratio T/W > 0"));
+  positiveOrThrow("max-aspect", maxAspect, "an aspect ratio T/W");
+  const minWidthM = q(v, "min-width", "m", LEN);
+  positiveOrThrow("min-width", minWidthM, "a width", true);
+  const minSpaceM = q(v, "min-space", "m", LEN);
+  positiveOrThrow("min-space", minSpaceM, "a space", true);
+  if (typeof v.class !== "string") throw new UsageError("--class is required: the name of one class of the baseline");
+  const { classes, technology } = loadBaseline(v);
+  const name = v.class;
+  if (!classes.some((c) => c.name === name))
+    throw new UsageError(`--class: no class named "${name}" (the baseline has ${classes.map((c) => c.name).join(", ")})`);
+  const settings = settingsFrom(v, technology, false);
+  const r = withOptionNames(
+    {
+      minFraction: "min-fraction",
+      maxFraction: "max-fraction",
+      minAspect: "min-aspect",
+      maxAspect: "max-aspect",
+      minWidthM: "min-width",
+      minSpaceM: "min-space",
+    },
+    () =>
+      optimizeClass({
+        wireClass: classes,
+        className: name,
+        technology,
+        settings,
+        objective: objective as DesignObjective,
+        ...(minFraction !== undefined && { minFraction }),
+        ...(maxFraction !== undefined && { maxFraction }),
+        ...(minAspect !== undefined && { minAspect }),
+        ...(maxAspect !== undefined && { maxAspect }),
+        ...(minWidthM !== undefined && { minWidthM }),
+        ...(minSpaceM !== undefined && { minSpaceM }),
+      }),
+  );
+  const out = {
+    widthM: r.widthM,
+    thicknessM: r.thicknessM,
+    spacingM: r.spacingM,
+    objectiveValue: r.objectiveValue,
+    lineFraction: r.lineFraction,
+    aspectRatio: r.aspectRatio,
+    pitchM: r.pitchM,
+    objective: r.objective,
+    currentValue: r.currentValue,
+  };
+  if (v.json) return ok(json(out));
+  const unit = objective === "energy" ? "J" : objective === "edp" ? "J·s" : objective === "repeated" ? "s/m" : "s";
+  const fmt = (x: number) => (unit === "J·s" ? `${x.toPrecision(4)} J·s` : formatEngineering(x, unit, 4));
+  return ok(
+    [
+      `Class ${name}, objective ${objective}, pitch ${formatEngineering(r.pitchM, "m", 4)} (S = ${settings.s}, level ${settings.level})`,
+      `  line fraction W/pitch  ${r.lineFraction.toFixed(4)}`,
+      `  aspect ratio T/W       ${r.aspectRatio.toFixed(4)}`,
+      `  width                  ${formatEngineering(r.widthM, "m", 4)}`,
+      `  thickness              ${formatEngineering(r.thicknessM, "m", 4)}`,
+      `  spacing                ${formatEngineering(r.spacingM, "m", 4)}`,
+      `  objective              ${fmt(r.objectiveValue)} (now ${fmt(r.currentValue)})`,
+    ].join("\n") + "\n",
+  );
+}
+
+/** A σ as the command line writes it: a length or number ("1nm", "0.05") or a percentage of the value ("2%"). */
+function sigmaArg(v: Record<string, unknown>, name: string, unit: BaseUnit, what: string): Sigma | undefined {
+  const text = v[name];
+  if (text === undefined) return undefined;
+  if (typeof text !== "string") throw new UsageError(`--${name}: expected ${what}`);
+  const pct = /^\s*(.+?)\s*%\s*$/.exec(text);
+  let x: number;
+  try {
+    x = parseQuantity(pct ? pct[1]! : text, pct ? "" : unit);
+  } catch {
+    throw new UsageError(`--${name}: expected ${what}, got "${text}"`);
+  }
+  if (!(x >= 0) || !Number.isFinite(x)) throw new UsageError(`--${name}: expected ${what} >= 0, got "${text}"`);
+  return pct ? { relative: x / 100 } : { absolute: x };
+}
+
+const SIGMA_OPTIONS: { option: string; key: keyof VariationSigmas; unit: BaseUnit; what: string }[] = [
+  { option: "sigma-width", key: "width", unit: "m", what: "a σ in metres (e.g. 1nm) or % of the width (e.g. 3%)" },
+  { option: "sigma-thickness", key: "thickness", unit: "m", what: "a σ in metres (e.g. 2nm) or % of the thickness" },
+  { option: "sigma-barrier", key: "barrier", unit: "m", what: "a σ in metres (e.g. 0.3nm) or % of the barrier" },
+  { option: "sigma-ild", key: "ildHeight", unit: "m", what: "a σ in metres (e.g. 2nm) or % of the ILD height" },
+  { option: "sigma-k", key: "k", unit: "", what: "a σ of k (e.g. 0.05) or % of k (e.g. 2%)" },
+];
+
+function variationCmd(argv: string[]): CliResult {
+  const v = parse(argv, {
+    ...SCENARIO_OPTIONS,
+    samples: { type: "string" },
+    seed: { type: "string" },
+    "fixed-pitch": { type: "boolean" },
+    "corner-sigma": { type: "string" },
+    ...Object.fromEntries(SIGMA_OPTIONS.map((o) => [o.option, { type: "string" as const }])),
+  });
+  if (v.help) return ok(HELP);
+  const sigma: VariationSigmas = {};
+  for (const o of SIGMA_OPTIONS) {
+    const s = sigmaArg(v, o.option, o.unit, o.what);
+    if (s !== undefined) sigma[o.key] = s;
+  }
+  const samples = need(v, "samples", "", NUMS(`a sample count from 2 to ${MAX_VARIATION_SAMPLES}`));
+  if (!(Number.isInteger(samples) && samples >= 2 && samples <= MAX_VARIATION_SAMPLES))
+    throw new UsageError(`--samples: expected a whole number from 2 to ${MAX_VARIATION_SAMPLES}, got ${samples}`);
+  const seed = need(v, "seed", "", NUMS("a whole-number seed"));
+  if (!Number.isInteger(seed)) throw new UsageError(`--seed: expected a whole number, got ${seed}`);
+  const cornerSigma = q(v, "corner-sigma", "", NUMS("a corner distance in σ, > 0 and ≤ 6"));
+  if (cornerSigma !== undefined && !(cornerSigma > 0 && cornerSigma <= 6))
+    throw new UsageError(`--corner-sigma: expected a number > 0 and <= 6, got ${cornerSigma}`);
+  const { classes, technology } = loadBaseline(v);
+  const settings = settingsFrom(v, technology, false);
+  const names = Object.fromEntries(SIGMA_OPTIONS.map((o) => [`sigma.${o.key}`, o.option]));
+  const res = withOptionNames(names, () =>
+    variation({
+      classes,
+      technology,
+      settings,
+      sigma,
+      samples,
+      seed,
+      fixedPitch: v["fixed-pitch"] === true,
+      ...(cornerSigma !== undefined && { cornerSigma }),
+    }),
+  );
+  if (v.json) return ok(json(res));
+  const band = (s: Stats, unit: string) =>
+    `${formatEngineering(s.p50, unit, 3)} [${formatEngineering(s.p5, unit, 3)} … ${formatEngineering(s.p95, unit, 3)}] ±${((100 * s.std) / s.mean).toFixed(1)}%`;
+  const lines = [`Monte Carlo, ${samples} samples per class, seed ${seed} (S = ${settings.s}, level ${settings.level}); p50 [p5 … p95] ±1σ/mean`];
+  const head = ["class", "R per length", "C per length", "delay", "fast delay", "slow delay"];
+  const rows = res.map((c) => [
+    c.class,
+    band(c.rOhmPerM, "Ω/m"),
+    band(c.cFPerM, "F/m"),
+    band(c.delayS, "s"),
+    formatEngineering(c.corners.fast.delayS, "s", 3),
+    formatEngineering(c.corners.slow.delayS, "s", 3),
+  ]);
+  const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i]!.length)));
+  lines.push(head.map((h, i) => h.padEnd(widths[i]!)).join("  "));
+  for (const r of rows) lines.push(r.map((x, i) => x.padEnd(widths[i]!)).join("  "));
+  return ok(lines.join("\n") + "\n");
+}
+
 function ok(stdout: string): CliResult {
   return { code: 0, stdout, stderr: "" };
 }
@@ -798,13 +1000,17 @@ export function run(argv: string[]): CliResult {
         return materialsCmd(rest);
       case "fit":
         return fitCmd(rest);
+      case "optimize":
+        return optimizeCmd(rest);
+      case "variation":
+        return variationCmd(rest);
       case undefined:
       case "--help":
       case "-h":
       case "help":
         return ok(HELP + "\n");
       default:
-        throw new UsageError(`unknown command "${command}": expected capacitance, delay, evaluate, sweep, roadmap, fit or materials`);
+        throw new UsageError(`unknown command "${command}": expected capacitance, delay, evaluate, sweep, roadmap, optimize, variation, fit or materials`);
     }
   } catch (e) {
     if (e instanceof UsageError || e instanceof RangeError) return { code: 2, stdout: "", stderr: `error: ${e.message}\n` };
