@@ -1,5 +1,4 @@
 "use client";
-import Link from "next/link";
 import dynamic from "next/dynamic";
 import { useRouter } from "next/navigation";
 import { useEffect, useMemo, useRef, useState } from "react";
@@ -33,6 +32,7 @@ import { EngineWorker, Superseded } from "./engine-client";
 import { RoadmapStepFields } from "./roadmap-step-fields";
 import { LEVEL_LABEL } from "./settings-panel";
 import { useWidth } from "./use-width";
+import { ItemTrail } from "./item-trail";
 
 const RoadmapChart = dynamic(() => import("@/components/charts/roadmap-chart").then((m) => m.RoadmapChart), {
   ssr: false,
@@ -222,22 +222,14 @@ export function RoadmapEditor(props: {
     <div className="space-y-4">
       <header className="flex flex-wrap items-start justify-between gap-3">
         <div className="w-full min-w-0 sm:w-auto sm:flex-1">
-          <p className="text-xs text-muted">
-            <Link href={`/teams/${teamId}/roadmaps`} className="hover:underline">
-              Roadmaps
-            </Link>{" "}
-            · on baseline{" "}
-            <Link href={`/teams/${teamId}/baselines/${baseline.id}`} className="font-medium text-ink hover:underline">
-              {baseline.name}
-            </Link>{" "}
-            · {classes.length} classes · version {roadmap.version}
-            {roadmap.isDemo || baseline.isDemo ? (
-              <>
-                {" "}
-                · <Badge tone="warn">invented demo data</Badge>
-              </>
-            ) : null}
-          </p>
+          <ItemTrail
+            teamId={teamId}
+            list={{ segment: "roadmaps", label: "Roadmaps" }}
+            baseline={baseline}
+            classCount={classes.length}
+            version={roadmap.version}
+            isDemo={roadmap.isDemo}
+          />
           {readOnly ? (
             <h1 className="mt-1 text-xl font-semibold text-ink">{roadmap.name}</h1>
           ) : (

@@ -1,5 +1,4 @@
 "use client";
-import Link from "next/link";
 import { useRouter } from "next/navigation";
 import dynamic from "next/dynamic";
 import { memo, useCallback, useDeferredValue, useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
@@ -24,6 +23,7 @@ import { explainEngineError } from "@/lib/workspace/engine-errors";
 import { countChange, FIGURE_DEFINITION, FIGURE_LABEL, worstClassDelay } from "@/lib/figures";
 import { ConfirmDelete } from "@/components/ui/confirm-delete";
 import { DuplicateScenario } from "./duplicate-scenario";
+import { ItemTrail } from "./item-trail";
 import { describeLengthRule } from "@/lib/workspace/roadmap-view";
 
 // Charts (visx) and the field check load in the browser after the first paint: the settings and the results
@@ -254,22 +254,14 @@ export function ScenarioEditor(props: {
     <div className="space-y-4">
       <header className="flex flex-wrap items-start justify-between gap-3">
         <div className="w-full min-w-0 sm:w-auto sm:flex-1">
-          <p className="text-xs text-muted">
-            <Link href={`/teams/${teamId}/scenarios`} className="hover:underline">
-              Scenarios
-            </Link>{" "}
-            · on baseline{" "}
-            <Link href={`/teams/${teamId}/baselines/${baseline.id}`} className="font-medium text-ink hover:underline">
-              {baseline.name}
-            </Link>{" "}
-            · {classes.length} classes · version {scenario.version}
-            {scenario.isDemo || baseline.isDemo ? (
-              <>
-                {" "}
-                · <Badge tone="warn">invented demo data</Badge>
-              </>
-            ) : null}
-          </p>
+          <ItemTrail
+            teamId={teamId}
+            list={{ segment: "scenarios", label: "Scenarios" }}
+            baseline={baseline}
+            classCount={classes.length}
+            version={scenario.version}
+            isDemo={scenario.isDemo}
+          />
           {readOnly ? (
             <h1 className="mt-1 text-xl font-semibold text-ink">{scenario.name}</h1>
           ) : (
