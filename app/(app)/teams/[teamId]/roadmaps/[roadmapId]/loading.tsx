@@ -1,11 +1,5 @@
+import { EditorSkeleton } from "@/components/ui/editor-skeleton";
+
 export default function Loading() {
-  return (
-    <div className="space-y-4" aria-busy="true" aria-label="Loading the roadmap">
-      <div className="h-8 w-72 animate-pulse rounded bg-rule/60" />
-      <div className="grid gap-4 lg:grid-cols-[19rem_1fr]">
-        <div className="h-96 animate-pulse rounded-lg bg-rule/40" />
-        <div className="h-96 animate-pulse rounded-lg bg-rule/40" />
-      </div>
-    </div>
-  );
+  return <EditorSkeleton label="Loading the roadmap" />;
 }
