@@ -6,7 +6,7 @@ import { ClassOverrides } from "./class-overrides";
 import { LengthRuleField } from "./length-rule-field";
 import { OptionalNumber } from "./optional-number";
 import { DEFAULT_AIR_GAP, DielectricField, gapFractionCheck, kGapCheck, temperatureCheck } from "./settings-panel";
-import { U } from "./units";
+import { U, type DisplayUnit } from "./units";
 
 const sCheck = (label: string) => (v: number) => (v <= 0 ? `${label} must be greater than 0.` : v > 20 ? `${label} must be at most 20.` : undefined);
 const millerCheck = (v: number) => (v < 0 || v > 2 ? "Miller factor must be between 0 and 2." : undefined);
@@ -47,23 +47,37 @@ export function RoadmapStepFields({
   };
   const carried = index === 0 ? "as the baseline" : "carried from the step before";
   const gap = settings.airGap;
+  /** One labelled number of the step (empty = carried, or the given placeholder). */
+  const stepNumber = (
+    k: "s" | "miller" | "deviceRFactor" | "deviceCFactor" | "temperatureC" | "supplyV",
+    title: string,
+    label: string,
+    check: (v: number) => string | undefined,
+    o: { placeholder?: string; unit?: DisplayUnit; hint?: string } = {},
+  ) => (
+    <div>
+      <span className="mb-1 block text-xs font-medium text-ink">{title}</span>
+      <OptionalNumber
+        label={label}
+        className="w-full"
+        unit={o.unit}
+        placeholder={o.placeholder ?? carried}
+        value={settings[k]}
+        onChange={(v) => set(k, v)}
+        check={check}
+        errors={err(k)}
+      />
+      {o.hint ? <p className="mt-0.5 text-[11px] text-muted">{o.hint}</p> : null}
+    </div>
+  );
   return (
     <fieldset disabled={readOnly} className="min-w-0 space-y-3">
       <legend className="sr-only">Settings of step {index + 1}</legend>
       <div className="grid grid-cols-1 gap-3 min-[480px]:grid-cols-2 lg:grid-cols-4 [&>*]:min-w-0">
-        <div>
-          <span className="mb-1 block text-xs font-medium text-ink">S — cross-section factor</span>
-          <OptionalNumber
-            label="S for this step"
-            className="w-full"
-            placeholder="1"
-            value={settings.s}
-            onChange={(v) => set("s", v)}
-            check={sCheck("S")}
-            errors={err("s")}
-          />
-          <p className="mt-0.5 text-[11px] text-muted">this step&apos;s shrink of every class (empty = 1); per class below</p>
-        </div>
+        {stepNumber("s", "S — cross-section factor", "S for this step", sCheck("S"), {
+          placeholder: "1",
+          hint: "this step's shrink of every class (empty = 1); per class below",
+        })}
         <LengthRuleField
           label="Length rule"
           emptyLabel={index === 0 ? "fixed (S_L = 1)" : "carried from the step before"}
@@ -156,71 +170,16 @@ export function RoadmapStepFields({
             </div>
           ) : null}
         </div>
-        <div>
-          <span className="mb-1 block text-xs font-medium text-ink">Miller factor</span>
-          <OptionalNumber
-            label="Miller factor at this step"
-            className="w-full"
-            placeholder={carried}
-            value={settings.miller}
-            onChange={(v) => set("miller", v)}
-            check={millerCheck}
-            errors={err("miller")}
-          />
-        </div>
+        {stepNumber("miller", "Miller factor", "Miller factor at this step", millerCheck)}
         <div className="grid grid-cols-2 gap-1">
-          <div>
-            <span className="mb-1 block text-xs font-medium text-ink">Driver R ×</span>
-            <OptionalNumber
-              label="Driver R factor of this step"
-              className="w-full"
-              placeholder="1"
-              value={settings.deviceRFactor}
-              onChange={(v) => set("deviceRFactor", v)}
-              check={factorCheck("Driver R factor")}
-              errors={err("deviceRFactor")}
-            />
-          </div>
-          <div>
-            <span className="mb-1 block text-xs font-medium text-ink">Load C ×</span>
-            <OptionalNumber
-              label="Load C factor of this step"
-              className="w-full"
-              placeholder="1"
-              value={settings.deviceCFactor}
-              onChange={(v) => set("deviceCFactor", v)}
-              check={factorCheck("Load C factor")}
-              errors={err("deviceCFactor")}
-            />
-          </div>
+          {stepNumber("deviceRFactor", "Driver R ×", "Driver R factor of this step", factorCheck("Driver R factor"), { placeholder: "1" })}
+          {stepNumber("deviceCFactor", "Load C ×", "Load C factor of this step", factorCheck("Load C factor"), { placeholder: "1" })}
           <p className="col-span-2 text-[11px] text-muted">device factors multiply along the chain</p>
         </div>
-        <div>
-          <span className="mb-1 block text-xs font-medium text-ink">Temperature (°C)</span>
-          <OptionalNumber
-            label="Operating temperature at this step (°C)"
-            className="w-full"
-            unit={U.degC}
-            placeholder={carried}
-            value={settings.temperatureC}
-            onChange={(v) => set("temperatureC", v)}
-            check={temperatureCheck}
-            errors={err("temperatureC")}
-          />
-        </div>
-        <div>
-          <span className="mb-1 block text-xs font-medium text-ink">Supply (V)</span>
-          <OptionalNumber
-            label="Supply voltage at this step (V)"
-            className="w-full"
-            unit={U.V}
-            placeholder={carried}
-            value={settings.supplyV}
-            onChange={(v) => set("supplyV", v)}
-            check={(v) => (v <= 0 || v > 5 ? "Supply must be between 0 and 5 V." : undefined)}
-            errors={err("supplyV")}
-          />
-        </div>
+        {stepNumber("temperatureC", "Temperature (°C)", "Operating temperature at this step (°C)", temperatureCheck, { unit: U.degC })}
+        {stepNumber("supplyV", "Supply (V)", "Supply voltage at this step (V)", (v) => (v <= 0 || v > 5 ? "Supply must be between 0 and 5 V." : undefined), {
+          unit: U.V,
+        })}
       </div>
       <details open={Object.keys(settings.overrides ?? {}).length > 0}>
         <summary className="cursor-pointer text-xs font-semibold text-ink">Per class: target pitch, S, length rule and options</summary>
