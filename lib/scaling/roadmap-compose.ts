@@ -10,7 +10,7 @@
  *   sL_i,c = rule_i,c(s_i,c)
  * and the absolute S and S_L of c at step n are the products over steps 1…n. deviceRFactor and deviceCFactor multiply
  * along the chain; every other option (level, barrierScales, miller, supplyV, k, metal, airGap, temperatureC, and per
- * class k, metal, barrierScales, aspectRatio, miller, barrierM, airGap) is carried forward from the last step that
+ * class k, metal, barrierScales, aspectRatio, lineFraction, miller, barrierM, airGap) is carried forward from the last step that
  * set it.
  */
 import { getMetal } from "./materials";
@@ -59,7 +59,7 @@ export class RoadmapInputError extends Error {
 }
 
 /** The options of a class override that are carried forward as they are (not s, sL or lengthRule). */
-const CARRIED_CLASS_FIELDS = ["k", "metal", "barrierScales", "aspectRatio", "miller", "barrierM", "airGap"] as const;
+const CARRIED_CLASS_FIELDS = ["k", "metal", "barrierScales", "aspectRatio", "lineFraction", "miller", "barrierM", "airGap"] as const;
 
 /** The global options carried forward from the last step that set them. */
 const CARRIED_FIELDS = ["level", "barrierScales", "miller", "supplyV", "k", "metal", "airGap", "temperatureC"] as const;
@@ -170,7 +170,7 @@ interface ClassState {
   sL: number;
   /** The rule the class followed at the last step (undefined before the first). */
   rule: LengthRule | undefined;
-  /** Per-class options carried forward (k, metal, barrierScales, aspectRatio, miller, barrierM, airGap). */
+  /** Per-class options carried forward (k, metal, barrierScales, aspectRatio, lineFraction, miller, barrierM, airGap). */
   options: ClassOverride;
 }
 

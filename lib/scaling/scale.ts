@@ -29,7 +29,8 @@ export interface ScaledClass {
 /**
  * Applies the scenario to one class. Precedence: per-class override, then the scenario's global value, then
  * the class's own value. The barrier scales with S when `barrierScales` (always at level `ideal`), keeps its
- * thickness otherwise, and an override `barrierM` replaces it outright. `aspectRatio` sets T = AR·W after scaling.
+ * thickness otherwise, and an override `barrierM` replaces it outright. `lineFraction` redraws W and spacing at the
+ * scaled pitch; `aspectRatio` sets T = AR·W after scaling.
  */
 export function scaleClass(wc: WireClass, settings: ScenarioSettings): ScaledClass {
   return scaleClassInto(wc, settings, newScaledClass());
@@ -72,13 +73,14 @@ export function scaleClassWith(wc: WireClass, settings: ScenarioSettings, o: Cla
   // length factor: the class's rule, else its own S_L, else the scenario's rule, else the scenario's S_L
   const rule = o?.lengthRule;
   const sL = rule !== undefined ? lengthFactor(rule, s) : (o?.sL ?? (settings.lengthRule !== undefined ? lengthFactor(settings.lengthRule, s) : settings.sL));
-  const widthM = wc.widthM / s;
+  const lf = o?.lineFraction;
+  const widthM = lf !== undefined ? (lf * (wc.widthM + wc.spacingM)) / s : wc.widthM / s;
   const barrierScales = settings.level === "ideal" ? true : (o?.barrierScales ?? settings.barrierScales);
   out.s = s;
   out.sL = sL;
   out.widthM = widthM;
   out.thicknessM = o?.aspectRatio !== undefined ? o.aspectRatio * widthM : wc.thicknessM / s;
-  out.spacingM = wc.spacingM / s;
+  out.spacingM = lf !== undefined ? ((wc.widthM + wc.spacingM) / s) * (1 - lf) : wc.spacingM / s;
   out.ildBelowM = wc.ildBelowM === null ? null : wc.ildBelowM / s;
   out.ildAboveM = wc.ildAboveM === null ? null : wc.ildAboveM / s;
   out.barrierM = o?.barrierM !== undefined ? o.barrierM : barrierScales ? wc.barrierM / s : wc.barrierM;

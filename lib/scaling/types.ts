@@ -164,6 +164,12 @@ export interface ClassOverride {
   barrierScales?: boolean;
   /** Aspect ratio T/W after scaling; replaces the scaled thickness. */
   aspectRatio?: number;
+  /**
+   * Line fraction W/pitch at the class's scaled pitch (0 < f < 1): width = f·pitch, spacing = (1 − f)·pitch, the pitch
+   * itself unchanged. Applied before `aspectRatio` (which then sets T from the new width). Written by the design-space
+   * optimiser's "apply to scenario".
+   */
+  lineFraction?: number;
   miller?: number;
   /** Barrier/liner thickness after scaling, absolute (m); replaces the scaled or kept barrier (0 = barrier-free fill). */
   barrierM?: number;

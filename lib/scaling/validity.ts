@@ -103,6 +103,8 @@ function checkOverride(name: string, o: ClassOverride): void {
   if (o.k !== undefined) atLeast(n("k"), o.k, 1);
   if (o.metal !== undefined) getMetal(o.metal);
   if (o.aspectRatio !== undefined) positive(n("aspectRatio"), o.aspectRatio);
+  if (o.lineFraction !== undefined && !(o.lineFraction > 0 && o.lineFraction < 1))
+    throw new RangeError(`${n("lineFraction")} must be between 0 and 1, exclusive (got ${o.lineFraction})`);
   if (o.miller !== undefined) inRange(n("miller"), o.miller, 0, 2);
   if (o.barrierM !== undefined) nonNegative(n("barrierM"), o.barrierM);
   if (o.lengthRule !== undefined) checkLengthRule(n("lengthRule"), o.lengthRule);

@@ -194,6 +194,7 @@ export const classOverrideSnapshotSchema = mirrorOf<ClassOverride>()(
     metal: z.string().optional(),
     barrierScales: z.boolean().optional(),
     aspectRatio: num.optional(),
+    lineFraction: num.optional(),
     miller: num.optional(),
     barrierM: num.optional(),
     airGap: airGapSnapshotSchema.nullable().optional(),

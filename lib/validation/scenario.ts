@@ -29,6 +29,15 @@ export const millerSchema = quantity("Miller factor", "", {
 export const factorSchema = (label: string) => quantity(label, "", { min: 0, minExclusive: true, max: 10, maxHint: `${label} must be at most 10.` });
 export const aspectSchema = quantity("Aspect ratio", "", { min: 0, minExclusive: true, max: 10, maxHint: "Aspect ratio must be at most 10." });
 
+/** Line fraction W/pitch of a per-class override (the design-space optimiser's result). */
+export const lineFractionSchema = quantity("Line fraction", "", {
+  min: 0,
+  minExclusive: true,
+  max: 1,
+  maxExclusive: true,
+  maxHint: "Line fraction (width ÷ pitch) must be between 0 and 1.",
+});
+
 export const supplySchema = quantity("Supply voltage", "V", {
   min: 0,
   minExclusive: true,
@@ -111,6 +120,7 @@ export const classOverrideSchema = mirrorOf<ClassOverride>()(
       metal: metalIdSchema.optional(),
       barrierScales: z.boolean().optional(),
       aspectRatio: aspectSchema.optional(),
+      lineFraction: lineFractionSchema.optional(),
       miller: millerSchema.optional(),
       barrierM: quantity("Barrier", "m", { min: 0, max: 1e-6, maxHint: "Barrier must be at most 1 µm." }).optional(),
       airGap: airGapSchema.nullable().optional(),

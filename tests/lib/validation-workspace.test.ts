@@ -270,6 +270,7 @@ describe("input schemas and the engine types", () => {
       metal: "Ru",
       barrierScales: true,
       aspectRatio: 2.5,
+      lineFraction: 0.55,
       miller: 1.5,
       barrierM: 1e-9,
       airGap: { kGap: 1, gapFraction: 0.6 },

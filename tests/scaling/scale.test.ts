@@ -51,6 +51,7 @@ const override: fc.Arbitrary<ClassOverride> = fc.record(
     metal,
     barrierScales: fc.boolean(),
     aspectRatio: fc.double({ min: 0.5, max: 4, noNaN: true }),
+    lineFraction: fc.double({ min: 0.2, max: 0.8, noNaN: true }),
     miller: fc.double({ min: 0, max: 2, noNaN: true }),
     barrierM: nm(0, 3),
   },
@@ -140,5 +141,41 @@ describe("one implementation of the scaling rules", () => {
       }),
       { numRuns: Number(process.env.PROP_RUNS ?? 200) },
     );
+  });
+});
+
+describe("lineFraction override (design-space optimiser's 'apply to scenario')", () => {
+  // common practice, no source: at a fixed pitch, width = f·pitch and spacing = (1 − f)·pitch
+  const wc: WireClass = {
+    name: "m",
+    tier: "intermediate",
+    widthM: 20e-9,
+    thicknessM: 40e-9,
+    spacingM: 20e-9,
+    ildBelowM: 40e-9,
+    ildAboveM: 40e-9,
+    barrierM: 2e-9,
+    metal: "Cu",
+    k: 2.7,
+    netCount: 1000,
+    meanLengthM: 50e-6,
+    driverOhm: 1000,
+    loadF: 1e-15,
+    activity: 0.1,
+  };
+  const st = (o: ClassOverride): ScenarioSettings => ({ ...baselineSettings("full", tech), s: 1.25, overrides: { m: o } });
+  it("redraws width and spacing at the scaled pitch, keeps the pitch, and the aspect ratio then applies to the new width", () => {
+    const g = scaleClass(wc, st({ lineFraction: 0.6 }));
+    expect(g.widthM + g.spacingM).toBeCloseTo(32e-9, 20);
+    expect(g.widthM).toBeCloseTo(0.6 * 32e-9, 20);
+    expect(g.thicknessM).toBeCloseTo(40e-9 / 1.25, 20);
+    const h = scaleClass(wc, st({ lineFraction: 0.6, aspectRatio: 2 }));
+    expect(h.thicknessM).toBeCloseTo(2 * 0.6 * 32e-9, 20);
+  });
+  it("refuses a fraction outside (0, 1), naming the field", () => {
+    expect(() => evaluateClass({ wireClass: wc, technology: tech, settings: st({ lineFraction: 1 }) })).toThrow(
+      /overrides\.m\.lineFraction must be between 0 and 1/,
+    );
+    expect(() => evaluateClass({ wireClass: wc, technology: tech, settings: st({ lineFraction: 0 }) })).toThrow(/lineFraction/);
   });
 });
