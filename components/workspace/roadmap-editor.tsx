@@ -154,8 +154,16 @@ export function RoadmapEditor(props: {
   async function stepFromScenario(id: string) {
     try {
       const r = await apiSend<{ scenario: Scenario }>("GET", swrKeys.scenario(id));
+      const before = draft.steps.at(-1);
       addStep({ name: freeStepName(draft.steps), settings: r.scenario.settings, fromScenarioId: id });
-      setMessage({ tone: "good", text: `Added a step with the settings of "${r.scenario.name}" (relative to the step before it).` });
+      setMessage(
+        before
+          ? {
+              tone: "warn",
+              text: `Added a step with the settings of "${r.scenario.name}". A scenario's settings are relative to the baseline; a roadmap step's are relative to the step before it (${before.name}), so its S, S_L and factors now multiply ${before.name}'s. Check the step's settings.`,
+            }
+          : { tone: "good", text: `Added a step with the settings of "${r.scenario.name}" (relative to the baseline, as in the scenario).` },
+      );
     } catch (e) {
       setMessage({ tone: "bad", text: errorMessage(e, "Could not read the scenario.") });
     }
@@ -371,7 +379,13 @@ export function RoadmapEditor(props: {
                   </Button>
                 </>
               ) : null}
-              {step.fromScenarioId ? <span className="text-xs text-muted">started from a scenario</span> : null}
+              {step.fromScenarioId ? (
+                <span className="text-xs text-muted" data-testid="from-scenario-note">
+                  {open === 0
+                    ? "started from a scenario"
+                    : `started from a scenario: its settings apply relative to ${draft.steps[open - 1]!.name}, not to the baseline`}
+                </span>
+              ) : null}
             </div>
             <RoadmapStepFields
               key={open}

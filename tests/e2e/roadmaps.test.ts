@@ -163,6 +163,14 @@ describe("a three-step roadmap from the demo baseline", () => {
       // nothing sticks out sideways at phone width (wide tables scroll inside their own box)
       expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(w);
     }
+
+    // a step made from a scenario after N3: the editor says that its settings now apply relative to N3
+    await page.setViewportSize({ width: 1440, height: 900 });
+    const pick = page.getByLabel("New step from a scenario");
+    await pick.selectOption({ index: 1 });
+    await page.getByRole("button", { name: "Add", exact: true }).click();
+    await page.getByText(/a roadmap step's are relative to the step before it \(N3\)/).waitFor();
+    expect(await page.getByTestId("from-scenario-note").innerText()).toBe("started from a scenario: its settings apply relative to N3, not to the baseline");
     expect(problems).toEqual([]);
   });
 });
