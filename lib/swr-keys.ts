@@ -24,6 +24,8 @@ export const swrKeys = {
   scenarioRevisions: (scenarioId: string, version: number) => `/api/scenarios/${seg(scenarioId)}/revisions?v=${version}`,
   /** `{ roadmap, role }`. */
   roadmap: (roadmapId: string) => `/api/roadmaps/${seg(roadmapId)}`,
+  /** `{ revisions }`, newest first; keyed by the current version so a save refetches. */
+  roadmapRevisions: (roadmapId: string, version: number) => `/api/roadmaps/${seg(roadmapId)}/revisions?v=${version}`,
   /** `{ links }`: a report's share links (editors and owners). */
   reportShareLinks: (reportId: string) => `/api/reports/${seg(reportId)}/share-links`,
 } as const;

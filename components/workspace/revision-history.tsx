@@ -1,25 +1,37 @@
 "use client";
 import useSWR from "swr";
 import { Button } from "@/components/ui/button";
-import type { ScenarioRevision } from "@/db/queries/scenarios";
 import { fetchJson } from "@/lib/api-client";
-import { swrKeys } from "@/lib/swr-keys";
 
-/** A scenario's history, newest first; editors can restore an old revision (which becomes a new one). */
-export function RevisionHistory({
-  scenarioId,
+/** What every saved version carries (scenario and roadmap revisions alike). */
+interface Revision {
+  id: number;
+  version: number;
+  userName: string | null;
+  at: number;
+  summary: string;
+}
+
+/**
+ * A scenario's or roadmap's history, newest first (`url`: its revisions route, keyed by the current version so a
+ * save reloads it); editors can restore an old revision (`restoreLabel` names what that does).
+ */
+export function RevisionHistory<R extends Revision>({
+  url,
   currentVersion,
   canRestore,
   onRestore,
   busy,
+  restoreLabel = "Restore",
 }: {
-  scenarioId: string;
+  url: string;
   currentVersion: number;
   canRestore: boolean;
-  onRestore: (r: ScenarioRevision) => void;
+  onRestore: (r: R) => void;
   busy: boolean;
+  restoreLabel?: string;
 }) {
-  const { data, error } = useSWR<{ revisions: ScenarioRevision[] }>(swrKeys.scenarioRevisions(scenarioId, currentVersion), fetchJson);
+  const { data, error } = useSWR<{ revisions: R[] }>(url, fetchJson);
   if (error) return <p className="text-xs text-bad">Could not load the history.</p>;
   if (!data) return <p className="text-xs text-muted">Loading history…</p>;
   return (
@@ -36,7 +48,7 @@ export function RevisionHistory({
           </span>
           {canRestore && r.version !== currentVersion ? (
             <Button variant="ghost" className="px-2 py-0.5 text-xs" disabled={busy} onClick={() => onRestore(r)}>
-              Restore
+              {restoreLabel}
             </Button>
           ) : r.version === currentVersion ? (
             <span className="text-muted">current</span>

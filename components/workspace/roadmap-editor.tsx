@@ -3,7 +3,7 @@ import dynamic from "next/dynamic";
 import { useRouter } from "next/navigation";
 import { useEffect, useMemo, useRef, useState } from "react";
 import useSWR from "swr";
-import type { Roadmap } from "@/db/queries/roadmaps";
+import type { Roadmap, RoadmapRevision } from "@/db/queries/roadmaps";
 import type { Scenario } from "@/db/queries/scenarios";
 import type { Role } from "@/lib/access";
 import { MAX_ROADMAP_STEPS, type ModelLevel, type RoadmapStep, type Technology, type WireClass } from "@/lib/scaling/client";
@@ -28,11 +28,17 @@ import { Button } from "@/components/ui/button";
 import { Badge, Card, Notice } from "@/components/ui/card";
 import { inputClass } from "@/components/ui/field";
 import { ConfirmDelete } from "@/components/ui/confirm-delete";
+import type { RevisionHistory as HistoryList } from "./revision-history";
 import { EngineWorker, Superseded } from "./engine-client";
 import { RoadmapStepFields } from "./roadmap-step-fields";
 import { LEVEL_LABEL } from "./settings-panel";
 import { useWidth } from "./use-width";
 import { ItemTrail } from "./item-trail";
+
+const RevisionHistory = dynamic(() => import("./revision-history").then((m) => m.RevisionHistory), {
+  ssr: false,
+  loading: () => <p className="text-xs text-muted">Loading history…</p>,
+}) as unknown as typeof HistoryList; // dynamic drops the type parameter
 
 const RoadmapChart = dynamic(() => import("@/components/charts/roadmap-chart").then((m) => m.RoadmapChart), {
   ssr: false,
@@ -483,6 +489,21 @@ export function RoadmapEditor(props: {
               ))
             : null}
         </div>
+      </Card>
+      <Card title="History">
+        <RevisionHistory<RoadmapRevision>
+          url={swrKeys.roadmapRevisions(roadmap.id, roadmap.version)}
+          currentVersion={roadmap.version}
+          canRestore={!readOnly}
+          busy={busy}
+          restoreLabel="Load into editor"
+          onRestore={(r) => {
+            if (dirty && !window.confirm("Discard your unsaved changes and load this version into the editor?")) return;
+            setDraft({ name: r.name, steps: r.steps });
+            setOpen(0);
+            setMessage({ tone: "warn", text: `Loaded version ${r.version} into the editor. Save to make it the current version (${roadmap.version + 1}).` });
+          }}
+        />
       </Card>
       <Caution />
     </div>

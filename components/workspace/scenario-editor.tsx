@@ -9,6 +9,7 @@ import type { Scenario, ScenarioRevision, ScenarioSummary } from "@/db/queries/s
 import { DEFAULT_TEMPERATURE_C, type Evaluation, type ScenarioSettings, type WireClass } from "@/lib/scaling/client";
 import { apiSend, errorMessage, fetchJson, staleVersionOf, ApiRequestError } from "@/lib/api-client";
 import { swrKeys } from "@/lib/swr-keys";
+import type { RevisionHistory as HistoryList } from "./revision-history";
 import { Caution } from "@/components/caution";
 import { Button } from "@/components/ui/button";
 import { Badge, Card, Notice } from "@/components/ui/card";
@@ -48,12 +49,13 @@ const ClassOverrides = dynamic(() => import("./class-overrides").then((m) => m.C
   ssr: false,
   loading: () => <p className="text-xs text-muted">Loading the overrides…</p>,
 });
+// memo and dynamic drop the component's type parameter: restored here
 const RevisionHistory = memo(
   dynamic(() => import("./revision-history").then((m) => m.RevisionHistory), {
     ssr: false,
     loading: () => <p className="text-xs text-muted">Loading history…</p>,
   }),
-);
+) as unknown as typeof HistoryList;
 
 type Draft = { name: string; notes: string; settings: ScenarioSettings };
 
@@ -444,7 +446,13 @@ export function ScenarioEditor(props: {
             {deferredEval ? <Distributions e={deferredEval} budgetS={baseline.technology.delayBudgetS} /> : null}
             <Card title="Field check">{fieldResults ? <FieldCheck results={fieldResults} /> : null}</Card>
             <Card title="History">
-              <RevisionHistory scenarioId={scenario.id} currentVersion={scenario.version} canRestore={!readOnly} onRestore={restore} busy={busy} />
+              <RevisionHistory
+                url={swrKeys.scenarioRevisions(scenario.id, scenario.version)}
+                currentVersion={scenario.version}
+                canRestore={!readOnly}
+                onRestore={restore}
+                busy={busy}
+              />
             </Card>
           </div>
         </div>

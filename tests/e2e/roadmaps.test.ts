@@ -171,6 +171,14 @@ describe("a three-step roadmap from the demo baseline", () => {
     await page.getByRole("button", { name: "Add", exact: true }).click();
     await page.getByText(/a roadmap step's are relative to the step before it \(N3\)/).waitFor();
     expect(await page.getByTestId("from-scenario-note").innerText()).toBe("started from a scenario: its settings apply relative to N3, not to the baseline");
+
+    // the history lists both saved versions; loading version 1 (one step, N1) replaces the unsaved draft after a confirm
+    const history = page.getByTestId("history");
+    await history.getByText("v2").waitFor();
+    page.once("dialog", (d) => void d.accept());
+    await history.getByRole("button", { name: "Load into editor" }).click();
+    await page.getByText("Loaded version 1 into the editor. Save to make it the current version (3).").waitFor();
+    expect(await page.getByText("1 of 8 steps").count()).toBe(1);
     expect(problems).toEqual([]);
   });
 });
