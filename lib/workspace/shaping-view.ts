@@ -37,8 +37,7 @@ export function checkShapingLimits(l: ShapingLimits): Partial<Record<keyof Shapi
   if (!num(l.minSpaceNm) || l.minSpaceNm < 0) out.minSpaceNm = "Minimum space must be a number of nm, 0 or more.";
   if (!num(l.minFraction) || !(l.minFraction > 0 && l.minFraction < 1)) out.minFraction = "Smallest line fraction must be between 0 and 1 (e.g. 0.3).";
   if (!num(l.maxFraction) || !(l.maxFraction > 0 && l.maxFraction < 1)) out.maxFraction = "Largest line fraction must be between 0 and 1 (e.g. 0.7).";
-  else if (out.minFraction === undefined && !(l.maxFraction > l.minFraction))
-    out.maxFraction = "Largest line fraction must be above the smallest.";
+  else if (out.minFraction === undefined && !(l.maxFraction > l.minFraction)) out.maxFraction = "Largest line fraction must be above the smallest.";
   if (!num(l.maxAspect) || !(l.maxAspect > 1 && l.maxAspect <= MAX_SHAPING_ASPECT))
     out.maxAspect = `Largest aspect ratio must be above 1 and at most ${MAX_SHAPING_ASPECT} (the search starts at 1).`;
   return out;

@@ -3,14 +3,7 @@ import { describe, expect, it } from "vitest";
 import { DEFAULT_TECHNOLOGY, DESIGN_OBJECTIVES, evaluateClass, objectiveOf, optimizeClass, type ScenarioSettings } from "@/lib/scaling";
 import { parseWireClassCsv } from "@/lib/import/wire-classes";
 import { shapeClass } from "@/lib/workspace/shaping";
-import {
-  applyShaping,
-  checkShapingLimits,
-  DEFAULT_SHAPING_LIMITS,
-  explainShapingError,
-  percentChange,
-  SHAPING_OBJECTIVES,
-} from "@/lib/workspace/shaping-view";
+import { applyShaping, checkShapingLimits, DEFAULT_SHAPING_LIMITS, explainShapingError, percentChange, SHAPING_OBJECTIVES } from "@/lib/workspace/shaping-view";
 
 const classes = parseWireClassCsv(fs.readFileSync("scaling/examples/skua-baseline.csv", "utf8")).classes;
 const scenarios = JSON.parse(fs.readFileSync("scaling/examples/skua-scenarios.json", "utf8")) as { id: string; settings: ScenarioSettings }[];
@@ -38,7 +31,11 @@ describe("shapeClass (the shaping screen's one computation)", () => {
   it("keeps the class's other override entries and the pitch; the heat map is 40 × 40 with the optimum near its best point", () => {
     // method: the optimiser must be within 0.5% of (and not above) the grid's best (issue 15) — common practice, no source
     const r = shapeClass({ classes, technology: tech, settings: airgap, className: "intermediate", objective: "delay", limits: DEFAULT_SHAPING_LIMITS });
-    expect(r.appliedSettings.overrides.intermediate).toEqual({ airGap: { kGap: 1, gapFraction: 1 }, lineFraction: r.optimum.lineFraction, aspectRatio: r.optimum.aspectRatio });
+    expect(r.appliedSettings.overrides.intermediate).toEqual({
+      airGap: { kGap: 1, gapFraction: 1 },
+      lineFraction: r.optimum.lineFraction,
+      aspectRatio: r.optimum.aspectRatio,
+    });
     expect(r.optimum.pitchM).toBeCloseTo(r.current.pitchM, 20);
     expect(r.grid!.values).toHaveLength(40);
     expect(r.grid!.values[0]).toHaveLength(40);
@@ -56,14 +53,24 @@ describe("shapeClass (the shaping screen's one computation)", () => {
   it("limits that leave no geometry throw the engine's RangeError, which explainShapingError words", () => {
     let message = "";
     try {
-      shapeClass({ classes, technology: tech, settings: airgap, className: "local", objective: "delay", limits: { ...DEFAULT_SHAPING_LIMITS, minWidthNm: 20, minSpaceNm: 20 }, gridSize: 0 });
+      shapeClass({
+        classes,
+        technology: tech,
+        settings: airgap,
+        className: "local",
+        objective: "delay",
+        limits: { ...DEFAULT_SHAPING_LIMITS, minWidthNm: 20, minSpaceNm: 20 },
+        gridSize: 0,
+      });
     } catch (e) {
       expect(e).toBeInstanceOf(RangeError);
       message = (e as Error).message;
     }
     expect(explainShapingError(message)).toMatch(/^No feasible geometry/);
     expect(explainShapingError("something else")).toBeNull();
-    expect(() => shapeClass({ classes, technology: tech, settings: airgap, className: "nope", objective: "delay", limits: DEFAULT_SHAPING_LIMITS })).toThrow(/className/);
+    expect(() => shapeClass({ classes, technology: tech, settings: airgap, className: "nope", objective: "delay", limits: DEFAULT_SHAPING_LIMITS })).toThrow(
+      /className/,
+    );
   });
 });
 
