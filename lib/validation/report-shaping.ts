@@ -32,13 +32,9 @@ export const frozenShapingClassSchema = z.object({
   error: z.string().optional(),
   current: drawing.optional(),
   optimum: drawing.optional(),
-  parts: z
-    .object({ driverWireS: num, driverLoadS: num, wireWireS: num, wireLoadS: num, repeatersS: num, totalS: num })
-    .optional(),
+  parts: z.object({ driverWireS: num, driverLoadS: num, wireWireS: num, wireLoadS: num, repeatersS: num, totalS: num }).optional(),
   /** The five inputs with the most impact on the net's delay, ±step, as changes in s against nominalS. */
-  tornado: z
-    .object({ nominalS: num, step: num, top: z.array(z.object({ input: z.string(), deltaLowS: num, deltaHighS: num })).max(5) })
-    .optional(),
+  tornado: z.object({ nominalS: num, step: num, top: z.array(z.object({ input: z.string(), deltaLowS: num, deltaHighS: num })).max(5) }).optional(),
 });
 
 export const frozenShapingSchema = z.object({
