@@ -15,7 +15,7 @@ export function ShapingChoice({ value, onChange }: { value: DesignObjective | nu
           onChange={(e) => onChange(e.target.checked ? "delay" : null)}
           className="accent-copper"
         />
-        Include the best line fraction and aspect ratio per class, and what drives delay (first four classes)
+        Include the best line fraction and aspect ratio per class, and what drives delay (first 12 classes)
       </label>
       {value !== null ? (
         <label className="inline-flex items-center gap-2 text-sm text-ink">

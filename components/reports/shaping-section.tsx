@@ -32,7 +32,7 @@ export function ShapingSection({ shaping, optionNames }: { shaping: NonNullable<
         the lowest {obj.short.toLowerCase()} ({obj.unit}) for the class&apos;s net, with its driver, load and repeaters, against the drawing the option has.
         &quot;Moves delay most&quot;: the change in the net&apos;s delay for each input −/+
         {Math.round((shaping.options[0]?.classes[0]?.tornado?.step ?? 0.1) * 100)}%.
-        {shaping.omittedClasses.length > 0 ? ` Not shaped (at most four classes): ${shaping.omittedClasses.join(", ")}.` : ""}
+        {shaping.omittedClasses.length > 0 ? ` Not shaped (at most 12 classes): ${shaping.omittedClasses.join(", ")}.` : ""}
       </p>
       {shaping.options.map((o) => (
         <div key={o.key} className="report-card overflow-x-auto">

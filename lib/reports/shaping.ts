@@ -9,8 +9,8 @@ import { shapeClass } from "@/lib/workspace/shaping";
 import { DEFAULT_SHAPING_LIMITS, explainShapingError } from "@/lib/workspace/shaping-view";
 import type { FrozenShaping, FrozenShapingClass } from "@/lib/validation/report-shaping";
 
-/** Classes shaped per report (each costs one optimiser run per option, ≈ 0.2–0.4 s on the server). */
-export const MAX_SHAPING_CLASSES = 4;
+/** Classes shaped per report (each costs one optimiser run per option, ≈ 20–40 ms on the server: `npm run bench`). */
+export const MAX_SHAPING_CLASSES = 12;
 
 export function freezeShaping(p: {
   classes: WireClass[];

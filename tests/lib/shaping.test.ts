@@ -96,3 +96,42 @@ describe("shaping-view helpers", () => {
     expect(percentChange(0, 1)).toBeNaN();
   });
 });
+
+describe("freezeReport with the Layer shaping section", () => {
+  it("freezes per option and chosen class the optimum, parts and top-5 tornado, through the same computation as the screen", async () => {
+    // method: the frozen figures against shapeClass called directly (same inputs) — common practice, no source
+    const { freezeReport } = await import("@/lib/reports/freeze");
+    const opts = scenarios.slice(0, 2).map((s, i) => ({ id: s.id, name: s.id, notes: "", version: 1 + i, settings: s.settings }));
+    const frozen = freezeReport({
+      baseline: { id: "b", name: "demo", description: "", version: 1, technology: tech, classes },
+      scenarios: opts,
+      classNames: ["intermediate", "local"],
+      shaping: { objective: "edp" },
+    });
+    const sh = frozen.shaping!;
+    expect(sh.objective).toBe("edp");
+    expect(sh.omittedClasses).toEqual([]);
+    expect(sh.options.map((o) => o.classes.map((c) => c.className))).toEqual([
+      ["local", "intermediate"],
+      ["local", "intermediate"],
+    ]);
+    const direct = shapeClass({
+      classes,
+      technology: tech,
+      settings: opts[1]!.settings,
+      className: "intermediate",
+      objective: "edp",
+      limits: DEFAULT_SHAPING_LIMITS,
+      gridSize: 0,
+    });
+    const f = sh.options[1]!.classes[1]!;
+    expect(f.optimum!.objectiveValue).toBe(direct.optimum.objectiveValue);
+    expect(f.current!.lineFraction).toBe(direct.current.lineFraction);
+    expect(f.tornado!.top.map((t) => t.input)).toEqual(direct.tornado.bars.slice(0, 5).map((b) => b.input));
+    expect(f.parts!.totalS).toBe(direct.parts.totalS);
+    // without the choice there is no section
+    expect(
+      freezeReport({ baseline: { id: "b", name: "demo", description: "", version: 1, technology: tech, classes }, scenarios: opts }).shaping,
+    ).toBeUndefined();
+  });
+});

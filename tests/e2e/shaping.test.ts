@@ -1,0 +1,107 @@
+import fs from "node:fs";
+import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import type { Browser, Page } from "playwright-core";
+import { launchBrowser, signedInContext } from "../helpers/browser";
+import { openDatabase } from "@/db/connect";
+import { seedDemoWorkspace } from "@/lib/demo/seed-workspace";
+import { type Client, userWithTeam } from "../helpers/http";
+
+// Issue 15 items 2 and 3 in the browser: the demo scenario's "Layer shaping" page — pick a class, the heat map with
+// its optimum, Cancel ends the worker's computation and the next request works, "Apply to scenario" saves the
+// override and the editor shows it.
+
+const SHOTS = process.env.PLATEAU_SHOTS_DIR ?? "/tmp/shots/shape";
+let browser: Browser;
+let baseUrl: string;
+let owner: { client: Client; teamId: string; userId: string };
+let scenarioIds: string[];
+
+beforeAll(async () => {
+  baseUrl = inject("baseUrl");
+  fs.mkdirSync(SHOTS, { recursive: true });
+  owner = await userWithTeam("Shaping (e2e)");
+  const knex = openDatabase(inject("dbPath"));
+  try {
+    ({ scenarioIds } = await seedDemoWorkspace(knex, { teamId: owner.teamId, ownerId: owner.userId, editorId: owner.userId }));
+  } finally {
+    await knex.destroy();
+  }
+  browser = await launchBrowser();
+});
+
+afterAll(async () => {
+  await browser?.close();
+});
+
+async function pageAt(width: number): Promise<{ page: Page; problems: string[] }> {
+  const ctx = await signedInContext(browser, owner.client, baseUrl, { width, height: 900 });
+  const page = await ctx.newPage();
+  const problems: string[] = [];
+  page.on("pageerror", (e) => problems.push(`page error: ${String(e)}`));
+  page.on("console", (m) => {
+    if (m.type() === "error") problems.push(`console error on ${page.url()}: ${m.text()}`);
+  });
+  return { page, problems };
+}
+
+describe("Layer shaping", () => {
+  it("opens from the editor, shows the heat map with its optimum, cancels cleanly, and applies the optimum to the scenario", async () => {
+    const { page, problems } = await pageAt(1440);
+    const id = scenarioIds[0]!;
+    await page.goto(`${baseUrl}/teams/${owner.teamId}/scenarios/${id}`);
+    await page.getByTestId("shaping-link").click();
+    await page.waitForURL(/\/shaping$/);
+    await page.getByRole("heading", { name: "Layer shaping" }).waitFor();
+
+    // pick a class: the heat map and its optimum mark appear (computed in the worker)
+    await page.getByLabel("Class").selectOption("intermediate");
+    await page.getByTestId("optimum-mark").waitFor({ timeout: 30_000 });
+    await expect.poll(() => page.getByTestId("shaping-summary").innerText()).toContain("At pitch");
+    expect(await page.getByTestId("heat-map").locator("rect").count()).toBeGreaterThanOrEqual(1600);
+    expect(await page.getByTestId("tornado-row").count()).toBeGreaterThan(5);
+    await page.getByTestId("pareto-chart").waitFor();
+
+    // cancel: a new objective starts a computation; Cancel ends it, nothing of it lands; the next request works
+    await page.getByLabel("Objective").selectOption("energy");
+    await page.getByTestId("shaping-cancel").click({ timeout: 10_000 });
+    await page.getByTestId("shaping-cancelled").waitFor();
+    expect(await page.getByTestId("shaping-progress").count()).toBe(0);
+    await page.waitForTimeout(1500); // a cancelled computation must not come back later
+    await expect.poll(() => page.getByTestId("shaping-cancelled").count()).toBe(1);
+    await page.getByTestId("shaping-compute").click();
+    await page.getByTestId("shaping-cancel").waitFor({ state: "detached", timeout: 30_000 });
+    await expect.poll(() => page.getByTestId("shaping-summary").innerText()).toContain("Energy (fJ) — objective");
+
+    // bad limits: a message naming the field, no computation
+    await page.getByLabel("Line fraction from").fill("0.9");
+    await expect.poll(() => page.locator("#f-shaping-maxFraction-error").innerText()).toContain("Largest line fraction must be above the smallest.");
+    await page.getByLabel("Line fraction from").fill("0.3");
+    // limits that leave no geometry: the engine's refusal in words
+    await page.getByLabel("Minimum width (nm)").fill("40");
+    await page.getByLabel("Minimum space (nm)").fill("40");
+    await expect.poll(() => page.getByTestId("shaping-error").innerText(), { timeout: 30_000 }).toMatch(/^No feasible geometry/);
+    await page.getByLabel("Minimum width (nm)").fill("0");
+    await page.getByLabel("Minimum space (nm)").fill("0");
+    await page.getByLabel("Objective").selectOption("delay");
+    await page.getByTestId("optimum-mark").waitFor({ timeout: 30_000 });
+    await expect.poll(() => page.getByTestId("shaping-summary").innerText()).toContain("50% delay (ps) — objective");
+
+    for (const w of [1440, 1024, 390]) {
+      await page.setViewportSize({ width: w, height: 900 });
+      await page.waitForTimeout(300);
+      await page.screenshot({ path: `${SHOTS}/shaping-${w}.png`, fullPage: true });
+    }
+    await page.setViewportSize({ width: 1440, height: 900 });
+
+    // apply: the scenario's override gains lineFraction and aspectRatio; the link goes back to the editor, which shows it
+    await page.getByTestId("shaping-apply").click();
+    await page.getByTestId("shaping-applied").waitFor();
+    const stored = (await owner.client.get(`/api/scenarios/${id}`)).json.scenario;
+    expect(stored.version).toBe(2);
+    expect(Object.keys(stored.settings.overrides.intermediate).sort()).toEqual(["aspectRatio", "lineFraction"]);
+    await page.getByTestId("shaping-applied").getByRole("link", { name: "Back to the scenario" }).click();
+    await page.waitForURL(new RegExp(`/scenarios/${id}$`));
+    await expect.poll(() => page.getByTestId("overrides").locator("summary").innerText()).toContain("1 class with overrides: intermediate");
+    expect(problems).toEqual([]);
+  });
+});
