@@ -187,21 +187,15 @@ export function ShapingScreen(props: {
       </header>
 
       <Card title="Class, objective and limits">
-        <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-7">
-          <SelectField label="Class" name="shaping-class" value={className} onChange={(e) => setClassName(e.target.value)} className="lg:col-span-1">
+        <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4 xl:grid-cols-7">
+          <SelectField label="Class" name="shaping-class" value={className} onChange={(e) => setClassName(e.target.value)}>
             {classes.map((c) => (
               <option key={c.name} value={c.name}>
                 {c.name}
               </option>
             ))}
           </SelectField>
-          <SelectField
-            label="Objective"
-            name="shaping-objective"
-            value={objective}
-            onChange={(e) => setObjective(e.target.value as DesignObjective)}
-            className="lg:col-span-1"
-          >
+          <SelectField label="Objective" name="shaping-objective" value={objective} onChange={(e) => setObjective(e.target.value as DesignObjective)}>
             {SHAPING_OBJECTIVES.map((o) => (
               <option key={o} value={o}>
                 {OBJECTIVE_LABEL[o].short} ({OBJECTIVE_LABEL[o].unit})
@@ -275,7 +269,7 @@ export function ShapingScreen(props: {
 
       {result ? (
         <>
-          <div className="grid gap-4 xl:grid-cols-2">
+          <div className="grid gap-4 xl:grid-cols-2 [&>*]:min-w-0">
             <Card title={`${obj.short} over the drawing — ${result.className}`}>
               {result.grid ? (
                 <HeatMap grid={result.grid} optimum={result.optimum} current={result.current} unit={obj.unit} unitSI={obj.unitSI} label={obj.short} />
@@ -328,7 +322,7 @@ export function ShapingScreen(props: {
             {applyError ? <Notice tone="bad">{applyError}</Notice> : null}
             <Summary result={result} />
           </Card>
-          <div className="grid gap-4 xl:grid-cols-2">
+          <div className="grid gap-4 xl:grid-cols-2 [&>*]:min-w-0">
             <Card title={`What drives delay — ${result.className}, current drawing`}>
               <DelayPartsBar parts={result.parts} />
               <p className="mt-2 text-xs text-muted">
@@ -348,8 +342,12 @@ export function ShapingScreen(props: {
 }
 
 function ParetoBox({ result }: { result: ShapingResult }) {
-  const [ref, width] = useWidth<HTMLDivElement>(480);
-  return <div ref={ref}>{result.grid ? <ParetoChart front={result.grid.pareto} optimum={result.optimum} current={result.current} width={width} /> : null}</div>;
+  const [ref, width] = useWidth<HTMLDivElement>(320);
+  return (
+    <div ref={ref} className="w-full min-w-0">
+      {result.grid ? <ParetoChart front={result.grid.pareto} optimum={result.optimum} current={result.current} width={width} /> : null}
+    </div>
+  );
 }
 
 function Flags({ flags }: { flags: ValidityFlag[] }) {
@@ -383,7 +381,7 @@ export function Summary({ result }: { result: ShapingResult }) {
   ];
   return (
     <div className="overflow-x-auto">
-      <table className="w-full min-w-[28rem] text-sm" data-testid="shaping-summary">
+      <table className="w-full min-w-[19rem] text-xs sm:text-sm" data-testid="shaping-summary">
         <thead>
           <tr className="border-b border-rule text-left text-xs text-muted">
             <th className="py-1 font-medium">At pitch {nm(c.pitchM)} nm</th>

@@ -104,4 +104,27 @@ describe("Layer shaping", () => {
     await expect.poll(() => page.getByTestId("overrides").locator("summary").innerText()).toContain("1 class with overrides: intermediate");
     expect(problems).toEqual([]);
   });
+
+  it("a report with the Layer shaping section shows one table per option (screenshots at 1440 and 390 px)", async () => {
+    const baselineId = (await owner.client.get(`/api/scenarios/${scenarioIds[0]}`)).json.scenario.baselineId;
+    const r = await owner.client.post(`/api/teams/${owner.teamId}/reports`, {
+      baselineId,
+      scenarioIds: scenarioIds.slice(0, 2),
+      title: "Shaping in a report",
+      shaping: { objective: "delay" },
+    });
+    expect(r.status, r.text).toBe(201);
+    const { page, problems } = await pageAt(1440);
+    await page.goto(`${baseUrl}/teams/${owner.teamId}/reports/${r.json.report.id}`);
+    const section = page.getByTestId("report-shaping");
+    await section.waitFor();
+    expect(await section.locator("table").count()).toBe(2);
+    expect(await section.locator("tbody tr").count()).toBe(8); // 2 options × 4 demo classes
+    for (const w of [1440, 390]) {
+      await page.setViewportSize({ width: w, height: 900 });
+      await section.scrollIntoViewIfNeeded();
+      await section.screenshot({ path: `${SHOTS}/report-shaping-${w}.png` });
+    }
+    expect(problems).toEqual([]);
+  });
 });
