@@ -14,7 +14,9 @@ function mainPart(c: FrozenShapingClass): string {
   if (!c.parts || c.parts.totalS <= 0) return "—";
   const keys = (Object.keys(DELAY_PART_LABEL) as DelayPartKey[]).filter((k) => k !== "repeatersS");
   const k = keys.reduce((a, b) => (c.parts![b] > c.parts![a] ? b : a));
-  return `${DELAY_PART_LABEL[k]} ${Math.round((c.parts[k] / c.parts.totalS) * 100)}%`;
+  // share of the delay without repeaters (the four Elmore parts add up to it; repeaters may take some back)
+  const unrepeated = keys.reduce((sum, key) => sum + c.parts![key], 0);
+  return `${DELAY_PART_LABEL[k]} ${Math.round((c.parts[k] / unrepeated) * 100)}%`;
 }
 
 /**
@@ -50,7 +52,7 @@ export function ShapingSection({ shaping, optionNames }: { shaping: NonNullable<
                   {obj.short} now → best ({obj.unit})
                 </th>
                 <th className="py-1 pr-2 text-right font-medium">Change</th>
-                <th className="py-1 pr-2 font-medium">Largest delay part</th>
+                <th className="py-1 pr-2 font-medium">Largest delay part (share without repeaters)</th>
                 <th className="py-1 font-medium">Moves delay most (−/+)</th>
               </tr>
             </thead>
@@ -71,19 +73,21 @@ export function ShapingSection({ shaping, optionNames }: { shaping: NonNullable<
                         <span className="block font-normal text-warn">{c.optimum.flags.length} validity flag(s) at the best drawing</span>
                       ) : null}
                     </td>
-                    <td className="py-1 pr-2 text-right tabular-nums">
+                    <td className="whitespace-nowrap py-1 pr-2 text-right tabular-nums">
                       {c.current.lineFraction.toFixed(2)} → {c.optimum.lineFraction.toFixed(3)}
                     </td>
-                    <td className="py-1 pr-2 text-right tabular-nums">
+                    <td className="whitespace-nowrap py-1 pr-2 text-right tabular-nums">
                       {c.current.aspectRatio.toFixed(2)} → {c.optimum.aspectRatio.toFixed(2)}
                     </td>
-                    <td className="py-1 pr-2 text-right tabular-nums">
+                    <td className="whitespace-nowrap py-1 pr-2 text-right tabular-nums">
                       {nm(c.optimum.widthM)} / {nm(c.optimum.spacingM)} / {nm(c.optimum.thicknessM)}
                     </td>
-                    <td className="py-1 pr-2 text-right tabular-nums">
+                    <td className="whitespace-nowrap py-1 pr-2 text-right tabular-nums">
                       {Number((c.current.objectiveValue / obj.unitSI).toPrecision(3))} → {Number((c.optimum.objectiveValue / obj.unitSI).toPrecision(3))}
                     </td>
-                    <td className="py-1 pr-2 text-right tabular-nums">{signed(percentChange(c.current.objectiveValue, c.optimum.objectiveValue), 3)}</td>
+                    <td className="whitespace-nowrap py-1 pr-2 text-right tabular-nums">
+                      {signed(percentChange(c.current.objectiveValue, c.optimum.objectiveValue), 3)}
+                    </td>
                     <td className="py-1 pr-2">{mainPart(c)}</td>
                     <td className="py-1">
                       {c.tornado && c.tornado.nominalS > 0
