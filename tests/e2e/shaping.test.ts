@@ -123,6 +123,8 @@ describe("Layer shaping", () => {
     await page.getByTestId("shaping-applied").getByRole("link", { name: "Back to the scenario" }).click();
     await page.waitForURL(new RegExp(`/scenarios/${id}$`));
     await expect.poll(() => page.getByTestId("overrides").locator("summary").innerText()).toContain("1 class with overrides: intermediate");
+    const lf = stored.settings.overrides.intermediate.lineFraction as number;
+    await expect.poll(() => page.getByTestId("line-fraction-overrides").innerText()).toContain(`intermediate ${Number(lf.toPrecision(6))}`);
     expect(problems).toEqual([]);
   });
 
