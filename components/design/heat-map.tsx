@@ -54,7 +54,7 @@ export function HeatMap({
   const log = lo > 0 && hi / lo > 3;
   const t = (v: number) => (hi === lo ? 0 : log ? Math.log(v / lo) / Math.log(hi / lo) : (v - lo) / (hi - lo));
   // drawing box (SVG user units; the SVG scales to its container)
-  const L = 46;
+  const L = 52;
   const T = 8;
   const W = 400;
   const H = 300;
@@ -77,7 +77,7 @@ export function HeatMap({
   return (
     <figure className="m-0" data-testid="heat-map">
       <svg
-        viewBox={`0 0 ${L + W + 8} ${T + H + 40}`}
+        viewBox={`0 0 ${L + W + 8} ${T + H + 44}`}
         className="h-auto w-full max-w-[560px] touch-none select-none"
         role="img"
         aria-label={`${label} over line fraction and aspect ratio; lowest at line fraction ${optimum.lineFraction.toFixed(3)}, aspect ratio ${optimum.aspectRatio.toFixed(2)}`}
@@ -85,7 +85,7 @@ export function HeatMap({
         onMouseMove={(e) => {
           const box = e.currentTarget.getBoundingClientRect();
           const sx = ((e.clientX - box.left) / box.width) * (L + W + 8);
-          const sy = ((e.clientY - box.top) / box.height) * (T + H + 40);
+          const sy = ((e.clientY - box.top) / box.height) * (T + H + 44);
           const i = Math.floor((sx - L) / cw);
           const j = m - 1 - Math.floor((sy - T) / ch);
           setHover(i >= 0 && i < n && j >= 0 && j < m ? { i, j } : null);
@@ -108,23 +108,23 @@ export function HeatMap({
         {ticks(x0, x1).map((x) => (
           <g key={`x${x}`}>
             <line x1={px(x)} x2={px(x)} y1={T + H} y2={T + H + 4} stroke="#c4c0b6" />
-            <text x={px(x)} y={T + H + 15} textAnchor="middle" fontSize={10} fill="#5f6368">
+            <text x={px(x)} y={T + H + 17} textAnchor="middle" fontSize={12} fill="#5f6368">
               {x.toFixed(2)}
             </text>
           </g>
         ))}
-        <text x={L + W / 2} y={T + H + 32} textAnchor="middle" fontSize={11} fill="#1d1f22">
+        <text x={L + W / 2} y={T + H + 36} textAnchor="middle" fontSize={13} fill="#1d1f22">
           Line fraction W/pitch
         </text>
         {ticks(a0, a1).map((a) => (
           <g key={`a${a}`}>
             <line x1={L - 4} x2={L} y1={py(a)} y2={py(a)} stroke="#c4c0b6" />
-            <text x={L - 6} y={py(a) + 3} textAnchor="end" fontSize={10} fill="#5f6368">
+            <text x={L - 6} y={py(a) + 3} textAnchor="end" fontSize={12} fill="#5f6368">
               {a.toFixed(2)}
             </text>
           </g>
         ))}
-        <text transform={`translate(12 ${T + H / 2}) rotate(-90)`} textAnchor="middle" fontSize={11} fill="#1d1f22">
+        <text transform={`translate(14 ${T + H / 2}) rotate(-90)`} textAnchor="middle" fontSize={13} fill="#1d1f22">
           Aspect ratio T/W
         </text>
         {curIn ? (
