@@ -133,7 +133,7 @@ export function HeatMap({
             <text
               x={px(current.lineFraction) + 8}
               y={py(current.aspectRatio) + 14}
-              fontSize={10}
+              fontSize={12}
               fontWeight={600}
               fill="#47627e"
               stroke="#fff"
@@ -151,7 +151,7 @@ export function HeatMap({
             <text
               x={px(optimum.lineFraction) + 9}
               y={py(optimum.aspectRatio) - 6}
-              fontSize={10}
+              fontSize={12}
               fontWeight={600}
               fill="#1d1f22"
               stroke="#fff"
