@@ -70,7 +70,9 @@ export function ShapingSection({ shaping, optionNames }: { shaping: NonNullable<
                     <td className="py-1 pr-2 font-medium">
                       {c.className}
                       {c.optimum.flags.length > 0 ? (
-                        <span className="block font-normal text-warn">{c.optimum.flags.length} validity flag(s) at the best drawing</span>
+                        <span className="block font-normal text-warn" title={c.optimum.flags.join(" ")}>
+                          {c.optimum.flags.length} validity flag(s) at the best drawing
+                        </span>
                       ) : null}
                     </td>
                     <td className="whitespace-nowrap py-1 pr-2 text-right tabular-nums">
