@@ -6,6 +6,8 @@ import { Notice } from "@/components/ui/card";
 import { FieldErrors, SelectField, TextField, inputClass } from "@/components/ui/field";
 import type { ComposeChoices } from "@/db/queries/reports";
 import { ApiRequestError, apiSend, errorMessage } from "@/lib/api-client";
+import type { DesignObjective } from "@/lib/scaling";
+import { ShapingChoice } from "./shaping-choice";
 import { DEFAULT_REPORT_METRICS, REPORT_METRICS, type ReportMetric } from "@/lib/validation/report";
 
 const METRIC_LABELS: Record<ReportMetric, string> = {
@@ -28,6 +30,7 @@ export function ComposeForm({ teamId, baselines }: { teamId: string; baselines: 
   const [scenarioIds, setScenarioIds] = useState<string[]>(() => usable[0]?.scenarios.slice(0, 4).map((s) => s.id) ?? []);
   const [classNames, setClassNames] = useState<string[]>(() => usable[0]?.classes.map((c) => c.name) ?? []);
   const [metrics, setMetrics] = useState<ReportMetric[]>([...DEFAULT_REPORT_METRICS]);
+  const [shaping, setShaping] = useState<DesignObjective | null>(null);
   const [title, setTitle] = useState("");
   const [audienceNote, setAudienceNote] = useState("");
   const [errors, setErrors] = useState<Record<string, string[]>>({});
@@ -61,6 +64,7 @@ export function ComposeForm({ teamId, baselines }: { teamId: string; baselines: 
         audienceNote,
         classNames: baseline?.classes.map((c) => c.name).filter((n) => classNames.includes(n)),
         metrics: REPORT_METRICS.filter((m) => metrics.includes(m)),
+        ...(shaping ? { shaping: { objective: shaping } } : {}),
       });
       router.push(`/teams/${encodeURIComponent(teamId)}/reports/${encodeURIComponent(r.report.id)}`);
     } catch (err) {
@@ -172,6 +176,7 @@ export function ComposeForm({ teamId, baselines }: { teamId: string; baselines: 
           <FieldErrors id="f-metrics-error" errors={errors.metrics} />
         </fieldset>
       </div>
+      <ShapingChoice value={shaping} onChange={setShaping} />
       <div className="flex items-center gap-3">
         <Button type="submit" disabled={busy || nScen < 2 || nScen > 4 || classNames.length === 0 || metrics.length === 0}>
           {busy ? "Freezing…" : "Freeze report"}

@@ -11,6 +11,7 @@ import type { FrozenClassResult, ReportMetric } from "@/lib/validation/report";
 import { ClassRatioChart } from "./class-ratio-chart";
 import { SERIES_STYLE, SweepFigure } from "./sweep-figure";
 import { RoadmapSection } from "./roadmap-section";
+import { ShapingSection } from "./shaping-section";
 import "./report.css";
 
 const NM = 1e-9;
@@ -344,6 +345,12 @@ export function ReportBody({ report, summary, isDemo = false }: { report: Public
       {f.roadmaps && f.roadmaps.length > 0 ? (
         <Section id="roadmaps" title="Roadmaps: delay across the node steps" breakBefore>
           <RoadmapSection roadmaps={f.roadmaps} classNames={f.roadmaps[0]!.steps[0]!.evaluation.classes.map((c) => c.name)} />
+        </Section>
+      ) : null}
+
+      {f.shaping ? (
+        <Section id="shaping" title="Layer shaping: line fraction and aspect ratio at each option's pitch" breakBefore>
+          <ShapingSection shaping={f.shaping} optionNames={optionNames} />
         </Section>
       ) : null}
 

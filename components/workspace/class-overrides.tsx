@@ -231,6 +231,24 @@ export const ClassOverrides = memo(function ClassOverrides({
           })}
         </tbody>
       </table>
+      {/* the line fraction comes from the Layer shaping screen's "Apply to scenario" (shown here, cleared here) */}
+      {classes.some((c) => ownEntry(current, c.name)?.lineFraction !== undefined) ? (
+        <p className="mt-1 text-xs text-ink" data-testid="line-fraction-overrides">
+          Line fraction W/pitch, from Layer shaping:{" "}
+          {classes
+            .filter((c) => ownEntry(current, c.name)?.lineFraction !== undefined)
+            .map((c) => (
+              <span key={c.name} className="mr-3">
+                {c.name} {num(ownEntry(current, c.name)!.lineFraction!)}
+                {readOnly ? null : (
+                  <button type="button" className="ml-1 text-copper-dark underline" onClick={() => setO(c.name, { lineFraction: undefined })}>
+                    clear
+                  </button>
+                )}
+              </span>
+            ))}
+        </p>
+      ) : null}
       <p className="mt-1 text-[11px] text-muted">
         Empty cells follow the global settings.{pitch ? " A target pitch sets the class's S for this step (its previous pitch ÷ the target) instead of S." : ""}{" "}
         A length rule says how the class&apos;s wire lengths follow the shrink and wins over S_L. Barrier nm replaces the barrier thickness (0 = barrier-free

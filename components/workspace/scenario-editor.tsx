@@ -342,6 +342,9 @@ export function ScenarioEditor(props: {
         <a href="#settings" className="text-copper-dark hover:underline">
           Settings
         </a>
+        <a href={`/teams/${teamId}/scenarios/${scenario.id}/shaping`} className="font-medium text-copper-dark hover:underline" data-testid="shaping-link">
+          Layer shaping →
+        </a>
       </nav>
       {/* On a phone the results come first, then the settings (visual order; the links above jump to each part) */}
       <div className="grid gap-4 lg:grid-cols-[19rem_minmax(0,1fr)]">

@@ -22,6 +22,7 @@ import {
   type ReportMetric,
 } from "@/lib/validation/report";
 import { scopeToChosenClasses } from "./scope";
+import { freezeShaping } from "./shaping";
 
 /** Everything a report is computed from, as loaded from the team's baseline and scenarios. */
 export interface FreezeInput {
@@ -31,6 +32,8 @@ export interface FreezeInput {
   roadmaps?: { id: string; name: string; version: number; steps: RoadmapStep[] }[];
   classNames?: string[];
   metrics?: ReportMetric[];
+  /** The "Layer shaping" section (issue 15): frozen when given. */
+  shaping?: { objective: "delay" | "repeated" | "energy" | "edp" };
 }
 
 export const OPTION_KEYS = ["A", "B", "C", "D"] as const;
@@ -137,6 +140,7 @@ export function freezeReport(input: FreezeInput, now = Date.now()): FrozenReport
     sweeps: freezeSweeps(scoped, classNames.slice(0, MAX_SWEEP_CLASSES), evaluations),
     binsTrimmed,
     ...(roadmaps.length > 0 ? { roadmaps } : {}),
+    ...(input.shaping ? { shaping: freezeShaping({ classes, technology: baseline.technology, options, classNames, objective: input.shaping.objective }) } : {}),
   } satisfies FrozenReport;
   // Round-trip through JSON and the schema: what is stored is exactly what every later read will accept.
   return scopeToChosenClasses(frozenReportSchema.parse(JSON.parse(JSON.stringify(doc, finiteOrNull))));

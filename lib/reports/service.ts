@@ -74,7 +74,7 @@ export async function composeReport(
     scenarioIds: p.input.scenarioIds,
     roadmapIds: p.input.roadmapIds,
   });
-  const frozen = freeze({ ...loaded, classNames: p.input.classNames, metrics: p.input.metrics });
+  const frozen = freeze({ ...loaded, classNames: p.input.classNames, metrics: p.input.metrics, shaping: p.input.shaping });
   return storeReport(conn, {
     teamId: p.teamId,
     userId: p.userId,
@@ -108,6 +108,7 @@ export async function refreshReport(conn: Knex, report: StoredReport, userId: st
         classNames: report.frozen.classNames,
         metrics: report.frozen.metrics,
         ...(report.frozen.roadmaps ? { roadmapIds: report.frozen.roadmaps.map((r) => r.roadmapId).filter((x): x is string => Boolean(x)) } : {}),
+        ...(report.frozen.shaping ? { shaping: { objective: report.frozen.shaping.objective } } : {}),
       },
     });
   } catch (e) {

@@ -34,6 +34,7 @@ import type { RoadmapClassStep, RoadmapStepSettings } from "@/lib/scaling/client
 import { mirrorOf, type NullableFields, type OptionalFields, type Same } from "./mirror";
 import { cleanText } from "./text";
 import { classNameSchema } from "./wire-class";
+import { composeShapingSchema, frozenShapingSchema } from "./report-shaping";
 
 /** Metrics a report can put in its tables (the compose form's "which metrics matter"). */
 export const REPORT_METRICS = ["delay", "rc", "resistance", "capacitance", "repeaters", "energy", "power", "overBudget"] as const;
@@ -85,6 +86,8 @@ export const composeReportSchema = z
       .max(3, "Pick at most 3 roadmaps.")
       .refine((ids) => new Set(ids).size === ids.length, "Each roadmap can appear only once.")
       .optional(),
+    /** The "Layer shaping" section (issue 15): present = include it, for this objective. */
+    shaping: composeShapingSchema.optional(),
   })
   .strict();
 /** Roadmaps one report freezes at most (a chain and up to two alternative branches). */
@@ -568,6 +571,8 @@ export const frozenReportSchema = z.object({
   binsTrimmed: z.boolean(),
   /** Roadmaps frozen beside the options (issue 14); absent when the report names none (and in reports frozen before). */
   roadmaps: z.array(frozenRoadmapSchema).max(3).optional(),
+  /** The "Layer shaping" section (issue 15); absent when not asked for (and in reports frozen before). */
+  shaping: frozenShapingSchema.optional(),
 });
 export type FrozenReport = z.infer<typeof frozenReportSchema>;
 export type FrozenOption = z.infer<typeof frozenOptionSchema>;
